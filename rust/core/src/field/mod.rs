@@ -1,0 +1,85 @@
+//! Fields of coefficients.
+//!
+//! The [`Field`] trait is small on purpose: the algorithms only add, multiply, invert and
+//! compare elements. Prime fields, prime-power fields, multi-precision primes and the rationals
+//! plug in as further implementations without touching the algorithms.
+
+mod prime;
+pub mod primality;
+
+pub use prime::PrimeField;
+
+use std::fmt::Debug;
+use std::hash::Hash;
+
+/// A field whose elements are values of type `Elem`; the field value carries the parameters
+/// (modulus, tables) needed to compute with them.
+pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
+    type Elem: Clone + Debug + PartialEq + Eq + Hash + Send + Sync + 'static;
+
+    fn zero(&self) -> Self::Elem;
+    fn one(&self) -> Self::Elem;
+    fn is_zero(&self, a: &Self::Elem) -> bool;
+    fn is_one(&self, a: &Self::Elem) -> bool {
+        *a == self.one()
+    }
+    fn add(&self, a: &Self::Elem, b: &Self::Elem) -> Self::Elem;
+    fn sub(&self, a: &Self::Elem, b: &Self::Elem) -> Self::Elem;
+    fn neg(&self, a: &Self::Elem) -> Self::Elem;
+    fn mul(&self, a: &Self::Elem, b: &Self::Elem) -> Self::Elem;
+    /// The inverse, or `None` for zero.
+    fn inv(&self, a: &Self::Elem) -> Option<Self::Elem>;
+    /// The image of an integer.
+    fn from_i64(&self, v: i64) -> Self::Elem;
+    /// The image of an integer written in decimal (any length).
+    fn from_decimal(&self, digits: &str) -> Self::Elem {
+        let ten = self.from_i64(10);
+        digits.bytes().fold(self.zero(), |acc, d| {
+            self.add(&self.mul(&acc, &ten), &self.from_i64(i64::from(d - b'0')))
+        })
+    }
+    /// Characteristic, in decimal (it may not fit a machine word).
+    fn characteristic(&self) -> String;
+    /// Number of elements, in decimal; `None` for an infinite field.
+    fn order(&self) -> Option<String>;
+    /// Degree over the prime field.
+    fn degree(&self) -> u32 {
+        1
+    }
+    /// The spec string that reads this field back (`GF(7)`).
+    fn spec(&self) -> String;
+    /// Element as polynomial text: an integer, or an expression in the generator name.
+    fn format(&self, a: &Self::Elem) -> String;
+    /// Name of a field generator usable in polynomial text (`a` for GF(p^k)); none for GF(p).
+    fn generator_name(&self) -> Option<&str> {
+        None
+    }
+    /// The generator named by [`Field::generator_name`].
+    fn generator(&self) -> Option<Self::Elem> {
+        None
+    }
+    /// Elements of a finite field listed in a fixed order (for enumeration in tests and small
+    /// searches); `None` for infinite fields or fields too large to list.
+    fn small_elements(&self, limit: usize) -> Option<Vec<Self::Elem>>;
+    /// Field size as a float, for probability bounds (infinite: `f64::INFINITY`).
+    fn size_hint(&self) -> f64;
+
+    fn pow(&self, a: &Self::Elem, mut e: u64) -> Self::Elem {
+        let mut base = a.clone();
+        let mut acc = self.one();
+        while e > 0 {
+            if e & 1 == 1 {
+                acc = self.mul(&acc, &base);
+            }
+            base = self.mul(&base, &base);
+            e >>= 1;
+        }
+        acc
+    }
+    fn div(&self, a: &Self::Elem, b: &Self::Elem) -> Option<Self::Elem> {
+        self.inv(b).map(|bi| self.mul(a, &bi))
+    }
+}
+
+#[cfg(test)]
+mod tests;

@@ -1,0 +1,171 @@
+//! The prime field GF(p) for primes p < 2^63, elements stored as canonical residues in [0, p).
+//!
+//! Multiplication reduces the 128-bit product by Barrett's method (Barrett 1986) with a
+//! precomputed 128-bit reciprocal, avoiding a 128-bit division per product. Canonical storage
+//! keeps printing, hashing and the delayed-reduction accumulators of the linear algebra simple.
+
+use super::{primality, Field};
+use crate::error::{Error, Result};
+
+#[derive(Clone, Debug)]
+pub struct PrimeField {
+    p: u64,
+    /// floor(2^128 / p), split in 64-bit halves.
+    mu_hi: u64,
+    mu_lo: u64,
+}
+
+impl PartialEq for PrimeField {
+    fn eq(&self, other: &Self) -> bool {
+        self.p == other.p
+    }
+}
+
+impl PrimeField {
+    /// Largest supported modulus (exclusive): sums of two residues must fit in 64 bits.
+    pub const MAX_MODULUS: u64 = 1 << 63;
+
+    /// GF(p); `p` must be a prime below 2^63.
+    pub fn new(p: u64) -> Result<Self> {
+        if p >= Self::MAX_MODULUS {
+            return Err(Error::invalid(format!(
+                "GF({p}): word-size prime fields need p < 2^63"
+            )));
+        }
+        if !primality::is_prime(p) {
+            let why = match primality::small_factor(p, 1_000_000) {
+                Some(d) => format!(" (it is divisible by {d})"),
+                None if p < 2 => String::new(),
+                None => " (it has a factor above 10^6)".to_string(),
+            };
+            return Err(Error::invalid(format!("GF({p}): {p} is not a prime{why}")));
+        }
+        let mu = u128::MAX / p as u128 + u128::from(u128::MAX % p as u128 == p as u128 - 1);
+        Ok(PrimeField { p, mu_hi: (mu >> 64) as u64, mu_lo: mu as u64 })
+    }
+
+    #[inline]
+    pub fn modulus(&self) -> u64 {
+        self.p
+    }
+
+    /// x mod p for any x < 2^128 with x < p · 2^64 (in particular every product of residues).
+    #[inline]
+    pub fn reduce_u128(&self, x: u128) -> u64 {
+        let (x_hi, x_lo) = ((x >> 64) as u64, x as u64);
+        let lo_lo = (x_lo as u128 * self.mu_lo as u128) >> 64;
+        let hi_lo = x_hi as u128 * self.mu_lo as u128;
+        let lo_hi = x_lo as u128 * self.mu_hi as u128;
+        let mid = lo_lo + (hi_lo as u64 as u128) + (lo_hi as u64 as u128);
+        let q = x_hi as u128 * self.mu_hi as u128 + (hi_lo >> 64) + (lo_hi >> 64) + (mid >> 64);
+        // q underestimates floor(x / p) by at most 3, so r < 4p.
+        let mut r = x.wrapping_sub(q.wrapping_mul(self.p as u128));
+        while r >= self.p as u128 {
+            r -= self.p as u128;
+        }
+        r as u64
+    }
+
+    #[inline]
+    pub fn mul_u64(&self, a: u64, b: u64) -> u64 {
+        self.reduce_u128(a as u128 * b as u128)
+    }
+
+    /// Inverse by the extended Euclidean algorithm.
+    fn inverse(&self, a: u64) -> Option<u64> {
+        if a == 0 {
+            return None;
+        }
+        let (mut r0, mut r1) = (self.p as i128, a as i128);
+        let (mut t0, mut t1) = (0i128, 1i128);
+        while r1 != 0 {
+            let q = r0 / r1;
+            (r0, r1) = (r1, r0 - q * r1);
+            (t0, t1) = (t1, t0 - q * t1);
+        }
+        Some(t0.rem_euclid(self.p as i128) as u64)
+    }
+}
+
+impl Field for PrimeField {
+    type Elem = u64;
+
+    #[inline]
+    fn zero(&self) -> u64 {
+        0
+    }
+    #[inline]
+    fn one(&self) -> u64 {
+        1
+    }
+    #[inline]
+    fn is_zero(&self, a: &u64) -> bool {
+        *a == 0
+    }
+    #[inline]
+    fn add(&self, a: &u64, b: &u64) -> u64 {
+        let s = a + b;
+        if s >= self.p {
+            s - self.p
+        } else {
+            s
+        }
+    }
+    #[inline]
+    fn sub(&self, a: &u64, b: &u64) -> u64 {
+        if a >= b {
+            a - b
+        } else {
+            a + self.p - b
+        }
+    }
+    #[inline]
+    fn neg(&self, a: &u64) -> u64 {
+        if *a == 0 {
+            0
+        } else {
+            self.p - a
+        }
+    }
+    #[inline]
+    fn mul(&self, a: &u64, b: &u64) -> u64 {
+        self.mul_u64(*a, *b)
+    }
+    fn inv(&self, a: &u64) -> Option<u64> {
+        self.inverse(*a)
+    }
+    fn from_i64(&self, v: i64) -> u64 {
+        (v as i128).rem_euclid(self.p as i128) as u64
+    }
+    fn from_decimal(&self, digits: &str) -> u64 {
+        // Nineteen digits at a time fit a u64 below 10^19.
+        digits.as_bytes().chunks(18).fold(0, |acc, chunk| {
+            let scale = 10u64.pow(chunk.len() as u32) % self.p;
+            let v: u64 = std::str::from_utf8(chunk).unwrap().parse().unwrap();
+            self.add(&self.mul_u64(acc, scale), &(v % self.p))
+        })
+    }
+    fn characteristic(&self) -> String {
+        self.p.to_string()
+    }
+    fn order(&self) -> Option<String> {
+        Some(self.p.to_string())
+    }
+    fn spec(&self) -> String {
+        format!("GF({})", self.p)
+    }
+    /// Symmetric representative: `p - 1` prints as `-1`, which reads better in equations.
+    fn format(&self, a: &u64) -> String {
+        if *a > self.p / 2 {
+            format!("-{}", self.p - a)
+        } else {
+            a.to_string()
+        }
+    }
+    fn small_elements(&self, limit: usize) -> Option<Vec<u64>> {
+        (self.p as u128 <= limit as u128).then(|| (0..self.p).collect())
+    }
+    fn size_hint(&self) -> f64 {
+        self.p as f64
+    }
+}

@@ -1,0 +1,25 @@
+//! fibrewise-core: exact polynomial algebra over fields given by the [`field::Field`] trait.
+//!
+//! Pure Rust; knows nothing of Python. Layout: one algorithm per module.
+//! - [`field`]: the `Field` trait and concrete fields (prime fields GF(p), p < 2^63).
+//! - [`monomial`], [`order`], [`poly`], [`parse`]: exponent vectors, monomial orders,
+//!   sparse polynomials and the polynomial text syntax.
+//! - [`groebner`]: Gröbner basis engines and what is computed from a basis (normal forms,
+//!   membership, ideal comparison).
+//! - [`control`]: interruption and resource limits for long computations.
+
+pub mod control;
+pub mod error;
+pub mod field;
+pub mod groebner;
+pub mod monomial;
+pub mod order;
+pub mod parse;
+pub mod poly;
+
+pub use control::Control;
+pub use error::{Error, Result};
+pub use field::{Field, PrimeField};
+pub use monomial::Monomial;
+pub use order::MonomialOrder;
+pub use poly::{Poly, Ring};

@@ -1,0 +1,363 @@
+//! Reader for polynomial text: `x^2*y - 3/4*z + 1`, `(x+1)**3`, `-x`.
+//!
+//! A hand-written recursive-descent parser (no code is ever evaluated). Grammar, loosest first:
+//! ```text
+//! sum     := product (('+' | '-') product)*
+//! product := unary (('*' | '/') unary)*          division only by nonzero constants
+//! unary   := ('+' | '-') unary | power
+//! power   := atom (('^' | '**') INTEGER)?
+//! atom    := INTEGER | NAME | '(' sum ')'
+//! ```
+//! Names are ring variables, or the field generator (`a` in GF(p^k)). Errors carry the 1-based
+//! column of the offending character.
+
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::poly::{Poly, Ring};
+
+#[derive(Clone, Debug, PartialEq)]
+enum Tok {
+    Int(String),
+    Name(String),
+    Plus,
+    Minus,
+    Star,
+    Slash,
+    Caret,
+    LParen,
+    RParen,
+    End,
+}
+
+fn describe(t: &Tok) -> String {
+    match t {
+        Tok::Int(s) => format!("number '{s}'"),
+        Tok::Name(s) => format!("name '{s}'"),
+        Tok::Plus => "'+'".into(),
+        Tok::Minus => "'-'".into(),
+        Tok::Star => "'*'".into(),
+        Tok::Slash => "'/'".into(),
+        Tok::Caret => "'^'".into(),
+        Tok::LParen => "'('".into(),
+        Tok::RParen => "')'".into(),
+        Tok::End => "end of input".into(),
+    }
+}
+
+/// Tokens with their 1-based columns.
+fn tokenize(text: &str) -> Result<Vec<(Tok, usize)>> {
+    let chars: Vec<char> = text.chars().collect();
+    let mut out = Vec::new();
+    let mut i = 0;
+    while i < chars.len() {
+        let c = chars[i];
+        let col = i + 1;
+        let take_while = |i: &mut usize, pred: &dyn Fn(char) -> bool| {
+            let start = *i;
+            while *i < chars.len() && pred(chars[*i]) {
+                *i += 1;
+            }
+            chars[start..*i].iter().collect::<String>()
+        };
+        let tok = match c {
+            ' ' | '\t' | '\r' | '\n' => {
+                i += 1;
+                continue;
+            }
+            '0'..='9' => Tok::Int(take_while(&mut i, &|c| c.is_ascii_digit())),
+            c if c.is_ascii_alphabetic() || c == '_' => {
+                Tok::Name(take_while(&mut i, &|c| c.is_ascii_alphanumeric() || c == '_'))
+            }
+            _ => {
+                i += 1;
+                match c {
+                    '+' => Tok::Plus,
+                    '-' => Tok::Minus,
+                    '*' if chars.get(i) == Some(&'*') => {
+                        i += 1;
+                        Tok::Caret
+                    }
+                    '*' => Tok::Star,
+                    '/' => Tok::Slash,
+                    '^' => Tok::Caret,
+                    '(' => Tok::LParen,
+                    ')' => Tok::RParen,
+                    other => return Err(Error::parse(format!("unexpected character '{other}'"), col)),
+                }
+            }
+        };
+        out.push((tok, col));
+    }
+    out.push((Tok::End, chars.len() + 1));
+    Ok(out)
+}
+
+struct Parser<'a, F: Field> {
+    ring: &'a Ring<F>,
+    toks: Vec<(Tok, usize)>,
+    pos: usize,
+    depth: usize,
+}
+
+/// Nesting deeper than this is refused rather than risking the stack.
+const MAX_DEPTH: usize = 500;
+
+/// Parses `text` as a polynomial of `ring`.
+pub fn parse_poly<F: Field>(ring: &Ring<F>, text: &str) -> Result<Poly<F>> {
+    let mut p = Parser { ring, toks: tokenize(text)?, pos: 0, depth: 0 };
+    if p.peek() == &Tok::End {
+        return Err(Error::parse("empty polynomial text", 1));
+    }
+    let f = p.sum()?;
+    match p.peek() {
+        Tok::End => Ok(f),
+        Tok::RParen => Err(Error::parse("unbalanced parenthesis: ')' without '('", p.col())),
+        Tok::Int(_) | Tok::Name(_) | Tok::LParen => Err(Error::parse(
+            format!("expected an operator before {}", describe(p.peek())),
+            p.col(),
+        )),
+        t => Err(Error::parse(format!("unexpected {}", describe(t)), p.col())),
+    }
+}
+
+impl<F: Field> Parser<'_, F> {
+    fn peek(&self) -> &Tok {
+        &self.toks[self.pos].0
+    }
+    fn col(&self) -> usize {
+        self.toks[self.pos].1
+    }
+    fn bump(&mut self) -> (Tok, usize) {
+        let t = self.toks[self.pos].clone();
+        if t.0 != Tok::End {
+            self.pos += 1;
+        }
+        t
+    }
+
+    fn sum(&mut self) -> Result<Poly<F>> {
+        let mut acc = self.product()?;
+        loop {
+            match self.peek() {
+                Tok::Plus => {
+                    self.bump();
+                    acc = self.ring.add(&acc, &self.product()?);
+                }
+                Tok::Minus => {
+                    self.bump();
+                    acc = self.ring.sub(&acc, &self.product()?);
+                }
+                _ => return Ok(acc),
+            }
+        }
+    }
+
+    fn product(&mut self) -> Result<Poly<F>> {
+        let mut acc = self.unary()?;
+        loop {
+            match self.peek() {
+                Tok::Star => {
+                    self.bump();
+                    acc = self.ring.mul(&acc, &self.unary()?)?;
+                }
+                Tok::Slash => {
+                    let col = self.bump().1;
+                    let d = self.unary()?;
+                    acc = self.divide(&acc, &d, col)?;
+                }
+                _ => return Ok(acc),
+            }
+        }
+    }
+
+    fn divide(&self, f: &Poly<F>, d: &Poly<F>, col: usize) -> Result<Poly<F>> {
+        if !d.is_constant() {
+            return Err(Error::parse("division by a non-constant polynomial", col));
+        }
+        let field = &self.ring.field;
+        let c = d.leading_coefficient().cloned().unwrap_or_else(|| field.zero());
+        match field.inv(&c) {
+            Some(ci) => Ok(self.ring.scale(f, &ci)),
+            None => Err(Error::parse(
+                format!("division by zero (the divisor is 0 in {})", field.spec()),
+                col,
+            )),
+        }
+    }
+
+    fn unary(&mut self) -> Result<Poly<F>> {
+        match self.peek() {
+            Tok::Minus => {
+                self.bump();
+                let f = self.nested(|p| p.unary())?;
+                Ok(self.ring.neg(&f))
+            }
+            Tok::Plus => {
+                self.bump();
+                self.nested(|p| p.unary())
+            }
+            _ => self.power(),
+        }
+    }
+
+    fn nested(&mut self, inner: impl FnOnce(&mut Self) -> Result<Poly<F>>) -> Result<Poly<F>> {
+        self.depth += 1;
+        if self.depth > MAX_DEPTH {
+            return Err(Error::parse("expression nested too deeply", self.col()));
+        }
+        let r = inner(self);
+        self.depth -= 1;
+        r
+    }
+
+    fn power(&mut self) -> Result<Poly<F>> {
+        let base = self.atom()?;
+        if self.peek() != &Tok::Caret {
+            return Ok(base);
+        }
+        self.bump();
+        let (tok, col) = self.bump();
+        let Tok::Int(digits) = tok else {
+            return Err(Error::parse(
+                format!("expected a non-negative integer exponent, found {}", describe(&tok)),
+                col,
+            ));
+        };
+        let e: u32 = digits
+            .parse()
+            .map_err(|_| Error::parse(format!("exponent {digits} is too large (at most 2^32 - 1)"), col))?;
+        if self.peek() == &Tok::Caret {
+            return Err(Error::parse("chained exponents are ambiguous: use parentheses", self.col()));
+        }
+        self.ring.pow(&base, e as u64).map_err(|e| Error::parse(e.to_string(), col))
+    }
+
+    fn atom(&mut self) -> Result<Poly<F>> {
+        let (tok, col) = self.bump();
+        match tok {
+            Tok::Int(digits) => Ok(self.ring.constant(self.ring.field.from_decimal(&digits))),
+            Tok::Name(name) => self.name(&name, col),
+            Tok::LParen => {
+                let f = self.nested(|p| p.sum())?;
+                match self.bump() {
+                    (Tok::RParen, _) => Ok(f),
+                    (Tok::End, c) => Err(Error::parse("unbalanced parenthesis: missing ')'", c)),
+                    (t, c) => Err(Error::parse(format!("expected ')' but found {}", describe(&t)), c)),
+                }
+            }
+            Tok::End => Err(Error::parse(
+                "unexpected end of input: expected a number, a variable or '('",
+                col,
+            )),
+            t => Err(Error::parse(
+                format!("expected a number, a variable or '(' but found {}", describe(&t)),
+                col,
+            )),
+        }
+    }
+
+    fn name(&self, name: &str, col: usize) -> Result<Poly<F>> {
+        if let Some(i) = self.ring.var_index(name) {
+            return Ok(self.ring.var(i));
+        }
+        let field = &self.ring.field;
+        if field.generator_name() == Some(name) {
+            return Ok(self.ring.constant(field.generator().expect("generator")));
+        }
+        Err(Error::parse(
+            format!("unknown variable '{name}' (the ring has {})", self.ring.names().join(", ")),
+            col,
+        ))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::field::PrimeField;
+    use crate::order::MonomialOrder;
+    use proptest::prelude::*;
+
+    fn ring(p: u64) -> Ring<PrimeField> {
+        let names = ["x", "y", "z"].iter().map(|s| s.to_string()).collect();
+        Ring::new(PrimeField::new(p).unwrap(), names, MonomialOrder::Grevlex).unwrap()
+    }
+
+    fn err(text: &str) -> (String, usize) {
+        match parse_poly(&ring(7), text) {
+            Err(Error::Parse { message, column }) => (message, column),
+            other => panic!("expected a parse error for {text:?}, got {other:?}"),
+        }
+    }
+
+    #[test]
+    fn reads_the_interface_examples() {
+        let r = ring(7);
+        let f = parse_poly(&r, "x^2*y - 3/4*z + 1").unwrap();
+        // 3/4 = 3 * 2 = 6 = -1 in GF(7), so -3/4 z = z.
+        assert_eq!(r.format(&f), "x^2*y + z + 1");
+        let g = parse_poly(&r, "(x+1)**3").unwrap();
+        assert_eq!(r.format(&g), "x^3 + 3*x^2 + 3*x + 1");
+        assert_eq!(r.format(&parse_poly(&r, "-x").unwrap()), "-x");
+        assert_eq!(r.format(&parse_poly(&r, "-x^2").unwrap()), "-x^2");
+        assert_eq!(r.format(&parse_poly(&r, "x - x").unwrap()), "0");
+        assert_eq!(r.format(&parse_poly(&r, "8*x").unwrap()), "x");
+    }
+
+    #[test]
+    fn errors_name_what_and_where() {
+        assert_eq!(err("x + w"), ("unknown variable 'w' (the ring has x, y, z)".into(), 5));
+        assert_eq!(err("(x + y"), ("unbalanced parenthesis: missing ')'".into(), 7));
+        assert_eq!(err("x + y)"), ("unbalanced parenthesis: ')' without '('".into(), 6));
+        assert_eq!(err("1/7*x"), ("division by zero (the divisor is 0 in GF(7))".into(), 2));
+        assert_eq!(
+            err("x +"),
+            ("unexpected end of input: expected a number, a variable or '('".into(), 4)
+        );
+        assert_eq!(err("2x").1, 2);
+        assert_eq!(err("x / y").0, "division by a non-constant polynomial");
+        assert_eq!(err("x^y").0, "expected a non-negative integer exponent, found name 'y'");
+        assert_eq!(err("x ? y"), ("unexpected character '?'".into(), 3));
+        assert_eq!(err("").0, "empty polynomial text");
+        assert!(err("x^99999999999").0.contains("too large"));
+    }
+
+    fn random_poly() -> impl Strategy<Value = Vec<(Vec<u32>, i64)>> {
+        proptest::collection::vec((proptest::collection::vec(0u32..4, 3), -50i64..50), 0..8)
+    }
+
+    proptest! {
+        /// str() of a polynomial reads back to the same polynomial, over small and large primes.
+        #[test]
+        fn format_parse_round_trip(terms in random_poly()) {
+            for p in [2u64, 3, 65521, (1 << 63) - 25] {
+                let r = ring(p);
+                let f = r.from_terms(terms.iter().map(|(e, c)| {
+                    (crate::Monomial::from_exponents(e.clone()).unwrap(), r.field.from_i64(*c))
+                }));
+                let text = r.format(&f);
+                let back = parse_poly(&r, &text).unwrap();
+                prop_assert_eq!(&back, &f, "text {}", text);
+                prop_assert_eq!(r.format(&back), text);
+            }
+        }
+
+        /// Ring arithmetic: distributivity and (f + g)^2 = f^2 + 2fg + g^2.
+        #[test]
+        fn ring_identities(a in random_poly(), b in random_poly(), c in random_poly()) {
+            let r = ring(65521);
+            let mk = |t: &Vec<(Vec<u32>, i64)>| r.from_terms(t.iter().map(|(e, c)| {
+                (crate::Monomial::from_exponents(e.clone()).unwrap(), r.field.from_i64(*c))
+            }));
+            let (f, g, h) = (mk(&a), mk(&b), mk(&c));
+            let lhs = r.mul(&f, &r.add(&g, &h)).unwrap();
+            let rhs = r.add(&r.mul(&f, &g).unwrap(), &r.mul(&f, &h).unwrap());
+            prop_assert_eq!(lhs, rhs);
+            let sq = r.pow(&r.add(&f, &g), 2).unwrap();
+            let two_fg = r.scale(&r.mul(&f, &g).unwrap(), &2);
+            let expand = r.add(&r.add(&r.pow(&f, 2).unwrap(), &two_fg), &r.pow(&g, 2).unwrap());
+            prop_assert_eq!(sq, expand);
+            prop_assert_eq!(r.sub(&f, &f), Poly::zero());
+        }
+    }
+}

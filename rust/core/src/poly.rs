@@ -1,0 +1,352 @@
+//! Sparse multivariate polynomials and the ring that gives them meaning.
+//!
+//! A [`Poly`] is a list of terms sorted strictly decreasing in its ring's monomial order, with no
+//! zero coefficients; all arithmetic goes through the [`Ring`], which knows the field, the
+//! variable names and the order.
+
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::monomial::Monomial;
+use crate::order::MonomialOrder;
+use std::cmp::Ordering;
+use std::collections::HashMap;
+
+#[derive(Clone, Debug, PartialEq, Eq, Hash)]
+pub struct Poly<F: Field> {
+    terms: Vec<(Monomial, F::Elem)>,
+}
+
+impl<F: Field> Poly<F> {
+    pub fn zero() -> Self {
+        Poly { terms: Vec::new() }
+    }
+    pub fn is_zero(&self) -> bool {
+        self.terms.is_empty()
+    }
+    /// Terms in decreasing order.
+    pub fn terms(&self) -> &[(Monomial, F::Elem)] {
+        &self.terms
+    }
+    pub fn into_terms(self) -> Vec<(Monomial, F::Elem)> {
+        self.terms
+    }
+    pub fn len(&self) -> usize {
+        self.terms.len()
+    }
+    pub fn is_empty(&self) -> bool {
+        self.terms.is_empty()
+    }
+    pub fn leading_monomial(&self) -> Option<&Monomial> {
+        self.terms.first().map(|t| &t.0)
+    }
+    pub fn leading_coefficient(&self) -> Option<&F::Elem> {
+        self.terms.first().map(|t| &t.1)
+    }
+    /// Total degree; `None` for the zero polynomial.
+    pub fn degree(&self) -> Option<u32> {
+        self.terms.iter().map(|t| t.0.degree()).max()
+    }
+    pub fn is_homogeneous(&self) -> bool {
+        self.terms.windows(2).all(|w| w[0].0.degree() == w[1].0.degree())
+    }
+    pub fn is_constant(&self) -> bool {
+        self.terms.iter().all(|t| t.0.is_one())
+    }
+    /// A polynomial from terms already strictly decreasing in the intended order, none zero.
+    pub fn from_sorted(terms: Vec<(Monomial, F::Elem)>) -> Self {
+        Poly { terms }
+    }
+    /// The terms after the first `skip` (still sorted).
+    pub fn from_sorted_tail(mut f: Poly<F>, skip: usize) -> Self {
+        f.terms.drain(..skip.min(f.terms.len()));
+        f
+    }
+    /// The leading term and the rest (`self` must be nonzero).
+    pub fn split_lead(&self) -> ((Monomial, F::Elem), Poly<F>) {
+        (self.terms[0].clone(), Poly { terms: self.terms[1..].to_vec() })
+    }
+}
+
+#[derive(Clone, Debug, PartialEq)]
+pub struct Ring<F: Field> {
+    pub field: F,
+    names: Vec<String>,
+    pub order: MonomialOrder,
+}
+
+fn is_identifier(s: &str) -> bool {
+    let mut chars = s.chars();
+    matches!(chars.next(), Some(c) if c.is_ascii_alphabetic() || c == '_')
+        && chars.all(|c| c.is_ascii_alphanumeric() || c == '_')
+}
+
+impl<F: Field> Ring<F> {
+    /// A polynomial ring over `field` in the named variables (ordered as given: x1 > x2 > ...).
+    pub fn new(field: F, names: Vec<String>, order: MonomialOrder) -> Result<Self> {
+        for (i, n) in names.iter().enumerate() {
+            if !is_identifier(n) {
+                return Err(Error::invalid(format!(
+                    "variable name '{n}' is not an identifier ([A-Za-z_][A-Za-z0-9_]*)"
+                )));
+            }
+            if names[..i].contains(n) {
+                return Err(Error::invalid(format!("variable '{n}' is given twice")));
+            }
+            if field.generator_name() == Some(n.as_str()) {
+                return Err(Error::invalid(format!(
+                    "variable '{n}' clashes with the generator of {}",
+                    field.spec()
+                )));
+            }
+        }
+        order.validate(names.len())?;
+        Ok(Ring { field, names, order })
+    }
+
+    pub fn nvars(&self) -> usize {
+        self.names.len()
+    }
+    pub fn names(&self) -> &[String] {
+        &self.names
+    }
+    pub fn var_index(&self, name: &str) -> Option<usize> {
+        self.names.iter().position(|n| n == name)
+    }
+    /// The same ring with another monomial order.
+    pub fn with_order(&self, order: MonomialOrder) -> Result<Self> {
+        Ring::new(self.field.clone(), self.names.clone(), order)
+    }
+
+    pub fn cmp(&self, a: &Monomial, b: &Monomial) -> Ordering {
+        self.order.cmp(a, b)
+    }
+
+    pub fn constant(&self, c: F::Elem) -> Poly<F> {
+        self.term(Monomial::one(self.nvars()), c)
+    }
+    pub fn one(&self) -> Poly<F> {
+        self.constant(self.field.one())
+    }
+    pub fn term(&self, m: Monomial, c: F::Elem) -> Poly<F> {
+        if self.field.is_zero(&c) {
+            Poly::zero()
+        } else {
+            Poly { terms: vec![(m, c)] }
+        }
+    }
+    pub fn var(&self, i: usize) -> Poly<F> {
+        self.term(Monomial::var_power(self.nvars(), i, 1), self.field.one())
+    }
+
+    /// Builds a polynomial from terms in any order, adding like terms and dropping zeros.
+    pub fn from_terms(&self, terms: impl IntoIterator<Item = (Monomial, F::Elem)>) -> Poly<F> {
+        let mut acc: HashMap<Monomial, F::Elem> = HashMap::new();
+        for (m, c) in terms {
+            match acc.get_mut(&m) {
+                Some(v) => *v = self.field.add(v, &c),
+                None => {
+                    acc.insert(m, c);
+                }
+            }
+        }
+        let mut terms: Vec<_> = acc.into_iter().filter(|(_, c)| !self.field.is_zero(c)).collect();
+        terms.sort_by(|a, b| self.cmp(&b.0, &a.0));
+        Poly { terms }
+    }
+
+    /// The same polynomial sorted for this ring's order (e.g. coming from a ring with another order).
+    pub fn adopt(&self, f: Poly<F>) -> Poly<F> {
+        let mut terms = f.terms;
+        terms.sort_by(|a, b| self.cmp(&b.0, &a.0));
+        Poly { terms }
+    }
+
+    /// f + c·m·g, the workhorse of reduction: one merge of two sorted lists.
+    pub fn add_scaled(&self, f: &Poly<F>, c: &F::Elem, m: &Monomial, g: &Poly<F>) -> Result<Poly<F>> {
+        let mut out = Vec::with_capacity(f.len() + g.len());
+        let mut it_g = g.terms.iter().peekable();
+        let mut shifted = |t: &(Monomial, F::Elem)| -> Result<(Monomial, F::Elem)> {
+            Ok((t.0.mul(m)?, self.field.mul(&t.1, c)))
+        };
+        let mut next_g = it_g.next().map(&mut shifted).transpose()?;
+        let mut it_f = f.terms.iter();
+        let mut next_f = it_f.next().cloned();
+        loop {
+            match (next_f.take(), next_g.take()) {
+                (None, None) => break,
+                (Some(a), None) => {
+                    out.push(a);
+                    next_f = it_f.next().cloned();
+                }
+                (None, Some(b)) => {
+                    out.push(b);
+                    next_g = it_g.next().map(&mut shifted).transpose()?;
+                }
+                (Some(a), Some(b)) => match self.cmp(&a.0, &b.0) {
+                    Ordering::Greater => {
+                        out.push(a);
+                        next_f = it_f.next().cloned();
+                        next_g = Some(b);
+                    }
+                    Ordering::Less => {
+                        out.push(b);
+                        next_f = Some(a);
+                        next_g = it_g.next().map(&mut shifted).transpose()?;
+                    }
+                    Ordering::Equal => {
+                        let s = self.field.add(&a.1, &b.1);
+                        if !self.field.is_zero(&s) {
+                            out.push((a.0, s));
+                        }
+                        next_f = it_f.next().cloned();
+                        next_g = it_g.next().map(&mut shifted).transpose()?;
+                    }
+                },
+            }
+        }
+        Ok(Poly { terms: out })
+    }
+
+    pub fn add(&self, f: &Poly<F>, g: &Poly<F>) -> Poly<F> {
+        let one = Monomial::one(self.nvars());
+        self.add_scaled(f, &self.field.one(), &one, g).expect("multiplying by 1 cannot overflow")
+    }
+    pub fn sub(&self, f: &Poly<F>, g: &Poly<F>) -> Poly<F> {
+        let one = Monomial::one(self.nvars());
+        let m1 = self.field.neg(&self.field.one());
+        self.add_scaled(f, &m1, &one, g).expect("multiplying by 1 cannot overflow")
+    }
+    pub fn neg(&self, f: &Poly<F>) -> Poly<F> {
+        Poly { terms: f.terms.iter().map(|(m, c)| (m.clone(), self.field.neg(c))).collect() }
+    }
+    pub fn scale(&self, f: &Poly<F>, c: &F::Elem) -> Poly<F> {
+        if self.field.is_zero(c) {
+            return Poly::zero();
+        }
+        Poly { terms: f.terms.iter().map(|(m, a)| (m.clone(), self.field.mul(a, c))).collect() }
+    }
+    /// c·m·f (order is preserved by multiplication with a monomial).
+    pub fn mul_term(&self, f: &Poly<F>, c: &F::Elem, m: &Monomial) -> Result<Poly<F>> {
+        if self.field.is_zero(c) {
+            return Ok(Poly::zero());
+        }
+        let terms: Result<Vec<_>> =
+            f.terms.iter().map(|(a, x)| Ok((a.mul(m)?, self.field.mul(x, c)))).collect();
+        Ok(Poly { terms: terms? })
+    }
+    pub fn mul(&self, f: &Poly<F>, g: &Poly<F>) -> Result<Poly<F>> {
+        let (small, large) = if f.len() <= g.len() { (f, g) } else { (g, f) };
+        let mut products = Vec::with_capacity(f.len() * g.len());
+        for (m, c) in &small.terms {
+            for (n, d) in &large.terms {
+                products.push((m.mul(n)?, self.field.mul(c, d)));
+            }
+        }
+        Ok(self.from_terms(products))
+    }
+    pub fn pow(&self, f: &Poly<F>, mut e: u64) -> Result<Poly<F>> {
+        let mut base = f.clone();
+        let mut acc = self.one();
+        while e > 0 {
+            if e & 1 == 1 {
+                acc = self.mul(&acc, &base)?;
+            }
+            e >>= 1;
+            if e > 0 {
+                base = self.mul(&base, &base)?;
+            }
+        }
+        Ok(acc)
+    }
+    /// f divided by its leading coefficient (zero stays zero).
+    pub fn monic(&self, f: &Poly<F>) -> Poly<F> {
+        match f.leading_coefficient() {
+            Some(c) if !self.field.is_one(c) => self.scale(f, &self.field.inv(c).expect("nonzero")),
+            _ => f.clone(),
+        }
+    }
+
+    pub fn evaluate(&self, f: &Poly<F>, point: &[F::Elem]) -> Result<F::Elem> {
+        if point.len() != self.nvars() {
+            return Err(Error::invalid(format!(
+                "evaluation point has {} coordinates for {} variables",
+                point.len(),
+                self.nvars()
+            )));
+        }
+        let mut acc = self.field.zero();
+        for (m, c) in &f.terms {
+            let mut v = c.clone();
+            for (x, e) in point.iter().zip(m.exponents()) {
+                if *e > 0 {
+                    v = self.field.mul(&v, &self.field.pow(x, *e as u64));
+                }
+            }
+            acc = self.field.add(&acc, &v);
+        }
+        Ok(acc)
+    }
+
+    /// Replaces each variable i by `images[i]` (a polynomial of the ring `target`), by Horner-free
+    /// term expansion with cached powers.
+    pub fn substitute(&self, f: &Poly<F>, images: &[Poly<F>], target: &Ring<F>) -> Result<Poly<F>> {
+        if images.len() != self.nvars() {
+            return Err(Error::invalid("substitution needs one image per variable"));
+        }
+        let mut powers: Vec<Vec<Poly<F>>> = images.iter().map(|g| vec![target.one(), g.clone()]).collect();
+        let mut acc = Poly::zero();
+        for (m, c) in &f.terms {
+            let mut t = target.constant(c.clone());
+            for (i, &e) in m.exponents().iter().enumerate() {
+                if e == 0 {
+                    continue;
+                }
+                while powers[i].len() <= e as usize {
+                    let next = target.mul(powers[i].last().unwrap(), &images[i])?;
+                    powers[i].push(next);
+                }
+                t = target.mul(&t, &powers[i][e as usize])?;
+            }
+            acc = target.add(&acc, &t);
+        }
+        Ok(acc)
+    }
+
+    /// Polynomial text that [`crate::parse::parse_poly`] reads back to the same polynomial.
+    pub fn format(&self, f: &Poly<F>) -> String {
+        if f.is_zero() {
+            return "0".into();
+        }
+        let mut out = String::new();
+        for (k, (m, c)) in f.terms.iter().enumerate() {
+            let text = self.field.format(c);
+            let (negative, magnitude) = match text.strip_prefix('-') {
+                Some(rest) if is_atom(rest) => (true, rest.to_string()),
+                _ => (false, text),
+            };
+            if k == 0 {
+                if negative {
+                    out.push('-');
+                }
+            } else {
+                out.push_str(if negative { " - " } else { " + " });
+            }
+            let magnitude = if is_atom(&magnitude) { magnitude } else { format!("({magnitude})") };
+            if m.is_one() {
+                out.push_str(&magnitude);
+            } else if magnitude == "1" {
+                out.push_str(&m.format(&self.names));
+            } else {
+                out.push_str(&magnitude);
+                out.push('*');
+                out.push_str(&m.format(&self.names));
+            }
+        }
+        out
+    }
+}
+
+/// A coefficient text that needs no parentheses after a sign or before `*`.
+fn is_atom(s: &str) -> bool {
+    !s.is_empty() && !s.contains([' ', '+', '-'])
+}
