@@ -9,6 +9,7 @@
 //! - [`control`]: interruption and resource limits for long computations.
 
 pub mod control;
+pub mod dimension;
 pub mod error;
 pub mod field;
 pub mod groebner;

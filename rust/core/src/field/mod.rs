@@ -58,11 +58,25 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     fn generator(&self) -> Option<Self::Elem> {
         None
     }
-    /// Elements of a finite field listed in a fixed order (for enumeration in tests and small
-    /// searches); `None` for infinite fields or fields too large to list.
-    fn small_elements(&self, limit: usize) -> Option<Vec<Self::Elem>>;
+    /// The i-th element of a fixed enumeration of the field (0 ↦ 0, 1 ↦ 1; for a finite field
+    /// of q elements, i < q runs through all of them once; for QQ: 0, 1, -1, 2, -2, ...).
+    /// Used for enumeration in tests and for random choices (a random i).
+    fn element_from_index(&self, i: u64) -> Self::Elem;
+    /// Elements of a finite field listed by [`Field::element_from_index`]; `None` for infinite
+    /// fields or fields with more than `limit` elements.
+    fn small_elements(&self, limit: usize) -> Option<Vec<Self::Elem>> {
+        let q: u64 = self.order()?.parse().ok()?;
+        (q <= limit as u64).then(|| (0..q).map(|i| self.element_from_index(i)).collect())
+    }
     /// Field size as a float, for probability bounds (infinite: `f64::INFINITY`).
     fn size_hint(&self) -> f64;
+    /// The characteristic when it fits a machine word (every field but big-prime ones; 0 for QQ).
+    fn characteristic_u64(&self) -> Option<u64>;
+    /// The field size q as little-endian 64-bit limbs (for exponents such as x^q); `None` if infinite.
+    fn order_limbs(&self) -> Option<Vec<u64>>;
+    /// The p-th root of `a` in characteristic p > 0 (finite fields are perfect, so it exists and
+    /// is unique); `None` in characteristic 0.
+    fn pth_root(&self, a: &Self::Elem) -> Option<Self::Elem>;
 
     fn pow(&self, a: &Self::Elem, mut e: u64) -> Self::Elem {
         let mut base = a.clone();

@@ -162,10 +162,20 @@ impl Field for PrimeField {
             a.to_string()
         }
     }
-    fn small_elements(&self, limit: usize) -> Option<Vec<u64>> {
-        (self.p as u128 <= limit as u128).then(|| (0..self.p).collect())
+    fn element_from_index(&self, i: u64) -> u64 {
+        i % self.p
     }
     fn size_hint(&self) -> f64 {
         self.p as f64
+    }
+    fn characteristic_u64(&self) -> Option<u64> {
+        Some(self.p)
+    }
+    fn order_limbs(&self) -> Option<Vec<u64>> {
+        Some(vec![self.p])
+    }
+    /// In GF(p) the Frobenius map is the identity, so every element is its own p-th root.
+    fn pth_root(&self, a: &u64) -> Option<u64> {
+        Some(*a)
     }
 }
