@@ -6,6 +6,8 @@
 //!   sparse polynomials and the polynomial text syntax.
 //! - [`groebner`]: Gröbner basis engines and what is computed from a basis (normal forms,
 //!   membership, ideal comparison).
+//! - [`normalization`], [`integrality`]: Noether normalization with a checkable certificate;
+//!   integrality and finiteness over subalgebras.
 //! - [`control`]: interruption and resource limits for long computations.
 
 pub mod control;
@@ -13,7 +15,9 @@ pub mod dimension;
 pub mod error;
 pub mod field;
 pub mod groebner;
+pub mod integrality;
 pub mod monomial;
+pub mod normalization;
 pub mod order;
 pub mod parse;
 pub mod poly;
