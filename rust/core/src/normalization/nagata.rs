@@ -65,56 +65,79 @@ pub fn nagata_change<F: Field>(
     Ok(Change { params: rest, nonparams: integral, shifts })
 }
 
-/// The cheapest substitution that makes one of `candidates` monic in one of its variables:
-/// none (univariate f), then linear shifts with random coefficients, then equal and then
-/// distinct small exponents, and Nagata's exponents last.
+/// The cheapest substitution that makes one of `candidates` monic in one of its variables v,
+/// shifting as few of its other variables as possible: none (f already monic in v), then linear
+/// shifts with random coefficients, then equal and then distinct small exponents, and Nagata's
+/// exponents (all other variables of f) last.
 fn choose_step<F: Field>(ring: &Ring<F>, candidates: &[&Poly<F>], rng: &mut Rng) -> Option<Step<F>> {
     let field = &ring.field;
     let one = field.one();
-    let options = |f: &Poly<F>| -> Vec<(usize, Vec<usize>)> {
-        let support = support(f);
-        support.iter().rev().map(|&v| (v, support.iter().copied().filter(|&u| u != v).collect())).collect()
-    };
-    for f in candidates {
-        if let [(v, others)] = options(f).as_slice() {
-            if others.is_empty() {
-                return Some(Step { v: *v, shifts: vec![] });
-            }
+    // (f, v, subsets of the other variables of f, smallest first)
+    let options: Vec<(&Poly<F>, usize, Vec<Vec<usize>>)> = candidates
+        .iter()
+        .flat_map(|f| {
+            let support = support(f);
+            support
+                .iter()
+                .rev()
+                .map(|&v| {
+                    let others: Vec<usize> = support.iter().copied().filter(|&u| u != v).collect();
+                    (*f, v, subsets_by_size(&others))
+                })
+                .collect::<Vec<_>>()
+        })
+        .collect();
+    let test = |f: &Poly<F>, v: usize, set: &[usize], cs: &[F::Elem], es: &[u32]| top_coefficient_is_constant(ring, f, v, set, cs, es);
+    for (f, v, _) in &options {
+        if test(f, *v, &[], &[], &[]) {
+            return Some(Step { v: *v, shifts: vec![] });
         }
     }
-    for _ in 0..3 {
-        for f in candidates {
-            for (v, others) in options(f) {
-                let coefficients: Vec<F::Elem> = others.iter().map(|_| rng.nonzero(field)).collect();
-                let exps = vec![1; others.len()];
-                if top_coefficient_nonzero(ring, f, v, &others, &coefficients, &exps) {
-                    return Some(step(v, &others, coefficients, exps));
+    for _ in 0..2 {
+        for (f, v, subsets) in &options {
+            for set in subsets.iter().filter(|s| !s.is_empty()) {
+                let cs: Vec<F::Elem> = set.iter().map(|_| rng.nonzero(field)).collect();
+                let es = vec![1; set.len()];
+                if test(f, *v, set, &cs, &es) {
+                    return Some(step(*v, set, cs, es));
                 }
             }
         }
     }
     let max_r = candidates.iter().map(|f| exponent_bound(f)).max().unwrap_or(2);
     for e in 2..=max_r {
-        for f in candidates {
-            for (v, others) in options(f) {
-                let ones = vec![one.clone(); others.len()];
-                let equal = vec![e; others.len()];
-                if top_coefficient_nonzero(ring, f, v, &others, &ones, &equal) {
-                    return Some(step(v, &others, ones, equal));
+        for (f, v, subsets) in &options {
+            for set in subsets.iter().filter(|s| !s.is_empty()) {
+                let ones = vec![one.clone(); set.len()];
+                let equal = vec![e; set.len()];
+                if test(f, *v, set, &ones, &equal) {
+                    return Some(step(*v, set, ones, equal));
                 }
-                if let Some(distinct) = powers(e, others.len()) {
-                    if top_coefficient_nonzero(ring, f, v, &others, &ones, &distinct) {
-                        return Some(step(v, &others, ones, distinct));
+                if let Some(distinct) = powers(e, set.len()).filter(|_| set.len() > 1) {
+                    if test(f, *v, set, &ones, &distinct) {
+                        return Some(step(*v, set, ones, distinct));
                     }
                 }
             }
         }
     }
     // Nagata: exponents r, r^2, ... with r above every exponent of f separate all monomials.
-    let f = candidates.first()?;
-    let (v, others) = options(f).into_iter().next()?;
-    let exps = powers(exponent_bound(f), others.len())?;
-    Some(step(v, &others, vec![one; others.len()], exps))
+    let (f, v, subsets) = options.first()?;
+    let all = subsets.last()?;
+    let exps = powers(exponent_bound(f), all.len())?;
+    Some(step(*v, all, vec![one; all.len()], exps))
+}
+
+/// Subsets of `items` ordered by size (all of them for up to 6 items; else none, the whole set).
+fn subsets_by_size(items: &[usize]) -> Vec<Vec<usize>> {
+    if items.len() > 6 {
+        return vec![vec![], items.to_vec()];
+    }
+    let mut all: Vec<Vec<usize>> = (0u32..1 << items.len())
+        .map(|mask| items.iter().enumerate().filter(|(k, _)| mask >> k & 1 == 1).map(|(_, &u)| u).collect())
+        .collect();
+    all.sort_by_key(|s: &Vec<usize>| s.len());
+    all
 }
 
 fn step<F: Field>(v: usize, others: &[usize], coefficients: Vec<F::Elem>, exps: Vec<u32>) -> Step<F> {
@@ -136,29 +159,37 @@ fn powers(e: u32, k: usize) -> Option<Vec<u32>> {
     (1..=k as u32).map(|i| e.checked_pow(i)).collect()
 }
 
-/// Whether f(u -> u + c_u v^{e_u}) has a nonzero constant as its coefficient of the top power
-/// of v: only the monomials of largest weight α_v + Σ e_u α_u reach that power, each with
-/// coefficient f_α Π c_u^{α_u}.
-fn top_coefficient_nonzero<F: Field>(
+/// Whether f(u -> u + c_u v^{e_u} for u in `shifted`) has a nonzero constant as its coefficient
+/// of the top power of v. Only the monomials of largest weight α_v + Σ e_u α_u reach that power,
+/// each with coefficient f_α Π c_u^{α_u} times the unshifted variables' part; the sum must be a
+/// nonzero constant.
+fn top_coefficient_is_constant<F: Field>(
     ring: &Ring<F>,
     f: &Poly<F>,
     v: usize,
-    others: &[usize],
+    shifted: &[usize],
     coefficients: &[F::Elem],
     exps: &[u32],
 ) -> bool {
     let field = &ring.field;
     let weight = |e: &[u32]| -> u128 {
-        u128::from(e[v]) + others.iter().zip(exps).map(|(&u, &w)| u128::from(e[u]) * u128::from(w)).sum::<u128>()
+        u128::from(e[v]) + shifted.iter().zip(exps).map(|(&u, &w)| u128::from(e[u]) * u128::from(w)).sum::<u128>()
     };
     let top = f.terms().iter().map(|(m, _)| weight(m.exponents())).max().unwrap_or(0);
-    let mut sum = field.zero();
+    let mut sums: std::collections::HashMap<Vec<u32>, F::Elem> = std::collections::HashMap::new();
     for (m, c) in f.terms().iter().filter(|(m, _)| weight(m.exponents()) == top) {
         let mut t = c.clone();
-        for (&u, cu) in others.iter().zip(coefficients) {
+        for (&u, cu) in shifted.iter().zip(coefficients) {
             t = field.mul(&t, &field.pow(cu, u64::from(m.exponents()[u])));
         }
-        sum = field.add(&sum, &t);
+        let mut rest = m.exponents().to_vec();
+        rest[v] = 0;
+        for &u in shifted {
+            rest[u] = 0;
+        }
+        let entry = sums.entry(rest).or_insert_with(|| field.zero());
+        *entry = field.add(entry, &t);
     }
-    !field.is_zero(&sum)
+    sums.iter().all(|(rest, c)| if rest.iter().all(|&e| e == 0) { !field.is_zero(c) } else { field.is_zero(c) })
+        && sums.keys().any(|rest| rest.iter().all(|&e| e == 0))
 }

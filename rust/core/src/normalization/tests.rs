@@ -229,7 +229,7 @@ fn seed_reproduces_the_result() {
     assert_verifies(&c, &gens);
 }
 
-/// Random ideals: r random polynomials of degree ≤ 3 with few terms in n ≤ 4 variables.
+/// Random ideals: `count` random polynomials of degree ≤ 3 with at most 4 terms.
 fn random_ideal(r: &Ring<PrimeField>, rng: &mut changes::Rng, count: usize) -> Vec<P> {
     let n = r.nvars();
     (0..count)
@@ -237,7 +237,11 @@ fn random_ideal(r: &Ring<PrimeField>, rng: &mut changes::Rng, count: usize) -> V
             let terms = 1 + rng.next_u64() % 4;
             let mut f = Poly::zero();
             for _ in 0..terms {
-                let exps: Vec<u32> = (0..n).map(|_| (rng.next_u64() % 3) as u32).collect();
+                // A product of up to three random variables: total degree at most 3.
+                let mut exps = vec![0u32; n];
+                for _ in 0..rng.next_u64() % 4 {
+                    exps[(rng.next_u64() % n as u64) as usize] += 1;
+                }
                 let m = crate::Monomial::from_exponents(exps).unwrap();
                 f = r.add(&f, &r.term(m, rng.nonzero(&r.field)));
             }
