@@ -12,6 +12,7 @@ The algorithms live in a Rust core (``fibrewise._native``); this package is the 
 from ._native import ResourceLimit
 from .fields import Field, field
 from .ideals import GroebnerBasis, GroebnerStats, Ideal
+from .normalization import IntegralEquation, NoetherNormalization
 from .orders import BlockOrder, WeightOrder
 from .rings import Polynomial, PolynomialRing
 
@@ -21,6 +22,8 @@ __all__ = [
     "GroebnerBasis",
     "GroebnerStats",
     "Ideal",
+    "IntegralEquation",
+    "NoetherNormalization",
     "Polynomial",
     "PolynomialRing",
     "ResourceLimit",

@@ -9,6 +9,7 @@ mod dispatch;
 mod errors;
 mod ideal;
 mod long_run;
+mod normalization;
 mod ring;
 
 #[pymodule]
@@ -18,5 +19,6 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_class::<ring::NativeRing>()?;
     m.add_class::<ring::NativePoly>()?;
     ideal::register(m)?;
+    normalization::register(m)?;
     Ok(())
 }
