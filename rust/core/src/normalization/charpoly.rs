@@ -1,7 +1,14 @@
-//! The characteristic polynomial det(x·Id - A) of a square matrix over a polynomial ring k[T],
-//! by Berkowitz's division-free algorithm (Berkowitz 1984, "On computing the determinant in
-//! small parallel time using a small number of processors"): no division is needed, so it works
-//! over k[T] directly and in every characteristic, GF(2) included.
+//! The characteristic polynomial det(x·Id - A) of a square matrix over a polynomial ring k[T].
+//!
+//! Two methods. When the field has more elements than the degree of the coefficients in each
+//! t_i, by evaluation and interpolation: the coefficient of x^k is a polynomial in T whose degree
+//! in t_i is at most the sum over rows of the largest t_i-degree in the row (each term of the
+//! determinant takes one entry per row); evaluate A on a grid of that size, take the
+//! characteristic polynomial of each scalar matrix by reduction to Hessenberg form (Cohen, *A
+//! Course in Computational Algebraic Number Theory*, 1993, Algorithm 2.2.9), and interpolate one
+//! variable at a time (Newton's divided differences). Otherwise, by Berkowitz's division-free
+//! algorithm (Berkowitz 1984) directly over k[T], which works in every characteristic, GF(2)
+//! included.
 
 use crate::control::Control;
 use crate::error::Result;
@@ -11,6 +18,191 @@ use crate::poly::{Poly, Ring};
 /// Coefficients [1, c_{r-1}, ..., c_0] of det(x·Id - A) = x^r + c_{r-1} x^{r-1} + ... + c_0,
 /// for an r × r matrix `a` (rows of equal length r) over `ring`.
 pub fn characteristic_polynomial<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) -> Result<Vec<Poly<F>>> {
+    match interpolation_grid(ring, a) {
+        Some(bounds) => by_interpolation(ring, a, &bounds, control),
+        None => berkowitz(ring, a, control),
+    }
+}
+
+/// Largest number of values (grid points × coefficients) interpolation may hold.
+const MAX_INTERPOLATION_VALUES: u64 = 20_000_000;
+
+/// Degree bounds in each t_i for the coefficients, when the field has enough points for them
+/// and the grid is small enough; `None` otherwise.
+fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<Vec<u64>> {
+    let d = ring.nvars();
+    let r = a.len();
+    let degree_in = |p: &Poly<F>, i: usize| p.terms().iter().map(|(m, _)| u64::from(m.exponents()[i])).max().unwrap_or(0);
+    let bounds: Vec<u64> = (0..d)
+        .map(|i| {
+            let rows: u64 = a.iter().map(|row| row.iter().map(|p| degree_in(p, i)).max().unwrap_or(0)).sum();
+            let cols: u64 = (0..r).map(|k| a.iter().map(|row| degree_in(&row[k], i)).max().unwrap_or(0)).sum();
+            rows.min(cols)
+        })
+        .collect();
+    let q = super::changes::field_size(&ring.field).unwrap_or(u64::MAX);
+    if bounds.iter().any(|&b| b >= q) {
+        return None;
+    }
+    let points = bounds.iter().try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
+    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some(bounds)
+}
+
+fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], bounds: &[u64], control: &Control) -> Result<Vec<Poly<F>>> {
+    let field = &ring.field;
+    let r = a.len();
+    let axes: Vec<Vec<F::Elem>> = bounds.iter().map(|&b| (0..=b).map(|j| field.element_from_index(j)).collect()).collect();
+    let points: usize = axes.iter().map(|v| v.len()).product();
+    // values[k][g]: coefficient of x^k at grid point g (mixed radix, last variable fastest).
+    let mut values = vec![vec![field.zero(); points]; r + 1];
+    let mut point = vec![field.zero(); bounds.len()];
+    for g in 0..points {
+        control.check()?;
+        let mut rest = g;
+        for i in (0..bounds.len()).rev() {
+            point[i] = axes[i][rest % axes[i].len()].clone();
+            rest /= axes[i].len();
+        }
+        let scalar = a
+            .iter()
+            .map(|row| row.iter().map(|p| ring.evaluate(p, &point)).collect::<Result<Vec<_>>>())
+            .collect::<Result<Vec<_>>>()?;
+        for (k, c) in hessenberg_charpoly(field, scalar).into_iter().enumerate() {
+            values[k][g] = c;
+        }
+    }
+    let mut out = Vec::with_capacity(r + 1);
+    for k in (0..=r).rev() {
+        control.check()?;
+        let coefficients = interpolate_grid(field, &axes, std::mem::take(&mut values[k]));
+        out.push(grid_to_poly(ring, &axes, coefficients)?);
+    }
+    Ok(out)
+}
+
+/// Turns values on the grid into monomial coefficients, one axis at a time.
+fn interpolate_grid<F: Field>(field: &F, axes: &[Vec<F::Elem>], mut grid: Vec<F::Elem>) -> Vec<F::Elem> {
+    let mut stride = 1;
+    for axis in axes.iter().rev() {
+        let len = axis.len();
+        let block = stride * len;
+        for start in (0..grid.len()).step_by(block) {
+            for offset in 0..stride {
+                let line: Vec<F::Elem> = (0..len).map(|j| grid[start + offset + j * stride].clone()).collect();
+                for (j, c) in newton_interpolation(field, axis, &line).into_iter().enumerate() {
+                    grid[start + offset + j * stride] = c;
+                }
+            }
+        }
+        stride = block;
+    }
+    grid
+}
+
+fn grid_to_poly<F: Field>(ring: &Ring<F>, axes: &[Vec<F::Elem>], coefficients: Vec<F::Elem>) -> Result<Poly<F>> {
+    let mut terms = Vec::new();
+    for (g, c) in coefficients.into_iter().enumerate() {
+        if ring.field.is_zero(&c) {
+            continue;
+        }
+        let mut exps = vec![0u32; axes.len()];
+        let mut rest = g;
+        for i in (0..axes.len()).rev() {
+            exps[i] = (rest % axes[i].len()) as u32;
+            rest /= axes[i].len();
+        }
+        terms.push((crate::Monomial::from_exponents(exps)?, c));
+    }
+    Ok(ring.from_terms(terms))
+}
+
+/// Coefficients (low to high) of the polynomial of degree < len taking values `ys` at the
+/// distinct points `xs`: Newton's divided differences, then expansion in the monomial basis.
+fn newton_interpolation<F: Field>(field: &F, xs: &[F::Elem], ys: &[F::Elem]) -> Vec<F::Elem> {
+    let n = xs.len();
+    let mut dd = ys.to_vec();
+    for level in 1..n {
+        for i in (level..n).rev() {
+            let num = field.sub(&dd[i], &dd[i - 1]);
+            let den = field.sub(&xs[i], &xs[i - level]);
+            dd[i] = field.div(&num, &den).expect("grid points are distinct");
+        }
+    }
+    // Horner in Newton form: p = dd[0] + (x - x0)(dd[1] + (x - x1)(...)).
+    let mut coeffs = vec![field.zero(); n];
+    for i in (0..n).rev() {
+        // coeffs := coeffs·(x - x_i) + dd[i]
+        let mut next = vec![field.zero(); n];
+        for (j, c) in coeffs.iter().enumerate() {
+            if field.is_zero(c) {
+                continue;
+            }
+            if j + 1 < n {
+                next[j + 1] = field.add(&next[j + 1], c);
+            }
+            next[j] = field.sub(&next[j], &field.mul(c, &xs[i]));
+        }
+        next[0] = field.add(&next[0], &dd[i]);
+        coeffs = next;
+    }
+    coeffs
+}
+
+/// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
+/// and the recurrence on its leading minors (Cohen 1993, Algorithm 2.2.9).
+fn hessenberg_charpoly<F: Field>(field: &F, mut h: Vec<Vec<F::Elem>>) -> Vec<F::Elem> {
+    let n = h.len();
+    for m in 1..n.saturating_sub(1) {
+        let Some(i) = (m..n).find(|&i| !field.is_zero(&h[i][m - 1])) else { continue };
+        if i != m {
+            h.swap(i, m);
+            for row in h.iter_mut() {
+                row.swap(i, m);
+            }
+        }
+        let pivot_inv = field.inv(&h[m][m - 1]).expect("nonzero pivot");
+        for i in m + 1..n {
+            let u = field.mul(&h[i][m - 1], &pivot_inv);
+            if field.is_zero(&u) {
+                continue;
+            }
+            for j in 0..n {
+                let t = field.mul(&u, &h[m][j]);
+                h[i][j] = field.sub(&h[i][j], &t);
+            }
+            for row in h.iter_mut() {
+                let t = field.mul(&u, &row[i]);
+                row[m] = field.add(&row[m], &t);
+            }
+        }
+    }
+    // p_0 = 1; p_m = (x - h_mm) p_{m-1} - Σ_{i=1}^{m-1} (h_{m,m-1} ... h_{m-i+1,m-i}) h_{m-i,m} p_{m-i-1}
+    let mut p: Vec<Vec<F::Elem>> = vec![vec![field.one()]];
+    for m in 1..=n {
+        let prev = &p[m - 1];
+        let mut next = vec![field.zero(); m + 1];
+        for (j, c) in prev.iter().enumerate() {
+            next[j + 1] = field.add(&next[j + 1], c);
+            next[j] = field.sub(&next[j], &field.mul(c, &h[m - 1][m - 1]));
+        }
+        let mut t = field.one();
+        for i in 1..m {
+            t = field.mul(&t, &h[m - i][m - i - 1]);
+            let factor = field.mul(&t, &h[m - i - 1][m - 1]);
+            if field.is_zero(&factor) {
+                continue;
+            }
+            for (j, c) in p[m - i - 1].iter().enumerate() {
+                next[j] = field.sub(&next[j], &field.mul(&factor, c));
+            }
+        }
+        p.push(next);
+    }
+    p.pop().unwrap()
+}
+
+/// Berkowitz's division-free algorithm over k[T].
+fn berkowitz<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) -> Result<Vec<Poly<F>>> {
     let mut coeffs = vec![ring.one()];
     for r in 0..a.len() {
         let toeplitz = toeplitz_column(ring, a, r, control)?;
@@ -60,6 +252,31 @@ mod tests {
     use crate::field::PrimeField;
     use crate::order::MonomialOrder;
     use crate::parse::parse_poly;
+
+    /// Both methods on the same random matrices: interpolation over GF(101), Berkowitz forced.
+    #[test]
+    fn interpolation_agrees_with_berkowitz() {
+        let ring = Ring::new(PrimeField::new(101).unwrap(), vec!["s".into(), "t".into()], MonomialOrder::Grevlex).unwrap();
+        let mut rng = crate::normalization::changes::Rng::new(9);
+        for size in 0..6 {
+            let a: Vec<Vec<Poly<PrimeField>>> = (0..size)
+                .map(|_| {
+                    (0..size)
+                        .map(|_| {
+                            let terms = (0..3).map(|_| {
+                                let e = vec![(rng.next_u64() % 3) as u32, (rng.next_u64() % 2) as u32];
+                                (crate::Monomial::from_exponents(e).unwrap(), rng.next_u64() % 101)
+                            });
+                            ring.from_terms(terms)
+                        })
+                        .collect()
+                })
+                .collect();
+            let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
+            assert!(interpolation_grid(&ring, &a).is_some());
+            assert_eq!(fast, berkowitz(&ring, &a, &Control::new()).unwrap(), "size {size}");
+        }
+    }
 
     #[test]
     fn two_by_two_and_companion() {
