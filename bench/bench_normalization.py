@@ -8,9 +8,10 @@ by forcing strategy="nonlinear" on the other systems.
 Systems: random underdetermined quadratic systems (m < n, dense, GF(32003)); katsura-n with its
 last equation dropped (Katsura's magnetism systems, as commonly stated: u0 + 2(u1 + ... + un) = 1
 and sum_l u_|l| u_|m-l| = u_m); cyclic-4, which has dimension 1; cyclic-8 (dimension 1) only
-with --cyclic8, since its grevlex basis alone is long for the reference engine.
+with --cyclic8, since its grevlex basis alone is long for the reference engine; 7 variables and
+5 quadrics (rank 32) only with --large, since verify() alone takes minutes there.
 
-Usage: python bench/bench_normalization.py [--cyclic8]
+Usage: python bench/bench_normalization.py [--cyclic8] [--large]
 """
 
 from __future__ import annotations
@@ -78,7 +79,8 @@ def measure(title: str, field: int, names: list[str], polys: list[str], strategy
 
 def main(argv: list[str]) -> int:
     print("system                             d  strategy   rank gens  max eq. degree | seconds")
-    for n, m in [(5, 3), (6, 4), (7, 5), (7, 4)]:
+    sizes = [(5, 3), (6, 4), (7, 4)] + ([(7, 5)] if "--large" in argv else [])
+    for n, m in sizes:
         names, polys = random_quadrics(n, m, seed=n * 10 + m)
         measure(f"random quadrics n={n} m={m}", P, names, polys)
     for n in [3, 4, 5]:

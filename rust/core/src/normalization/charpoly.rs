@@ -33,11 +33,15 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<Ve
     let d = ring.nvars();
     let r = a.len();
     let degree_in = |p: &Poly<F>, i: usize| p.terms().iter().map(|(m, _)| u64::from(m.exponents()[i])).max().unwrap_or(0);
+    let total = |p: &Poly<F>| p.degree().map(u64::from);
+    let total_bound = cycle_mean_bound(&a.iter().map(|row| row.iter().map(total).collect()).collect::<Vec<_>>());
     let bounds: Vec<u64> = (0..d)
         .map(|i| {
             let rows: u64 = a.iter().map(|row| row.iter().map(|p| degree_in(p, i)).max().unwrap_or(0)).sum();
             let cols: u64 = (0..r).map(|k| a.iter().map(|row| degree_in(&row[k], i)).max().unwrap_or(0)).sum();
-            rows.min(cols)
+            let in_i = |p: &Poly<F>| (!p.is_zero()).then(|| degree_in(p, i));
+            let cycles = cycle_mean_bound(&a.iter().map(|row| row.iter().map(in_i).collect()).collect::<Vec<_>>());
+            rows.min(cols).min(cycles).min(total_bound)
         })
         .collect();
     let q = super::changes::field_size(&ring.field).unwrap_or(u64::MAX);
@@ -48,6 +52,37 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<Ve
     (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some(bounds)
 }
 
+/// A bound on the degree of every coefficient of det(x·Id - A), given the degree of each entry
+/// (`None` for a zero entry): each term of the coefficient of x^{r-k} is a product of entries
+/// along disjoint cycles through k indices, so its degree is at most k times the largest mean
+/// degree of a cycle, which Karp's theorem (Karp 1978) computes from the heaviest walks with
+/// exactly j edges: λ* = max_v min_j (W_r(v) - W_j(v)) / (r - j). The bound is ⌊r·λ*⌋.
+fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
+    let r = degrees.len();
+    // walks[j][v]: largest degree of a walk of exactly j edges ending at v (None: no walk).
+    let mut walks: Vec<Vec<Option<i64>>> = vec![vec![Some(0); r]];
+    for j in 1..=r {
+        let next = (0..r)
+            .map(|v| (0..r).filter_map(|u| Some(walks[j - 1][u]? + degrees[u][v]? as i64)).max())
+            .collect();
+        walks.push(next);
+    }
+    // Largest over v of the smallest ratio, compared exactly as fractions (numerator, denominator).
+    let mut best: Option<(i64, i64)> = None;
+    for v in 0..r {
+        let Some(last) = walks[r][v] else { continue };
+        let ratio = (0..r)
+            .filter_map(|j| walks[j][v].map(|w| (last - w, (r - j) as i64)))
+            .min_by(|a, b| (i128::from(a.0) * i128::from(b.1)).cmp(&(i128::from(b.0) * i128::from(a.1))));
+        if let Some(q) = ratio {
+            if best.is_none_or(|b| i128::from(q.0) * i128::from(b.1) > i128::from(b.0) * i128::from(q.1)) {
+                best = Some(q);
+            }
+        }
+    }
+    best.map_or(0, |(num, den)| u64::try_from((r as i64 * num).div_euclid(den)).unwrap_or(0))
+}
+
 fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], bounds: &[u64], control: &Control) -> Result<Vec<Poly<F>>> {
     let field = &ring.field;
     let r = a.len();
@@ -56,6 +91,9 @@ fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], bounds: &[u64]
     // values[k][g]: coefficient of x^k at grid point g (mixed radix, last variable fastest).
     let mut values = vec![vec![field.zero(); points]; r + 1];
     let mut point = vec![field.zero(); bounds.len()];
+    let max_exponents: Vec<u32> = (0..bounds.len())
+        .map(|i| a.iter().flatten().flat_map(|p| p.terms().iter().map(move |(m, _)| m.exponents()[i])).max().unwrap_or(0))
+        .collect();
     for g in 0..points {
         control.check()?;
         let mut rest = g;
@@ -63,10 +101,8 @@ fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], bounds: &[u64]
             point[i] = axes[i][rest % axes[i].len()].clone();
             rest /= axes[i].len();
         }
-        let scalar = a
-            .iter()
-            .map(|row| row.iter().map(|p| ring.evaluate(p, &point)).collect::<Result<Vec<_>>>())
-            .collect::<Result<Vec<_>>>()?;
+        let powers = PowerTable::new(field, &point, &max_exponents);
+        let scalar: Vec<Vec<F::Elem>> = a.iter().map(|row| row.iter().map(|p| powers.evaluate(field, p)).collect()).collect();
         for (k, c) in hessenberg_charpoly(field, scalar).into_iter().enumerate() {
             values[k][g] = c;
         }
@@ -78,6 +114,43 @@ fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], bounds: &[u64]
         out.push(grid_to_poly(ring, &axes, coefficients)?);
     }
     Ok(out)
+}
+
+/// Powers of the coordinates of one point, so that evaluating the many matrix entries costs one
+/// multiplication per variable occurrence instead of a power each time.
+struct PowerTable<F: Field> {
+    powers: Vec<Vec<F::Elem>>,
+}
+
+impl<F: Field> PowerTable<F> {
+    fn new(field: &F, point: &[F::Elem], max_exponents: &[u32]) -> Self {
+        let powers = point
+            .iter()
+            .zip(max_exponents)
+            .map(|(x, &e)| {
+                let mut row = vec![field.one()];
+                for _ in 0..e {
+                    row.push(field.mul(row.last().unwrap(), x));
+                }
+                row
+            })
+            .collect();
+        PowerTable { powers }
+    }
+
+    fn evaluate(&self, field: &F, p: &Poly<F>) -> F::Elem {
+        let mut acc = field.zero();
+        for (m, c) in p.terms() {
+            let mut t = c.clone();
+            for (row, &e) in self.powers.iter().zip(m.exponents()) {
+                if e > 0 {
+                    t = field.mul(&t, &row[e as usize]);
+                }
+            }
+            acc = field.add(&acc, &t);
+        }
+        acc
+    }
 }
 
 /// Turns values on the grid into monomial coefficients, one axis at a time.
