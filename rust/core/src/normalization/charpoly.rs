@@ -14,12 +14,13 @@ use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
 use crate::poly::{Poly, Ring};
+use std::collections::HashMap;
 
 /// Coefficients [1, c_{r-1}, ..., c_0] of det(x·Id - A) = x^r + c_{r-1} x^{r-1} + ... + c_0,
 /// for an r × r matrix `a` (rows of equal length r) over `ring`.
 pub fn characteristic_polynomial<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) -> Result<Vec<Poly<F>>> {
     match interpolation_grid(ring, a) {
-        Some(bounds) => by_interpolation(ring, a, &bounds, control),
+        Some((bounds, total)) => by_interpolation(ring, a, &LowerSet::new(&bounds, total), control),
         None => berkowitz(ring, a, control),
     }
 }
@@ -27,9 +28,9 @@ pub fn characteristic_polynomial<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], c
 /// Largest number of values (grid points × coefficients) interpolation may hold.
 const MAX_INTERPOLATION_VALUES: u64 = 20_000_000;
 
-/// Degree bounds in each t_i for the coefficients, when the field has enough points for them
-/// and the grid is small enough; `None` otherwise.
-fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<Vec<u64>> {
+/// Degree bounds in each t_i and in total for the coefficients, when the field has enough
+/// points for them and the grid is small enough; `None` otherwise.
+fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(Vec<u64>, u64)> {
     let d = ring.nvars();
     let r = a.len();
     let degree_in = |p: &Poly<F>, i: usize| p.terms().iter().map(|(m, _)| u64::from(m.exponents()[i])).max().unwrap_or(0);
@@ -49,7 +50,7 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<Ve
         return None;
     }
     let points = bounds.iter().try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
-    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some(bounds)
+    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((bounds, total_bound))
 }
 
 /// A bound on the degree of every coefficient of det(x·Id - A), given the degree of each entry
@@ -83,24 +84,20 @@ fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
     best.map_or(0, |(num, den)| u64::try_from((r as i64 * num).div_euclid(den)).unwrap_or(0))
 }
 
-fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], bounds: &[u64], control: &Control) -> Result<Vec<Poly<F>>> {
+fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], set: &LowerSet, control: &Control) -> Result<Vec<Poly<F>>> {
     let field = &ring.field;
     let r = a.len();
-    let axes: Vec<Vec<F::Elem>> = bounds.iter().map(|&b| (0..=b).map(|j| field.element_from_index(j)).collect()).collect();
-    let points: usize = axes.iter().map(|v| v.len()).product();
-    // values[k][g]: coefficient of x^k at grid point g (mixed radix, last variable fastest).
-    let mut values = vec![vec![field.zero(); points]; r + 1];
-    let mut point = vec![field.zero(); bounds.len()];
-    let max_exponents: Vec<u32> = (0..bounds.len())
+    let d = ring.nvars();
+    let longest = set.exponents.iter().flatten().copied().max().unwrap_or(0);
+    let nodes: Vec<F::Elem> = (0..=u64::from(longest)).map(|j| field.element_from_index(j)).collect();
+    let max_exponents: Vec<u32> = (0..d)
         .map(|i| a.iter().flatten().flat_map(|p| p.terms().iter().map(move |(m, _)| m.exponents()[i])).max().unwrap_or(0))
         .collect();
-    for g in 0..points {
+    // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
+    let mut values = vec![vec![field.zero(); set.exponents.len()]; r + 1];
+    for (g, alpha) in set.exponents.iter().enumerate() {
         control.check()?;
-        let mut rest = g;
-        for i in (0..bounds.len()).rev() {
-            point[i] = axes[i][rest % axes[i].len()].clone();
-            rest /= axes[i].len();
-        }
+        let point: Vec<F::Elem> = alpha.iter().map(|&j| nodes[j as usize].clone()).collect();
         let powers = PowerTable::new(field, &point, &max_exponents);
         let scalar: Vec<Vec<F::Elem>> = a.iter().map(|row| row.iter().map(|p| powers.evaluate(field, p)).collect()).collect();
         for (k, c) in hessenberg_charpoly(field, scalar).into_iter().enumerate() {
@@ -110,10 +107,80 @@ fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], bounds: &[u64]
     let mut out = Vec::with_capacity(r + 1);
     for k in (0..=r).rev() {
         control.check()?;
-        let coefficients = interpolate_grid(field, &axes, std::mem::take(&mut values[k]));
-        out.push(grid_to_poly(ring, &axes, coefficients)?);
+        let coefficients = set.interpolate(field, &nodes, std::mem::take(&mut values[k]));
+        let terms = set
+            .exponents
+            .iter()
+            .zip(coefficients)
+            .filter(|(_, c)| !field.is_zero(c))
+            .map(|(alpha, c)| Ok((crate::Monomial::from_exponents(alpha.clone())?, c)))
+            .collect::<Result<Vec<_>>>()?;
+        out.push(ring.from_terms(terms));
     }
     Ok(out)
+}
+
+/// The exponents α with α_i ≤ bound_i and |α| ≤ total: a lower set, on whose node points
+/// (s_{α_1}, ..., s_{α_d}) a polynomial with exponents in the set is determined. Newton's form
+/// N_α = Π_i (t_i - s_0)...(t_i - s_{α_i - 1}) makes the interpolation matrix a tensor product of
+/// lower-triangular ones, so the coefficient at α only involves node points below α, all in
+/// the set: one-variable divided differences along the lines of the set, axis after axis, are
+/// exact (multivariate Newton interpolation on lower sets; Sauer 2006, Dyn and Floater 2014).
+struct LowerSet {
+    exponents: Vec<Vec<u32>>,
+    index: HashMap<Vec<u32>, usize>,
+}
+
+impl LowerSet {
+    fn new(bounds: &[u64], total: u64) -> Self {
+        let mut exponents = Vec::new();
+        let mut current = vec![0u32; bounds.len()];
+        Self::enumerate(bounds, total, 0, &mut current, &mut exponents);
+        let index = exponents.iter().enumerate().map(|(g, e)| (e.clone(), g)).collect();
+        LowerSet { exponents, index }
+    }
+
+    fn enumerate(bounds: &[u64], left: u64, i: usize, current: &mut Vec<u32>, out: &mut Vec<Vec<u32>>) {
+        if i == bounds.len() {
+            out.push(current.clone());
+            return;
+        }
+        for e in 0..=bounds[i].min(left) {
+            current[i] = e as u32;
+            Self::enumerate(bounds, left - e, i + 1, current, out);
+        }
+        current[i] = 0;
+    }
+
+    /// The points of the set on the line through `start` (whose i-th exponent is 0) along axis i.
+    fn line(&self, start: &[u32], i: usize) -> Vec<usize> {
+        let mut alpha = start.to_vec();
+        let mut line = Vec::new();
+        while let Some(&g) = self.index.get(&alpha) {
+            line.push(g);
+            alpha[i] += 1;
+        }
+        line
+    }
+
+    /// Values at the node points -> coefficients of the monomials t^α.
+    fn interpolate<F: Field>(&self, field: &F, nodes: &[F::Elem], mut values: Vec<F::Elem>) -> Vec<F::Elem> {
+        let d = self.exponents.first().map_or(0, |e| e.len());
+        for pass in 0..2 {
+            for i in 0..d {
+                for start in self.exponents.iter().filter(|e| e[i] == 0) {
+                    let line = self.line(start, i);
+                    let ys: Vec<F::Elem> = line.iter().map(|&g| values[g].clone()).collect();
+                    let xs = &nodes[..line.len()];
+                    let out = if pass == 0 { divided_differences(field, xs, &ys) } else { newton_to_monomial(field, xs, &ys) };
+                    for (&g, c) in line.iter().zip(out) {
+                        values[g] = c;
+                    }
+                }
+            }
+        }
+        values
+    }
 }
 
 /// Powers of the coordinates of one point, so that evaluating the many matrix entries costs one
@@ -153,70 +220,32 @@ impl<F: Field> PowerTable<F> {
     }
 }
 
-/// Turns values on the grid into monomial coefficients, one axis at a time.
-fn interpolate_grid<F: Field>(field: &F, axes: &[Vec<F::Elem>], mut grid: Vec<F::Elem>) -> Vec<F::Elem> {
-    let mut stride = 1;
-    for axis in axes.iter().rev() {
-        let len = axis.len();
-        let block = stride * len;
-        for start in (0..grid.len()).step_by(block) {
-            for offset in 0..stride {
-                let line: Vec<F::Elem> = (0..len).map(|j| grid[start + offset + j * stride].clone()).collect();
-                for (j, c) in newton_interpolation(field, axis, &line).into_iter().enumerate() {
-                    grid[start + offset + j * stride] = c;
-                }
-            }
-        }
-        stride = block;
-    }
-    grid
-}
-
-fn grid_to_poly<F: Field>(ring: &Ring<F>, axes: &[Vec<F::Elem>], coefficients: Vec<F::Elem>) -> Result<Poly<F>> {
-    let mut terms = Vec::new();
-    for (g, c) in coefficients.into_iter().enumerate() {
-        if ring.field.is_zero(&c) {
-            continue;
-        }
-        let mut exps = vec![0u32; axes.len()];
-        let mut rest = g;
-        for i in (0..axes.len()).rev() {
-            exps[i] = (rest % axes[i].len()) as u32;
-            rest /= axes[i].len();
-        }
-        terms.push((crate::Monomial::from_exponents(exps)?, c));
-    }
-    Ok(ring.from_terms(terms))
-}
-
-/// Coefficients (low to high) of the polynomial of degree < len taking values `ys` at the
-/// distinct points `xs`: Newton's divided differences, then expansion in the monomial basis.
-fn newton_interpolation<F: Field>(field: &F, xs: &[F::Elem], ys: &[F::Elem]) -> Vec<F::Elem> {
+/// Newton coefficients of the polynomial of degree < len taking values `ys` at the distinct
+/// points `xs` (divided differences).
+fn divided_differences<F: Field>(field: &F, xs: &[F::Elem], ys: &[F::Elem]) -> Vec<F::Elem> {
     let n = xs.len();
     let mut dd = ys.to_vec();
     for level in 1..n {
         for i in (level..n).rev() {
             let num = field.sub(&dd[i], &dd[i - 1]);
             let den = field.sub(&xs[i], &xs[i - level]);
-            dd[i] = field.div(&num, &den).expect("grid points are distinct");
+            dd[i] = field.div(&num, &den).expect("nodes are distinct");
         }
     }
-    // Horner in Newton form: p = dd[0] + (x - x0)(dd[1] + (x - x1)(...)).
+    dd
+}
+
+/// Monomial coefficients (low to high) of Σ dd_i (x - x_0)...(x - x_{i-1}), by Horner's rule.
+fn newton_to_monomial<F: Field>(field: &F, xs: &[F::Elem], dd: &[F::Elem]) -> Vec<F::Elem> {
+    let n = xs.len();
     let mut coeffs = vec![field.zero(); n];
     for i in (0..n).rev() {
-        // coeffs := coeffs·(x - x_i) + dd[i]
-        let mut next = vec![field.zero(); n];
-        for (j, c) in coeffs.iter().enumerate() {
-            if field.is_zero(c) {
-                continue;
-            }
-            if j + 1 < n {
-                next[j + 1] = field.add(&next[j + 1], c);
-            }
-            next[j] = field.sub(&next[j], &field.mul(c, &xs[i]));
+        // coeffs := coeffs·(x - x_i) + dd[i]; the degree stays below n.
+        for j in (0..n).rev() {
+            let shifted = if j > 0 { coeffs[j - 1].clone() } else { field.zero() };
+            coeffs[j] = field.sub(&shifted, &field.mul(&coeffs[j], &xs[i]));
         }
-        next[0] = field.add(&next[0], &dd[i]);
-        coeffs = next;
+        coeffs[0] = field.add(&coeffs[0], &dd[i]);
     }
     coeffs
 }
@@ -329,15 +358,16 @@ mod tests {
     /// Both methods on the same random matrices: interpolation over GF(101), Berkowitz forced.
     #[test]
     fn interpolation_agrees_with_berkowitz() {
-        let ring = Ring::new(PrimeField::new(101).unwrap(), vec!["s".into(), "t".into()], MonomialOrder::Grevlex).unwrap();
         let mut rng = crate::normalization::changes::Rng::new(9);
-        for size in 0..6 {
+        for (nvars, size) in (1..=3).flat_map(|d| (0..6).map(move |s| (d, s))) {
+            let names = ["s", "t", "u"][..nvars].iter().map(|v| v.to_string()).collect();
+            let ring = Ring::new(PrimeField::new(101).unwrap(), names, MonomialOrder::Grevlex).unwrap();
             let a: Vec<Vec<Poly<PrimeField>>> = (0..size)
                 .map(|_| {
                     (0..size)
                         .map(|_| {
                             let terms = (0..3).map(|_| {
-                                let e = vec![(rng.next_u64() % 3) as u32, (rng.next_u64() % 2) as u32];
+                                let e = (0..nvars).map(|i| (rng.next_u64() % (3 - i as u64 % 2)) as u32).collect();
                                 (crate::Monomial::from_exponents(e).unwrap(), rng.next_u64() % 101)
                             });
                             ring.from_terms(terms)
@@ -347,7 +377,7 @@ mod tests {
                 .collect();
             let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
             assert!(interpolation_grid(&ring, &a).is_some());
-            assert_eq!(fast, berkowitz(&ring, &a, &Control::new()).unwrap(), "size {size}");
+            assert_eq!(fast, berkowitz(&ring, &a, &Control::new()).unwrap(), "{nvars} variables, size {size}");
         }
     }
 
