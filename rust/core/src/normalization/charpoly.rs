@@ -70,6 +70,7 @@ fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
     }
     // Largest over v of the smallest ratio, compared exactly as fractions (numerator, denominator).
     let mut best: Option<(i64, i64)> = None;
+    #[allow(clippy::needless_range_loop)] // v indexes every walk length's row, not one slice
     for v in 0..r {
         let Some(last) = walks[r][v] else { continue };
         let ratio = (0..r)
@@ -268,9 +269,9 @@ fn hessenberg_charpoly<F: Field>(field: &F, mut h: Vec<Vec<F::Elem>>) -> Vec<F::
             if field.is_zero(&u) {
                 continue;
             }
-            for j in 0..n {
-                let t = field.mul(&u, &h[m][j]);
-                h[i][j] = field.sub(&h[i][j], &t);
+            let pivot_row = h[m].clone();
+            for (target, source) in h[i].iter_mut().zip(&pivot_row) {
+                *target = field.sub(target, &field.mul(&u, source));
             }
             for row in h.iter_mut() {
                 let t = field.mul(&u, &row[i]);

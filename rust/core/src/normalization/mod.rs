@@ -11,6 +11,7 @@
 //!    enough for them to succeed with good probability (Schwartz 1980, Zippel 1979);
 //! 3. *nonlinear*: Nagata's substitutions with the smallest exponents that work ([`nagata`]),
 //!    which always succeed.
+//!
 //! Every candidate costs one or two bases ([`finiteness::test_change`]); the certificate then
 //! comes from the basis that proved finiteness, by the determinant trick ([`certificate`]).
 

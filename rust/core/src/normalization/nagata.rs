@@ -72,8 +72,7 @@ pub fn nagata_change<F: Field>(
 fn choose_step<F: Field>(ring: &Ring<F>, candidates: &[&Poly<F>], rng: &mut Rng) -> Option<Step<F>> {
     let field = &ring.field;
     let one = field.one();
-    // (f, v, subsets of the other variables of f, smallest first)
-    let options: Vec<(&Poly<F>, usize, Vec<Vec<usize>>)> = candidates
+    let options: Vec<Candidate<'_, F>> = candidates
         .iter()
         .flat_map(|f| {
             let support = support(f);
@@ -139,6 +138,10 @@ fn subsets_by_size(items: &[usize]) -> Vec<Vec<usize>> {
     all.sort_by_key(|s: &Vec<usize>| s.len());
     all
 }
+
+/// A candidate f, the variable v to make integral, and the subsets of the other variables of f
+/// that may be shifted, smallest first.
+type Candidate<'a, F> = (&'a Poly<F>, usize, Vec<Vec<usize>>);
 
 fn step<F: Field>(v: usize, others: &[usize], coefficients: Vec<F::Elem>, exps: Vec<u32>) -> Step<F> {
     Step { v, shifts: others.iter().copied().zip(coefficients).zip(exps).map(|((u, c), e)| (u, c, e)).collect() }
