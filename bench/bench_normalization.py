@@ -7,8 +7,9 @@ by forcing strategy="nonlinear" on the other systems.
 
 Systems: random underdetermined quadratic systems (m < n, dense, GF(32003)); katsura-n with its
 last equation dropped (Katsura's magnetism systems, as commonly stated: u0 + 2(u1 + ... + un) = 1
-and sum_l u_|l| u_|m-l| = u_m); cyclic-4, which has dimension 1; cyclic-8 (dimension 1) only
-with --cyclic8, since its grevlex basis alone is long for the reference engine; 7 variables and
+and sum_l u_|l| u_|m-l| = u_m); cyclic-4, which has dimension 1; edge ideals of cycles (monomial
+ideals, whose own basis costs nothing, that need a linear change); cyclic-8 only with --cyclic8,
+since its grevlex basis alone is long for the reference engine; 7 variables and
 5 quadrics (rank 32) only with --large, since verify() alone takes minutes there.
 
 Usage: python bench/bench_normalization.py [--cyclic8] [--large]
@@ -88,6 +89,11 @@ def main(argv: list[str]) -> int:
         measure(f"katsura-{n} minus last equation", P, names, polys)
     names, polys = cyclic(4)
     measure("cyclic-4", P, names, polys)
+    # Edge ideals of cycles (x_i x_{i+1}): unions of coordinate subspaces, where no subset of the
+    # variables is a set of parameters, so a linear change is needed.
+    for n in [5, 7, 9]:
+        names = [f"x{i}" for i in range(n)]
+        measure(f"edge ideal of the {n}-cycle", P, names, [f"{names[i]}*{names[(i + 1) % n]}" for i in range(n)])
     if "--cyclic8" in argv:
         names, polys = cyclic(8)
         measure("cyclic-8", P, names, polys)
