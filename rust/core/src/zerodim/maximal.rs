@@ -1,0 +1,81 @@
+//! Whether a zero-dimensional ideal I over GF(q) is maximal, i.e. R/I is a field, and then its
+//! degree [R/I : k].
+//!
+//! A finite-dimensional reduced GF(q)-algebra is a product of fields GF(q^{m_j}), and the
+//! elements fixed by Frobenius a ↦ a^q form the subalgebra ∏ GF(q), of dimension the number of
+//! factors (the idea of Berlekamp 1967). So R/I is a field exactly when it is reduced (every
+//! variable's minimal polynomial is squarefree, Seidenberg 1974) and Frobenius − identity has
+//! rank dim R/I − 1. Frobenius is a ring map, so its value on a standard monomial is the product
+//! of the images x_i^q, computed once by repeated squaring.
+
+use super::linear::rank;
+use super::radical::variable_minimal_polynomials;
+use super::univariate::degree;
+use super::Quotient;
+use crate::control::Control;
+use crate::dimension::krull_dimension;
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::frobenius::{field_order_limbs, frobenius_of_variables};
+use crate::groebner::GroebnerBasis;
+use crate::poly::Poly;
+
+/// Columns: coordinates of b^q for each standard monomial b.
+fn frobenius_matrix<F: Field>(quotient: &Quotient<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+    let gb = &quotient.basis;
+    let ring = &gb.ring;
+    let images = frobenius_of_variables(gb, control)?;
+    let monomials = quotient.standard_monomials();
+    // Increasing order: b / x_i comes before b, so its image is ready.
+    let mut image_of: Vec<Poly<F>> = Vec::with_capacity(monomials.len());
+    for (k, b) in monomials.iter().enumerate() {
+        control.check()?;
+        let image = match b.exponents().iter().position(|&e| e > 0) {
+            None => gb.reduce(&ring.one())?,
+            Some(i) => {
+                let smaller = b.div(&crate::Monomial::var_power(ring.nvars(), i, 1));
+                let j = quotient.position(&smaller).expect("standard monomials form an order ideal");
+                debug_assert!(j < k);
+                gb.reduce(&ring.mul(&image_of[j], &images[i])?)?
+            }
+        };
+        image_of.push(image);
+    }
+    image_of.iter().map(|p| quotient.coordinates(p)).collect()
+}
+
+/// Whether the ideal with basis `gb` is maximal. Positive-dimensional and unit ideals are not.
+pub fn is_maximal<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<bool> {
+    field_order_limbs(&gb.ring.field, "is_maximal")?;
+    if krull_dimension(gb.ring.nvars(), &gb.leading_monomials()) != 0 {
+        return Ok(false);
+    }
+    let quotient = Quotient::new(gb.clone(), control)?;
+    let reduced = variable_minimal_polynomials(&quotient, control)?
+        .iter()
+        .all(|(m, s)| degree::<F>(m) == degree::<F>(s));
+    if !reduced {
+        return Ok(false);
+    }
+    let field = &gb.ring.field;
+    let columns = frobenius_matrix(&quotient, control)?;
+    let d = quotient.dimension();
+    // Rows of (Φ − Id)ᵀ: the rank is the same.
+    let shifted: Vec<Vec<F::Elem>> = columns
+        .into_iter()
+        .enumerate()
+        .map(|(j, mut col)| {
+            col[j] = field.sub(&col[j], &field.one());
+            col
+        })
+        .collect();
+    Ok(rank(field, shifted) == d - 1)
+}
+
+/// [R/I : k] for a maximal ideal I; an error naming the problem otherwise.
+pub fn residue_field_degree<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<u128> {
+    if !is_maximal(gb, control)? {
+        return Err(Error::invalid("residue_field_degree needs a maximal ideal; this ideal is not maximal"));
+    }
+    super::vector_space_dimension(gb, control)
+}
