@@ -12,11 +12,11 @@ pub fn rank<F: Field>(field: &F, mut rows: Vec<Vec<F::Elem>>) -> usize {
         rows.swap(rank, p);
         let inv = field.inv(&rows[rank][c]).expect("pivot is nonzero");
         let pivot_row: Vec<F::Elem> = rows[rank].iter().map(|v| field.mul(v, &inv)).collect();
-        for r in rank + 1..rows.len() {
-            let factor = rows[r][c].clone();
+        for row in rows.iter_mut().skip(rank + 1) {
+            let factor = row[c].clone();
             if !field.is_zero(&factor) {
                 for k in c..cols {
-                    rows[r][k] = field.sub(&rows[r][k], &field.mul(&factor, &pivot_row[k]));
+                    row[k] = field.sub(&row[k], &field.mul(&factor, &pivot_row[k]));
                 }
             }
         }
@@ -26,12 +26,18 @@ pub fn rank<F: Field>(field: &F, mut rows: Vec<Vec<F::Elem>>) -> usize {
     rank
 }
 
+/// A row with its pivot column (where it is 1) and the combination of the inputs giving it.
+struct EchelonRow<F: Field> {
+    row: Vec<F::Elem>,
+    pivot: usize,
+    combination: Vec<F::Elem>,
+}
+
 /// Vectors added one at a time, kept in echelon form together with how each row is combined
 /// from the inputs, so that the first dependence among the inputs can be read off.
 pub struct Echelon<F: Field> {
     field: F,
-    /// (row, pivot column, combination of the inputs giving this row); row[pivot] = 1.
-    rows: Vec<(Vec<F::Elem>, usize, Vec<F::Elem>)>,
+    rows: Vec<EchelonRow<F>>,
     inputs: usize,
 }
 
@@ -47,7 +53,7 @@ impl<F: Field> Echelon<F> {
         let k = self.inputs;
         let mut combo = vec![f.zero(); k + 1];
         combo[k] = f.one();
-        for (row, pivot, row_combo) in &self.rows {
+        for EchelonRow { row, pivot, combination: row_combo } in &self.rows {
             let factor = v[*pivot].clone();
             if f.is_zero(&factor) {
                 continue;
@@ -63,7 +69,7 @@ impl<F: Field> Echelon<F> {
         let inv = f.inv(&v[pivot]).expect("nonzero");
         let v = v.iter().map(|x| f.mul(x, &inv)).collect();
         let combo = combo.iter().map(|x| f.mul(x, &inv)).collect();
-        self.rows.push((v, pivot, combo));
+        self.rows.push(EchelonRow { row: v, pivot, combination: combo });
         self.inputs += 1;
         None
     }
