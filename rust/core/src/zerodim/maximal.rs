@@ -16,32 +16,51 @@ use crate::control::Control;
 use crate::dimension::krull_dimension;
 use crate::error::{Error, Result};
 use crate::field::Field;
-use crate::frobenius::{field_order_limbs, frobenius_of_variables};
+use crate::frobenius::field_order_limbs;
 use crate::groebner::GroebnerBasis;
-use crate::poly::Poly;
 
-/// Columns: coordinates of b^q for each standard monomial b.
+/// The coordinates of x_i^q in R/I for each variable, q the field order.
+pub fn frobenius_coordinates<F: Field>(quotient: &Quotient<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+    let ring = &quotient.basis.ring;
+    let q = field_order_limbs(&ring.field, "the Frobenius map")?;
+    (0..ring.nvars()).map(|i| quotient.power(&quotient.coordinates(&ring.var(i))?, &q, control)).collect()
+}
+
+/// Columns: coordinates of b^q for each standard monomial b, from b^q = (b / x_i)^q · x_i^q.
 fn frobenius_matrix<F: Field>(quotient: &Quotient<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
-    let gb = &quotient.basis;
-    let ring = &gb.ring;
-    let images = frobenius_of_variables(gb, control)?;
+    let ring = &quotient.basis.ring;
+    let images = frobenius_coordinates(quotient, control)?;
+    let image_multiples: Vec<Vec<Vec<F::Elem>>> =
+        images.iter().map(|x| quotient.multiples(x, control)).collect::<Result<_>>()?;
     let monomials = quotient.standard_monomials();
     // Increasing order: b / x_i comes before b, so its image is ready.
-    let mut image_of: Vec<Poly<F>> = Vec::with_capacity(monomials.len());
-    for (k, b) in monomials.iter().enumerate() {
+    let mut image_of: Vec<Vec<F::Elem>> = Vec::with_capacity(monomials.len());
+    for b in monomials {
         control.check()?;
         let image = match b.exponents().iter().position(|&e| e > 0) {
-            None => gb.reduce(&ring.one())?,
+            None => quotient.coordinates(&ring.one())?,
             Some(i) => {
                 let smaller = b.div(&crate::Monomial::var_power(ring.nvars(), i, 1));
-                let j = quotient.position(&smaller).expect("standard monomials form an order ideal");
-                debug_assert!(j < k);
-                gb.reduce(&ring.mul(&image_of[j], &images[i])?)?
+                let k = quotient.position(&smaller).expect("standard monomials form an order ideal");
+                combine(&ring.field, &image_of[k], &image_multiples[i])
             }
         };
         image_of.push(image);
     }
-    image_of.iter().map(|p| quotient.coordinates(p)).collect()
+    Ok(image_of)
+}
+
+/// Σ_j a_j · w_j.
+fn combine<F: Field>(field: &F, a: &[F::Elem], w: &[Vec<F::Elem>]) -> Vec<F::Elem> {
+    let mut out = vec![field.zero(); a.len()];
+    for (aj, wj) in a.iter().zip(w) {
+        if !field.is_zero(aj) {
+            for (o, x) in out.iter_mut().zip(wj) {
+                *o = field.add(o, &field.mul(aj, x));
+            }
+        }
+    }
+    out
 }
 
 /// Whether the ideal with basis `gb` is maximal. Positive-dimensional and unit ideals are not.

@@ -24,6 +24,7 @@ use crate::monomial::Monomial;
 use crate::poly::Poly;
 use linear::Echelon;
 use std::collections::HashMap;
+use std::sync::OnceLock;
 use univariate::Univariate;
 
 /// An error unless the basis describes a zero-dimensional (or the unit) ideal.
@@ -45,11 +46,19 @@ pub fn vector_space_dimension<F: Field>(gb: &GroebnerBasis<F>, control: &Control
     Ok(series.degree()? as u128)
 }
 
-/// R/I for zero-dimensional I with its monomial basis.
+/// A sparse vector: (coordinate index, nonzero value).
+type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
+
+/// R/I for zero-dimensional I with its monomial basis. Elements are coordinate vectors;
+/// products are computed from the (sparse) matrices of multiplication by the variables, built
+/// on first use from the normal forms of the border monomials x_i·b.
 pub struct Quotient<F: Field> {
     pub basis: GroebnerBasis<F>,
     monomials: Vec<Monomial>,
     index: HashMap<Monomial, usize>,
+    /// For b_j ≠ 1: (i, k) with b_j = x_i · b_k (k < j, as the list is increasing).
+    parents: Vec<Option<(usize, usize)>>,
+    variable_columns: OnceLock<Vec<Vec<SparseColumn<F>>>>,
 }
 
 impl<F: Field> Quotient<F> {
@@ -60,10 +69,10 @@ impl<F: Field> Quotient<F> {
         let leads = basis.leading_monomials();
         let is_standard = |m: &Monomial| !leads.iter().any(|l| l.divides(m));
         let mut monomials = Vec::new();
-        let mut index = HashMap::new();
+        let mut seen = std::collections::HashSet::new();
         let one = Monomial::one(n);
         if is_standard(&one) {
-            index.insert(one.clone(), 0);
+            seen.insert(one.clone());
             monomials.push(one);
         }
         let mut next = 0;
@@ -73,16 +82,23 @@ impl<F: Field> Quotient<F> {
             next += 1;
             for i in 0..n {
                 let up = m.mul(&Monomial::var_power(n, i, 1))?;
-                if !index.contains_key(&up) && is_standard(&up) {
-                    index.insert(up.clone(), monomials.len());
+                if !seen.contains(&up) && is_standard(&up) {
+                    seen.insert(up.clone());
                     monomials.push(up);
                 }
             }
         }
         let ring = &basis.ring;
         monomials.sort_by(|a, b| ring.cmp(a, b));
-        let index = monomials.iter().enumerate().map(|(k, m)| (m.clone(), k)).collect();
-        Ok(Quotient { basis, monomials, index })
+        let index: HashMap<Monomial, usize> = monomials.iter().enumerate().map(|(k, m)| (m.clone(), k)).collect();
+        let parents = monomials
+            .iter()
+            .map(|b| {
+                let i = b.exponents().iter().position(|&e| e > 0)?;
+                Some((i, index[&b.div(&Monomial::var_power(n, i, 1))]))
+            })
+            .collect();
+        Ok(Quotient { basis, monomials, index, parents, variable_columns: OnceLock::new() })
     }
 
     pub fn dimension(&self) -> usize {
@@ -115,35 +131,119 @@ impl<F: Field> Quotient<F> {
         ring.from_terms(self.monomials.iter().cloned().zip(v.iter().cloned()))
     }
 
+    /// Columns of multiplication by each variable: x_i·b_j is a standard monomial (a unit
+    /// column) or a border monomial, reduced once.
+    fn variable_columns(&self, control: &Control) -> Result<&Vec<Vec<SparseColumn<F>>>> {
+        if let Some(columns) = self.variable_columns.get() {
+            return Ok(columns);
+        }
+        let ring = &self.basis.ring;
+        let n = ring.nvars();
+        let mut all = Vec::with_capacity(n);
+        for i in 0..n {
+            let x = Monomial::var_power(n, i, 1);
+            let mut columns = Vec::with_capacity(self.dimension());
+            for b in &self.monomials {
+                control.check()?;
+                let up = b.mul(&x)?;
+                let column = match self.index.get(&up) {
+                    Some(&k) => vec![(k, ring.field.one())],
+                    None => {
+                        let nf = self.basis.reduce(&ring.term(up, ring.field.one()))?;
+                        nf.into_terms().into_iter().map(|(m, c)| (self.index[&m], c)).collect()
+                    }
+                };
+                columns.push(column);
+            }
+            all.push(columns);
+        }
+        Ok(self.variable_columns.get_or_init(|| all))
+    }
+
+    /// x_i · v.
+    fn times_variable(&self, columns: &[SparseColumn<F>], v: &[F::Elem]) -> Vec<F::Elem> {
+        let field = &self.basis.ring.field;
+        let mut out = vec![field.zero(); v.len()];
+        for (j, vj) in v.iter().enumerate() {
+            if field.is_zero(vj) {
+                continue;
+            }
+            for (k, c) in &columns[j] {
+                out[*k] = field.add(&out[*k], &field.mul(vj, c));
+            }
+        }
+        out
+    }
+
+    /// The products b_j · v for every standard monomial b_j (the columns of multiplication by
+    /// v), each from an earlier one by one variable.
+    pub fn multiples(&self, v: &[F::Elem], control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+        let columns = self.variable_columns(control)?;
+        let mut out: Vec<Vec<F::Elem>> = Vec::with_capacity(self.dimension());
+        for parent in &self.parents {
+            control.check()?;
+            let w = match parent {
+                None => v.to_vec(),
+                Some((i, k)) => self.times_variable(&columns[*i], &out[*k]),
+            };
+            out.push(w);
+        }
+        Ok(out)
+    }
+
+    /// Σ_j a_j · w_j for vectors w_j (a combination of the multiples of some element).
+    fn combine(&self, a: &[F::Elem], w: &[Vec<F::Elem>]) -> Vec<F::Elem> {
+        let field = &self.basis.ring.field;
+        let mut out = vec![field.zero(); self.dimension()];
+        for (aj, wj) in a.iter().zip(w) {
+            if field.is_zero(aj) {
+                continue;
+            }
+            for (o, x) in out.iter_mut().zip(wj) {
+                *o = field.add(o, &field.mul(aj, x));
+            }
+        }
+        out
+    }
+
+    /// The product a·c in R/I.
+    pub fn multiply(&self, a: &[F::Elem], c: &[F::Elem], control: &Control) -> Result<Vec<F::Elem>> {
+        Ok(self.combine(a, &self.multiples(c, control)?))
+    }
+
+    /// v^e in R/I, e as little-endian 64-bit limbs, by square-and-multiply.
+    pub fn power(&self, v: &[F::Elem], exponent: &[u64], control: &Control) -> Result<Vec<F::Elem>> {
+        let mut acc = self.coordinates(&self.basis.ring.one())?;
+        let base_multiples = self.multiples(v, control)?;
+        for k in (0..exponent.len() * 64).rev() {
+            acc = self.multiply(&acc, &acc, control)?;
+            if exponent[k / 64] >> (k % 64) & 1 == 1 {
+                acc = self.combine(&acc, &base_multiples);
+            }
+        }
+        Ok(acc)
+    }
+
     /// The matrix of multiplication by f: entry (i, j) is the coefficient of the i-th standard
     /// monomial in f·b_j (column j holds the image of the j-th basis monomial).
     pub fn multiplication_matrix(&self, f: &Poly<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
-        let ring = &self.basis.ring;
-        let field = &ring.field;
+        let columns = self.multiples(&self.coordinates(f)?, control)?;
         let d = self.dimension();
-        let mut matrix = vec![vec![field.zero(); d]; d];
-        for (j, b) in self.monomials.iter().enumerate() {
-            control.check()?;
-            let image = self.coordinates(&ring.mul_term(f, &field.one(), b)?)?;
-            for (i, c) in image.into_iter().enumerate() {
-                matrix[i][j] = c;
-            }
-        }
-        Ok(matrix)
+        Ok((0..d).map(|i| columns.iter().map(|col| col[i].clone()).collect()).collect())
     }
 
     /// The monic minimal polynomial of f in R/I: the first dependence among 1, f, f^2, ...
     pub fn minimal_polynomial(&self, f: &Poly<F>, control: &Control) -> Result<Univariate<F>> {
         let ring = &self.basis.ring;
         let mut echelon = Echelon::new(ring.field.clone());
-        let f = self.basis.reduce(f)?;
-        let mut power = self.basis.reduce(&ring.one())?;
+        let f_multiples = self.multiples(&self.coordinates(f)?, control)?;
+        let mut power = self.coordinates(&ring.one())?;
         loop {
             control.check()?;
-            if let Some(relation) = echelon.add(self.coordinates(&power)?) {
+            if let Some(relation) = echelon.add(power.clone()) {
                 return Ok(relation);
             }
-            power = self.basis.reduce(&ring.mul(&power, &f)?)?;
+            power = self.combine(&power, &f_multiples);
         }
     }
 }
