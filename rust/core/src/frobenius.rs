@@ -31,9 +31,3 @@ pub fn field_order_limbs<F: Field>(field: &F, what: &str) -> Result<Vec<u64>> {
         Error::invalid(format!("{what} needs a finite field; {} is infinite", field.spec()))
     })
 }
-
-/// The images NF(x_i^q) of the variables under Frobenius, q the field order.
-pub fn frobenius_of_variables<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<Vec<Poly<F>>> {
-    let q = field_order_limbs(&gb.ring.field, "the Frobenius map")?;
-    (0..gb.ring.nvars()).map(|i| power_modulo(gb, &gb.ring.var(i), &q, control)).collect()
-}
