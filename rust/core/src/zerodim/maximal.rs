@@ -42,25 +42,12 @@ fn frobenius_matrix<F: Field>(quotient: &Quotient<F>, control: &Control) -> Resu
             Some(i) => {
                 let smaller = b.div(&crate::Monomial::var_power(ring.nvars(), i, 1));
                 let k = quotient.position(&smaller).expect("standard monomials form an order ideal");
-                combine(&ring.field, &image_of[k], &image_multiples[i])
+                quotient.combine(&image_of[k], &image_multiples[i])
             }
         };
         image_of.push(image);
     }
     Ok(image_of)
-}
-
-/// Σ_j a_j · w_j.
-fn combine<F: Field>(field: &F, a: &[F::Elem], w: &[Vec<F::Elem>]) -> Vec<F::Elem> {
-    let mut out = vec![field.zero(); a.len()];
-    for (aj, wj) in a.iter().zip(w) {
-        if !field.is_zero(aj) {
-            for (o, x) in out.iter_mut().zip(wj) {
-                *o = field.add(o, &field.mul(aj, x));
-            }
-        }
-    }
-    out
 }
 
 /// Whether the ideal with basis `gb` is maximal. Positive-dimensional and unit ideals are not.

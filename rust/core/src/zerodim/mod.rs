@@ -192,7 +192,7 @@ impl<F: Field> Quotient<F> {
     }
 
     /// Σ_j a_j · w_j for vectors w_j (a combination of the multiples of some element).
-    fn combine(&self, a: &[F::Elem], w: &[Vec<F::Elem>]) -> Vec<F::Elem> {
+    pub fn combine(&self, a: &[F::Elem], w: &[Vec<F::Elem>]) -> Vec<F::Elem> {
         let field = &self.basis.ring.field;
         let mut out = vec![field.zero(); self.dimension()];
         for (aj, wj) in a.iter().zip(w) {
