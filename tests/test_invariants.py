@@ -302,6 +302,23 @@ def test_dimension_and_hilbert_function_agree_with_sympy(seed):
         assert I.vector_space_dimension() == len(I.standard_monomials())
 
 
+def test_ctrl_c_interrupts_a_point_count():
+    # A projective cubic over GF(1009) takes far longer than the test (minutes at q = 401 with the
+    # reference engine); Ctrl-C stops it.
+    import os
+    import signal
+    import threading
+
+    E = fw.PolynomialRing(1009, "x, y, z").ideal(["y^2*z - x^3 - 2*x*z^2 - 3*z^3"])
+    timer = threading.Timer(0.3, lambda: os.kill(os.getpid(), signal.SIGINT))
+    timer.start()
+    try:
+        with pytest.raises(KeyboardInterrupt):
+            E.count_points(projective=True)
+    finally:
+        timer.cancel()
+
+
 # --- errors --------------------------------------------------------------------------------------
 
 
