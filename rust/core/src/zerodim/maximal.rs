@@ -6,7 +6,7 @@
 //! factors (the idea of Berlekamp 1967). So R/I is a field exactly when it is reduced (every
 //! variable's minimal polynomial is squarefree, Seidenberg 1974) and Frobenius − identity has
 //! rank dim R/I − 1. Frobenius is a ring map, so its value on a standard monomial is the product
-//! of the images x_i^q, computed once by repeated squaring.
+//! of the images x_i^q, computed once by repeated squaring in R/I.
 
 use super::linear::rank;
 use super::radical::variable_minimal_polynomials;
@@ -32,18 +32,13 @@ fn frobenius_matrix<F: Field>(quotient: &Quotient<F>, control: &Control) -> Resu
     let images = frobenius_coordinates(quotient, control)?;
     let image_multiples: Vec<Vec<Vec<F::Elem>>> =
         images.iter().map(|x| quotient.multiples(x, control)).collect::<Result<_>>()?;
-    let monomials = quotient.standard_monomials();
-    // Increasing order: b / x_i comes before b, so its image is ready.
-    let mut image_of: Vec<Vec<F::Elem>> = Vec::with_capacity(monomials.len());
-    for b in monomials {
+    // b_j = x_i · b_k with k < j, so the image of b_k is ready.
+    let mut image_of: Vec<Vec<F::Elem>> = Vec::with_capacity(quotient.dimension());
+    for j in 0..quotient.dimension() {
         control.check()?;
-        let image = match b.exponents().iter().position(|&e| e > 0) {
+        let image = match quotient.parent(j) {
             None => quotient.coordinates(&ring.one())?,
-            Some(i) => {
-                let smaller = b.div(&crate::Monomial::var_power(ring.nvars(), i, 1));
-                let k = quotient.position(&smaller).expect("standard monomials form an order ideal");
-                quotient.combine(&image_of[k], &image_multiples[i])
-            }
+            Some((i, k)) => quotient.combine(&image_of[k], &image_multiples[i]),
         };
         image_of.push(image);
     }

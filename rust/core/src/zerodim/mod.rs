@@ -115,6 +115,11 @@ impl<F: Field> Quotient<F> {
         self.index.get(m).copied()
     }
 
+    /// For the j-th standard monomial b_j ≠ 1, some (i, k) with b_j = x_i · b_k and k < j.
+    pub fn parent(&self, j: usize) -> Option<(usize, usize)> {
+        self.parents[j]
+    }
+
     /// Coordinates of f mod I on the standard monomials.
     pub fn coordinates(&self, f: &Poly<F>) -> Result<Vec<F::Elem>> {
         let field = &self.basis.ring.field;
