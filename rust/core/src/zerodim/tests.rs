@@ -128,3 +128,19 @@ fn positive_dimensional_ideals_are_rejected() {
     // The unit ideal: R/I = 0.
     assert_eq!(vector_space_dimension(&basis(7, &["x"], &["x", "x - 1"]), &Control::new()).unwrap(), 0);
 }
+
+#[test]
+fn quotient_powers_agree_with_powers_of_normal_forms() {
+    // Two independent routes to x^q in R/I: vector arithmetic on the multiplication matrices,
+    // and repeated squaring of polynomials with a normal form after each product.
+    let gb = basis(32003, &["a", "b", "c", "d", "e"], &CYCLIC5);
+    let c = Control::new();
+    let q = Quotient::new(gb.clone(), &c).unwrap();
+    let ring = &gb.ring;
+    let f = crate::parse::parse_poly(ring, "a + 2*b*c - e^2").unwrap();
+    for exponent in [vec![32003u64], vec![5, 1]] {
+        let by_vectors = q.element(&q.power(&q.coordinates(&f).unwrap(), &exponent, &c).unwrap());
+        let by_polys = crate::frobenius::power_modulo(&gb, &f, &exponent, &c).unwrap();
+        assert_eq!(by_vectors, by_polys);
+    }
+}
