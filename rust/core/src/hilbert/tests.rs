@@ -232,3 +232,42 @@ fn non_homogeneous_basis_in_lex_is_rejected() {
     let err = series_of_basis(&gb, &Control::new()).unwrap_err();
     assert!(err.to_string().contains("degree-compatible"), "{err}");
 }
+
+mod against_enumeration {
+    use super::*;
+    use proptest::prelude::*;
+
+    /// Number of monomials of each degree ≤ top in n variables outside the monomial ideal.
+    fn standard_by_degree(n: usize, gens: &[Vec<u32>], top: u32) -> Vec<i128> {
+        let mut counts = vec![0i128; top as usize + 1];
+        let mut exps = vec![0u32; n];
+        loop {
+            let d: u32 = exps.iter().sum();
+            if d <= top && !gens.iter().any(|g| g.iter().zip(&exps).all(|(a, b)| a <= b)) {
+                counts[d as usize] += 1;
+            }
+            // Next exponent vector in [0, top]^n.
+            let mut k = 0;
+            while k < n && exps[k] == top {
+                exps[k] = 0;
+                k += 1;
+            }
+            if k == n {
+                return counts;
+            }
+            exps[k] += 1;
+        }
+    }
+
+    proptest! {
+        /// The pivot recursion against counting standard monomials one by one.
+        #[test]
+        fn series_counts_standard_monomials(
+            gens in proptest::collection::vec(proptest::collection::vec(0u32..4, 4), 1..12)
+        ) {
+            let leads: Vec<Monomial> = gens.iter().map(|g| Monomial::from_exponents(g.clone()).unwrap()).collect();
+            let series = monomial_ideal_series(4, &leads, false, &Control::new()).unwrap();
+            prop_assert_eq!(series.coefficients(9).unwrap(), standard_by_degree(4, &gens, 8));
+        }
+    }
+}
