@@ -247,6 +247,41 @@ def test_large_prime_field():
     assert R.ideal(["x^2 - 4", "y^2 + 1"]).count_points() == 0
 
 
+def test_conic_without_rational_points_over_gf2_splits_over_gf4():
+    # x^2 + x + 1 is the only irreducible quadratic over GF(2): (x^2 + x + 1) is maximal with
+    # residue field GF(4) and has no GF(2)-point (any finite fields text).
+    I = fw.PolynomialRing("GF(2)", "x, y").ideal(["x^2 + x + 1", "y - x"])
+    assert I.is_maximal() and I.residue_field_degree() == 2
+    assert I.count_points() == 0 and I.count_solutions() == 2
+
+
+def prime_power_field(spec):
+    try:
+        return fw.field(spec)
+    except ValueError:
+        pytest.skip(f"{spec} needs GF(p^k) support")
+
+
+def test_counts_over_gf4():
+    # Hermitian curve y^q + y = x^(q+1), q = 2, over GF(4): 8 affine points, 9 projective
+    # (Stichtenoth, Algebraic Function Fields and Codes, from memory; enumerated).
+    prime_power_field("GF(4)")
+    assert fw.PolynomialRing("GF(4)", "x, y").ideal(["y^2 + y - x^3"]).count_points() == 8
+    H = fw.PolynomialRing("GF(4)", "x, y, z").ideal(["y^2*z + y*z^2 - x^3"])
+    assert H.count_points(projective=True) == 9
+    # x^2 + x + 1 splits over GF(4): two rational points, not maximal.
+    I = fw.PolynomialRing("GF(4)", "x, y").ideal(["x^2 + x + 1", "y - x"])
+    assert I.count_points() == 2 and not I.is_maximal()
+    assert I.multiplication_matrix("x").shape == (2, 2)
+
+
+def test_klein_quartic_over_gf8():
+    # x^3 y + y^3 z + z^3 x = 0 over GF(8): 24 projective points (classical; REFERENCE-VALUES).
+    prime_power_field("GF(8)")
+    K = fw.PolynomialRing("GF(8)", "x, y, z").ideal(["x^3*y + y^3*z + z^3*x"])
+    assert K.count_points(projective=True) == 24
+
+
 def test_projective_count_rejects_inhomogeneous_input():
     I = fw.PolynomialRing(5, "x, y, z").ideal(["x^2 - y"])
     with pytest.raises(ValueError, match="not homogeneous"):

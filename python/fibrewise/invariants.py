@@ -117,11 +117,20 @@ def standard_monomials(ideal: "Ideal") -> list[Polynomial]:
 
 def multiplication_matrix(ideal: "Ideal", element: Coercible) -> numpy.ndarray:
     """The matrix of multiplication by ``element`` (e.g. a variable name) on the basis
-    ``standard_monomials()``: column j holds the coordinates of element * b_j."""
+    ``standard_monomials()``: column j holds the coordinates of element * b_j. A numpy array
+    (int64 residues for GF(p)), or a galois array for GF(p^k)."""
     ring_native, basis = _basis(ideal)
     rows = _native.multiplication_matrix(ring_native, basis, ideal.ring(element)._native)
     size = len(rows)
-    return numpy.array(rows, dtype=numpy.int64).reshape(size, size)
+    k = ideal.ring.field
+    if k.degree > 1:
+        # GF(p^k): a galois array over the same field (entries are integer representations).
+        return k.to_galois([x for row in rows for x in row]).reshape(size, size)
+    try:
+        return numpy.array(rows, dtype=numpy.int64).reshape(size, size)
+    except (OverflowError, TypeError):
+        # Residues above 2^63 or exact rationals: Python objects.
+        return numpy.array(rows, dtype=object).reshape(size, size)
 
 
 def count_solutions(ideal: "Ideal") -> int:
