@@ -363,3 +363,16 @@ def test_clear_errors():
         R.ideal(["x*y - 1"]).vector_space_dimension()
     with pytest.raises(ValueError, match="zero-dimensional"):
         R.ideal(["x*y - 1"]).multiplication_matrix("x")
+
+
+def test_rationals_count_solutions_but_not_points():
+    try:
+        Q = fw.PolynomialRing("QQ", "x, y")
+    except ValueError:
+        pytest.skip("QQ not available yet")
+    # x^2 = 2, y^2 = x: 4 simple solutions over the closure (y^4 = 2); ((x - 1)^3, y^2): one.
+    I = Q.ideal(["x^2 - 2", "y^2 - x"])
+    assert I.vector_space_dimension() == 4 and I.count_solutions() == 4
+    assert Q.ideal(["(x - 1)^3", "y^2"]).count_solutions() == 1
+    with pytest.raises(ValueError, match="needs a finite field; QQ is infinite"):
+        I.count_points()
