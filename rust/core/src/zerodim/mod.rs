@@ -137,32 +137,82 @@ impl<F: Field> Quotient<F> {
     }
 
     /// Columns of multiplication by each variable: x_i·b_j is a standard monomial (a unit
-    /// column) or a border monomial, reduced once.
+    /// column) or a border monomial.
     fn variable_columns(&self, control: &Control) -> Result<&Vec<Vec<SparseColumn<F>>>> {
         if let Some(columns) = self.variable_columns.get() {
             return Ok(columns);
         }
         let ring = &self.basis.ring;
         let n = ring.nvars();
+        let border = self.border_normal_forms(control)?;
         let mut all = Vec::with_capacity(n);
         for i in 0..n {
             let x = Monomial::var_power(n, i, 1);
             let mut columns = Vec::with_capacity(self.dimension());
             for b in &self.monomials {
-                control.check()?;
                 let up = b.mul(&x)?;
-                let column = match self.index.get(&up) {
+                columns.push(match self.index.get(&up) {
                     Some(&k) => vec![(k, ring.field.one())],
-                    None => {
-                        let nf = self.basis.reduce(&ring.term(up, ring.field.one()))?;
-                        nf.into_terms().into_iter().map(|(m, c)| (self.index[&m], c)).collect()
-                    }
-                };
-                columns.push(column);
+                    None => border[&up].clone(),
+                });
             }
             all.push(columns);
         }
         Ok(self.variable_columns.get_or_init(|| all))
+    }
+
+    /// Normal forms of the border monomials x_i·b (b standard, x_i·b not), in increasing order
+    /// as in the FGLM algorithm (Faugère, Gianni, Lazard, Mora 1993): a leading monomial of the
+    /// basis reduces in one step; any other border monomial m has a border divisor m / x_j, and
+    /// NF(m) = x_j · NF(m / x_j) is a combination of x_j·b_k for smaller standard b_k, each
+    /// standard or an earlier border monomial. No division algorithm on long polynomials.
+    fn border_normal_forms(&self, control: &Control) -> Result<HashMap<Monomial, SparseColumn<F>>> {
+        let ring = &self.basis.ring;
+        let field = &ring.field;
+        let n = ring.nvars();
+        let variables: Vec<Monomial> = (0..n).map(|i| Monomial::var_power(n, i, 1)).collect();
+        let mut monomials: Vec<Monomial> = Vec::new();
+        for b in &self.monomials {
+            for x in &variables {
+                let up = b.mul(x)?;
+                if !self.index.contains_key(&up) {
+                    monomials.push(up);
+                }
+            }
+        }
+        monomials.sort_by(|a, b| ring.cmp(a, b));
+        monomials.dedup();
+        let leads: std::collections::HashSet<Monomial> = self.basis.leading_monomials().into_iter().collect();
+        let mut border: HashMap<Monomial, SparseColumn<F>> = HashMap::with_capacity(monomials.len());
+        for m in monomials {
+            control.check()?;
+            let smaller = (0..n).find(|&j| {
+                m.exponents()[j] > 0 && border.contains_key(&m.div(&variables[j]))
+            });
+            let column = match smaller {
+                Some(j) if !leads.contains(&m) => {
+                    let mut dense = vec![field.zero(); self.dimension()];
+                    for (k, c) in &border[&m.div(&variables[j])] {
+                        let up = self.monomials[*k].mul(&variables[j])?;
+                        match self.index.get(&up) {
+                            Some(&t) => dense[t] = field.add(&dense[t], c),
+                            None => {
+                                for (t, d) in &border[&up] {
+                                    dense[*t] = field.add(&dense[*t], &field.mul(c, d));
+                                }
+                            }
+                        }
+                    }
+                    dense.into_iter().enumerate().filter(|(_, c)| !field.is_zero(c)).collect()
+                }
+                _ => {
+                    let nf = self.basis.reduce(&ring.term(m.clone(), field.one()))?;
+                    nf.into_terms().into_iter().map(|(t, c)| (self.index[&t], c)).collect()
+                }
+            };
+            border.insert(m, column);
+        }
+        Ok(border)
     }
 
     /// x_i · v.
