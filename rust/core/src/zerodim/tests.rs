@@ -144,3 +144,24 @@ fn quotient_powers_agree_with_powers_of_normal_forms() {
         assert_eq!(by_vectors, by_polys);
     }
 }
+
+#[test]
+fn multiplication_matrices_agree_with_the_division_algorithm() {
+    // Border normal forms are built from earlier ones; each column must equal the remainder of
+    // x_i·b_j by the division algorithm (Cox–Little–O'Shea §2.3).
+    for (vars, gens) in [(&["a", "b", "c", "d", "e"][..], &CYCLIC5[..]), (&["u0", "u1", "u2", "u3", "u4"][..], &KATSURA4[..])] {
+        let gb = basis(32003, vars, gens);
+        let c = Control::new();
+        let q = Quotient::new(gb.clone(), &c).unwrap();
+        let ring = &gb.ring;
+        for i in 0..ring.nvars() {
+            let matrix = q.multiplication_matrix(&ring.var(i), &c).unwrap();
+            for (j, b) in q.standard_monomials().iter().enumerate() {
+                let product = ring.term(b.mul(&Monomial::var_power(ring.nvars(), i, 1)).unwrap(), 1);
+                let expected = q.coordinates(&product).unwrap();
+                let column: Vec<u64> = matrix.iter().map(|row| row[j]).collect();
+                assert_eq!(column, expected, "x{i} times {}", b.format(ring.names()));
+            }
+        }
+    }
+}
