@@ -20,7 +20,7 @@ use crate::frobenius::{field_order_limbs, power_modulo};
 use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
-use crate::dimension::{independent_variables, krull_dimension};
+use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::groebner::GroebnerBasis;
 use crate::zerodim::linear::Echelon;
 use crate::zerodim::{maximal, vector_space_dimension, Quotient};
@@ -44,15 +44,27 @@ pub fn count_affine_points<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], engine: E
         }
         // The field equation of an independent variable cuts the dimension; once the ideal is
         // finite, the remaining equations cost only linear algebra in the quotient.
-        let free = independent_variables(n, &leads).unwrap_or_default();
-        let next = free.into_iter().chain(0..n).find(|&i| !has_equation[i]);
-        let Some(var) = next else { return vector_space_dimension(&gb, control) };
+        let Some(var) = next_variable(&gb, &has_equation) else { return vector_space_dimension(&gb, control) };
         has_equation[var] = true;
         let image = power_modulo(&gb, &r.var(var), &q, control)?;
         let mut with_equation = gb.polys.clone();
         with_equation.push(r.sub(&image, &r.var(var)));
         gb = groebner_basis(&r, &with_equation, engine, control)?;
     }
+}
+
+/// The variable whose field equation comes next: one in a maximal independent set, of least
+/// degree in the basis (fixing it tends to leave the others bounded by equations of higher
+/// degree in them, which makes a smaller basis), the last such on ties.
+fn next_variable<F: Field>(gb: &GroebnerBasis<F>, has_equation: &[bool]) -> Option<usize> {
+    let n = has_equation.len();
+    let degree_in = |i: usize| {
+        gb.polys.iter().flat_map(|g| g.terms().iter().map(move |(m, _)| m.exponents()[i])).max().unwrap_or(0)
+    };
+    let mut candidates: Vec<usize> =
+        maximum_independent_sets(n, &gb.leading_monomials(), 16).into_iter().flatten().collect();
+    candidates.retain(|&i| !has_equation[i]);
+    candidates.into_iter().min_by_key(|&i| (degree_in(i), n - i)).or_else(|| (0..n).find(|&i| !has_equation[i]))
 }
 
 /// For zero-dimensional I: dim_k A/(x_i^q − x_i)A with A = R/I, by linear algebra in A instead
