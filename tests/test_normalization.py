@@ -280,7 +280,7 @@ def test_random_ideals_against_sympy(seed, p, nvars):
             I.noether_normalization(seed=seed)
         return
     nn = I.noether_normalization(seed=seed)
-    assert nn.dimension == dim, texts
+    assert nn.dimension == dim == I.dimension(), texts
     assert nn.verify()
     # Independent check: each equation, parameters substituted, reduces to 0 modulo sympy's basis.
     t = sympy.symbols(nn.parameter_symbols) if nn.parameter_symbols else ()

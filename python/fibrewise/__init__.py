@@ -12,6 +12,7 @@ The algorithms live in a Rust core (``fibrewise._native``); this package is the 
 from ._native import ResourceLimit
 from .fields import Field, field
 from .ideals import GroebnerBasis, GroebnerStats, Ideal
+from .invariants import HilbertSeries
 from .normalization import IntegralEquation, NoetherNormalization
 from .orders import BlockOrder, WeightOrder
 from .rings import Polynomial, PolynomialRing
@@ -21,6 +22,7 @@ __all__ = [
     "Field",
     "GroebnerBasis",
     "GroebnerStats",
+    "HilbertSeries",
     "Ideal",
     "IntegralEquation",
     "NoetherNormalization",
