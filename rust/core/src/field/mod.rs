@@ -4,9 +4,11 @@
 //! compare elements. Prime fields, prime-power fields, multi-precision primes and the rationals
 //! plug in as further implementations without touching the algorithms.
 
+pub mod extension;
 mod prime;
 pub mod primality;
 
+pub use extension::{ExtensionField, Modulus, TableField};
 pub use prime::PrimeField;
 
 use std::fmt::Debug;
