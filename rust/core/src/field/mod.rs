@@ -4,10 +4,14 @@
 //! compare elements. Prime fields, prime-power fields, multi-precision primes and the rationals
 //! plug in as further implementations without touching the algorithms.
 
+mod bigprime;
+pub mod bpsw;
 pub mod extension;
+pub mod montgomery;
 mod prime;
 pub mod primality;
 
+pub use bigprime::BigPrimeField;
 pub use extension::{ExtensionField, Modulus, TableField};
 pub use prime::PrimeField;
 
