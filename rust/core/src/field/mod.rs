@@ -10,10 +10,12 @@ pub mod extension;
 pub mod montgomery;
 mod prime;
 pub mod primality;
+mod rational;
 
 pub use bigprime::BigPrimeField;
 pub use extension::{ExtensionField, Modulus, TableField};
 pub use prime::PrimeField;
+pub use rational::{integer_scale, RationalField};
 
 use std::fmt::Debug;
 use std::hash::Hash;
