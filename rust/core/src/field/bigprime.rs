@@ -235,3 +235,53 @@ mod tests {
         assert!(e.contains("more than 128 bits"), "{e}");
     }
 }
+
+#[cfg(test)]
+mod engine_tests {
+    //! The same systems over 2^255 − 19, a prime just above 2^63 and word-size primes: for
+    //! generic systems the leading monomials of the reduced bases agree (a prime is unlucky only
+    //! if it divides one of finitely many integers attached to the system).
+    use crate::control::Control;
+    use crate::field::{AnyField, Field};
+    use crate::groebner::{groebner_basis, Engine};
+    use crate::order::MonomialOrder;
+    use crate::parse::parse_poly;
+    use crate::poly::Ring;
+    use crate::Monomial;
+
+    fn leads<F: Field>(field: F, gens: &[&str], order: MonomialOrder) -> Vec<Monomial> {
+        let names = ["x", "y", "z"].iter().map(|s| s.to_string()).collect();
+        let r = Ring::new(field, names, order).unwrap();
+        let gens: Vec<_> = gens.iter().map(|g| parse_poly(&r, g).unwrap()).collect();
+        let gb = groebner_basis(&r, &gens, Engine::Buchberger, &Control::new()).unwrap();
+        // A generic system's basis is monic with nonzero coefficients of the input's size.
+        gb.leading_monomials()
+    }
+
+    #[test]
+    fn leading_monomials_agree_across_prime_sizes() {
+        let systems: [&[&str]; 3] = [
+            &["x^2 + 3*y*z - 5", "y^2 - 7*x*z + 2", "z^2 - x*y + 11"],
+            &["x*y - 13*z + 1", "y*z - 17*x", "x*z - 19*y + 23"],
+            &["x^3 + 2*y^2 - z", "x*y*z - 3", "y^3 - x^2 + 5*z^2"],
+        ];
+        let specs = [
+            "GF(65521)",
+            "GF(9223372036854775783)",
+            "GF(9223372036854775837)",
+            "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)",
+            "QQ",
+        ];
+        for gens in systems {
+            for order in [MonomialOrder::Grevlex, MonomialOrder::Lex] {
+                let all: Vec<Vec<Monomial>> = specs
+                    .iter()
+                    .map(|s| crate::with_any_field!(AnyField::parse(s).unwrap(), f => leads(f, gens, order.clone())))
+                    .collect();
+                for (s, l) in specs.iter().zip(&all) {
+                    assert_eq!(l, &all[0], "{s} vs GF(65521) on {gens:?}");
+                }
+            }
+        }
+    }
+}

@@ -11,11 +11,13 @@ pub mod montgomery;
 mod prime;
 pub mod primality;
 mod rational;
+mod spec;
 
 pub use bigprime::BigPrimeField;
 pub use extension::{ExtensionField, Modulus, TableField};
 pub use prime::PrimeField;
 pub use rational::{integer_scale, RationalField};
+pub use spec::{extension_field, prime_field, AnyField};
 
 use std::fmt::Debug;
 use std::hash::Hash;
