@@ -2,10 +2,9 @@
 //! Coefficient conversion (Python side):
 //! - big primes: `int` both ways (values in [0, p));
 //! - QQ: `int` or `fractions.Fraction` in, `Fraction` out;
-//! - GF(p^k): out, the integer representation Σ c_i p^i of c_0 + c_1 a + ... (as galois uses);
-//!   in, an `int` means its image (3 is 3·1 = 0 in GF(9)), while a galois element (anything
-//!   with `__index__` that is not an int) means the element with that integer representation,
-//!   after checking that its field has the same modulus.
+//! - GF(p^k): the integer representation Σ c_i p^i of c_0 + c_1 a + ... (galois's convention),
+//!   both ways: an `int` in [0, q), or a galois element of a field with the same modulus.
+//!   (Ring constants such as `R(3)` or `f + 3` are integers; the Python layer reads them as text.)
 
 use crate::dispatch::{AnyField, AnyPoly, AnyRing, Kind};
 use crate::ring::{IntoAny, NativeField};
@@ -125,7 +124,8 @@ fn integer_representation(p: u64, coefficients: &[u64]) -> BigUint {
     coefficients.iter().rev().fold(BigUint::zero(), |acc, &c| acc * p + c)
 }
 
-/// Coefficients c_0..c_(k-1) of the element with integer representation `code`, if < q.
+/// Coefficients c_0..c_(k-1) of the element given by its integer representation (an int or
+/// a galois element), which must be below q.
 fn coefficients_of(spec: &str, m: &Modulus, v: &Bound<'_, PyAny>) -> PyResult<Vec<u64>> {
     let p = m.characteristic();
     if let Ok(ty) = v.get_type().getattr("irreducible_poly") {
@@ -138,6 +138,9 @@ fn coefficients_of(spec: &str, m: &Modulus, v: &Bound<'_, PyAny>) -> PyResult<Ve
                 v.str()?
             )));
         }
+    }
+    if v.is_instance_of::<PyBool>() {
+        return Err(not_a_coefficient(spec, v, "an int or a galois element of the same field"));
     }
     let index = v.py().import("operator")?.getattr("index")?;
     let mut code: BigUint = index
@@ -165,10 +168,6 @@ impl Kind for TableField {
         Ok(c.into_pyobject(py)?.into_any().unbind())
     }
     fn coefficient_from_py(&self, v: &Bound<'_, PyAny>) -> PyResult<u32> {
-        if is_int(v) {
-            let p = BigUint::from(self.modulus().characteristic());
-            return Ok(self.from_i64(int_mod(v, &p)?.to_i64().unwrap()));
-        }
         Ok(self.encode(&coefficients_of(&self.spec(), self.modulus(), v)?))
     }
 }
@@ -185,10 +184,6 @@ impl Kind for ExtensionField {
         Ok(code.into_pyobject(py)?.into_any().unbind())
     }
     fn coefficient_from_py(&self, v: &Bound<'_, PyAny>) -> PyResult<Box<[u64]>> {
-        if is_int(v) {
-            let p = BigUint::from(self.modulus().characteristic());
-            return Ok(self.from_i64(int_mod(v, &p)?.to_i64().unwrap()));
-        }
         Ok(self.from_coefficients(&coefficients_of(&self.spec(), self.modulus(), v)?))
     }
 }
