@@ -84,7 +84,7 @@ def test_documented_examples():
 @pytest.mark.parametrize(
     "spec, message",
     [
-        ("GF(12)", "12 is not a prime or a prime power"),
+        ("GF(12)", "12 is not a prime (it is divisible by 2) nor a prime power"),
         ("GF(6^2)", "6 is not a prime"),
         ("GF(2^8, modulus='a^8+1')", "reducible over GF(2)"),
         ("GF(2^8, modulus='a^4+a+1')", "degree 4, but the field needs degree 8"),

@@ -68,7 +68,7 @@ impl AnyField {
             let t = t.trim();
             if t.is_empty() || !t.bytes().all(|b| b.is_ascii_digit()) {
                 return Err(Error::invalid(format!(
-                    "field spec '{spec}': '{t}' is not a positive integer (expected {SPEC_FORMS})"
+                    "unknown field spec '{spec}': '{t}' is not a positive integer (expected {SPEC_FORMS})"
                 )));
             }
             Ok(t.parse().expect("digits"))
@@ -88,7 +88,7 @@ impl AnyField {
                 let q = number(order)?;
                 bpsw::prime_power(&q).ok_or_else(|| {
                     Error::invalid(format!(
-                        "field spec '{spec}': {q} is not a prime or a prime power{}, so there is no field GF({q})",
+                        "field spec '{spec}': {q} is not a prime{} nor a prime power, so no field has {q} elements",
                         factor_note(&q)
                     ))
                 })?
@@ -241,7 +241,7 @@ mod tests {
 
     #[test]
     fn bad_specs_say_what_is_wrong() {
-        assert!(err("GF(12)").contains("12 is not a prime or a prime power (it is divisible by 2)"), "{}", err("GF(12)"));
+        assert!(err("GF(12)").contains("12 is not a prime (it is divisible by 2) nor a prime power"), "{}", err("GF(12)"));
         assert!(err("GF(6^2)").contains("6 is not a prime"), "{}", err("GF(6^2)"));
         assert!(err("GF(1)").contains("not a prime"), "{}", err("GF(1)"));
         assert!(err("GF(2^8, modulus='a^8+1')").contains("reducible over GF(2)"), "{}", err("GF(2^8, modulus='a^8+1')"));
