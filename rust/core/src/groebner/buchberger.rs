@@ -12,7 +12,7 @@ use crate::field::Field;
 use crate::poly::{Poly, Ring};
 
 /// S-polynomial of basis elements i and j over their lcm.
-pub(crate) fn s_polynomial<F: Field>(ring: &Ring<F>, g: &[Poly<F>], pair: &Pair) -> Result<Poly<F>> {
+fn s_polynomial<F: Field>(ring: &Ring<F>, g: &[Poly<F>], pair: &Pair) -> Result<Poly<F>> {
     let (f, h) = (&g[pair.i], &g[pair.j]);
     let field = &ring.field;
     let mf = pair.lcm.div(f.leading_monomial().unwrap());

@@ -17,9 +17,6 @@
 //!   does. For homogeneous I the equality is proved outright: I ⊆ ⟨G⟩ and the Hilbert function
 //!   of I mod p is at most that of I (Arnold 2003, Thm 5.13).
 
-use super::buchberger::s_polynomial;
-use super::pairs::PairSet;
-use super::reduce::normal_form;
 use super::{groebner_basis, Engine, GroebnerBasis, Stats};
 use crate::control::Control;
 use crate::error::Result;
@@ -76,7 +73,7 @@ pub fn rational_groebner_basis(
         let Some(candidate) = lift.reconstruct(ring) else { continue };
         let stable = lift.previous.as_ref() == Some(&candidate);
         lift.previous = Some(candidate.clone());
-        if stable && is_verified_basis(ring, &candidate, &gens, control)? {
+        if stable && verify::is_groebner_basis_containing(ring, &candidate, &gens, control)? {
             stats.engine = format!("{} (multi-modular, {} primes)", engine.name(), primes.used);
             stats.seconds = start.elapsed().as_secs_f64();
             return Ok(GroebnerBasis { ring: ring.clone(), polys: candidate, stats });
@@ -216,32 +213,7 @@ pub fn rational_reconstruction(u: &BigInt, modulus: &BigInt) -> Option<BigRation
     Some(BigRational::new(num, den))
 }
 
-/// Whether `basis` is a Gröbner basis (criterion of Buchberger 1965 on the pairs left by the
-/// Gebauer–Möller criteria) whose ideal contains every generator.
-fn is_verified_basis(
-    ring: &Ring<RationalField>,
-    basis: &[Poly<RationalField>],
-    gens: &[Poly<RationalField>],
-    control: &Control,
-) -> Result<bool> {
-    let mut pairs = PairSet::default();
-    for g in basis {
-        pairs.insert(g.leading_monomial().unwrap().clone(), g.degree().unwrap());
-    }
-    for pair in &pairs.pairs {
-        control.check()?;
-        if !normal_form(ring, &s_polynomial(ring, basis, pair)?, basis)?.is_zero() {
-            return Ok(false);
-        }
-    }
-    for g in gens {
-        control.check()?;
-        if !normal_form(ring, g, basis)?.is_zero() {
-            return Ok(false);
-        }
-    }
-    Ok(true)
-}
+mod verify;
 
 #[cfg(test)]
 mod tests;

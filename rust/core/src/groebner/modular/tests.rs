@@ -98,3 +98,23 @@ fn unit_and_zero_ideals() {
     assert!(basis(&r, &["0"]).is_empty());
     assert_eq!(basis(&r, &["2/3"]), polys(&r, &["1"]));
 }
+
+#[test]
+fn verification_rejects_wrong_lifts() {
+    // Cox, Little, O'Shea §2.7 (from memory): {x^2, xy, y^2 - x/2} is the grlex basis of
+    // (x^3 - 2xy, x^2 y - 2y^2 + x). A wrong coefficient, a missing element, or an ideal that
+    // does not contain the input must all be rejected.
+    let r = ring(&["x", "y"], MonomialOrder::Grlex);
+    let gens = polys(&r, &["x^3 - 2*x*y", "x^2*y - 2*y^2 + x"]);
+    let c = Control::new();
+    let good = polys(&r, &["x^2", "x*y", "y^2 - 1/2*x"]);
+    assert!(verify::is_groebner_basis_containing(&r, &good, &gens, &c).unwrap());
+    let wrong_coefficient = polys(&r, &["x^2", "x*y", "y^2 - 1/3*x"]);
+    assert!(!verify::is_groebner_basis_containing(&r, &wrong_coefficient, &gens, &c).unwrap());
+    // Not a Gröbner basis: y·(x^2 + y) − x·(x y) = y^2 has a leading term outside ⟨x^2, xy⟩.
+    let not_gb = polys(&r, &["x^2 + y", "x*y"]);
+    assert!(!verify::is_groebner_basis_containing(&r, &not_gb, &polys(&r, &["x^2 + y"]), &c).unwrap());
+    // A Gröbner basis of a smaller ideal than the input's.
+    let smaller = polys(&r, &["x^2"]);
+    assert!(!verify::is_groebner_basis_containing(&r, &smaller, &gens, &c).unwrap());
+}
