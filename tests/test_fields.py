@@ -203,3 +203,29 @@ def test_rational_coefficients_are_fractions():
     assert R.from_terms(f.terms()) == f
     with pytest.raises(ValueError, match="Fraction"):
         f.evaluate([0.5, 1])
+
+
+@pytest.mark.parametrize("seed", range(24))
+def test_extension_bases_of_prime_field_systems_match_sympy(seed):
+    # A reduced Gröbner basis does not depend on the field extension: for generators with
+    # coefficients in GF(p), the basis over GF(p^k) is the one over GF(p) (Buchberger's algorithm
+    # never leaves the coefficient field). sympy computes the latter with modulus=p.
+    rng = random.Random(3000 + seed)
+    spec, p = [("GF(2^8)", 2), ("GF(9)", 3), ("GF(3^5)", 3), ("GF(2^16)", 2), ("GF(5^9)", 5)][seed % 5]
+    nvars = 2 + seed % 2
+    order = ["lex", "grlex", "grevlex"][seed % 3]
+    texts = []
+    for _ in range(rng.randint(1, 3)):
+        terms = []
+        for _ in range(rng.randint(1, 4)):
+            exps = [0] * nvars
+            for _ in range(rng.randint(0, 3)):
+                exps[rng.randrange(nvars)] += 1
+            mono = "*".join(f"{NAMES[i]}^{e}" for i, e in enumerate(exps) if e) or "1"
+            terms.append(f"{rng.randint(1, p - 1)}*{mono}")
+        texts.append(" + ".join(terms))
+    R = fw.PolynomialRing(spec, NAMES[:nvars], order=order)
+    # Integer representations of GF(p) elements are the residues themselves.
+    ours = {frozenset(g.terms()) for g in R.ideal(texts).groebner_basis()}
+    theirs = {frozenset((e, int(c) % p) for e, c in t) for t in sympy_terms(texts, nvars, order, modulus=p)}
+    assert ours == theirs, (spec, texts)
