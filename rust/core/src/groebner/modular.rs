@@ -27,6 +27,7 @@ use num_bigint::{BigInt, Sign};
 use num_integer::Integer;
 use num_rational::BigRational;
 use num_traits::{One, Signed, ToPrimitive, Zero};
+use rayon::prelude::*;
 use std::any::Any;
 use std::collections::{BTreeMap, HashMap};
 
@@ -59,24 +60,31 @@ pub fn rational_groebner_basis(
     let start = std::time::Instant::now();
     let mut groups: HashMap<Vec<Monomial>, Lift> = HashMap::new();
     let mut primes = PrimeSequence::new();
+    // Images are computed a batch at a time, one prime per worker thread.
+    let batch = control.limits.threads.unwrap_or_else(rayon::current_num_threads).max(1);
     loop {
         control.check()?;
-        let p = primes.next_good(&gens);
-        let (image, mut stats) = modular_image(ring, &gens, p, engine, control)?;
-        let leads: Vec<Monomial> = image.iter().map(|g| g.leading_monomial().unwrap().clone()).collect();
-        groups.entry(leads.clone()).or_default().add_image(p, &image);
-        let count = groups[&leads].primes;
-        if groups.values().any(|other| other.primes > count) {
-            continue; // a larger group outvotes this one: this prime is likely unlucky
-        }
-        let lift = groups.get_mut(&leads).unwrap();
-        let Some(candidate) = lift.reconstruct(ring) else { continue };
-        let stable = lift.previous.as_ref() == Some(&candidate);
-        lift.previous = Some(candidate.clone());
-        if stable && verify::is_groebner_basis_containing(ring, &candidate, &gens, control)? {
-            stats.engine = format!("{} (multi-modular, {} primes)", engine.name(), primes.used);
-            stats.seconds = start.elapsed().as_secs_f64();
-            return Ok(GroebnerBasis { ring: ring.clone(), polys: candidate, stats });
+        let batch_primes: Vec<u64> = (0..batch).map(|_| primes.next_good(&gens)).collect();
+        let images: Vec<(Vec<Poly<PrimeField>>, Stats)> = batch_primes
+            .par_iter()
+            .map(|&p| modular_image(ring, &gens, p, engine, control))
+            .collect::<Result<_>>()?;
+        for (&p, (image, mut stats)) in batch_primes.iter().zip(images) {
+            let leads: Vec<Monomial> = image.iter().map(|g| g.leading_monomial().unwrap().clone()).collect();
+            groups.entry(leads.clone()).or_default().add_image(p, &image);
+            let count = groups[&leads].primes;
+            if groups.values().any(|other| other.primes > count) {
+                continue; // a larger group outvotes this one: this prime is likely unlucky
+            }
+            let lift = groups.get_mut(&leads).unwrap();
+            let Some(candidate) = lift.reconstruct(ring) else { continue };
+            let stable = lift.previous.as_ref() == Some(&candidate);
+            lift.previous = Some(candidate.clone());
+            if stable && verify::is_groebner_basis_containing(ring, &candidate, &gens, control)? {
+                stats.engine = format!("{} (multi-modular, {} primes)", engine.name(), primes.used);
+                stats.seconds = start.elapsed().as_secs_f64();
+                return Ok(GroebnerBasis { ring: ring.clone(), polys: candidate, stats });
+            }
         }
     }
 }
