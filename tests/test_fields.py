@@ -15,7 +15,7 @@ import sympy
 
 import fibrewise as fw
 
-FIELD_SPECS = ["GF(4)", "GF(8)", "GF(9)", "GF(2^8)", "GF(3^5)", "GF(2^16)"]
+FIELD_SPECS = ["GF(4)", "GF(8)", "GF(9)", "GF(2^8)", "GF(3^5)", "GF(2^16)", "GF(2^32)", "GF(2^64)", "GF(3^11)"]
 
 
 def constant(R, code):

@@ -2,7 +2,7 @@
 //!
 //! Adding a field kind: one variant in each enum, one `Kind` impl, one arm in each macro.
 
-use fibrewise_core::field::{BigPrimeField, ExtensionField, RationalField, TableField};
+use fibrewise_core::field::{BigPrimeField, BinaryField, ExtensionField, RationalField, TableField};
 use fibrewise_core::{Field, Poly, PrimeField, Ring};
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
@@ -10,7 +10,7 @@ use std::sync::Arc;
 
 /// The field kinds, as the core's field-spec reader produces them (`fibrewise_core::field::AnyField`):
 /// Prime (p < 2^63), BigPrime2/4/8 (larger primes on 2, 4, 8 limbs), Table (GF(p^k), q <= 2^16),
-/// Extension (GF(p^k), larger q), Rational (QQ).
+/// Binary (GF(2^k), 2^16 < q <= 2^64), Extension (other GF(p^k)), Rational (QQ).
 pub use fibrewise_core::field::AnyField;
 
 #[derive(Clone, Debug)]
@@ -20,6 +20,7 @@ pub enum AnyRing {
     BigPrime4(Arc<Ring<BigPrimeField<4>>>),
     BigPrime8(Arc<Ring<BigPrimeField<8>>>),
     Table(Arc<Ring<TableField>>),
+    Binary(Arc<Ring<BinaryField>>),
     Extension(Arc<Ring<ExtensionField>>),
     Rational(Arc<Ring<RationalField>>),
 }
@@ -31,6 +32,7 @@ pub enum AnyPoly {
     BigPrime4(Poly<BigPrimeField<4>>),
     BigPrime8(Poly<BigPrimeField<8>>),
     Table(Poly<TableField>),
+    Binary(Poly<BinaryField>),
     Extension(Poly<ExtensionField>),
     Rational(Poly<RationalField>),
 }
@@ -51,6 +53,7 @@ macro_rules! with_ring {
             $crate::dispatch::AnyRing::BigPrime4($x) => $body,
             $crate::dispatch::AnyRing::BigPrime8($x) => $body,
             $crate::dispatch::AnyRing::Table($x) => $body,
+            $crate::dispatch::AnyRing::Binary($x) => $body,
             $crate::dispatch::AnyRing::Extension($x) => $body,
             $crate::dispatch::AnyRing::Rational($x) => $body,
         }
@@ -111,6 +114,7 @@ pub fn same_variables_and_field(a: &AnyRing, b: &AnyRing) -> bool {
         (AnyRing::BigPrime4(x), AnyRing::BigPrime4(y)) => same(x, y),
         (AnyRing::BigPrime8(x), AnyRing::BigPrime8(y)) => same(x, y),
         (AnyRing::Table(x), AnyRing::Table(y)) => same(x, y),
+        (AnyRing::Binary(x), AnyRing::Binary(y)) => same(x, y),
         (AnyRing::Extension(x), AnyRing::Extension(y)) => same(x, y),
         (AnyRing::Rational(x), AnyRing::Rational(y)) => same(x, y),
         _ => false,

@@ -8,7 +8,7 @@
 
 use crate::dispatch::{AnyField, AnyPoly, AnyRing, Kind};
 use crate::ring::{IntoAny, NativeField};
-use fibrewise_core::field::{BigPrimeField, ExtensionField, Modulus, RationalField, TableField};
+use fibrewise_core::field::{BigPrimeField, BinaryField, ExtensionField, Modulus, RationalField, TableField};
 use fibrewise_core::{Field, Poly, Ring};
 use num_bigint::{BigInt, BigUint};
 use num_rational::BigRational;
@@ -190,5 +190,22 @@ impl Kind for ExtensionField {
 impl IntoAny for ExtensionField {
     fn into_any(self) -> AnyField {
         AnyField::Extension(self)
+    }
+}
+
+impl Kind for BinaryField {
+    enum_wrapping!(Binary);
+    /// The bits are the integer representation.
+    fn coefficient_to_py(&self, py: Python<'_>, c: &u64) -> PyResult<PyObject> {
+        Ok(c.into_pyobject(py)?.into_any().unbind())
+    }
+    fn coefficient_from_py(&self, v: &Bound<'_, PyAny>) -> PyResult<u64> {
+        let c = coefficients_of(&self.spec(), self.modulus(), v)?;
+        Ok(c.iter().enumerate().fold(0, |acc, (i, &b)| acc | (b << i)))
+    }
+}
+impl IntoAny for BinaryField {
+    fn into_any(self) -> AnyField {
+        AnyField::Binary(self)
     }
 }

@@ -14,7 +14,7 @@ mod rational;
 mod spec;
 
 pub use bigprime::BigPrimeField;
-pub use extension::{ExtensionField, Modulus, TableField};
+pub use extension::{BinaryField, ExtensionField, Modulus, TableField};
 pub use prime::PrimeField;
 pub use rational::{integer_scale, RationalField};
 pub use spec::{extension_field, prime_field, AnyField};

@@ -4,10 +4,10 @@
 //!
 //! Which type serves which field: primes below 2^63 → [`PrimeField`]; larger primes →
 //! [`BigPrimeField`] on 2, 4 or 8 limbs (up to 2^512); p^k with k ≥ 2 → [`TableField`] when
-//! q ≤ 2^16, else [`ExtensionField`]; `QQ` → [`RationalField`].
+//! q ≤ 2^16, [`BinaryField`] for GF(2^k) up to k = 64, else [`ExtensionField`]; `QQ` → [`RationalField`].
 
 use super::bpsw;
-use super::{BigPrimeField, ExtensionField, Field, Modulus, PrimeField, RationalField, TableField};
+use super::{BigPrimeField, BinaryField, ExtensionField, Field, Modulus, PrimeField, RationalField, TableField};
 use crate::error::{Error, Result};
 use num_bigint::BigUint;
 use num_traits::ToPrimitive;
@@ -19,6 +19,7 @@ pub enum AnyField {
     BigPrime4(BigPrimeField<4>),
     BigPrime8(BigPrimeField<8>),
     Table(TableField),
+    Binary(BinaryField),
     Extension(ExtensionField),
     Rational(RationalField),
 }
@@ -33,6 +34,7 @@ macro_rules! with_any_field {
             $crate::field::AnyField::BigPrime4($f) => $body,
             $crate::field::AnyField::BigPrime8($f) => $body,
             $crate::field::AnyField::Table($f) => $body,
+            $crate::field::AnyField::Binary($f) => $body,
             $crate::field::AnyField::Extension($f) => $body,
             $crate::field::AnyField::Rational($f) => $body,
         }
@@ -133,6 +135,7 @@ impl AnyField {
     pub fn modulus(&self) -> Option<&Modulus> {
         match self {
             AnyField::Table(f) => Some(f.modulus()),
+            AnyField::Binary(f) => Some(f.modulus()),
             AnyField::Extension(f) => Some(f.modulus()),
             _ => None,
         }
@@ -192,10 +195,12 @@ pub fn prime_field(p: &BigUint) -> Result<AnyField> {
     }
 }
 
-/// GF(p^k) on `modulus`: tables when q ≤ 2^16.
+/// GF(p^k) on `modulus`: tables when q ≤ 2^16, bit-packed for GF(2^k) with k ≤ 64.
 pub fn extension_field(modulus: Modulus) -> Result<AnyField> {
     if modulus.order() <= BigUint::from(super::extension::MAX_TABLE_ORDER) {
         Ok(AnyField::Table(TableField::new(modulus)?))
+    } else if modulus.characteristic() == 2 && modulus.degree() <= 64 {
+        Ok(AnyField::Binary(BinaryField::new(modulus)?))
     } else {
         Ok(AnyField::Extension(ExtensionField::new(modulus)))
     }
@@ -218,7 +223,10 @@ mod tests {
             ("GF(9)", "Table", "GF(3^2)"),
             (" GF( 3^2 ) ", "Table", "GF(3^2)"),
             ("GF(2^16)", "Table", "GF(2^16)"),
-            ("GF(2^17)", "Extension", "GF(2^17)"),
+            ("GF(2^17)", "Binary", "GF(2^17)"),
+            ("GF(2^64)", "Binary", "GF(2^64)"),
+            ("GF(2^65)", "Extension", "GF(2^65)"),
+            ("GF(3^11)", "Extension", "GF(3^11)"),
             ("GF(2^8, modulus='a^8+a^4+a^3+a^2+1')", "Table", "GF(2^8, modulus='a^8 + a^4 + a^3 + a^2 + 1')"),
             ("GF(2^8, modulus=\"a^8+a^4+a^3+a+1\")", "Table", "GF(2^8)"),
             ("GF(9223372036854775837)", "BigPrime2", "GF(9223372036854775837)"),

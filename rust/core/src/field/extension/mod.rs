@@ -1,14 +1,16 @@
 //! Prime-power fields GF(p^k) = GF(p)[a]/(f) for a monic irreducible f of degree k ≥ 2: elements
 //! are polynomials of degree < k in the generator `a`, written like `a^3 + 2*a + 1`.
 //!
-//! Two representations of the same field: [`TableField`] (logarithm tables, q ≤ 2^16) and
-//! [`ExtensionField`] (coefficient vectors with schoolbook products reduced modulo f and
-//! inverses by the extended Euclidean algorithm, any q). [`Modulus`] holds f, its arithmetic,
+//! Three representations: [`TableField`] (logarithm tables, q ≤ 2^16), [`BinaryField`]
+//! (GF(2^k), k ≤ 64, bit-packed) and [`ExtensionField`] (coefficient vectors with schoolbook
+//! products reduced modulo f and inverses by the extended Euclidean algorithm, any q). [`Modulus`] holds f, its arithmetic,
 //! the irreducibility test and the default choice of f.
 
+mod binary;
 mod modulus;
 mod table;
 
+pub use binary::BinaryField;
 pub use modulus::Modulus;
 pub use table::{TableField, MAX_TABLE_ORDER};
 

@@ -195,7 +195,42 @@ fn large_fields() -> &'static [ExtensionField] {
     })
 }
 
+fn binary_fields() -> &'static [(BinaryField, ExtensionField)] {
+    static FIELDS: std::sync::OnceLock<Vec<(BinaryField, ExtensionField)>> = std::sync::OnceLock::new();
+    FIELDS.get_or_init(|| {
+        let mut moduli: Vec<Modulus> = [17u32, 32, 61, 64].iter().map(|&k| default_modulus(2, k)).collect();
+        // A dense modulus makes the reduction fold many times: the last irreducible of degree
+        // 64 in integer order (found by search from the top).
+        let gf2 = PrimeField::new(2).unwrap();
+        let dense = (0u64..)
+            .find_map(|i| {
+                let low = u64::MAX - i;
+                let mut c: Vec<u64> = (0..64).map(|b| (low >> b) & 1).collect();
+                c.push(1);
+                Modulus::new(gf2.clone(), c).ok()
+            })
+            .unwrap();
+        moduli.push(dense);
+        moduli.into_iter().map(|m| (BinaryField::new(m.clone()).unwrap(), ExtensionField::new(m))).collect()
+    })
+}
+
 proptest! {
+    #[test]
+    fn binary_fields_satisfy_the_axioms_and_agree_with_the_general_representation(a in any::<u64>(), b in any::<u64>(), c in any::<u64>()) {
+        for (f, e) in binary_fields() {
+            check_axioms(f, a, b, c);
+            let (x, y) = (f.element_from_index(a), f.element_from_index(b));
+            let bits = |v: u64| (0..64).map(|i| (v >> i) & 1).collect::<Vec<u64>>();
+            let (u, v) = (e.from_coefficients(&bits(x)), e.from_coefficients(&bits(y)));
+            prop_assert_eq!(e.from_coefficients(&bits(f.mul(&x, &y))), e.mul(&u, &v));
+            if x != 0 {
+                prop_assert_eq!(e.from_coefficients(&bits(f.inv(&x).unwrap())), e.inv(&u).unwrap());
+            }
+            prop_assert_eq!(f.format(&x), e.format(&u));
+        }
+    }
+
     #[test]
     fn table_and_general_fields_satisfy_the_axioms_and_agree(a in any::<u64>(), b in any::<u64>(), c in any::<u64>()) {
         for (t, e) in small_fields() {
