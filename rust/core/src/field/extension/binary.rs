@@ -12,7 +12,6 @@ use crate::field::Field;
 #[derive(Clone, Debug)]
 pub struct BinaryField {
     modulus: Modulus,
-    is_default: bool,
     k: u32,
     /// f − x^k as bits.
     low: u64,
@@ -44,15 +43,14 @@ impl BinaryField {
         if modulus.characteristic() != 2 || k > 64 {
             return Err(Error::invalid(format!(
                 "bit-packed arithmetic needs GF(2^k) with k <= 64, not {}",
-                modulus.spec(false)
+                modulus.spec()
             )));
         }
         let low = modulus.coefficients()[..k as usize]
             .iter()
             .enumerate()
             .fold(0u64, |acc, (i, &c)| acc | (c << i));
-        let is_default = modulus.is_default();
-        Ok(BinaryField { modulus, is_default, k, low })
+        Ok(BinaryField { modulus, k, low })
     }
 
     pub fn modulus(&self) -> &Modulus {
@@ -141,7 +139,7 @@ impl Field for BinaryField {
         self.k
     }
     fn spec(&self) -> String {
-        self.modulus.spec(self.is_default)
+        self.modulus.spec()
     }
     fn format(&self, a: &u64) -> String {
         format_dense(&self.bits(*a), "a")

@@ -21,7 +21,6 @@ use modulus::format_dense;
 #[derive(Clone, Debug)]
 pub struct ExtensionField {
     modulus: Modulus,
-    is_default: bool,
 }
 
 impl PartialEq for ExtensionField {
@@ -32,8 +31,7 @@ impl PartialEq for ExtensionField {
 
 impl ExtensionField {
     pub fn new(modulus: Modulus) -> Self {
-        let is_default = modulus.is_default();
-        ExtensionField { modulus, is_default }
+        ExtensionField { modulus }
     }
 
     /// GF(p^k) on its default modulus.
@@ -112,7 +110,7 @@ impl Field for ExtensionField {
         self.modulus.degree()
     }
     fn spec(&self) -> String {
-        self.modulus.spec(self.is_default)
+        self.modulus.spec()
     }
     fn format(&self, a: &Box<[u64]>) -> String {
         format_dense(a, "a")

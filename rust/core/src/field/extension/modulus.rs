@@ -21,6 +21,8 @@ pub struct Modulus {
     pub(crate) base: PrimeField,
     /// Coefficients c_0 .. c_k of f, c_k = 1.
     coeffs: Vec<u64>,
+    /// Whether f is the default modulus of its field (then the spec omits it).
+    is_default: bool,
 }
 
 impl PartialEq for Modulus {
@@ -68,13 +70,14 @@ impl Modulus {
         }
         let lead_inv = base.inv(coeffs.last().unwrap()).expect("nonzero");
         let coeffs = coeffs.iter().map(|c| base.mul(c, &lead_inv)).collect();
-        let m = Modulus { base, coeffs };
+        let mut m = Modulus { base, coeffs, is_default: false };
         if let Some(why) = m.reducibility_witness() {
             return Err(Error::invalid(format!(
                 "the modulus {} is reducible over GF({p}){why}",
                 m.text()
             )));
         }
+        m.is_default = Modulus::first_irreducible(m.base.clone(), m.degree()).is_ok_and(|d| d == m);
         Ok(m)
     }
 
@@ -89,7 +92,7 @@ impl Modulus {
         loop {
             let mut coeffs = lower.clone();
             coeffs.push(1);
-            let m = Modulus { base: base.clone(), coeffs };
+            let m = Modulus { base: base.clone(), coeffs, is_default: true };
             if lower[0] != 0 && m.reducibility_witness().is_none() {
                 return Ok(m);
             }
@@ -337,13 +340,13 @@ impl Modulus {
 
     /// Whether this is the default modulus of its field (so the spec can omit it).
     pub fn is_default(&self) -> bool {
-        Modulus::first_irreducible(self.base.clone(), self.degree()).is_ok_and(|d| d == *self)
+        self.is_default
     }
 
     /// `GF(p^k)`, with `, modulus='...'` unless the modulus is the default one.
-    pub fn spec(&self, is_default: bool) -> String {
+    pub fn spec(&self) -> String {
         let (p, k) = (self.characteristic(), self.degree());
-        if is_default {
+        if self.is_default {
             format!("GF({p}^{k})")
         } else {
             format!("GF({p}^{k}, modulus='{}')", self.text())

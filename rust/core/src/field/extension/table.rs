@@ -10,7 +10,6 @@ use crate::field::Field;
 #[derive(Clone, Debug)]
 pub struct TableField {
     modulus: Modulus,
-    is_default: bool,
     p: u32,
     q: u32,
     /// exp[i] = g^i for 0 ≤ i < 2(q-1), so a product needs no reduction of the exponent sum.
@@ -34,12 +33,11 @@ impl TableField {
         if q64 > MAX_TABLE_ORDER {
             return Err(Error::invalid(format!(
                 "table arithmetic needs q <= 2^16; {} has more elements",
-                modulus.spec(false)
+                modulus.spec()
             )));
         }
         let (p, q) = (modulus.characteristic() as u32, q64 as u32);
-        let is_default = modulus.is_default();
-        let mut f = TableField { modulus, is_default, p, q, exp: Vec::new(), log: vec![0; q as usize] };
+        let mut f = TableField { modulus, p, q, exp: Vec::new(), log: vec![0; q as usize] };
         let g = f.primitive_element();
         let mut x: Dense = vec![1];
         f.exp = Vec::with_capacity(2 * (q as usize - 1));
@@ -156,7 +154,7 @@ impl Field for TableField {
         self.modulus.degree()
     }
     fn spec(&self) -> String {
-        self.modulus.spec(self.is_default)
+        self.modulus.spec()
     }
     fn format(&self, a: &u32) -> String {
         super::modulus::format_dense(&self.decode(*a), "a")
