@@ -1,7 +1,7 @@
 //! The final check of a lifted basis over QQ, with integer coefficients throughout: a basis
 //! element or S-polynomial is made primitive over ZZ and reduced fraction-free (each step
 //! h ← a·h − b·m·g with a, b coprime integers cancels the leading term), so no rational gcd is
-//! taken per coefficient operation; contents are divided out every few steps. Head reduction
+//! taken per coefficient operation; contents are divided out after each step. Head reduction
 //! decides both questions asked: with G a Gröbner basis, f ∈ ⟨G⟩ iff head reduction of f
 //! ends at 0; and G is a Gröbner basis iff every S-polynomial left by the Gebauer–Möller
 //! criteria head-reduces to 0 (Buchberger 1965). Pairs are checked in parallel.
@@ -71,10 +71,17 @@ fn combine(
     Ok(out)
 }
 
-/// Divides out the gcd of the coefficients.
+/// Divides out the gcd of the coefficients. The gcd is taken from the last (often smallest) term
+/// and given up as soon as it is 1, which is the common case, so this is cheap to call often.
 fn make_primitive(h: &mut IntPoly) {
-    let content = h.iter().fold(BigInt::zero(), |acc, t| acc.gcd(&t.1));
-    if !content.is_zero() && !content.is_one() {
+    let mut content = BigInt::zero();
+    for t in h.iter().rev() {
+        content = content.gcd(&t.1);
+        if content.is_one() {
+            return;
+        }
+    }
+    if !content.is_zero() {
         for t in h.iter_mut() {
             t.1 /= &content;
         }
@@ -88,7 +95,6 @@ fn head_reduces_to_zero(
     basis: &[IntPoly],
     control: &Control,
 ) -> Result<bool> {
-    let mut steps = 0u32;
     while let Some((lm, lc)) = h.first() {
         control.check()?;
         let Some(g) = basis.iter().find(|g| g[0].0.divides(lm)) else { return Ok(false) };
@@ -96,10 +102,7 @@ fn head_reduces_to_zero(
         let (a, b) = (&g[0].1 / &d, lc / &d);
         let m = lm.div(&g[0].0);
         h = combine(ring, &h[1..], &a, &b, &m, &g[1..])?;
-        steps += 1;
-        if steps % 8 == 0 {
-            make_primitive(&mut h);
-        }
+        make_primitive(&mut h);
     }
     Ok(true)
 }
