@@ -229,3 +229,19 @@ def test_extension_bases_of_prime_field_systems_match_sympy(seed):
     ours = {frozenset(g.terms()) for g in R.ideal(texts).groebner_basis()}
     theirs = {frozenset((e, int(c) % p) for e, c in t) for t in sympy_terms(texts, nvars, order, modulus=p)}
     assert ours == theirs, (spec, texts)
+
+
+def test_galois_conversions_of_prime_fields_and_qq():
+    F = fw.field(7)
+    assert F.modulus is None
+    assert F.from_galois(F.to_galois([8, -1, 3])) == [1, 6, 3]
+    assert fw.field(galois.GF(7)).galois_field() is galois.GF(7)
+    big = fw.field(P255)
+    assert big.from_galois(big.to_galois([P255 + 5])) == [5]
+    with pytest.raises(ValueError, match="QQ has no galois counterpart"):
+        fw.field("QQ").galois_field()
+    # A galois class for GF(p^k) with its own modulus keeps it, and reads back from str().
+    G = galois.GF(3**5, irreducible_poly="x^5 + 2x + 1")
+    F = fw.field(G)
+    assert F.modulus == "a^5 + 2*a + 1" and fw.field(str(F)) == F
+    assert F.from_galois(G([1, 2, 242])) == [1, 2, 242]
