@@ -9,6 +9,7 @@ mod dispatch;
 mod errors;
 mod field_kinds;
 mod ideal;
+mod invariants;
 mod long_run;
 mod ring;
 
@@ -20,5 +21,6 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_class::<ring::NativePoly>()?;
     ideal::register(m)?;
     field_kinds::register(m)?;
+    invariants::register(m)?;
     Ok(())
 }
