@@ -61,7 +61,9 @@ class PolynomialRing:
         if isinstance(value, str):
             return Polynomial(self, self._native.parse(value))
         if isinstance(value, int) and not isinstance(value, bool):
-            return Polynomial(self, self._native.constant(value))
+            # As text, an int is an integer in every field (3 = 0 in GF(9)); coefficients of
+            # GF(p^k) given as ints elsewhere are integer representations.
+            return Polynomial(self, self._native.parse(str(value)))
         raise ValueError(f"cannot make a polynomial of {self} from {type(value).__name__} {value!r}")
 
     def from_terms(self, terms: Iterable[tuple[Sequence[int], int]]) -> "Polynomial":

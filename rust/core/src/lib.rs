@@ -1,7 +1,8 @@
 //! fibrewise-core: exact polynomial algebra over fields given by the [`field::Field`] trait.
 //!
 //! Pure Rust; knows nothing of Python. Layout: one algorithm per module.
-//! - [`field`]: the `Field` trait and concrete fields (prime fields GF(p), p < 2^63).
+//! - [`field`]: the `Field` trait and concrete fields: GF(p) for word-size and multi-precision
+//!   primes, GF(p^k), the rationals QQ; field specs read into [`field::AnyField`].
 //! - [`monomial`], [`order`], [`poly`], [`parse`]: exponent vectors, monomial orders,
 //!   sparse polynomials and the polynomial text syntax.
 //! - [`groebner`]: Gröbner basis engines and what is computed from a basis (normal forms,

@@ -2,32 +2,45 @@
 //!
 //! Adding a field kind: one variant in each enum, one `Kind` impl, one arm in each macro.
 
+use fibrewise_core::field::{BigPrimeField, BinaryField, ExtensionField, RationalField, TableField};
 use fibrewise_core::{Field, Poly, PrimeField, Ring};
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
 use std::sync::Arc;
 
-#[derive(Clone, Debug, PartialEq)]
-pub enum AnyField {
-    Prime(PrimeField),
-}
+/// The field kinds, as the core's field-spec reader produces them (`fibrewise_core::field::AnyField`):
+/// Prime (p < 2^63), BigPrime2/4/8 (larger primes on 2, 4, 8 limbs), Table (GF(p^k), q <= 2^16),
+/// Binary (GF(2^k), 2^16 < q <= 2^64), Extension (other GF(p^k)), Rational (QQ).
+pub use fibrewise_core::field::AnyField;
 
 #[derive(Clone, Debug)]
 pub enum AnyRing {
     Prime(Arc<Ring<PrimeField>>),
+    BigPrime2(Arc<Ring<BigPrimeField<2>>>),
+    BigPrime4(Arc<Ring<BigPrimeField<4>>>),
+    BigPrime8(Arc<Ring<BigPrimeField<8>>>),
+    Table(Arc<Ring<TableField>>),
+    Binary(Arc<Ring<BinaryField>>),
+    Extension(Arc<Ring<ExtensionField>>),
+    Rational(Arc<Ring<RationalField>>),
 }
 
 #[derive(Clone, Debug)]
 pub enum AnyPoly {
     Prime(Poly<PrimeField>),
+    BigPrime2(Poly<BigPrimeField<2>>),
+    BigPrime4(Poly<BigPrimeField<4>>),
+    BigPrime8(Poly<BigPrimeField<8>>),
+    Table(Poly<TableField>),
+    Binary(Poly<BinaryField>),
+    Extension(Poly<ExtensionField>),
+    Rational(Poly<RationalField>),
 }
 
 /// Runs `$body` with `$x` bound to the concrete field inside an `AnyField`.
 macro_rules! with_field {
     ($f:expr, $x:ident => $body:expr) => {
-        match $f {
-            $crate::dispatch::AnyField::Prime($x) => $body,
-        }
+        fibrewise_core::with_any_field!($f, $x => $body)
     };
 }
 
@@ -36,6 +49,13 @@ macro_rules! with_ring {
     ($r:expr, $x:ident => $body:expr) => {
         match $r {
             $crate::dispatch::AnyRing::Prime($x) => $body,
+            $crate::dispatch::AnyRing::BigPrime2($x) => $body,
+            $crate::dispatch::AnyRing::BigPrime4($x) => $body,
+            $crate::dispatch::AnyRing::BigPrime8($x) => $body,
+            $crate::dispatch::AnyRing::Table($x) => $body,
+            $crate::dispatch::AnyRing::Binary($x) => $body,
+            $crate::dispatch::AnyRing::Extension($x) => $body,
+            $crate::dispatch::AnyRing::Rational($x) => $body,
         }
     };
 }
@@ -84,20 +104,25 @@ impl Kind for PrimeField {
 }
 
 /// Whether polynomials of the two rings can be combined (orders may differ).
-#[allow(unreachable_patterns)]
 pub fn same_variables_and_field(a: &AnyRing, b: &AnyRing) -> bool {
+    fn same<F: Field>(x: &Ring<F>, y: &Ring<F>) -> bool {
+        x.field == y.field && x.names() == y.names()
+    }
     match (a, b) {
-        (AnyRing::Prime(x), AnyRing::Prime(y)) => x.field == y.field && x.names() == y.names(),
+        (AnyRing::Prime(x), AnyRing::Prime(y)) => same(x, y),
+        (AnyRing::BigPrime2(x), AnyRing::BigPrime2(y)) => same(x, y),
+        (AnyRing::BigPrime4(x), AnyRing::BigPrime4(y)) => same(x, y),
+        (AnyRing::BigPrime8(x), AnyRing::BigPrime8(y)) => same(x, y),
+        (AnyRing::Table(x), AnyRing::Table(y)) => same(x, y),
+        (AnyRing::Binary(x), AnyRing::Binary(y)) => same(x, y),
+        (AnyRing::Extension(x), AnyRing::Extension(y)) => same(x, y),
+        (AnyRing::Rational(x), AnyRing::Rational(y)) => same(x, y),
         _ => false,
     }
 }
 
-/// Field spec strings of prime fields: `7`, `GF(7)`, `GF(65521)`.
+/// Field specs (`7`, `GF(7)`, `GF(2^8)`, `GF(9)`, `GF(2^8, modulus='...')`, big primes, `QQ`),
+/// read by the core.
 pub fn parse_field_spec(spec: &str) -> PyResult<AnyField> {
-    let s = spec.trim();
-    let inner = s.strip_prefix("GF(").and_then(|r| r.strip_suffix(')')).unwrap_or(s).trim();
-    let p: u64 = inner.parse().map_err(|_| {
-        PyValueError::new_err(format!("unknown field spec '{spec}': expected a prime such as 7 or 'GF(7)'"))
-    })?;
-    PrimeField::new(p).map(AnyField::Prime).map_err(crate::errors::to_py)
+    AnyField::parse(spec).map_err(crate::errors::to_py)
 }

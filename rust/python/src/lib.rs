@@ -7,6 +7,7 @@ use pyo3::prelude::*;
 mod convert;
 mod dispatch;
 mod errors;
+mod field_kinds;
 mod ideal;
 mod invariants;
 mod long_run;
@@ -20,6 +21,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_class::<ring::NativeRing>()?;
     m.add_class::<ring::NativePoly>()?;
     ideal::register(m)?;
+    field_kinds::register(m)?;
     invariants::register(m)?;
     normalization::register(m)?;
     Ok(())

@@ -109,7 +109,7 @@ impl NativeRing {
 }
 
 /// Moving a concrete field back into the enum (for `NativeRing::field`).
-trait IntoAny {
+pub(crate) trait IntoAny {
     fn into_any(self) -> AnyField;
 }
 impl IntoAny for fibrewise_core::PrimeField {

@@ -4,10 +4,20 @@
 //! compare elements. Prime fields, prime-power fields, multi-precision primes and the rationals
 //! plug in as further implementations without touching the algorithms.
 
+mod bigprime;
+pub mod bpsw;
+pub mod extension;
+pub mod montgomery;
 mod prime;
 pub mod primality;
+mod rational;
+mod spec;
 
+pub use bigprime::BigPrimeField;
+pub use extension::{BinaryField, ExtensionField, Modulus, TableField};
 pub use prime::PrimeField;
+pub use rational::{integer_scale, RationalField};
+pub use spec::{extension_field, prime_field, AnyField};
 
 use std::fmt::Debug;
 use std::hash::Hash;

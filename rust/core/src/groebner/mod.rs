@@ -7,6 +7,7 @@
 //! order are equal as lists.
 
 pub mod buchberger;
+pub mod modular;
 pub mod pairs;
 pub mod reduce;
 pub mod stats;
@@ -48,6 +49,9 @@ pub fn groebner_basis<F: Field>(
     engine: Engine,
     control: &Control,
 ) -> Result<GroebnerBasis<F>> {
+    if let Some(result) = modular::route(ring, gens, engine, control) {
+        return result;
+    }
     let start = std::time::Instant::now();
     let (polys, mut stats) = match engine {
         Engine::Buchberger => buchberger::compute(ring, gens, control)?,

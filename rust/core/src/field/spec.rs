@@ -1,0 +1,274 @@
+//! Field specs: the text that names a field (`GF(7)`, `GF(2^8)`, `GF(9)`,
+//! `GF(2^8, modulus='a^8+a^4+a^3+a+1')`, `QQ`) read into [`AnyField`], one variant per concrete
+//! field type. Every field's `spec()` reads back to an equal field.
+//!
+//! Which type serves which field: primes below 2^63 → [`PrimeField`]; larger primes →
+//! [`BigPrimeField`] on 2, 4 or 8 limbs (up to 2^512); p^k with k ≥ 2 → [`TableField`] when
+//! q ≤ 2^16, [`BinaryField`] for GF(2^k) up to k = 64, else [`ExtensionField`]; `QQ` → [`RationalField`].
+
+use super::bpsw;
+use super::{BigPrimeField, BinaryField, ExtensionField, Field, Modulus, PrimeField, RationalField, TableField};
+use crate::error::{Error, Result};
+use num_bigint::BigUint;
+use num_traits::ToPrimitive;
+
+#[derive(Clone, Debug, PartialEq)]
+pub enum AnyField {
+    Prime(PrimeField),
+    BigPrime2(BigPrimeField<2>),
+    BigPrime4(BigPrimeField<4>),
+    BigPrime8(BigPrimeField<8>),
+    Table(TableField),
+    Binary(BinaryField),
+    Extension(ExtensionField),
+    Rational(RationalField),
+}
+
+/// Applies an expression to the concrete field inside an [`AnyField`].
+#[macro_export]
+macro_rules! with_any_field {
+    ($field:expr, $f:ident => $body:expr) => {
+        match $field {
+            $crate::field::AnyField::Prime($f) => $body,
+            $crate::field::AnyField::BigPrime2($f) => $body,
+            $crate::field::AnyField::BigPrime4($f) => $body,
+            $crate::field::AnyField::BigPrime8($f) => $body,
+            $crate::field::AnyField::Table($f) => $body,
+            $crate::field::AnyField::Binary($f) => $body,
+            $crate::field::AnyField::Extension($f) => $body,
+            $crate::field::AnyField::Rational($f) => $body,
+        }
+    };
+}
+
+const SPEC_FORMS: &str = "GF(p), GF(p^k), GF(q), GF(p^k, modulus='...') or QQ";
+
+impl AnyField {
+    /// Reads a field spec (see the module doc); errors name what is wrong.
+    pub fn parse(spec: &str) -> Result<Self> {
+        let text = spec.trim();
+        if text == "QQ" {
+            return Ok(AnyField::Rational(RationalField));
+        }
+        if !text.is_empty() && text.bytes().all(|b| b.is_ascii_digit()) {
+            return AnyField::from_order(spec, text, None);
+        }
+        let inner = text
+            .strip_prefix("GF(")
+            .and_then(|t| t.strip_suffix(')'))
+            .ok_or_else(|| Error::invalid(format!("unknown field spec '{spec}': expected {SPEC_FORMS}")))?;
+        let (order, modulus) = match inner.split_once(',') {
+            None => (inner.trim(), None),
+            Some((order, rest)) => (order.trim(), Some(parse_modulus_option(spec, rest)?)),
+        };
+        AnyField::from_order(spec, order, modulus)
+    }
+
+    /// The field of order `order` (`q` or `p^k`), optionally on a given modulus text.
+    fn from_order(spec: &str, order: &str, modulus: Option<&str>) -> Result<Self> {
+        let number = |t: &str| -> Result<BigUint> {
+            let t = t.trim();
+            if t.is_empty() || !t.bytes().all(|b| b.is_ascii_digit()) {
+                return Err(Error::invalid(format!(
+                    "unknown field spec '{spec}': '{t}' is not a positive integer (expected {SPEC_FORMS})"
+                )));
+            }
+            Ok(t.parse().expect("digits"))
+        };
+        let (p, k) = match order.split_once('^') {
+            Some((base, exp)) => {
+                let p = number(base)?;
+                let k = number(exp)?.to_u32().filter(|&k| k >= 1).ok_or_else(|| {
+                    Error::invalid(format!("field spec '{spec}': the exponent must be between 1 and 2^32 - 1"))
+                })?;
+                if !bpsw::is_probable_prime(&p) {
+                    return Err(Error::invalid(format!("field spec '{spec}': {p} is not a prime{}", factor_note(&p))));
+                }
+                (p, k)
+            }
+            None => {
+                let q = number(order)?;
+                bpsw::prime_power(&q).ok_or_else(|| {
+                    Error::invalid(format!(
+                        "field spec '{spec}': {q} is not a prime{} nor a prime power, so no field has {q} elements",
+                        factor_note(&q)
+                    ))
+                })?
+            }
+        };
+        match (k, modulus) {
+            (1, None) => prime_field(&p),
+            (_, Some(text)) => {
+                let base = small_prime(spec, &p)?;
+                extension_field(Modulus::parse(base, Some(k), text).map_err(|e| prefixed(spec, e))?)
+            }
+            (_, None) => {
+                let base = small_prime(spec, &p)?;
+                extension_field(Modulus::first_irreducible(base, k)?)
+            }
+        }
+    }
+
+    /// GF(p^k) on the modulus with coefficients c_0..c_k (low degree first); GF(p) for k = 1.
+    /// This is how a field object from another library (its irreducible polynomial) comes in.
+    pub fn from_modulus(p: &BigUint, coeffs: Vec<u64>) -> Result<Self> {
+        if coeffs.len() <= 2 {
+            return prime_field(p);
+        }
+        let base = small_prime(&format!("GF({p}^{})", coeffs.len() - 1), p)?;
+        extension_field(Modulus::new(base, coeffs)?)
+    }
+
+    pub fn spec(&self) -> String {
+        with_any_field!(self, f => f.spec())
+    }
+    pub fn characteristic(&self) -> String {
+        with_any_field!(self, f => f.characteristic())
+    }
+    pub fn order(&self) -> Option<String> {
+        with_any_field!(self, f => f.order())
+    }
+    pub fn degree(&self) -> u32 {
+        with_any_field!(self, f => f.degree())
+    }
+    /// The modulus of a prime-power field.
+    pub fn modulus(&self) -> Option<&Modulus> {
+        match self {
+            AnyField::Table(f) => Some(f.modulus()),
+            AnyField::Binary(f) => Some(f.modulus()),
+            AnyField::Extension(f) => Some(f.modulus()),
+            _ => None,
+        }
+    }
+}
+
+fn prefixed(spec: &str, e: Error) -> Error {
+    match e {
+        Error::InvalidInput(m) => Error::invalid(format!("field spec '{spec}': {m}")),
+        other => other,
+    }
+}
+
+/// ` (it is divisible by d)` when a small factor is known.
+fn factor_note(n: &BigUint) -> String {
+    match bpsw::small_factor(n) {
+        Some(d) => format!(" (it is divisible by {d})"),
+        None => String::new(),
+    }
+}
+
+/// `modulus='...'` (or double quotes) after the comma; returns the quoted text.
+fn parse_modulus_option<'a>(spec: &str, rest: &'a str) -> Result<&'a str> {
+    let bad = || Error::invalid(format!("field spec '{spec}': expected modulus='...' after the comma"));
+    let (key, value) = rest.split_once('=').ok_or_else(bad)?;
+    if key.trim() != "modulus" {
+        return Err(Error::invalid(format!(
+            "field spec '{spec}': unknown option '{}' (the only option is modulus)",
+            key.trim()
+        )));
+    }
+    let value = value.trim();
+    let quote = value.chars().next().filter(|c| *c == '\'' || *c == '"').ok_or_else(bad)?;
+    value.strip_prefix(quote).and_then(|v| v.strip_suffix(quote)).ok_or_else(bad)
+}
+
+/// The prime field of an extension: word-size only.
+fn small_prime(spec: &str, p: &BigUint) -> Result<PrimeField> {
+    match p.to_u64().filter(|&v| v < PrimeField::MAX_MODULUS) {
+        Some(v) => PrimeField::new(v),
+        None => Err(Error::invalid(format!(
+            "field spec '{spec}': extension fields GF(p^k) need p < 2^63"
+        ))),
+    }
+}
+
+/// GF(p) on the fastest representation for the size of p.
+pub fn prime_field(p: &BigUint) -> Result<AnyField> {
+    if let Some(v) = p.to_u64().filter(|&v| v < PrimeField::MAX_MODULUS) {
+        return Ok(AnyField::Prime(PrimeField::new(v)?));
+    }
+    match BigPrimeField::<2>::limbs_for(p.bits()) {
+        Some(2) => Ok(AnyField::BigPrime2(BigPrimeField::new(p)?)),
+        Some(4) => Ok(AnyField::BigPrime4(BigPrimeField::new(p)?)),
+        Some(_) => Ok(AnyField::BigPrime8(BigPrimeField::new(p)?)),
+        None => Err(Error::invalid(format!("GF({p}): primes above 2^512 are not supported"))),
+    }
+}
+
+/// GF(p^k) on `modulus`: tables when q ≤ 2^16, bit-packed for GF(2^k) with k ≤ 64.
+pub fn extension_field(modulus: Modulus) -> Result<AnyField> {
+    if modulus.order() <= BigUint::from(super::extension::MAX_TABLE_ORDER) {
+        Ok(AnyField::Table(TableField::new(modulus)?))
+    } else if modulus.characteristic() == 2 && modulus.degree() <= 64 {
+        Ok(AnyField::Binary(BinaryField::new(modulus)?))
+    } else {
+        Ok(AnyField::Extension(ExtensionField::new(modulus)))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn err(spec: &str) -> String {
+        AnyField::parse(spec).unwrap_err().to_string()
+    }
+
+    #[test]
+    fn specs_read_back() {
+        for (spec, kind, canonical) in [
+            ("7", "Prime", "GF(7)"),
+            ("GF(65521)", "Prime", "GF(65521)"),
+            ("GF(2^8)", "Table", "GF(2^8)"),
+            ("GF(9)", "Table", "GF(3^2)"),
+            (" GF( 3^2 ) ", "Table", "GF(3^2)"),
+            ("GF(2^16)", "Table", "GF(2^16)"),
+            ("GF(2^17)", "Binary", "GF(2^17)"),
+            ("GF(2^64)", "Binary", "GF(2^64)"),
+            ("GF(2^65)", "Extension", "GF(2^65)"),
+            ("GF(3^11)", "Extension", "GF(3^11)"),
+            ("GF(2^8, modulus='a^8+a^4+a^3+a^2+1')", "Table", "GF(2^8, modulus='a^8 + a^4 + a^3 + a^2 + 1')"),
+            ("GF(2^8, modulus=\"a^8+a^4+a^3+a+1\")", "Table", "GF(2^8)"),
+            ("GF(9223372036854775837)", "BigPrime2", "GF(9223372036854775837)"),
+            (
+                "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)",
+                "BigPrime4",
+                "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)",
+            ),
+            ("QQ", "Rational", "QQ"),
+        ] {
+            let f = AnyField::parse(spec).unwrap();
+            assert!(format!("{f:?}").starts_with(kind), "{spec}: {f:?}");
+            assert_eq!(f.spec(), canonical, "{spec}");
+            assert_eq!(AnyField::parse(&f.spec()).unwrap(), f, "{spec}");
+        }
+        let f = AnyField::parse("GF(3^5)").unwrap();
+        assert_eq!((f.characteristic(), f.order(), f.degree()), ("3".into(), Some("243".into()), 5));
+        assert_eq!(AnyField::parse("QQ").unwrap().order(), None);
+    }
+
+    #[test]
+    fn bad_specs_say_what_is_wrong() {
+        assert!(err("GF(12)").contains("12 is not a prime (it is divisible by 2) nor a prime power"), "{}", err("GF(12)"));
+        assert!(err("GF(6^2)").contains("6 is not a prime"), "{}", err("GF(6^2)"));
+        assert!(err("GF(1)").contains("not a prime"), "{}", err("GF(1)"));
+        assert!(err("GF(2^8, modulus='a^8+1')").contains("reducible over GF(2)"), "{}", err("GF(2^8, modulus='a^8+1')"));
+        assert!(err("GF(2^8, modulus='a^5+a^2+1')").contains("degree 5"), "{}", err("GF(2^8, modulus='a^5+a^2+1')"));
+        assert!(err("GF(2^8, poly='a^8+1')").contains("unknown option 'poly'"));
+        assert!(err("GF(2^8, modulus=a^8+1)").contains("expected modulus='...'"));
+        assert!(err("ZZ").contains("unknown field spec 'ZZ'"));
+        assert!(err("GF(x)").contains("'x' is not a positive integer"));
+        assert!(err("GF(2^0)").contains("exponent"));
+        let big = "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949^2)";
+        assert!(err(big).contains("need p < 2^63"), "{}", err(big));
+        assert!(err("GF(57896044618658097711785492504343953926634992332820282019728792003956564819951)").contains("is not a prime"));
+    }
+
+    #[test]
+    fn from_modulus_coefficients() {
+        let f = AnyField::from_modulus(&BigUint::from(2u8), vec![1, 1, 0, 1, 1, 0, 0, 0, 1]).unwrap();
+        assert_eq!(f.spec(), "GF(2^8)");
+        assert_eq!(AnyField::from_modulus(&BigUint::from(7u8), vec![0, 1]).unwrap().spec(), "GF(7)");
+        assert!(AnyField::from_modulus(&BigUint::from(2u8), vec![1, 0, 1]).is_err());
+    }
+}
