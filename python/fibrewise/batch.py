@@ -176,78 +176,101 @@ def _fsync_directory(path: str) -> None:
 # Worker processes
 
 
-def _worker_main(conn, memory_bytes: int | None) -> None:
-    """A worker's life: limit its memory, then run jobs until the pipe closes."""
-    signal.signal(signal.SIGINT, signal.SIG_IGN)  # the parent decides what Ctrl-C stops
-    os.environ["RAYON_NUM_THREADS"] = "1"  # one job per core: no nested thread pools
+WORKER_CODE = "from fibrewise.batch import serve; serve()"
+
+
+def serve() -> None:
+    """A worker's life (``python -c WORKER_CODE MEMORY_BYTES``): limit its data memory (heap and
+    anonymous mappings: RLIMIT_DATA), then
+    read one job a line on stdin and answer one record a line on stdout, until stdin closes."""
+    import resource
+
+    memory_bytes = int(sys.argv[1]) if len(sys.argv) > 1 else 0
     if memory_bytes:
-        import resource
-
-        resource.setrlimit(resource.RLIMIT_AS, (memory_bytes, memory_bytes))
-    while True:
-        try:
-            job = conn.recv()
-        except (EOFError, OSError):
-            return
-        if job is None:
-            return
-        conn.send(run_job(job))
+        resource.setrlimit(resource.RLIMIT_DATA, (memory_bytes, memory_bytes))
+    replies = os.fdopen(os.dup(1), "w", encoding="utf-8")
+    sys.stdout = sys.stderr  # stray prints must not break the protocol
+    threading.Thread(target=_exit_with_parent, args=(os.getppid(),), daemon=True).start()
+    for line in sys.stdin:
+        record = run_job(json.loads(line))
+        replies.write(json.dumps(record, ensure_ascii=False, separators=(",", ":")) + "\n")
+        replies.flush()
 
 
-def _context():
-    import multiprocessing
-
-    # spawn: a fresh interpreter, safe whatever threads the parent runs (Dask, the fsync thread)
-    return multiprocessing.get_context("spawn")
+def _exit_with_parent(parent: int) -> None:
+    """A worker whose parent was killed (SIGKILL, power off) must not compute on for nobody."""
+    while os.getppid() == parent:
+        time.sleep(1.0)
+    os._exit(1)
 
 
 @dataclass
 class Sandbox:
-    """One long-lived worker process and its pipe, running one job at a time."""
+    """One long-lived worker process, running one job at a time. It has its own session, so a
+    Ctrl-C at the terminal reaches only the parent, which decides what stops."""
 
     memory_bytes: int | None = None
     job: dict | None = None
     deadline: float | None = None
     process: Any = field(default=None, repr=False)
-    conn: Any = field(default=None, repr=False)
+    errors: Any = field(default=None, repr=False)
 
     def start(self) -> "Sandbox":
-        ctx = _context()
-        self.conn, child = ctx.Pipe()
-        self.process = ctx.Process(target=_worker_main, args=(child, self.memory_bytes), daemon=True,
-                                   name="fibrewise-worker")
-        self.process.start()
-        child.close()  # so the parent sees EOF when the worker dies
+        import subprocess
+        import tempfile
+
+        self.errors = tempfile.TemporaryFile()  # the worker's stderr, read if it dies
+        env = dict(os.environ, RAYON_NUM_THREADS="1", RUST_BACKTRACE="0")  # one core per job
+        self.process = subprocess.Popen(
+            [sys.executable, "-c", WORKER_CODE, str(self.memory_bytes or 0)],
+            stdin=subprocess.PIPE, stdout=subprocess.PIPE, stderr=self.errors, env=env,
+            start_new_session=True)
         return self
+
+    @property
+    def replies(self):
+        return self.process.stdout
 
     def submit(self, job: dict, timeout: float | None) -> None:
         self.job = job
         self.deadline = None if timeout is None else time.monotonic() + timeout
-        self.conn.send(job)
+        try:
+            self.process.stdin.write(json.dumps(job).encode("utf-8") + b"\n")
+            self.process.stdin.flush()
+        except OSError:
+            pass  # a dead worker shows up as an empty reply
 
     def receive(self) -> dict:
         """The record of the current job; a dead worker becomes an error record."""
         job = self.job
         self.job, self.deadline = None, None
-        try:
-            return self.conn.recv()
-        except (EOFError, OSError):
-            record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None}
-            self.restart()
-            return record
+        line = self.replies.readline()
+        if line.endswith(b"\n"):
+            return json.loads(line)
+        record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None}
+        self.restart()
+        return record
 
     def _death_message(self) -> str:
-        self.process.join(timeout=5)
-        code = self.process.exitcode
-        if code is not None and code < 0:
-            try:
-                how = f"signal {signal.Signals(-code).name}"
-            except ValueError:
-                how = f"signal {-code}"
-        else:
-            how = f"exit status {code}"
-        limit = f"; most likely out of memory (limit {self.memory_bytes >> 20} MiB)" if self.memory_bytes else ""
-        return f"the worker process died ({how}){limit}"
+        code = self.process.wait()
+        try:
+            how = f"signal {signal.Signals(-code).name}" if code < 0 else f"exit status {code}"
+        except ValueError:
+            how = f"signal {-code}"
+        message = f"the worker process died ({how})"
+        last = self._last_error_line()
+        if last:
+            message += f": {last}"
+        if self.memory_bytes:
+            message += f"; most likely out of memory (limit {self.memory_bytes >> 20} MiB)"
+        return message
+
+    def _last_error_line(self) -> str:
+        self.errors.seek(0, os.SEEK_END)
+        self.errors.seek(max(0, self.errors.tell() - 4096))
+        lines = [l.strip() for l in self.errors.read().decode("utf-8", "replace").splitlines() if l.strip()]
+        useful = [l for l in lines if not l.startswith("note: run with")]
+        return useful[-1] if useful else ""
 
     def time_out(self, timeout: float) -> dict:
         record = {"id": self.job["id"], "status": "timeout",
@@ -261,30 +284,41 @@ class Sandbox:
         self.start()
 
     def kill(self) -> None:
-        if self.process is not None and self.process.is_alive():
+        if self.process.poll() is None:
             self.process.kill()
-        if self.process is not None:
-            self.process.join()
-        if self.conn is not None:
-            self.conn.close()
+        self.process.wait()
+        self._close_pipes()
 
     def stop(self) -> None:
-        """Asks an idle worker to finish, then makes sure it has."""
+        """Lets an idle worker finish by closing its input, then makes sure it has."""
         try:
-            self.conn.send(None)
+            self.process.stdin.close()
         except OSError:
             pass
-        self.process.join(timeout=2)
+        try:
+            self.process.wait(timeout=2)
+        except Exception:  # noqa: BLE001 - subprocess.TimeoutExpired; kill below
+            pass
         self.kill()
 
+    def _close_pipes(self) -> None:
+        for pipe in (self.process.stdin, self.process.stdout, self.errors):
+            try:
+                pipe.close()
+            except OSError:
+                pass
 
-def run_local(jobs: Iterable[dict], workers: int, timeout: float | None,
+
+def run_local(jobs: list[dict], workers: int, timeout: float | None,
               memory_bytes: int | None) -> Iterator[dict]:
     """Records of the jobs, in completion order, from a pool of ``workers`` sandboxes."""
     from multiprocessing.connection import wait
 
+    jobs = list(jobs)
+    if not jobs:
+        return
     pending = iter(jobs)
-    pool = [Sandbox(memory_bytes).start() for _ in range(max(1, workers))]
+    pool = [Sandbox(memory_bytes).start() for _ in range(max(1, min(workers, len(jobs))))]
     busy: dict[Any, Sandbox] = {}
     try:
         while True:
@@ -294,17 +328,17 @@ def run_local(jobs: Iterable[dict], workers: int, timeout: float | None,
                     if job is None:
                         break
                     sandbox.submit(job, timeout)
-                    busy[sandbox.conn] = sandbox
+                    busy[sandbox.replies] = sandbox
             if not busy:
                 return
             deadlines = [s.deadline for s in busy.values() if s.deadline is not None]
             wait_for = max(0.0, min(deadlines) - time.monotonic()) if deadlines else None
-            for conn in wait(list(busy), timeout=wait_for):
-                yield busy.pop(conn).receive()
+            for replies in wait(list(busy), timeout=wait_for):
+                yield busy.pop(replies).receive()
             now = time.monotonic()
-            for conn, sandbox in list(busy.items()):
+            for replies, sandbox in list(busy.items()):
                 if sandbox.deadline is not None and sandbox.deadline <= now:
-                    del busy[conn]
+                    del busy[replies]
                     yield sandbox.time_out(timeout)
     finally:
         for sandbox in pool:
@@ -325,12 +359,14 @@ def run_in_sandbox(job: dict, timeout: float | None, memory_bytes: int | None) -
     """Runs one job in this thread's own worker process (started on first use). This is what a
     Dask worker executes, so the limits hold on a cluster as they do locally."""
     sandbox = getattr(_local_sandbox, "sandbox", None)
-    if sandbox is None or sandbox.memory_bytes != memory_bytes or not sandbox.process.is_alive():
+    if sandbox is None or sandbox.memory_bytes != memory_bytes or sandbox.process.poll() is not None:
         if sandbox is not None:
             sandbox.kill()
         sandbox = _local_sandbox.sandbox = Sandbox(memory_bytes).start()
+    from multiprocessing.connection import wait
+
     sandbox.submit(job, timeout)
-    if sandbox.conn.poll(timeout):
+    if wait([sandbox.replies], timeout=timeout):
         return sandbox.receive()
     return sandbox.time_out(timeout)
 
