@@ -153,7 +153,9 @@ def _summary(result: dict) -> str:
     """The main answer in one line: ``dimension 2, degree 6; finite over k[x + y, z] of rank 6 (linear change)``."""
     dim = result.get("dimension")
     if dim is None:
-        return f"reduced Groebner basis of {result['basis']['size']} polynomials (dimension not available in this build)"
+        from .report import plural
+
+        return f"reduced Groebner basis of {plural(result['basis']['size'], 'polynomial')} (dimension not available in this build)"
     if dim < 0:
         return "no solutions: the ideal is the whole ring (dimension -1)"
     text = f"dimension {dim}"
