@@ -109,7 +109,13 @@ def _hilbert(ideal) -> dict:
 
     series = capability("hilbert_series", lambda: ideal.hilbert_series())
     return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent,
-            "polynomial": list(series.polynomial()), "regularity_index": series.regularity_index()}
+            "polynomial": [_json_number(c) for c in series.polynomial()],
+            "regularity_index": series.regularity_index()}
+
+
+def _json_number(c) -> int | str:
+    """An exact rational for JSON: an int, or the text "a/b" (JSON has no exact fractions)."""
+    return int(c) if int(c) == c else str(c)
 
 
 def _normalization_summary(ideal) -> dict:

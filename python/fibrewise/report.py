@@ -4,6 +4,7 @@ and the ``--json`` output always say the same thing."""
 
 from __future__ import annotations
 
+from fractions import Fraction
 from typing import Any, Callable
 
 STRATEGY_WORDS = {"variables": "no change of coordinates", "linear": "linear change", "nonlinear": "nonlinear change"}
@@ -34,15 +35,20 @@ def seconds(value: float | None) -> str | None:
     return f"{value * 1000:.1f} ms" if value < 1 else f"{value:.2f} s"
 
 
-def polynomial_in(coefficients: list[int], var: str) -> str:
-    """``[1, 3, -2]`` -> ``1 + 3t - 2t^2`` (coefficient of var^i at index i)."""
+def polynomial_in(coefficients: list, var: str) -> str:
+    """``[1, 3, -2]`` -> ``1 + 3t - 2t^2`` (coefficient of var^i at index i); coefficients may be
+    ints or exact fractions, as numbers or "a/b" texts."""
     terms = []
     for i, c in enumerate(coefficients):
+        c = Fraction(c)
         if c == 0:
             continue
         power = "" if i == 0 else var if i == 1 else f"{var}^{i}"
         magnitude = abs(c)
-        body = f"{magnitude}{power}" if magnitude != 1 or not power else power
+        if magnitude.denominator != 1 and power:
+            body = f"({magnitude}){power}"
+        else:
+            body = f"{magnitude}{power}" if magnitude != 1 or not power else power
         sign = "-" if c < 0 else "+"
         terms.append((sign, body))
     if not terms:
