@@ -89,7 +89,7 @@ def test_basis_lex_gives_the_cipher_keys_as_roots():
     last = R(result["basis"][-1])
     assert last.degree() == 27  # 3^3: Bézout's bound for three cubics, attained by the triangular system
     roots = [key for key in range(101) if last.evaluate([0, 0, key]) == 0]
-    assert roots == cipher_keys(2, 57, [3, 5, 7])
+    assert roots == cipher_keys(2, 27, [3, 5, 7]) and 42 in roots
 
 
 def test_basis_human_report_lists_the_basis():
