@@ -371,8 +371,14 @@ def run_in_sandbox(job: dict, timeout: float | None, memory_bytes: int | None) -
     return sandbox.time_out(timeout)
 
 
+DASK_WINDOW = 1000  # jobs in flight on the cluster at once: bounded scheduler memory, quick stop
+
+
 def run_dask(jobs: list[dict], address: str, timeout: float | None, memory_bytes: int | None) -> Iterator[dict]:
-    """Records of the jobs, in completion order, computed on the Dask cluster at ``address``."""
+    """Records of the jobs, in completion order, computed on the Dask cluster at ``address``.
+
+    A job the cluster loses (a worker machine gone, a task error outside the job) yields a record
+    with status ``"lost"``, which is not written: it runs again on resume."""
     try:
         from distributed import Client, as_completed
     except ImportError:
@@ -381,13 +387,30 @@ def run_dask(jobs: list[dict], address: str, timeout: float | None, memory_bytes
     from functools import partial
 
     task = partial(run_in_sandbox, timeout=timeout, memory_bytes=memory_bytes)
+    pending = iter(jobs)
     with Client(address, timeout="30s") as client:
-        futures = client.map(task, jobs, pure=False)
+        in_flight: dict[Any, Any] = {}
+
+        def submit_next(queue) -> None:
+            job = next(pending, None)
+            if job is not None:
+                future = client.submit(task, job, pure=False)
+                in_flight[future] = job["id"]
+                queue.add(future)
+
+        queue = as_completed()
+        for _ in range(DASK_WINDOW):
+            submit_next(queue)
         try:
-            for future in as_completed(futures):
-                yield future.result()
+            for future in queue:
+                job_id = in_flight.pop(future)
+                try:
+                    yield future.result()
+                except Exception as e:  # noqa: BLE001 - the cluster's failure, not the job's
+                    yield {"id": job_id, "status": "lost", "error": f"{type(e).__name__}: {e}"}
+                submit_next(queue)
         finally:
-            client.cancel(futures)
+            client.cancel(list(in_flight))
 
 
 # ----------------------------------------------------------------------------------------------
@@ -401,6 +424,7 @@ class BatchSummary:
     ok: int = 0
     error: int = 0
     timeout: int = 0
+    lost: int = 0  # by the cluster; not written, so they run again on resume
     seconds: float = 0.0
     interrupted: str | None = None  # the signal that stopped the run
 
@@ -438,8 +462,13 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
         else:
             records = run_local(todo, workers or os.cpu_count() or 1, timeout, memory_bytes)
         for record in records:
-            output.append(record)
-            setattr(summary, record["status"], getattr(summary, record["status"]) + 1)
+            if record["status"] == "lost":
+                summary.lost += 1
+                print(f"fibrewise batch: job {json.dumps(record['id'])} lost by the cluster "
+                      f"({record['error']}); it runs again on resume", file=sys.stderr)
+            else:
+                output.append(record)
+                setattr(summary, record["status"], getattr(summary, record["status"]) + 1)
             progress.advance()
     except KeyboardInterrupt:
         summary.interrupted = "SIGINT"

@@ -212,6 +212,7 @@ def render_batch(result: dict) -> str:
         head += f", interrupted by {result['interrupted']} (rerun the same command to resume)"
     rows = [("ok", result["ok"]), ("error", result["error"]), ("timeout", result["timeout"]),
             ("skipped", f"{result['skipped']} (already in {result['output']})"),
+            ("lost", f"{result['lost']} (by the cluster; rerun the same command to run them)" if result.get("lost") else None),
             ("total in input", result["total"]), ("time", seconds(result["seconds"]))]
     if ran and result["seconds"]:
         rows.append(("rate", f"{ran / result['seconds']:.1f} jobs/s"))
