@@ -145,6 +145,22 @@ def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
         assert standard_monomial_count(leading, len(names)) == 2**6  # katsura-6: 64 solutions
 
 
+def test_ctrl_c_stops_at_once_and_the_running_job_gets_no_line(tmp_path):
+    jobs = [{"id": "quick", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1"], "tasks": ["basis"]},
+            {"id": "slow", "field": "GF(32003)", "variables": [f"x{i}" for i in range(12)],
+             "polynomials": dense_quadrics(12), "tasks": ["basis"]}]
+    source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
+    proc = batch(source, "-o", out, "--workers", "1")
+    wait_for_lines(out, 1, proc)
+    time.sleep(0.3)  # the slow job is running now
+    start = time.monotonic()
+    proc.send_signal(signal.SIGINT)
+    proc.communicate(timeout=30)
+    assert proc.returncode == 130
+    assert time.monotonic() - start < 5
+    assert [r["id"] for r in read_records(out)] == ["quick"]
+
+
 def test_results_agree_with_sympy_and_bad_jobs_get_error_lines(tmp_path):
     jobs = [
         {"id": "hyperbola-gf7", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1", "x^2 - y"],
