@@ -249,6 +249,17 @@ def test_torn_tail_is_cut_and_a_damaged_middle_line_is_an_error(tmp_path):
         finished_ids(str(out))
 
 
+def test_one_writer_at_a_time(tmp_path, capsys):
+    import fcntl
+
+    source, out = write_jobs(tmp_path / "in.jsonl", [GOOD]), tmp_path / "out.jsonl"
+    with open(out, "ab") as other_run:
+        fcntl.flock(other_run.fileno(), fcntl.LOCK_EX)
+        assert main(["batch", str(source), "-o", str(out)]) == 2
+    assert "in use by another fibrewise batch run" in capsys.readouterr().err
+    assert out.read_text() == ""
+
+
 def test_jobs_are_read_once_and_checked(tmp_path):
     source = write_jobs(tmp_path / "in.jsonl", [GOOD, {**GOOD, "id": 2, "variables": "x y"}])
     jobs = read_jobs(str(source))

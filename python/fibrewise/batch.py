@@ -3,7 +3,7 @@
 - The input (JSON lines) is read once and fully checked before any work starts: a malformed line,
   a bad job or a duplicate id is one error naming the line.
 - Jobs run in long-lived worker processes (``Sandbox``), one job at a time each, with an optional
-  address-space limit; a job over its time limit has its worker killed and replaced. A worker that
+  data-memory limit; a job over its time limit has its worker killed and replaced. A worker that
   dies (out of memory, a crash) costs only its own job, which gets an error line.
 - Every finished job is appended to the output as one complete line and flushed at once; a
   background thread fsyncs the file in groups (group commit), so a killed process loses nothing
@@ -23,7 +23,7 @@ import sys
 import threading
 import time
 from dataclasses import dataclass, field
-from typing import Any, Iterable, Iterator
+from typing import Any, Iterator
 
 from .jobs import JobError, check_job, run_job
 
@@ -40,13 +40,14 @@ def _id_key(value: Any) -> str:
     return json.dumps(value)
 
 
-def read_jobs(path: str, lines: Iterable[str] | None = None) -> list[dict]:
-    """All jobs of a JSON-lines file, checked; raises ``BatchInputError`` at the first bad line."""
+def read_jobs(path: str) -> list[dict]:
+    """All jobs of a JSON-lines file, read once and checked; raises ``BatchInputError`` at the
+    first bad line."""
     jobs: list[dict] = []
     first_line: dict[str, int] = {}
-    handle = open(path, encoding="utf-8") if lines is None else None
+    handle = open(path, encoding="utf-8")
     try:
-        for number, raw in enumerate(handle if handle is not None else lines, 1):
+        for number, raw in enumerate(handle, 1):
             if not raw.strip():
                 continue
             try:
@@ -65,8 +66,7 @@ def read_jobs(path: str, lines: Iterable[str] | None = None) -> list[dict]:
     except UnicodeDecodeError as e:
         raise BatchInputError(f"{path}: not UTF-8 text ({e.reason} at byte {e.start})") from None
     finally:
-        if handle is not None:
-            handle.close()
+        handle.close()
     return jobs
 
 
@@ -122,9 +122,16 @@ class ResultFile:
     its last fsync, so durability costs the main loop nothing."""
 
     def __init__(self, path: str):
+        import fcntl
+
         self.path = path
         created = not os.path.exists(path)
         self.handle = open(path, "ab")
+        try:  # two runs appending to one file could both run a job: one writer at a time
+            fcntl.flock(self.handle.fileno(), fcntl.LOCK_EX | fcntl.LOCK_NB)
+        except OSError:
+            self.handle.close()
+            raise BatchInputError(f"{path}: in use by another fibrewise batch run") from None
         if created:
             _fsync_directory(path)
         self.cond = threading.Condition()
@@ -181,15 +188,16 @@ WORKER_CODE = "from fibrewise.batch import serve; serve()"
 
 def serve() -> None:
     """A worker's life (``python -c WORKER_CODE MEMORY_BYTES``): limit its data memory (heap and
-    anonymous mappings: RLIMIT_DATA), then
-    read one job a line on stdin and answer one record a line on stdout, until stdin closes."""
+    anonymous mappings: RLIMIT_DATA), then read one job a line on stdin and answer one record a
+    line on stdout, until stdin closes."""
     import resource
 
     memory_bytes = int(sys.argv[1]) if len(sys.argv) > 1 else 0
     if memory_bytes:
         resource.setrlimit(resource.RLIMIT_DATA, (memory_bytes, memory_bytes))
     replies = os.fdopen(os.dup(1), "w", encoding="utf-8")
-    sys.stdout = sys.stderr  # stray prints must not break the protocol
+    os.dup2(2, 1)  # stray output, from Python or native code, must not break the protocol
+    sys.stdout = sys.stderr
     threading.Thread(target=_exit_with_parent, args=(os.getppid(),), daemon=True).start()
     for line in sys.stdin:
         record = run_job(json.loads(line))
@@ -447,12 +455,16 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
     from .progress import Progress
 
     jobs = read_jobs(input_path)
-    done = finished_ids(output_path)
+    output = ResultFile(output_path)
+    try:
+        done = finished_ids(output_path)
+    except BatchInputError:
+        output.close()
+        raise
     todo = [job for job in jobs if _id_key(job["id"]) not in done]
     summary = BatchSummary(total=len(jobs), skipped=len(jobs) - len(todo))
     memory_bytes = memory_mb << 20 if memory_mb else None
     start = time.monotonic()
-    output = ResultFile(output_path)
     progress = Progress(len(todo), quiet=quiet)
     previous = _on_sigterm()
     records = None
