@@ -365,7 +365,8 @@ def main(argv: Sequence[str] | None = None) -> int:
     from .progress import Activity
 
     try:
-        with Activity(f"fibrewise {args.command}", quiet=args.quiet) as activity:
+        # a batch draws its own progress (jobs done / total); the others show what they compute
+        with Activity(f"fibrewise {args.command}", quiet=args.quiet or args.command == "batch") as activity:
             result = SUBCOMMANDS[args.command][2](args, activity)
     except (ValueError, NotAvailable) as e:
         return _fail(args, str(e), EXIT_BAD_INPUT)
