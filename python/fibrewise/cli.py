@@ -67,17 +67,24 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
     result: dict[str, Any] = _header(system)
     unavailable: list[str] = []
 
+    failed: dict[str, str] = {}
+
     def part(name: str, step: str, call: Callable[[], Any]) -> Any:
+        """One piece of the analysis; a piece that is missing or fails is noted, the rest goes on."""
         activity.set_step(step)
         try:
             value, result[f"seconds_{name}"] = _timed(call)
         except NotAvailable as e:
             unavailable.append(str(e))
             return None
+        except (ValueError, RuntimeError) as e:  # RuntimeError: fibrewise.ResourceLimit
+            failed[step] = f"{type(e).__name__}: {e}" if not isinstance(e, ValueError) else str(e)
+            return None
         result[name] = value
         return value
 
-    gb = part("basis", "Groebner basis", ideal.groebner_basis)
+    activity.set_step("Groebner basis")
+    gb, result["seconds_basis"] = _timed(ideal.groebner_basis)
     result["basis"] = {"size": len(gb), "max_degree": gb.stats.max_degree, "engine": gb.stats.engine}
     dim = part("dimension", "dimension", lambda: capability("dimension", lambda: ideal.dimension()))
     if dim is not None and dim >= 0:
@@ -93,6 +100,7 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
         if points is not None:
             part("points", "points", points)
     result["unavailable"] = unavailable
+    result["failed"] = failed
     result["summary"] = _summary(result)
     result["stats"] = gb.stats.to_dict()
     if args.plot:

@@ -75,7 +75,8 @@ class Progress:
         width = len(str(self.total))
         text = f"{self.label}  {self.done:>{width}}/{self.total} jobs  {rate:.1f} jobs/s"
         if 0 < rate and self.done < self.total:
-            text += f"  about {format_duration((self.total - self.done) / rate)} left"
+            left = (self.total - self.done) / rate
+            text += "  under 1 s left" if left < 1 else f"  about {format_duration(left)} left"
         return text
 
     def close(self) -> None:

@@ -86,7 +86,11 @@ def _header_rows(result: dict) -> list[tuple[str, Any]]:
 
 def _not_available(result: dict) -> list[tuple[str, Any]]:
     missing = result.get("unavailable") or []
-    return [("not available", "\n".join(missing))] if missing else []
+    rows = [("not available", "\n".join(missing))] if missing else []
+    failed = result.get("failed") or {}
+    if failed:
+        rows.append(("failed", "\n".join(f"{step}: {message}" for step, message in failed.items())))
+    return rows
 
 
 # ----------------------------------------------------------------------------------------------
