@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import os
 import sys
 import time
 from typing import Any, Callable, Sequence
@@ -385,12 +386,13 @@ def main(argv: Sequence[str] | None = None) -> int:
         return _fail(args, f"{type(e).__name__}: {e}", EXIT_FAILED)
     except KeyboardInterrupt:
         return _fail(args, "interrupted", EXIT_INTERRUPTED)
-    if args.json:
-        print(json.dumps(result))
-    else:
-        from .report import render
+    from .report import render
 
-        print(render(args.command, result))
+    text = json.dumps(result) if args.json else render(args.command, result)
+    try:
+        print(text, flush=True)
+    except BrokenPipeError:  # `fibrewise ... | head`: the reader has seen enough
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
     return _exit_status(args.command, result)
 
 
