@@ -27,12 +27,16 @@ def draw_analysis(path: str, result: dict) -> None:
         raise RuntimeError("--plot needs the optional package matplotlib (pip install matplotlib)") from None
     matplotlib.use("Agg")
     import matplotlib.pyplot as plt
+    from matplotlib.ticker import MaxNLocator
 
     steps = result["stats"]["steps"]
     series = result.get("hilbert_series")
     fig, (left, right) = plt.subplots(1, 2, figsize=(10, 4))
     _draw_steps(left, steps)
     _draw_hilbert(right, series)
+    for ax in (left, right):
+        ax.xaxis.set_major_locator(MaxNLocator(integer=True))
+        ax.yaxis.set_major_locator(MaxNLocator(integer=True))
     fig.suptitle(f"{result['file']}: {result['summary']}", fontsize=9)
     fig.tight_layout()
     fig.savefig(path, dpi=100)
