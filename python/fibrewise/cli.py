@@ -248,7 +248,10 @@ def _check(args: argparse.Namespace, activity) -> dict:
     from .jobs import NotAvailable
 
     system = _system(args)
-    certificate = _read_json(args.certificate)
+    saved = _read_json(args.certificate)
+    if not isinstance(saved, dict):
+        raise ValueError(f"{args.certificate}: a certificate is a JSON object, not {type(saved).__name__}")
+    certificate = {key: value for key, value in saved.items() if key != "system"}  # "system": where it came from
     try:
         check_certificate = fibrewise.check_certificate
     except AttributeError:
