@@ -327,11 +327,14 @@ def _positive(kind: type) -> Callable[[str], Any]:
 
 
 def _add_options(name: str, p: argparse.ArgumentParser) -> None:
+    from .jobs import TASK_NAMES
+
     if name == "batch":
-        p.add_argument("file", metavar="IN.jsonl", help="one job a line: {\"id\", \"field\", \"variables\", \"polynomials\", \"tasks\"}")
+        p.add_argument("file", metavar="IN.jsonl", help="one job a line: {\"id\", \"field\", \"variables\", \"polynomials\", "
+                       "\"tasks\"}; tasks: " + ", ".join(TASK_NAMES))
         p.add_argument("-o", "--output", metavar="OUT.jsonl", required=True,
                        help="results, one line a job; ids already there are skipped (resume)")
-        p.add_argument("--workers", type=_positive(int), help="worker processes (default: all cores)")
+        p.add_argument("--workers", type=_positive(int), metavar="N", help="worker processes (default: all cores)")
         p.add_argument("--timeout", type=_positive(float), metavar="S", help="time limit per job, in seconds")
         p.add_argument("--memory", type=_positive(int), metavar="MB", help="memory limit per worker, in MiB")
         p.add_argument("--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)")
@@ -361,7 +364,10 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
 
 
 def _parser() -> argparse.ArgumentParser:
-    parser = argparse.ArgumentParser(prog="fibrewise", description="Exact analysis of polynomial systems.")
+    parser = argparse.ArgumentParser(
+        prog="fibrewise", description="Exact analysis of polynomial systems.",
+        epilog="example: fibrewise analyze examples/toy_cipher_4round_gf101.txt   "
+               "(fibrewise SUBCOMMAND --help for each subcommand)")
     sub = parser.add_subparsers(dest="command", required=True, metavar="SUBCOMMAND")
     for name, (help_text, example, _) in SUBCOMMANDS.items():
         p = sub.add_parser(name, help=help_text, description=help_text, epilog=example)
