@@ -193,6 +193,22 @@ def test_points_affine_and_projective():
     assert projective["points"] == curve_projective_points(7) == 9
 
 
+def field_available(spec: str) -> bool:
+    try:
+        fw.field(spec)
+    except ValueError:
+        return False
+    return True
+
+
+@has("count_points")
+@pytest.mark.skipif(not field_available("GF(2^3)"), reason="GF(2^3) not in this build yet")
+def test_points_klein_quartic_over_gf8():
+    # The Klein quartic has 24 points over GF(8) (classical; REFERENCE-VALUES: also enumerated).
+    result = fibrewise_json("points", EXAMPLES / "klein_quartic_gf8.txt", "--projective")
+    assert result["points"] == 24
+
+
 def test_missing_capability_is_a_clear_error(monkeypatch, capsys):
     # Whatever this build lacks, the command says so plainly (status 2, JSON "error").
     from fibrewise.cli import main
