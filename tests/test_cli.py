@@ -302,3 +302,13 @@ def test_progress_waits_a_second_before_drawing():
     progress = Progress(10, stream=tty, interval=0.0)  # default delay: 1 s
     progress.advance()
     assert tty.getvalue() == ""
+
+
+def test_check_outcomes_in_either_shape():
+    # A check answers a bool or the list of problems it found (empty when the certificate holds).
+    from fibrewise.cli import verdict
+
+    assert verdict(True) == (True, [])
+    assert verdict([]) == (True, [])
+    assert verdict(False) == (False, ["the certificate does not hold"])
+    assert verdict(["rank 4 claimed, 3 found"]) == (False, ["rank 4 claimed, 3 found"])

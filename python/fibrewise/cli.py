@@ -198,7 +198,8 @@ def _normalize(args: argparse.Namespace, activity) -> dict:
     result = {**_header(system), "certificate": nn.to_dict(), "seconds": seconds}
     if not args.no_verify:
         activity.set_step("verifying the certificate")
-        result["verified"], result["seconds_verify"] = _timed(nn.verify)
+        outcome, result["seconds_verify"] = _timed(nn.verify)
+        result["verified"], result["problems"] = verdict(outcome)
     if args.output:
         with open(args.output, "w", encoding="utf-8") as handle:
             json.dump({"system": system.path, **nn.to_dict()}, handle, indent=2)
@@ -243,29 +244,41 @@ def _points(args: argparse.Namespace, activity) -> dict:
 
 
 def _check(args: argparse.Namespace, activity) -> dict:
-    import fibrewise
-
-    from .jobs import NotAvailable
-
     system = _system(args)
     saved = _read_json(args.certificate)
     if not isinstance(saved, dict):
         raise ValueError(f"{args.certificate}: a certificate is a JSON object, not {type(saved).__name__}")
     certificate = {key: value for key, value in saved.items() if key != "system"}  # "system": where it came from
-    try:
-        check_certificate = fibrewise.check_certificate
-    except AttributeError:
-        raise NotAvailable("checking a saved certificate (fibrewise.check_certificate) is not available in this build") from None
+    check_certificate = _certificate_checker()
     activity.set_step("checking the certificate")
     try:
-        verdict, seconds = _timed(lambda: check_certificate(system.ideal, certificate))
-        valid, reason = bool(verdict), None if verdict else "the certificate does not hold"
-    except ValueError as e:
-        valid, reason, seconds = False, str(e), None
-    result = {**_header(system), "certificate": args.certificate, "valid": valid, "seconds": seconds}
-    if reason:
-        result["reason"] = reason
-    return result
+        outcome, seconds = _timed(lambda: check_certificate(system.ideal, certificate))
+        valid, problems = verdict(outcome)
+    except ValueError as e:  # an unreadable certificate
+        valid, problems, seconds = False, [str(e)], None
+    return {**_header(system), "certificate": args.certificate, "valid": valid, "problems": problems,
+            "seconds": seconds}
+
+
+def _certificate_checker() -> Callable:
+    """The normalization module's ``check_certificate(ideal, certificate_dict)``."""
+    from .jobs import NotAvailable
+
+    try:
+        from .normalization import check_certificate  # type: ignore[import-not-found]
+    except ImportError:
+        raise NotAvailable("checking a saved certificate (fibrewise.normalization.check_certificate) "
+                           "is not available in this build") from None
+    return check_certificate
+
+
+def verdict(outcome: Any) -> tuple[bool, list[str]]:
+    """A check's outcome as (holds, problems): checks answer either a bool or the list of
+    problems found (empty when the certificate holds)."""
+    if isinstance(outcome, bool):
+        return outcome, [] if outcome else ["the certificate does not hold"]
+    problems = [str(p) for p in outcome]
+    return not problems, problems
 
 
 def _read_json(path: str) -> Any:

@@ -160,6 +160,7 @@ def render_normalize(result: dict) -> str:
     if "verified" in result:
         rows.append(("certificate", f"{'verified' if result['verified'] else 'FAILED verification'} "
                                     f"({seconds(result['seconds_verify'])})"))
+        rows.append(("problems", "\n".join(result["problems"]) or None))
     if result.get("saved"):
         rows.append(("saved to", result["saved"]))
     return f"{head}\n{aligned(rows)}"
@@ -205,7 +206,7 @@ def render_points(result: dict) -> str:
 def render_check(result: dict) -> str:
     verdict = "certificate verified" if result["valid"] else "certificate REJECTED"
     rows = [("certificate", result["certificate"])] + _header_rows(result)
-    rows += [("reason", result.get("reason")), ("time", seconds(result.get("seconds")))]
+    rows += [("problems", "\n".join(result["problems"]) or None), ("time", seconds(result.get("seconds")))]
     return f"{result['file']}: {verdict}\n{aligned(rows)}"
 
 
