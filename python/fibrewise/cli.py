@@ -3,7 +3,7 @@
 ``fibrewise SUBCOMMAND FILE [options]``; ``--json`` prints one JSON object. Each subcommand computes
 a JSON-ready dict; ``report`` turns it into the short human report. Bad input exits with status 2
 and one message naming the file, line and column; a capability missing from this build also exits
-with status 2 and says so. Heavy packages (numpy, galois, matplotlib, dask) are imported only by
+with status 2 and says so. Heavy packages (galois, numba, matplotlib, dask) are imported only by
 the commands that need them, so start-up stays fast.
 """
 
@@ -19,10 +19,6 @@ from typing import Any, Callable, Sequence
 EXIT_OK, EXIT_FAILED, EXIT_BAD_INPUT, EXIT_INTERRUPTED = 0, 1, 2, 130
 # An analyze run counts points itself only when the count is small: at most about this many.
 CHEAP_POINTS = 20_000
-
-
-class CommandFailed(Exception):
-    """A check that ran and said no (a rejected certificate): exit status 1."""
 
 
 def _system(args: argparse.Namespace):
