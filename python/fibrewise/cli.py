@@ -194,7 +194,12 @@ def _normalize(args: argparse.Namespace, activity) -> dict:
     result = {**_header(system), "certificate": nn.to_dict(), "seconds": seconds}
     if not args.no_verify:
         activity.set_step("verifying the certificate")
-        outcome, result["seconds_verify"] = _timed(nn.verify)
+        start = time.perf_counter()
+        try:
+            outcome = nn.verify()
+        except ValueError as e:  # the certificate does not hold: e says what is wrong
+            outcome = [str(e)]
+        result["seconds_verify"] = time.perf_counter() - start
         result["verified"], result["problems"] = verdict(outcome)
     if args.output:
         with open(args.output, "w", encoding="utf-8") as handle:
@@ -248,7 +253,7 @@ def _check(args: argparse.Namespace, activity) -> dict:
     check_certificate = _certificate_checker()
     activity.set_step("checking the certificate")
     try:
-        outcome, seconds = _timed(lambda: check_certificate(system.ideal, certificate))
+        outcome, seconds = _timed(lambda: check_certificate(certificate, system.ideal))
         valid, problems = verdict(outcome)
     except ValueError as e:  # an unreadable certificate
         valid, problems, seconds = False, [str(e)], None
@@ -257,7 +262,7 @@ def _check(args: argparse.Namespace, activity) -> dict:
 
 
 def _certificate_checker() -> Callable:
-    """The normalization module's ``check_certificate(ideal, certificate_dict)``."""
+    """The normalization module's ``check_certificate(certificate_dict, ideal)``."""
     from .jobs import NotAvailable
 
     try:
