@@ -82,10 +82,10 @@ def test_help_shows_an_example(command):
 
 def test_basis_lex_gives_the_cipher_keys_as_roots():
     # The lex basis of the 3-round toy cipher is triangular; its last element is a univariate
-    # polynomial in k whose roots in GF(101) are exactly the keys found by trying all 101 keys.
+    # polynomial in the key whose roots in GF(101) are exactly the keys found by trying all 101 keys.
     result = fibrewise_json("basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex")
     assert result["order"] == "lex" and result["field"] == "GF(101)"
-    R = fw.PolynomialRing("GF(101)", "s1, s2, k", order="lex")
+    R = fw.PolynomialRing("GF(101)", "s1, s2, key", order="lex")
     last = R(result["basis"][-1])
     assert last.degree() == 27  # 3^3: Bézout's bound for three cubics, attained by the triangular system
     roots = [key for key in range(101) if last.evaluate([0, 0, key]) == 0]
@@ -96,8 +96,8 @@ def test_basis_human_report_lists_the_basis():
     done = fibrewise("basis", EXAMPLES / "toy_cipher_gf101.txt")
     assert done.returncode == 0, done.stderr
     lines = done.stdout.splitlines()
-    assert lines[0].startswith("reduced Groebner basis: 3 polynomials over GF(101) in s1, s2, k (lex)")
-    assert lines[1].strip().startswith("s1 - k^3")
+    assert lines[0].startswith("reduced Groebner basis: 3 polynomials over GF(101) in s1, s2, key (lex)")
+    assert lines[1].strip().startswith("s1 - key^3")
 
 
 @has("dimension", "degree", "hilbert_series", "count_points")

@@ -149,7 +149,7 @@ def render_normalize(result: dict) -> str:
     head = f"{result['file']}: dimension {cert['dimension']}; {finite_over(cert)}"
     rows = _header_rows(result) + [
         ("parameters", "\n".join(f"{t} = {p}" for t, p in zip(symbols, cert["parameters"])) or "(none)"),
-        ("coordinates", ", ".join(map(str, cert["coordinates"]))),
+        ("coordinates", _coordinates_text(cert)),
         ("inverse", "\n".join(f"{x} = {e}" for x, e in zip(result["variables"], cert["inverse"]))),
         ("equations", "\n".join(_equation_text(x, coeffs) for x, coeffs in zip(result["variables"], cert["equations"]))),
         ("module generators", ", ".join(map(str, cert["module_generators"]))),
@@ -164,6 +164,16 @@ def render_normalize(result: dict) -> str:
     if result.get("saved"):
         rows.append(("saved to", result["saved"]))
     return f"{head}\n{aligned(rows)}"
+
+
+def _coordinates_text(cert: dict) -> str:
+    """``y1 = x + y, y2 = y``: the new coordinates, named by their symbols when the certificate
+    has them (the inverse is written in those symbols)."""
+    coordinates = list(map(str, cert["coordinates"]))
+    symbols = cert.get("coordinate_symbols")
+    if not symbols:
+        return ", ".join(coordinates)
+    return "\n".join(f"{s} = {c}" for s, c in zip(symbols, coordinates))
 
 
 def _equation_text(x: str, coefficients: list[str]) -> str:
