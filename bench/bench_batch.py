@@ -39,19 +39,25 @@ def random_job(rng: random.Random, number: int, tasks: list[str]) -> dict:
             "polynomials": [quadric() for _ in range(rng.randint(3, 5))], "tasks": tasks}
 
 
-def throughput(jobs: int, workers: int, tasks: list[str]) -> dict:
+def throughput(jobs: int, workers: int, tasks: list[str], timeout: float, memory_mb: int, keep: str | None) -> dict:
     from fibrewise.batch import run_batch
 
     rng = random.Random(2026)
     with tempfile.TemporaryDirectory() as tmp:
-        source, out = os.path.join(tmp, "in.jsonl"), os.path.join(tmp, "out.jsonl")
+        folder = keep or tmp
+        os.makedirs(folder, exist_ok=True)
+        source, out = os.path.join(folder, "in.jsonl"), os.path.join(folder, "out.jsonl")
+        if os.path.exists(out):
+            os.remove(out)
         with open(source, "w") as handle:
             for number in range(jobs):
                 handle.write(json.dumps(random_job(rng, number, tasks)) + "\n")
-        summary = run_batch(source, out, workers=workers, quiet=True)
+        summary = run_batch(source, out, workers=workers, timeout=timeout, memory_mb=memory_mb, quiet=True)
         with open(out) as handle:
-            errors = [json.loads(line)["error"] for line in handle if '"status":"error"' in line]
+            records = [json.loads(line) for line in handle]
+    errors = [r["error"] for r in records if r["status"] == "error"]
     result = summary.to_dict()
+    result["slow_ids"] = [r["id"] for r in records if r["status"] == "timeout"][:10]
     result["jobs_per_second"] = round(jobs / summary.seconds, 1)
     result["first_error"] = errors[0] if errors else None
     return result
@@ -86,19 +92,24 @@ def main() -> None:
     parser.add_argument("--jobs", type=int, default=2000)
     parser.add_argument("--workers", type=int, default=2)
     parser.add_argument("--tasks", default="dimension,normalize")
+    parser.add_argument("--timeout", type=float, default=10.0, help="per job, so that one hard system cannot stall the run")
+    parser.add_argument("--memory", type=int, default=2000, help="MiB per worker")
+    parser.add_argument("--keep", metavar="DIR", help="keep in.jsonl and out.jsonl in DIR")
     args = parser.parse_args()
     tasks = args.tasks.split(",")
     o = overhead()
     print(f"per call on a tiny system: {o['call_us']} us, of which the core {o['core_us']} us: "
           f"overhead {o['overhead_us']} us (target <= 50: {'met' if o['overhead_us'] <= 50 else 'MISSED'}); "
           f"parsing 3 polynomials {o['parse_3_polys_us']} us")
-    t = throughput(args.jobs, args.workers, tasks)
+    t = throughput(args.jobs, args.workers, tasks, args.timeout, args.memory, args.keep)
     print(f"batch of {args.jobs} jobs ({', '.join(tasks)}) on {args.workers} workers: "
           f"{t['jobs_per_second']} jobs/s (target >= 300: {'met' if t['jobs_per_second'] >= 300 else 'MISSED'}); "
           f"ok {t['ok']}, error {t['error']}, "
           f"timeout {t['timeout']}, {t['seconds']} s")
     if t["first_error"]:
         print(f"first error: {t['first_error']}")
+    if t["slow_ids"]:
+        print(f"ids over the {args.timeout:g} s limit (first 10): {t['slow_ids']}")
     sys.stdout.flush()
 
 

@@ -169,11 +169,15 @@ def test_results_agree_with_sympy_and_bad_jobs_get_error_lines(tmp_path):
          "tasks": ["basis"]},
         {"id": "unknown-variable", "field": "GF(7)", "variables": ["x"], "polynomials": ["x - t"], "tasks": ["basis"]},
         {"id": "bad-field", "field": "GF(10)", "variables": ["x"], "polynomials": ["x"], "tasks": ["basis"]},
+        # x*y = 1 and x = 0 have no common solution: the unit ideal, nothing to normalize
+        {"id": "no-solutions", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1", "x"],
+         "tasks": ["basis", "normalize"]},
     ]
     source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
     assert main(["batch", str(source), "-o", str(out), "--workers", "2", "--quiet"]) == 0
     records = {json.dumps(r["id"]): r for r in read_records(out)}
-    assert set(records) == {'"hyperbola-gf7"', "17", '"unknown-variable"', '"bad-field"'}
+    assert set(records) == {'"hyperbola-gf7"', "17", '"unknown-variable"', '"bad-field"', '"no-solutions"'}
+    assert records['"no-solutions"']["result"] == {"basis": ["1"], "normalize": None}
     for job, p in ((jobs[0], 7), (jobs[1], 101)):
         names = job["variables"] if isinstance(job["variables"], list) else ["x", "y", "z"]
         record = records[json.dumps(job["id"])]

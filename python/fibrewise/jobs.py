@@ -83,12 +83,21 @@ def _points(ideal) -> int:
     return capability("count_points", lambda: ideal.count_points())
 
 
+def _normalize(ideal) -> dict | None:
+    """The certificate; ``None`` for a system without solutions (the unit ideal, dimension -1),
+    which has nothing to normalize, so that its other tasks still get their answers."""
+    basis = ideal.groebner_basis()
+    if len(basis) == 1 and basis[0].degree() == 0:
+        return None
+    return capability("noether_normalization", lambda: ideal.noether_normalization()).to_dict()
+
+
 TASKS: dict[str, Callable[[Any], Any]] = {
     "dimension": lambda I: capability("dimension", lambda: I.dimension()),
     "independent_variables": lambda I: [str(v) for v in capability("independent_variables", lambda: I.independent_variables())],
     "degree": lambda I: capability("degree", lambda: I.degree()),
     "hilbert": _hilbert,
-    "normalize": lambda I: capability("noether_normalization", lambda: I.noether_normalization()).to_dict(),
+    "normalize": _normalize,
     "points": _points,
     "basis": lambda I: [str(g) for g in I.groebner_basis()],
 }
