@@ -177,22 +177,29 @@ def _coordinates_text(cert: dict) -> str:
 
 
 def _equation_text(x: str, coefficients: list[str]) -> str:
-    """x^m + c_{m-1} x^{m-1} + ... + c_0 from [1, c_{m-1}, ..., c_0]."""
+    """``x^m + c_{m-1} x^{m-1} + ... + c_0 = 0`` from [1, c_{m-1}, ..., c_0]; a coefficient that is
+    a sum is parenthesised, a single term (``3``, ``-t1``) is not."""
     m = len(coefficients) - 1
-    parts = []
-    for i, c in enumerate(coefficients):
-        power = m - i
-        c = str(c)
+    terms: list[tuple[str, str]] = []
+    for i, c in enumerate(map(str, coefficients)):
         if c == "0":
             continue
+        power = m - i
         monomial = "" if power == 0 else x if power == 1 else f"{x}^{power}"
+        if " " in c:  # a sum: keep it together
+            terms.append(("+", f"({c})*{monomial}" if monomial else f"({c})"))
+            continue
+        sign, magnitude = ("-", c[1:]) if c.startswith("-") else ("+", c)
         if not monomial:
-            parts.append(f"({c})" if parts else c)
-        elif c == "1":
-            parts.append(monomial)
+            body = magnitude
         else:
-            parts.append(f"({c})*{monomial}")
-    return " + ".join(parts) + " = 0"
+            body = monomial if magnitude == "1" else f"{magnitude}*{monomial}"
+        terms.append((sign, body))
+    if not terms:
+        return "0 = 0"
+    sign, body = terms[0]
+    text = ("-" if sign == "-" else "") + body
+    return text + "".join(f" {s} {b}" for s, b in terms[1:]) + " = 0"
 
 
 def render_integral(result: dict) -> str:
