@@ -109,19 +109,28 @@ def wait_for_lines(path: Path, count: int, proc: subprocess.Popen, limit: float 
         time.sleep(0.02)
 
 
-def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
-    jobs = katsura_jobs()
-    source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
+def slow_job(name: str) -> dict:
+    """A job far beyond a 2 s limit on any engine: the kills below land while it runs."""
+    return {"id": name, "field": "GF(32003)", "variables": [f"x{i}" for i in range(12)],
+            "polynomials": dense_quadrics(12), "tasks": ["basis"]}
 
-    first = batch(source, "-o", out, "--workers", "2")
-    wait_for_lines(out, 2, first)
+
+def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
+    quick = katsura_jobs()
+    jobs = quick[:2] + [slow_job("slow-1"), slow_job("slow-2")] + quick[2:]
+    source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
+    limits = ["--workers", "2", "--timeout", "2"]
+
+    first = batch(source, "-o", out, *limits)
+    wait_for_lines(out, 2, first)  # the two workers now run the slow jobs
     first.send_signal(signal.SIGTERM)
     _, err = first.communicate(timeout=60)
-    assert first.returncode in (143, 0), err  # 0 only if it had already finished
+    assert first.returncode == 143, err
     after_first = read_records(out)
+    assert {r["id"] for r in after_first} == {job["id"] for job in quick[:2]}
 
-    second = batch(source, "-o", out, "--workers", "2", start_new_session=True)
-    wait_for_lines(out, len(after_first) + 2, second)
+    second = batch(source, "-o", out, *limits, start_new_session=True)
+    wait_for_lines(out, len(after_first) + 3, second)
     second.kill()  # SIGKILL: no cleanup at all
     second.communicate(timeout=60)
     after_second = read_records(out)
@@ -129,7 +138,7 @@ def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
 
     with open(out, "ab") as handle:  # a crash in the middle of writing a line
         handle.write(b'{"id": "katsura6-p3')
-    third = batch(source, "-o", out, "--json")
+    third = batch(source, "-o", out, *limits, "--json")
     stdout, err = third.communicate(timeout=120)
     assert third.returncode == 0, err
     assert "torn last line" in err
@@ -140,6 +149,9 @@ def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
     assert sorted(r["id"] for r in records) == sorted(job["id"] for job in jobs)  # each exactly once
     names = katsura(6)[0]
     for record in records:
+        if record["id"].startswith("slow"):
+            assert record["status"] == "timeout"
+            continue
         assert record["status"] == "ok", record
         leading = [leading_exponents(g, names) for g in record["result"]["basis"]]
         assert standard_monomial_count(leading, len(names)) == 2**6  # katsura-6: 64 solutions
