@@ -12,6 +12,7 @@ The algorithms live in a Rust core (``fibrewise._native``); this package is the 
 from ._native import ResourceLimit
 from .fields import Field, field
 from .ideals import GroebnerBasis, GroebnerStats, Ideal
+from .invariants import HilbertSeries
 from .orders import BlockOrder, WeightOrder
 from .rings import Polynomial, PolynomialRing
 
@@ -20,6 +21,7 @@ __all__ = [
     "Field",
     "GroebnerBasis",
     "GroebnerStats",
+    "HilbertSeries",
     "Ideal",
     "Polynomial",
     "PolynomialRing",

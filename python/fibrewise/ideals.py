@@ -3,11 +3,14 @@
 from __future__ import annotations
 
 from dataclasses import dataclass, field as dataclass_field
-from typing import Iterable, Iterator, Sequence, Union, overload
+from typing import TYPE_CHECKING, Iterable, Iterator, Sequence, Union, overload
 
-from . import _native
+from . import _native, invariants
 from .orders import Order
 from .rings import Coercible, Polynomial, PolynomialRing
+
+if TYPE_CHECKING:
+    import numpy
 
 
 @dataclass(frozen=True)
@@ -171,6 +174,52 @@ class Ideal:
         return list(map(str, self.groebner_basis())) == list(map(str, other.groebner_basis(self.ring.order)))
 
     __hash__ = None  # type: ignore[assignment]  # ideals are mutable caches; equality is costly
+
+    # --- invariants (python/fibrewise/invariants.py) ---------------------------------------
+
+    def dimension(self) -> int:
+        """Krull dimension of R/I; -1 for the unit ideal."""
+        return invariants.dimension(self)
+
+    def independent_variables(self) -> list[str]:
+        """Names of a maximal set of variables independent modulo I."""
+        return invariants.independent_variables(self)
+
+    def hilbert_series(self) -> invariants.HilbertSeries:
+        """Hilbert series of R/I (affine Hilbert function for non-homogeneous I)."""
+        return invariants.hilbert_series(self)
+
+    def degree(self) -> int:
+        """The degree (multiplicity) of R/I."""
+        return invariants.degree(self)
+
+    def vector_space_dimension(self) -> int:
+        """dim_k R/I for zero-dimensional I; ``ValueError`` otherwise."""
+        return invariants.vector_space_dimension(self)
+
+    def standard_monomials(self) -> list[Polynomial]:
+        """A monomial k-basis of R/I (zero-dimensional I)."""
+        return invariants.standard_monomials(self)
+
+    def multiplication_matrix(self, var: Coercible) -> "numpy.ndarray":
+        """Matrix of multiplication by ``var`` on ``standard_monomials()`` (columns are images)."""
+        return invariants.multiplication_matrix(self, var)
+
+    def count_solutions(self) -> int:
+        """Number of distinct solutions over the algebraic closure (zero-dimensional I)."""
+        return invariants.count_solutions(self)
+
+    def is_maximal(self) -> bool:
+        """Whether R/I is a field."""
+        return invariants.is_maximal(self)
+
+    def residue_field_degree(self) -> int:
+        """[R/I : k] for a maximal ideal; ``ValueError`` otherwise."""
+        return invariants.residue_field_degree(self)
+
+    def count_points(self, projective: bool = False) -> int:
+        """Points of V(I) with coordinates in the finite field (affine, or projective)."""
+        return invariants.count_points(self, projective)
 
     def _check_same_ring(self, other: "Ideal") -> None:
         if not self.ring.same_space(other.ring):

@@ -8,6 +8,7 @@ mod convert;
 mod dispatch;
 mod errors;
 mod ideal;
+mod invariants;
 mod long_run;
 mod ring;
 
@@ -18,5 +19,6 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_class::<ring::NativeRing>()?;
     m.add_class::<ring::NativePoly>()?;
     ideal::register(m)?;
+    invariants::register(m)?;
     Ok(())
 }
