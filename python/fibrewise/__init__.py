@@ -13,6 +13,7 @@ from ._native import ResourceLimit
 from .fields import Field, field
 from .ideals import GroebnerBasis, GroebnerStats, Ideal
 from .invariants import HilbertSeries
+from .normalization import IntegralEquation, NoetherNormalization
 from .orders import BlockOrder, WeightOrder
 from .rings import Polynomial, PolynomialRing
 
@@ -23,6 +24,8 @@ __all__ = [
     "GroebnerStats",
     "HilbertSeries",
     "Ideal",
+    "IntegralEquation",
+    "NoetherNormalization",
     "Polynomial",
     "PolynomialRing",
     "ResourceLimit",

@@ -11,6 +11,7 @@ from .rings import Coercible, Polynomial, PolynomialRing
 
 if TYPE_CHECKING:
     import numpy
+    from .normalization import IntegralEquation, NoetherNormalization
 
 
 @dataclass(frozen=True)
@@ -220,6 +221,30 @@ class Ideal:
     def count_points(self, projective: bool = False) -> int:
         """Points of V(I) with coordinates in the finite field (affine, or projective)."""
         return invariants.count_points(self, projective)
+
+    def noether_normalization(self, strategy: str = "auto", seed: int | None = None) -> "NoetherNormalization":
+        """Noether normalization with a checkable certificate (see ``fibrewise.normalization``)."""
+        from .normalization import noether_normalization
+
+        return noether_normalization(self, strategy=strategy, seed=seed)
+
+    def is_integral(self, f: Coercible, over: Sequence[Coercible]) -> bool:
+        """Whether ``f`` is integral over k[over] inside R/I."""
+        from .normalization import is_integral
+
+        return is_integral(self, f, over)
+
+    def integral_equation(self, f: Coercible, over: Sequence[Coercible]) -> "IntegralEquation | None":
+        """The monic relation of least degree of ``f`` over k[over] in R/I, or None."""
+        from .normalization import integral_equation
+
+        return integral_equation(self, f, over)
+
+    def is_finite_over(self, over: Sequence[Coercible]) -> bool:
+        """Whether R/I is a finitely generated k[over]-module."""
+        from .normalization import is_finite_over
+
+        return is_finite_over(self, over)
 
     def _check_same_ring(self, other: "Ideal") -> None:
         if not self.ring.same_space(other.ring):

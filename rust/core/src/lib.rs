@@ -9,6 +9,8 @@
 //! - [`dimension`], [`hilbert`], [`zerodim`], [`points`]: invariants read off a basis: Krull
 //!   dimension, Hilbert series and degree, the finite-dimensional quotient of a zero-dimensional
 //!   ideal (radical, maximality), and point counts over finite fields ([`frobenius`]).
+//! - [`normalization`], [`integrality`]: Noether normalization with a checkable certificate;
+//!   integrality and finiteness over subalgebras.
 //! - [`control`]: interruption and resource limits for long computations.
 
 pub mod control;
@@ -18,7 +20,9 @@ pub mod field;
 pub mod frobenius;
 pub mod groebner;
 pub mod hilbert;
+pub mod integrality;
 pub mod monomial;
+pub mod normalization;
 pub mod order;
 pub mod parse;
 pub mod points;

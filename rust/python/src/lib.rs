@@ -10,6 +10,7 @@ mod errors;
 mod ideal;
 mod invariants;
 mod long_run;
+mod normalization;
 mod ring;
 
 #[pymodule]
@@ -20,5 +21,6 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_class::<ring::NativePoly>()?;
     ideal::register(m)?;
     invariants::register(m)?;
+    normalization::register(m)?;
     Ok(())
 }

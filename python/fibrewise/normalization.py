@@ -1,0 +1,249 @@
+"""Noether normalization with a checkable certificate, and integrality over subalgebras.
+
+``Ideal.noether_normalization()`` returns a :class:`NoetherNormalization`: parameters
+p1..pd (d = dim R/I) such that k[p1..pd] -> R/I is injective and R/I is a finite module over it,
+with a monic equation over k[p] for every variable. ``verify()`` re-checks the certificate from
+the ideal alone; ``to_dict()`` / :func:`check_certificate` save and re-check it.
+"""
+
+from __future__ import annotations
+
+import re
+from typing import TYPE_CHECKING, Optional, Sequence
+
+from . import _native
+from .rings import Coercible, Polynomial
+
+if TYPE_CHECKING:
+    from .ideals import Ideal
+
+_IDENTIFIER = re.compile(r"[A-Za-z_][A-Za-z0-9_]*")
+
+#: Keys of ``NoetherNormalization.to_dict()`` (besides ``field`` and ``variables``).
+CERTIFICATE_KEYS = (
+    "dimension",
+    "parameters",
+    "parameter_symbols",
+    "coordinates",
+    "coordinate_symbols",
+    "inverse",
+    "equations",
+    "module_generators",
+    "rank",
+    "strategy",
+    "homogeneous",
+)
+
+
+class CertificateError(ValueError):
+    """A Noether normalization certificate that does not hold; ``problems`` lists what is wrong."""
+
+    def __init__(self, problems: list[str]):
+        super().__init__("the certificate does not hold: " + "; ".join(problems))
+        self.problems = problems
+
+
+def _substitute_symbols(text: str, images: dict[str, str]) -> str:
+    """Replaces whole identifiers by parenthesised texts."""
+    return _IDENTIFIER.sub(lambda m: f"({images[m.group(0)]})" if m.group(0) in images else m.group(0), text)
+
+
+def _monic_text(variable: str, coefficients: Sequence[str]) -> str:
+    """x^m + c_{m-1} x^{m-1} + ... + c_0 as text, from [1, c_{m-1}, ..., c_0]."""
+    m = len(coefficients) - 1
+    return " + ".join(f"({c})*({variable})^{m - k}" for k, c in enumerate(coefficients))
+
+
+class NoetherNormalization:
+    """A Noether normalization of an ideal and its certificate.
+
+    Attributes (also the keys of :meth:`to_dict`): ``dimension``, ``parameters`` (polynomials in
+    the ring), ``parameter_symbols`` (names t1..td standing for the parameters), ``coordinates``
+    (an invertible change of coordinates y1..yn, y1..yd the parameters), ``coordinate_symbols``
+    (names of y1..yn), ``inverse`` (each variable written in y1..yn, as text), ``equations``
+    (for every variable, coefficient texts [1, c_{m-1}, ..., c_0] in the parameter symbols),
+    ``module_generators``, ``rank`` (degree of the projection), ``strategy`` ("variables",
+    "linear" or "nonlinear") and ``homogeneous``.
+    """
+
+    def __init__(self, ideal: "Ideal", certificate: dict):
+        self.ideal = ideal
+        ring = ideal.ring
+        self._certificate = {k: certificate[k] for k in CERTIFICATE_KEYS}
+        self.dimension: int = certificate["dimension"]
+        self.parameters: list[Polynomial] = [ring(p) for p in certificate["parameters"]]
+        self.parameter_symbols: list[str] = list(certificate["parameter_symbols"])
+        self.coordinates: list[Polynomial] = [ring(p) for p in certificate["coordinates"]]
+        self.coordinate_symbols: list[str] = list(certificate["coordinate_symbols"])
+        self.inverse: list[str] = list(certificate["inverse"])
+        self.equations: list[list[str]] = [list(e) for e in certificate["equations"]]
+        self.module_generators: list[Polynomial] = [ring(p) for p in certificate["module_generators"]]
+        self.rank: int = certificate["rank"]
+        self.strategy: str = certificate["strategy"]
+        self.homogeneous: bool = certificate["homogeneous"]
+
+    @classmethod
+    def from_dict(cls, certificate: dict, ideal: "Ideal") -> "NoetherNormalization":
+        """A saved certificate (from :meth:`to_dict`) for ``ideal``; raises ``ValueError`` when an
+        entry is missing or unreadable. Use :meth:`verify` to check it."""
+        missing = [k for k in CERTIFICATE_KEYS if k not in certificate]
+        if missing:
+            raise ValueError(f"certificate entry '{missing[0]}' is missing")
+        return cls(ideal, certificate)
+
+    def to_dict(self) -> dict:
+        """The certificate as plain JSON-ready data (texts, ints, bools)."""
+        d = {"field": str(self.ideal.ring.field), "variables": list(self.ideal.ring.variables)}
+        d.update(self._certificate)
+        return d
+
+    def problems(self) -> list[str]:
+        """What is wrong with the certificate, checked from the ideal alone (empty: it holds)."""
+        return check_certificate(self._certificate, self.ideal)
+
+    def verify(self) -> bool:
+        """Re-checks the whole certificate from the ideal alone, independently of how it was
+        found: each equation is monic and lies in the ideal once t_j := p_j, coordinates and
+        inverse compose to the identity, and d is the dimension. Returns True, or raises
+        :class:`CertificateError` saying what is wrong."""
+        problems = self.problems()
+        if problems:
+            raise CertificateError(problems)
+        return True
+
+    def equation(self, variable: str) -> Polynomial:
+        """The monic equation of ``variable`` as a polynomial of the ring (parameters
+        substituted for their symbols); it lies in the ideal."""
+        ring = self.ideal.ring
+        if variable not in ring.variables:
+            raise ValueError(f"unknown variable '{variable}' (the ring has {', '.join(ring.variables)})")
+        coefficients = self.equations[ring.variables.index(variable)]
+        images = {s: str(p) for s, p in zip(self.parameter_symbols, self.parameters)}
+        return ring(_monic_text(variable, [_substitute_symbols(c, images) for c in coefficients]))
+
+    def fiber(self, point: Sequence[int]) -> "Ideal":
+        """The zero-dimensional ideal I + (p1 - a1, ..., pd - ad) of the fiber over a point of k^d.
+        Its vector-space dimension is at most ``len(module_generators)``."""
+        point = list(point)
+        if len(point) != self.dimension:
+            raise ValueError(f"the fiber needs a point with {self.dimension} coordinates, got {len(point)}")
+        ring = self.ideal.ring
+        return ring.ideal(list(self.ideal.generators) + [p - ring(a) for p, a in zip(self.parameters, point)])
+
+    def __repr__(self) -> str:
+        params = ", ".join(str(p) for p in self.parameters)
+        return f"NoetherNormalization(dimension={self.dimension}, parameters=[{params}], rank={self.rank}, strategy={self.strategy!r})"
+
+
+def noether_normalization(ideal: "Ideal", strategy: str = "auto", seed: Optional[int] = None) -> NoetherNormalization:
+    """Noether normalization of ``ideal``: the simplest kind of change that works (``strategy``
+    "auto"), or only "variables", "linear" or "nonlinear". ``seed`` fixes every random choice.
+    The unit ideal raises ``ValueError`` (no solutions over the algebraic closure)."""
+    if seed is not None and (not isinstance(seed, int) or isinstance(seed, bool) or seed < 0):
+        raise ValueError(f"seed must be a non-negative int, got {seed!r}")
+    ring = ideal.ring
+    certificate = _native.noether_normalization(
+        ring._native, [g._native for g in ideal.generators], strategy=strategy, seed=(seed or 0) % 2**64
+    )
+    return NoetherNormalization(ideal, certificate)
+
+
+def check_certificate(certificate: dict, ideal: "Ideal") -> list[str]:
+    """The problems of a saved certificate against ``ideal`` (empty when it holds): unreadable
+    entries, equations that are not monic or not in the ideal, coordinates that do not invert,
+    a wrong dimension. Used by ``fibrewise check CERT.json SYSTEM``."""
+    if not isinstance(certificate, dict):
+        return [f"a certificate is a dict, not {type(certificate).__name__}"]
+    ring = ideal.ring
+    problems = []
+    if "field" in certificate and str(certificate["field"]) != str(ring.field):
+        problems.append(f"the certificate is over {certificate['field']}, the system over {ring.field}")
+    if "variables" in certificate and list(certificate["variables"]) != list(ring.variables):
+        problems.append(f"the certificate has variables {certificate['variables']}, the system {list(ring.variables)}")
+    if problems:
+        return problems
+    try:
+        return _native.check_certificate(ring._native, [g._native for g in ideal.generators], certificate)
+    except ValueError as e:
+        return [str(e)]
+
+
+class IntegralEquation:
+    """A monic relation u^m + c_{m-1} u^{m-1} + ... + c_0 = 0 of an element u over k[g1..gr]
+    modulo an ideal. ``coefficients`` are texts [1, c_{m-1}, ..., c_0] in ``symbols`` (t1..tr,
+    standing for g1..gr)."""
+
+    def __init__(self, element: Polynomial, over: list[Polynomial], symbols: list[str], coefficients: list[str]):
+        self.element = element
+        self.over = over
+        self.symbols = symbols
+        self.coefficients = coefficients
+
+    @property
+    def degree(self) -> int:
+        return len(self.coefficients) - 1
+
+    def polynomial(self) -> Polynomial:
+        """The relation with g_j and the element substituted: an element of the ideal."""
+        images = {s: str(g) for s, g in zip(self.symbols, self.over)}
+        coefficients = [_substitute_symbols(c, images) for c in self.coefficients]
+        return self.element.ring(_monic_text(str(self.element), coefficients))
+
+    def __str__(self) -> str:
+        m = self.degree
+        terms = []
+        for k, c in enumerate(self.coefficients):
+            power = "" if m - k == 0 else ("u" if m - k == 1 else f"u^{m - k}")
+            if c == "0":
+                continue
+            if power == "":
+                terms.append(f"({c})")
+            else:
+                terms.append(power if c == "1" else f"({c})*{power}")
+        where = ", ".join([f"u = {self.element}"] + [f"{s} = {g}" for s, g in zip(self.symbols, self.over)])
+        return f"{' + '.join(terms) or '0'} = 0 where {where}"
+
+    def __repr__(self) -> str:
+        return f"IntegralEquation({str(self)!r})"
+
+
+def _over(ideal: "Ideal", over: Sequence[Coercible]) -> list[Polynomial]:
+    if isinstance(over, (str, Polynomial)):
+        over = [over]
+    return [ideal.ring(g) for g in over]
+
+
+def integral_equation(ideal: "Ideal", f: Coercible, over: Sequence[Coercible]) -> Optional[IntegralEquation]:
+    """The monic relation of least degree of ``f`` over k[over] in R/I, or None when ``f`` is not
+    integral over it (elimination with tag variables)."""
+    ring = ideal.ring
+    element, gs = ring(f), _over(ideal, over)
+    found = _native.integral_equation(ring._native, [g._native for g in ideal.generators], element._native, [g._native for g in gs])
+    if found is None:
+        return None
+    symbols, coefficients = found
+    return IntegralEquation(element, gs, symbols, coefficients)
+
+
+def is_integral(ideal: "Ideal", f: Coercible, over: Sequence[Coercible]) -> bool:
+    """Whether ``f`` is integral over k[over] inside R/I."""
+    return integral_equation(ideal, f, over) is not None
+
+
+def is_finite_over(ideal: "Ideal", over: Sequence[Coercible]) -> bool:
+    """Whether R/I is a finitely generated k[over]-module."""
+    ring = ideal.ring
+    gs = _over(ideal, over)
+    return _native.is_finite_over(ring._native, [g._native for g in ideal.generators], [g._native for g in gs])
+
+
+__all__ = [
+    "CertificateError",
+    "IntegralEquation",
+    "NoetherNormalization",
+    "check_certificate",
+    "integral_equation",
+    "is_finite_over",
+    "is_integral",
+    "noether_normalization",
+]

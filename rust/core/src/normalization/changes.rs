@@ -1,0 +1,168 @@
+//! Triangular changes of coordinates for Noether normalization, and the seeded random choices
+//! that draw them.
+//!
+//! Every change used here has the form p_j = x_{s_j} + h_j(x_N): the parameters are chosen
+//! variables x_{s_1..s_d} shifted by polynomials in the remaining variables N, which stay as
+//! they are. Such a change is invertible (x_{s_j} = p_j - h_j(x_N)) and covers both the generic
+//! linear parameters (every d-dimensional space of linear forms has a basis of this shape after
+//! Gaussian elimination) and the iterated substitutions of Nagata (1962, *Local Rings*), whose
+//! composition keeps this shape because each step only shifts the variables still to be
+//! parameters by powers of a variable that stops being one.
+
+use crate::error::Result;
+use crate::field::Field;
+use crate::order::MonomialOrder;
+use crate::poly::{Poly, Ring};
+
+/// Parameters p_j = x_{params[j]} + shifts[j], with `shifts[j]` a polynomial in the variables
+/// `nonparams` only (indices of the original ring).
+#[derive(Clone, Debug)]
+pub struct Change<F: Field> {
+    pub params: Vec<usize>,
+    pub nonparams: Vec<usize>,
+    pub shifts: Vec<Poly<F>>,
+}
+
+impl<F: Field> Change<F> {
+    /// The parameters are the variables `params` themselves.
+    pub fn variables(params: &[usize], n: usize) -> Self {
+        Change {
+            params: params.to_vec(),
+            nonparams: complement(params, n),
+            shifts: vec![Poly::zero(); params.len()],
+        }
+    }
+
+    pub fn is_identity(&self) -> bool {
+        self.shifts.iter().all(|h| h.is_zero())
+    }
+
+    /// Whether every shift is a linear form (so the parameters are linear forms).
+    pub fn is_linear(&self) -> bool {
+        self.shifts.iter().all(|h| h.terms().iter().all(|(m, _)| m.degree() == 1))
+    }
+
+    /// Largest total degree of a parameter.
+    pub fn parameter_degree(&self) -> u32 {
+        self.shifts.iter().filter_map(|h| h.degree()).max().unwrap_or(1).max(1)
+    }
+
+    /// The parameters p_j as polynomials in the original variables.
+    pub fn parameters(&self, ring: &Ring<F>) -> Vec<Poly<F>> {
+        self.params.iter().zip(&self.shifts).map(|(&s, h)| ring.add(&ring.var(s), h)).collect()
+    }
+}
+
+/// Indices 0..n not in `set`, increasing.
+pub fn complement(set: &[usize], n: usize) -> Vec<usize> {
+    (0..n).filter(|i| !set.contains(i)).collect()
+}
+
+/// The ideal written in the coordinates of a change: a ring whose variables are the
+/// non-parameters (original names) followed by the parameters, so that grevlex puts the
+/// parameters last and the elimination order puts the non-parameters first.
+#[derive(Clone, Debug)]
+pub struct Coordinates<F: Field> {
+    /// Ring in grevlex; [`Coordinates::elimination_ring`] gives the elimination order.
+    pub ring: Ring<F>,
+    /// Image of each original variable x_i: x_b for a non-parameter, p_j - h_j(x_N) for x_{s_j}.
+    pub images: Vec<Poly<F>>,
+    pub n_nonparams: usize,
+}
+
+impl<F: Field> Coordinates<F> {
+    pub fn new(ring: &Ring<F>, change: &Change<F>) -> Result<Self> {
+        let n = ring.nvars();
+        let order: Vec<usize> = change.nonparams.iter().chain(&change.params).copied().collect();
+        let names = order.iter().map(|&i| ring.names()[i].clone()).collect();
+        let target = Ring::new(ring.field.clone(), names, MonomialOrder::Grevlex)?;
+        let mut position = vec![0; n];
+        for (k, &i) in order.iter().enumerate() {
+            position[i] = k;
+        }
+        // Shifts only involve non-parameters, whose image is their own variable.
+        let renaming: Vec<Poly<F>> = (0..n).map(|i| target.var(position[i])).collect();
+        let mut images: Vec<Poly<F>> = renaming.clone();
+        for (&s, h) in change.params.iter().zip(&change.shifts) {
+            let h_new = ring.substitute(h, &renaming, &target)?;
+            images[s] = target.sub(&target.var(position[s]), &h_new);
+        }
+        Ok(Coordinates { ring: target, images, n_nonparams: change.nonparams.len() })
+    }
+
+    /// The same variables with the non-parameters eliminated first (block order N >> T).
+    pub fn elimination_ring(&self) -> Result<Ring<F>> {
+        let first: Vec<usize> = (0..self.n_nonparams).collect();
+        self.ring.with_order(MonomialOrder::elimination(&first, self.ring.nvars()))
+    }
+
+    /// The generators of the ideal in these coordinates, for `target` (this ring in some order).
+    pub fn transform(&self, ring: &Ring<F>, gens: &[Poly<F>], target: &Ring<F>) -> Result<Vec<Poly<F>>> {
+        gens.iter().map(|g| ring.substitute(g, &self.images, target)).collect()
+    }
+}
+
+/// A small seeded generator (SplitMix64, Steele, Lea and Flood 2014): every random choice of the
+/// search goes through it, so a seed reproduces the whole run.
+#[derive(Clone, Debug)]
+pub struct Rng(u64);
+
+impl Rng {
+    pub fn new(seed: u64) -> Self {
+        Rng(seed ^ 0x6a09_e667_f3bc_c908)
+    }
+    pub fn next_u64(&mut self) -> u64 {
+        self.0 = self.0.wrapping_add(0x9e37_79b9_7f4a_7c15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+        z ^ (z >> 31)
+    }
+    /// A nonzero field element. Finite fields: uniform among the nonzero elements (up to
+    /// 2^62); infinite fields: a small integer in ±1..±16, so certificates stay readable.
+    pub fn nonzero<F: Field>(&mut self, field: &F) -> F::Elem {
+        let count = field_size(field).map_or(32, |q| q.min(1 << 62));
+        // element_from_index runs through 0, 1, ... so index 0 (zero) is skipped.
+        field.element_from_index(1 + self.next_u64() % (count - 1))
+    }
+}
+
+/// Number of field elements when it fits 64 bits.
+pub fn field_size<F: Field>(field: &F) -> Option<u64> {
+    field.order().and_then(|q| q.parse().ok()).or_else(|| field.order().map(|_| u64::MAX))
+}
+
+/// Sparse unit-triangular linear change: each parameter x_{s_j} is shifted by c·x_b for one
+/// variable b among `targets` (the non-parameters lacking a pure power), taken round-robin from
+/// position `round`, with c a random nonzero field element.
+pub fn sparse_linear<F: Field>(
+    ring: &Ring<F>,
+    params: &[usize],
+    targets: &[usize],
+    round: usize,
+    rng: &mut Rng,
+) -> Change<F> {
+    let n = ring.nvars();
+    let shifts = (0..params.len())
+        .map(|j| {
+            let b = targets[(j + round) % targets.len()];
+            ring.scale(&ring.var(b), &rng.nonzero(&ring.field))
+        })
+        .collect();
+    Change { params: params.to_vec(), nonparams: complement(params, n), shifts }
+}
+
+/// Dense random linear change: each parameter is x_{s_j} plus a random combination of all
+/// non-parameters.
+pub fn dense_linear<F: Field>(ring: &Ring<F>, params: &[usize], rng: &mut Rng) -> Change<F> {
+    let n = ring.nvars();
+    let nonparams = complement(params, n);
+    let shifts = params
+        .iter()
+        .map(|_| {
+            let terms = nonparams.iter().map(|&b| (crate::Monomial::var_power(n, b, 1), rng.nonzero(&ring.field)));
+            ring.from_terms(terms)
+        })
+        .collect();
+    Change { params: params.to_vec(), nonparams, shifts }
+}

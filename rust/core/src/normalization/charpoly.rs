@@ -1,0 +1,399 @@
+//! The characteristic polynomial det(x·Id - A) of a square matrix over a polynomial ring k[T].
+//!
+//! Two methods. When the field has more elements than the degree of the coefficients in each
+//! t_i, by evaluation and interpolation: the coefficient of x^k is a polynomial in T whose degree
+//! in t_i is at most the sum over rows of the largest t_i-degree in the row (each term of the
+//! determinant takes one entry per row); evaluate A on a grid of that size, take the
+//! characteristic polynomial of each scalar matrix by reduction to Hessenberg form (Cohen, *A
+//! Course in Computational Algebraic Number Theory*, 1993, Algorithm 2.2.9), and interpolate one
+//! variable at a time (Newton's divided differences). Otherwise, by Berkowitz's division-free
+//! algorithm (Berkowitz 1984) directly over k[T], which works in every characteristic, GF(2)
+//! included.
+
+use crate::control::Control;
+use crate::error::Result;
+use crate::field::Field;
+use crate::poly::{Poly, Ring};
+use std::collections::HashMap;
+
+/// Coefficients [1, c_{r-1}, ..., c_0] of det(x·Id - A) = x^r + c_{r-1} x^{r-1} + ... + c_0,
+/// for an r × r matrix `a` (rows of equal length r) over `ring`.
+pub fn characteristic_polynomial<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) -> Result<Vec<Poly<F>>> {
+    match interpolation_grid(ring, a) {
+        Some((bounds, total)) => by_interpolation(ring, a, &LowerSet::new(&bounds, total), control),
+        None => berkowitz(ring, a, control),
+    }
+}
+
+/// Largest number of values (grid points × coefficients) interpolation may hold.
+const MAX_INTERPOLATION_VALUES: u64 = 20_000_000;
+
+/// Degree bounds in each t_i and in total for the coefficients, when the field has enough
+/// points for them and the grid is small enough; `None` otherwise.
+fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(Vec<u64>, u64)> {
+    let d = ring.nvars();
+    let r = a.len();
+    let degree_in = |p: &Poly<F>, i: usize| p.terms().iter().map(|(m, _)| u64::from(m.exponents()[i])).max().unwrap_or(0);
+    let total = |p: &Poly<F>| p.degree().map(u64::from);
+    let total_bound = cycle_mean_bound(&a.iter().map(|row| row.iter().map(total).collect()).collect::<Vec<_>>());
+    let bounds: Vec<u64> = (0..d)
+        .map(|i| {
+            let rows: u64 = a.iter().map(|row| row.iter().map(|p| degree_in(p, i)).max().unwrap_or(0)).sum();
+            let cols: u64 = (0..r).map(|k| a.iter().map(|row| degree_in(&row[k], i)).max().unwrap_or(0)).sum();
+            let in_i = |p: &Poly<F>| (!p.is_zero()).then(|| degree_in(p, i));
+            let cycles = cycle_mean_bound(&a.iter().map(|row| row.iter().map(in_i).collect()).collect::<Vec<_>>());
+            rows.min(cols).min(cycles).min(total_bound)
+        })
+        .collect();
+    let q = super::changes::field_size(&ring.field).unwrap_or(u64::MAX);
+    if bounds.iter().any(|&b| b >= q) {
+        return None;
+    }
+    let points = bounds.iter().try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
+    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((bounds, total_bound))
+}
+
+/// A bound on the degree of every coefficient of det(x·Id - A), given the degree of each entry
+/// (`None` for a zero entry): each term of the coefficient of x^{r-k} is a product of entries
+/// along disjoint cycles through k indices, so its degree is at most k times the largest mean
+/// degree of a cycle, which Karp's theorem (Karp 1978) computes from the heaviest walks with
+/// exactly j edges: λ* = max_v min_j (W_r(v) - W_j(v)) / (r - j). The bound is ⌊r·λ*⌋.
+fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
+    let r = degrees.len();
+    // walks[j][v]: largest degree of a walk of exactly j edges ending at v (None: no walk).
+    let mut walks: Vec<Vec<Option<i64>>> = vec![vec![Some(0); r]];
+    for j in 1..=r {
+        let next = (0..r)
+            .map(|v| (0..r).filter_map(|u| Some(walks[j - 1][u]? + degrees[u][v]? as i64)).max())
+            .collect();
+        walks.push(next);
+    }
+    // Largest over v of the smallest ratio, compared exactly as fractions (numerator, denominator).
+    let mut best: Option<(i64, i64)> = None;
+    #[allow(clippy::needless_range_loop)] // v indexes every walk length's row, not one slice
+    for v in 0..r {
+        let Some(last) = walks[r][v] else { continue };
+        let ratio = (0..r)
+            .filter_map(|j| walks[j][v].map(|w| (last - w, (r - j) as i64)))
+            .min_by(|a, b| (i128::from(a.0) * i128::from(b.1)).cmp(&(i128::from(b.0) * i128::from(a.1))));
+        if let Some(q) = ratio {
+            if best.is_none_or(|b| i128::from(q.0) * i128::from(b.1) > i128::from(b.0) * i128::from(q.1)) {
+                best = Some(q);
+            }
+        }
+    }
+    best.map_or(0, |(num, den)| u64::try_from((r as i64 * num).div_euclid(den)).unwrap_or(0))
+}
+
+fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], set: &LowerSet, control: &Control) -> Result<Vec<Poly<F>>> {
+    let field = &ring.field;
+    let r = a.len();
+    let d = ring.nvars();
+    let longest = set.exponents.iter().flatten().copied().max().unwrap_or(0);
+    let nodes: Vec<F::Elem> = (0..=u64::from(longest)).map(|j| field.element_from_index(j)).collect();
+    let max_exponents: Vec<u32> = (0..d)
+        .map(|i| a.iter().flatten().flat_map(|p| p.terms().iter().map(move |(m, _)| m.exponents()[i])).max().unwrap_or(0))
+        .collect();
+    // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
+    let mut values = vec![vec![field.zero(); set.exponents.len()]; r + 1];
+    for (g, alpha) in set.exponents.iter().enumerate() {
+        control.check()?;
+        let point: Vec<F::Elem> = alpha.iter().map(|&j| nodes[j as usize].clone()).collect();
+        let powers = PowerTable::new(field, &point, &max_exponents);
+        let scalar: Vec<Vec<F::Elem>> = a.iter().map(|row| row.iter().map(|p| powers.evaluate(field, p)).collect()).collect();
+        for (k, c) in hessenberg_charpoly(field, scalar).into_iter().enumerate() {
+            values[k][g] = c;
+        }
+    }
+    let mut out = Vec::with_capacity(r + 1);
+    for k in (0..=r).rev() {
+        control.check()?;
+        let coefficients = set.interpolate(field, &nodes, std::mem::take(&mut values[k]));
+        let terms = set
+            .exponents
+            .iter()
+            .zip(coefficients)
+            .filter(|(_, c)| !field.is_zero(c))
+            .map(|(alpha, c)| Ok((crate::Monomial::from_exponents(alpha.clone())?, c)))
+            .collect::<Result<Vec<_>>>()?;
+        out.push(ring.from_terms(terms));
+    }
+    Ok(out)
+}
+
+/// The exponents α with α_i ≤ bound_i and |α| ≤ total: a lower set, on whose node points
+/// (s_{α_1}, ..., s_{α_d}) a polynomial with exponents in the set is determined. Newton's form
+/// N_α = Π_i (t_i - s_0)...(t_i - s_{α_i - 1}) makes the interpolation matrix a tensor product of
+/// lower-triangular ones, so the coefficient at α only involves node points below α, all in
+/// the set: one-variable divided differences along the lines of the set, axis after axis, are
+/// exact (multivariate Newton interpolation on lower sets; Sauer 2006, Dyn and Floater 2014).
+struct LowerSet {
+    exponents: Vec<Vec<u32>>,
+    index: HashMap<Vec<u32>, usize>,
+}
+
+impl LowerSet {
+    fn new(bounds: &[u64], total: u64) -> Self {
+        let mut exponents = Vec::new();
+        let mut current = vec![0u32; bounds.len()];
+        Self::enumerate(bounds, total, 0, &mut current, &mut exponents);
+        let index = exponents.iter().enumerate().map(|(g, e)| (e.clone(), g)).collect();
+        LowerSet { exponents, index }
+    }
+
+    fn enumerate(bounds: &[u64], left: u64, i: usize, current: &mut Vec<u32>, out: &mut Vec<Vec<u32>>) {
+        if i == bounds.len() {
+            out.push(current.clone());
+            return;
+        }
+        for e in 0..=bounds[i].min(left) {
+            current[i] = e as u32;
+            Self::enumerate(bounds, left - e, i + 1, current, out);
+        }
+        current[i] = 0;
+    }
+
+    /// The points of the set on the line through `start` (whose i-th exponent is 0) along axis i.
+    fn line(&self, start: &[u32], i: usize) -> Vec<usize> {
+        let mut alpha = start.to_vec();
+        let mut line = Vec::new();
+        while let Some(&g) = self.index.get(&alpha) {
+            line.push(g);
+            alpha[i] += 1;
+        }
+        line
+    }
+
+    /// Values at the node points -> coefficients of the monomials t^α.
+    fn interpolate<F: Field>(&self, field: &F, nodes: &[F::Elem], mut values: Vec<F::Elem>) -> Vec<F::Elem> {
+        let d = self.exponents.first().map_or(0, |e| e.len());
+        for pass in 0..2 {
+            for i in 0..d {
+                for start in self.exponents.iter().filter(|e| e[i] == 0) {
+                    let line = self.line(start, i);
+                    let ys: Vec<F::Elem> = line.iter().map(|&g| values[g].clone()).collect();
+                    let xs = &nodes[..line.len()];
+                    let out = if pass == 0 { divided_differences(field, xs, &ys) } else { newton_to_monomial(field, xs, &ys) };
+                    for (&g, c) in line.iter().zip(out) {
+                        values[g] = c;
+                    }
+                }
+            }
+        }
+        values
+    }
+}
+
+/// Powers of the coordinates of one point, so that evaluating the many matrix entries costs one
+/// multiplication per variable occurrence instead of a power each time.
+struct PowerTable<F: Field> {
+    powers: Vec<Vec<F::Elem>>,
+}
+
+impl<F: Field> PowerTable<F> {
+    fn new(field: &F, point: &[F::Elem], max_exponents: &[u32]) -> Self {
+        let powers = point
+            .iter()
+            .zip(max_exponents)
+            .map(|(x, &e)| {
+                let mut row = vec![field.one()];
+                for _ in 0..e {
+                    row.push(field.mul(row.last().unwrap(), x));
+                }
+                row
+            })
+            .collect();
+        PowerTable { powers }
+    }
+
+    fn evaluate(&self, field: &F, p: &Poly<F>) -> F::Elem {
+        let mut acc = field.zero();
+        for (m, c) in p.terms() {
+            let mut t = c.clone();
+            for (row, &e) in self.powers.iter().zip(m.exponents()) {
+                if e > 0 {
+                    t = field.mul(&t, &row[e as usize]);
+                }
+            }
+            acc = field.add(&acc, &t);
+        }
+        acc
+    }
+}
+
+/// Newton coefficients of the polynomial of degree < len taking values `ys` at the distinct
+/// points `xs` (divided differences).
+fn divided_differences<F: Field>(field: &F, xs: &[F::Elem], ys: &[F::Elem]) -> Vec<F::Elem> {
+    let n = xs.len();
+    let mut dd = ys.to_vec();
+    for level in 1..n {
+        for i in (level..n).rev() {
+            let num = field.sub(&dd[i], &dd[i - 1]);
+            let den = field.sub(&xs[i], &xs[i - level]);
+            dd[i] = field.div(&num, &den).expect("nodes are distinct");
+        }
+    }
+    dd
+}
+
+/// Monomial coefficients (low to high) of Σ dd_i (x - x_0)...(x - x_{i-1}), by Horner's rule.
+fn newton_to_monomial<F: Field>(field: &F, xs: &[F::Elem], dd: &[F::Elem]) -> Vec<F::Elem> {
+    let n = xs.len();
+    let mut coeffs = vec![field.zero(); n];
+    for i in (0..n).rev() {
+        // coeffs := coeffs·(x - x_i) + dd[i]; the degree stays below n.
+        for j in (0..n).rev() {
+            let shifted = if j > 0 { coeffs[j - 1].clone() } else { field.zero() };
+            coeffs[j] = field.sub(&shifted, &field.mul(&coeffs[j], &xs[i]));
+        }
+        coeffs[0] = field.add(&coeffs[0], &dd[i]);
+    }
+    coeffs
+}
+
+/// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
+/// and the recurrence on its leading minors (Cohen 1993, Algorithm 2.2.9).
+fn hessenberg_charpoly<F: Field>(field: &F, mut h: Vec<Vec<F::Elem>>) -> Vec<F::Elem> {
+    let n = h.len();
+    for m in 1..n.saturating_sub(1) {
+        let Some(i) = (m..n).find(|&i| !field.is_zero(&h[i][m - 1])) else { continue };
+        if i != m {
+            h.swap(i, m);
+            for row in h.iter_mut() {
+                row.swap(i, m);
+            }
+        }
+        let pivot_inv = field.inv(&h[m][m - 1]).expect("nonzero pivot");
+        for i in m + 1..n {
+            let u = field.mul(&h[i][m - 1], &pivot_inv);
+            if field.is_zero(&u) {
+                continue;
+            }
+            let pivot_row = h[m].clone();
+            for (target, source) in h[i].iter_mut().zip(&pivot_row) {
+                *target = field.sub(target, &field.mul(&u, source));
+            }
+            for row in h.iter_mut() {
+                let t = field.mul(&u, &row[i]);
+                row[m] = field.add(&row[m], &t);
+            }
+        }
+    }
+    // p_0 = 1; p_m = (x - h_mm) p_{m-1} - Σ_{i=1}^{m-1} (h_{m,m-1} ... h_{m-i+1,m-i}) h_{m-i,m} p_{m-i-1}
+    let mut p: Vec<Vec<F::Elem>> = vec![vec![field.one()]];
+    for m in 1..=n {
+        let prev = &p[m - 1];
+        let mut next = vec![field.zero(); m + 1];
+        for (j, c) in prev.iter().enumerate() {
+            next[j + 1] = field.add(&next[j + 1], c);
+            next[j] = field.sub(&next[j], &field.mul(c, &h[m - 1][m - 1]));
+        }
+        let mut t = field.one();
+        for i in 1..m {
+            t = field.mul(&t, &h[m - i][m - i - 1]);
+            let factor = field.mul(&t, &h[m - i - 1][m - 1]);
+            if field.is_zero(&factor) {
+                continue;
+            }
+            for (j, c) in p[m - i - 1].iter().enumerate() {
+                next[j] = field.sub(&next[j], &field.mul(&factor, c));
+            }
+        }
+        p.push(next);
+    }
+    p.pop().unwrap()
+}
+
+/// Berkowitz's division-free algorithm over k[T].
+fn berkowitz<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) -> Result<Vec<Poly<F>>> {
+    let mut coeffs = vec![ring.one()];
+    for r in 0..a.len() {
+        let toeplitz = toeplitz_column(ring, a, r, control)?;
+        // Char. poly. of the leading (r+1)-minor = lower-triangular Toeplitz(toeplitz) · coeffs.
+        let mut next = vec![Poly::zero(); r + 2];
+        for (i, out) in next.iter_mut().enumerate() {
+            for (j, c) in coeffs.iter().enumerate().take(i + 1) {
+                if !c.is_zero() && !toeplitz[i - j].is_zero() {
+                    *out = ring.add(out, &ring.mul(&toeplitz[i - j], c)?);
+                }
+            }
+        }
+        coeffs = next;
+    }
+    Ok(coeffs)
+}
+
+/// First column of Berkowitz's Toeplitz matrix for step r:
+/// [1, -a_rr, -R·C, -R·A_r·C, ..., -R·A_r^{r-1}·C], with A_r the leading r × r block,
+/// R = a[r][0..r] and C = a[0..r][r].
+fn toeplitz_column<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], r: usize, control: &Control) -> Result<Vec<Poly<F>>> {
+    let mut column = vec![ring.one(), ring.neg(&a[r][r])];
+    let mut w: Vec<Poly<F>> = (0..r).map(|i| a[i][r].clone()).collect();
+    for k in 0..r {
+        control.check()?;
+        column.push(ring.neg(&dot(ring, &a[r][..r], &w)?));
+        if k + 1 < r {
+            w = (0..r).map(|i| dot(ring, &a[i][..r], &w)).collect::<Result<_>>()?;
+        }
+    }
+    Ok(column)
+}
+
+fn dot<F: Field>(ring: &Ring<F>, u: &[Poly<F>], v: &[Poly<F>]) -> Result<Poly<F>> {
+    let mut acc = Poly::zero();
+    for (x, y) in u.iter().zip(v) {
+        if !x.is_zero() && !y.is_zero() {
+            acc = ring.add(&acc, &ring.mul(x, y)?);
+        }
+    }
+    Ok(acc)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::field::PrimeField;
+    use crate::order::MonomialOrder;
+    use crate::parse::parse_poly;
+
+    /// Both methods on the same random matrices: interpolation over GF(101), Berkowitz forced.
+    #[test]
+    fn interpolation_agrees_with_berkowitz() {
+        let mut rng = crate::normalization::changes::Rng::new(9);
+        for (nvars, size) in (1..=3).flat_map(|d| (0..6).map(move |s| (d, s))) {
+            let names = ["s", "t", "u"][..nvars].iter().map(|v| v.to_string()).collect();
+            let ring = Ring::new(PrimeField::new(101).unwrap(), names, MonomialOrder::Grevlex).unwrap();
+            let a: Vec<Vec<Poly<PrimeField>>> = (0..size)
+                .map(|_| {
+                    (0..size)
+                        .map(|_| {
+                            let terms = (0..3).map(|_| {
+                                let e = (0..nvars).map(|i| (rng.next_u64() % (3 - i as u64 % 2)) as u32).collect();
+                                (crate::Monomial::from_exponents(e).unwrap(), rng.next_u64() % 101)
+                            });
+                            ring.from_terms(terms)
+                        })
+                        .collect()
+                })
+                .collect();
+            let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
+            assert!(interpolation_grid(&ring, &a).is_some());
+            assert_eq!(fast, berkowitz(&ring, &a, &Control::new()).unwrap(), "{nvars} variables, size {size}");
+        }
+    }
+
+    #[test]
+    fn two_by_two_and_companion() {
+        let ring = Ring::new(PrimeField::new(101).unwrap(), vec!["t".into()], MonomialOrder::Grevlex).unwrap();
+        let p = |s: &str| parse_poly(&ring, s).unwrap();
+        // det(x - [[a, b], [c, d]]) = x^2 - (a + d) x + (ad - bc).
+        let a = vec![vec![p("t"), p("2")], vec![p("3"), p("t + 1")]];
+        let cp = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
+        assert_eq!(cp, vec![p("1"), p("-2*t - 1"), p("t^2 + t - 6")]);
+        // The companion matrix of x^3 + t x + 5 has that characteristic polynomial (Lang, Algebra).
+        let z = Poly::zero;
+        let comp = vec![vec![z(), z(), p("-5")], vec![p("1"), z(), p("-t")], vec![z(), p("1"), z()]];
+        let cp = characteristic_polynomial(&ring, &comp, &Control::new()).unwrap();
+        assert_eq!(cp, vec![p("1"), z(), p("t"), p("5")]);
+    }
+}

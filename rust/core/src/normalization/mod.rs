@@ -1,0 +1,318 @@
+//! Noether normalization with a checkable certificate (Noether 1926; constructive form after
+//! Nagata 1962): parameters p_1..p_d, d = dim R/I, such that k[p_1..p_d] -> R/I is injective
+//! and R/I is a finite k[p]-module, with a monic equation over k[p] for every variable.
+//!
+//! The search tries the simplest change of coordinates first and stops at the first that works:
+//! 1. *variables*: a maximal independent set of the leading ideal (Kredel and Weispfenning
+//!    1988); the grevlex basis every caller computes anyway proves it at no cost when the other
+//!    variables have pure powers in its leading ideal (see [`finiteness`]);
+//! 2. *linear*: sparse unit-triangular shifts x_s -> x_s + c·x_b of the parameters by the
+//!    variables that lack pure powers, then dense random linear forms when the field is large
+//!    enough for them to succeed with good probability (Schwartz 1980, Zippel 1979);
+//! 3. *nonlinear*: Nagata's substitutions with the smallest exponents that work ([`nagata`]),
+//!    which always succeed.
+//!
+//! Every candidate costs one or two bases ([`finiteness::test_change`]); the certificate then
+//! comes from the basis that proved finiteness, by the determinant trick ([`certificate`]).
+
+pub mod certificate;
+pub mod changes;
+pub mod charpoly;
+pub mod finiteness;
+pub mod nagata;
+
+#[cfg(test)]
+mod tests;
+
+use crate::control::Control;
+use crate::dimension::{krull_dimension, maximum_independent_sets};
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::groebner::{groebner_basis, Engine, GroebnerBasis};
+use crate::order::MonomialOrder;
+use crate::poly::{Poly, Ring};
+use changes::{complement, dense_linear, field_size, sparse_linear, Change, Rng};
+use finiteness::{missing_pure_powers, proof_from_basis, test_change, Proof, TestPlan};
+
+pub use certificate::{check_certificate, CertificateText};
+
+/// The kind of coordinate change that produced the parameters.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Strategy {
+    Variables,
+    Linear,
+    Nonlinear,
+}
+
+impl Strategy {
+    pub fn name(&self) -> &'static str {
+        match self {
+            Strategy::Variables => "variables",
+            Strategy::Linear => "linear",
+            Strategy::Nonlinear => "nonlinear",
+        }
+    }
+    pub fn from_name(name: &str) -> Option<Self> {
+        match name {
+            "variables" => Some(Strategy::Variables),
+            "linear" => Some(Strategy::Linear),
+            "nonlinear" => Some(Strategy::Nonlinear),
+            _ => None,
+        }
+    }
+}
+
+/// What the caller asks for: `Auto` tries variables, linear, nonlinear in turn; the others try
+/// only that kind (and fail with a clear error when it does not work).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum Request {
+    #[default]
+    Auto,
+    Only(Strategy),
+}
+
+impl Request {
+    pub fn from_name(name: &str) -> Result<Self> {
+        match name {
+            "auto" => Ok(Request::Auto),
+            other => Strategy::from_name(other).map(Request::Only).ok_or_else(|| {
+                Error::invalid(format!(
+                    "unknown normalization strategy '{other}': expected auto, variables, linear or nonlinear"
+                ))
+            }),
+        }
+    }
+    fn allows(&self, s: Strategy) -> bool {
+        matches!(self, Request::Auto) || *self == Request::Only(s)
+    }
+}
+
+#[derive(Clone, Copy, Debug, Default)]
+pub struct Options {
+    pub request: Request,
+    /// Seed of every random choice: the same seed gives the same result.
+    pub seed: u64,
+}
+
+/// A Noether normalization and its certificate (keys of the public interface).
+#[derive(Clone, Debug)]
+pub struct NoetherNormalization<F: Field> {
+    /// The ring of the ideal (original variables and order).
+    pub ring: Ring<F>,
+    pub dimension: usize,
+    /// p_1..p_d in the original variables.
+    pub parameters: Vec<Poly<F>>,
+    /// k[t_1..t_d], the symbols standing for the parameters (named to avoid the ring's names).
+    pub parameter_ring: Ring<F>,
+    /// y_1..y_n in the original variables, y_1..y_d = p_1..p_d.
+    pub coordinates: Vec<Poly<F>>,
+    /// The ring of y_1..y_n: the parameter symbols, then the names of the other coordinates.
+    pub coordinate_ring: Ring<F>,
+    /// Each original variable written in y_1..y_n.
+    pub inverse: Vec<Poly<F>>,
+    /// For every original variable x: [1, c_{m-1}, ..., c_0] in k[t], with
+    /// x^m + c_{m-1}(p) x^{m-1} + ... + c_0(p) in I.
+    pub equations: Vec<Vec<Poly<F>>>,
+    /// Generators of R/I as a k[p]-module.
+    pub module_generators: Vec<Poly<F>>,
+    /// dim over k(p) of R/I ⊗ k(p): the degree of the projection.
+    pub rank: usize,
+    pub strategy: Strategy,
+    /// The input is homogeneous and so are the parameters.
+    pub homogeneous: bool,
+}
+
+/// Sparse linear tries before dense ones, and dense tries when the field is large enough.
+const SPARSE_TRIES: usize = 2;
+const DENSE_TRIES: usize = 3;
+/// Extra random linear tries for homogeneous input over a field too small for the probability
+/// bound: homogeneous linear parameters are preferred when they exist over the field.
+const SMALL_FIELD_HOMOGENEOUS_TRIES: usize = 4;
+/// Independent sets tested with an elimination basis when the free test fails.
+const VARIABLE_SET_TRIES: usize = 2;
+/// Largest number of maximal independent sets examined by the free test.
+const INDEPENDENT_SET_LIMIT: usize = 64;
+
+/// A Noether normalization of the ideal generated by `gens` in `ring`.
+pub fn noether_normalization<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    options: &Options,
+    control: &Control,
+) -> Result<NoetherNormalization<F>> {
+    let mut search = Search::new(ring, gens, options, control)?;
+    let (change, proof, strategy) = search.run()?;
+    let homogeneous = search.homogeneous && change.is_linear();
+    certificate::build(ring, &change, &proof, strategy, homogeneous, control)
+}
+
+/// State shared by the stages of the search.
+struct Search<'a, F: Field> {
+    ring: &'a Ring<F>,
+    gens: &'a [Poly<F>],
+    options: &'a Options,
+    control: &'a Control,
+    grevlex: GroebnerBasis<F>,
+    dimension: usize,
+    homogeneous: bool,
+    rng: Rng,
+}
+
+impl<'a, F: Field> Search<'a, F> {
+    fn new(ring: &'a Ring<F>, gens: &'a [Poly<F>], options: &'a Options, control: &'a Control) -> Result<Self> {
+        let grevlex_ring = ring.with_order(MonomialOrder::Grevlex)?;
+        let adopted: Vec<Poly<F>> = gens.iter().map(|g| grevlex_ring.adopt(g.clone())).collect();
+        let grevlex = groebner_basis(&grevlex_ring, &adopted, Engine::default(), control)?;
+        let dim = krull_dimension(ring.nvars(), &grevlex.leading_monomials());
+        if dim < 0 {
+            return Err(Error::invalid(
+                "Noether normalization of the unit ideal: the system has no solutions over the algebraic closure",
+            ));
+        }
+        let homogeneous = gens.iter().all(|g| g.is_homogeneous());
+        Ok(Search {
+            ring,
+            gens,
+            options,
+            control,
+            grevlex,
+            dimension: dim as usize,
+            homogeneous,
+            rng: Rng::new(options.seed),
+        })
+    }
+
+    fn run(&mut self) -> Result<(Change<F>, Proof<F>, Strategy)> {
+        let request = self.options.request;
+        // With d = 0 or d = n the variables are the only sensible answer, whatever was asked.
+        let trivial = self.dimension == 0 || self.dimension == self.ring.nvars();
+        if request.allows(Strategy::Variables) || trivial {
+            if let Some((change, proof)) = self.by_variables()? {
+                return Ok((change, proof, Strategy::Variables));
+            }
+        }
+        if request.allows(Strategy::Linear) {
+            if let Some((change, proof)) = self.by_linear_change()? {
+                return Ok((change, proof, Strategy::Linear));
+            }
+        }
+        if request.allows(Strategy::Nonlinear) {
+            let (change, proof) = self.by_nagata()?;
+            let strategy = if change.is_linear() { Strategy::Linear } else { Strategy::Nonlinear };
+            return Ok((change, proof, strategy));
+        }
+        Err(Error::invalid(format!(
+            "no Noether normalization of kind '{}' was found; use strategy 'auto' or 'nonlinear'",
+            match request {
+                Request::Only(s) => s.name(),
+                Request::Auto => "auto",
+            }
+        )))
+    }
+
+    fn leads(&self) -> Vec<crate::Monomial> {
+        self.grevlex.leading_monomials()
+    }
+
+    fn independent_sets(&self) -> Vec<Vec<usize>> {
+        maximum_independent_sets(self.ring.nvars(), &self.leads(), INDEPENDENT_SET_LIMIT)
+    }
+
+    fn gens_grevlex(&self) -> Vec<Poly<F>> {
+        self.gens.iter().map(|g| self.grevlex.ring.adopt(g.clone())).collect()
+    }
+
+    /// A subset of the variables: free when the grevlex basis has the pure powers, else an
+    /// elimination basis for the first few independent sets.
+    fn by_variables(&mut self) -> Result<Option<(Change<F>, Proof<F>)>> {
+        let n = self.ring.nvars();
+        let leads = self.leads();
+        let sets = self.independent_sets();
+        for set in &sets {
+            if missing_pure_powers(&leads, &complement(set, n)).is_empty() {
+                let proof = proof_from_basis(&self.grevlex.ring, &self.grevlex.polys, set);
+                return Ok(Some((Change::variables(set, n), proof)));
+            }
+        }
+        let gens = self.gens_grevlex();
+        for set in sets.iter().take(VARIABLE_SET_TRIES) {
+            let change = Change::variables(set, n);
+            // When the parameters are already the last variables, the grevlex basis in the new
+            // coordinates is the one at hand, known to lack pure powers.
+            let last = set.iter().enumerate().all(|(j, &s)| s == n - set.len() + j);
+            let plan = TestPlan { grevlex_decides: self.homogeneous, skip_grevlex: last };
+            if last && self.homogeneous {
+                continue;
+            }
+            if let Some(proof) = test_change(&self.grevlex.ring, &gens, &change, plan, self.control)? {
+                return Ok(Some((change, proof)));
+            }
+        }
+        Ok(None)
+    }
+
+    /// Sparse then dense linear changes around the best independent set.
+    fn by_linear_change(&mut self) -> Result<Option<(Change<F>, Proof<F>)>> {
+        let n = self.ring.nvars();
+        let d = self.dimension;
+        if d == 0 || d == n {
+            return Ok(None);
+        }
+        let params = self.independent_sets().into_iter().next().unwrap_or_else(|| ((n - d)..n).collect());
+        let nonparams = complement(&params, n);
+        let mut targets = missing_pure_powers(&self.leads(), &nonparams);
+        if targets.is_empty() {
+            targets = nonparams.clone();
+        }
+        let gens = self.gens_grevlex();
+        let ring = self.grevlex.ring.clone();
+        let plan = TestPlan { grevlex_decides: self.homogeneous, skip_grevlex: false };
+        for round in 0..SPARSE_TRIES.min(targets.len().max(1) + 1) {
+            let change = sparse_linear(&ring, &params, &targets, round, &mut self.rng);
+            if let Some(proof) = test_change(&ring, &gens, &change, plan, self.control)? {
+                return Ok(Some((change, proof)));
+            }
+        }
+        for _ in 0..self.dense_tries() {
+            let change = dense_linear(&ring, &params, &mut self.rng);
+            if let Some(proof) = test_change(&ring, &gens, &change, plan, self.control)? {
+                return Ok(Some((change, proof)));
+            }
+        }
+        Ok(None)
+    }
+
+    /// How many dense random linear changes are worth drawing. A random change fails only on
+    /// the zero set of a nonzero polynomial of degree at most D in its coefficients, D the
+    /// degree of the closure of V(I); by Schwartz–Zippel the chance of failure is at most D/q.
+    /// D is bounded by Bézout's inequality as the product of the n - d largest generator degrees
+    /// (an estimate when I is not a complete intersection: a failed try only costs a basis, the
+    /// result is certified anyway). Draw only when D/q ≤ 1/2; homogeneous input gets a few
+    /// tries even over small fields, because linear parameters are preferred there.
+    fn dense_tries(&self) -> usize {
+        let mut degrees: Vec<u32> = self.gens.iter().filter_map(|g| g.degree()).collect();
+        degrees.sort_unstable_by(|a, b| b.cmp(a));
+        let codim = self.ring.nvars() - self.dimension;
+        let bezout: f64 = degrees.iter().take(codim).map(|&e| f64::from(e.max(1))).product();
+        let q = field_size(&self.ring.field).map_or(f64::INFINITY, |q| q as f64);
+        if bezout / q <= 0.5 {
+            DENSE_TRIES
+        } else if self.homogeneous {
+            SMALL_FIELD_HOMOGENEOUS_TRIES
+        } else {
+            0
+        }
+    }
+
+    /// Nagata's substitutions, then the one elimination basis of the certificate.
+    fn by_nagata(&mut self) -> Result<(Change<F>, Proof<F>)> {
+        let ring = self.grevlex.ring.clone();
+        let gens = self.gens_grevlex();
+        let change = nagata::nagata_change(&ring, &gens, self.dimension, &mut self.rng, self.control)?;
+        let plan = TestPlan { grevlex_decides: false, skip_grevlex: false };
+        let proof = test_change(&ring, &gens, &change, plan, self.control)?.ok_or_else(|| {
+            Error::invalid("Noether normalization: Nagata's substitution did not give a finite projection")
+        })?;
+        Ok((change, proof))
+    }
+}
