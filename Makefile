@@ -28,8 +28,17 @@ test-python: build
 
 test: test-rust test-python
 
+DEMO_OUT := $(VENV)/demo-results.jsonl
+
 demo: build
-	$(VENV)/bin/fibrewise basis examples/toy_cipher_gf101.txt
+	@for f in examples/*.txt; do \
+		echo "$$ fibrewise analyze $$f"; $(VENV)/bin/fibrewise analyze "$$f" || echo "(exit status $$?)"; echo; \
+	done
+	@echo "$$ fibrewise basis examples/toy_cipher_gf101.txt"; $(VENV)/bin/fibrewise basis examples/toy_cipher_gf101.txt; echo
+	@rm -f $(DEMO_OUT)
+	@echo "$$ fibrewise batch examples/batch.jsonl -o $(DEMO_OUT) --timeout 30"
+	@$(VENV)/bin/fibrewise batch examples/batch.jsonl -o $(DEMO_OUT) --timeout 30
+	@echo; echo "$(DEMO_OUT), one line per job (cut at 160 characters):"; cut -c1-160 $(DEMO_OUT)
 
 bench: build
 	$(PY) bench/run.py

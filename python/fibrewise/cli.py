@@ -1,87 +1,441 @@
 """The ``fibrewise`` command line.
 
-``fibrewise SUBCOMMAND FILE [options]``; ``--json`` prints one JSON object. Bad input exits with
-status 2 and one message naming the file, line and column.
+``fibrewise SUBCOMMAND FILE [options]``; ``--json`` prints one JSON object. Each subcommand computes
+a JSON-ready dict; ``report`` turns it into the short human report. Bad input exits with status 2
+and one message naming the file, line and column; a capability missing from this build also exits
+with status 2 and says so. Heavy packages (galois, numba, matplotlib, dask) are imported only by
+the commands that need them, so start-up stays fast.
 """
 
 from __future__ import annotations
 
 import argparse
 import json
+import os
 import sys
 import time
-from typing import Callable, Sequence
+from typing import Any, Callable, Sequence
 
-EXIT_BAD_INPUT = 2
+EXIT_OK, EXIT_FAILED, EXIT_BAD_INPUT, EXIT_INTERRUPTED = 0, 1, 2, 130
+# An analyze run counts points itself only when the count is small: at most about this many.
+CHEAP_POINTS = 20_000
 
 
-def _basis(args: argparse.Namespace) -> dict:
+def _system(args: argparse.Namespace):
     from .systemfile import read_system
 
-    system = read_system(args.file)
-    order = args.order or system.ring.order
+    return read_system(args.file)
+
+
+def _timed(call: Callable[[], Any]) -> tuple[Any, float]:
     start = time.perf_counter()
-    gb = system.ideal.groebner_basis(order)
-    seconds = time.perf_counter() - start
-    return {
-        "field": str(system.ring.field),
-        "variables": list(system.ring.variables),
-        "order": str(order),
-        "basis": [str(g) for g in gb],
-        "seconds": seconds,
-        "stats": gb.stats.to_dict(),
-    }
+    value = call()
+    return value, time.perf_counter() - start
 
 
-def _print_basis(result: dict) -> None:
-    n = len(result["basis"])
-    print(f"reduced Groebner basis: {n} polynomial{'s' * (n != 1)} "
-          f"over {result['field']} in {', '.join(result['variables'])} ({result['order']})")
-    for g in result["basis"]:
-        print(f"  {g}")
-    stats = result["stats"]
-    print(f"time {result['seconds']:.4f} s, engine {stats['engine']}, highest degree {stats['max_degree']}, "
-          f"{stats['zero_reductions']} zero reductions")
+def _header(system) -> dict:
+    ring = system.ring
+    return {"file": system.path, "field": str(ring.field), "variables": list(ring.variables),
+            "order": str(ring.order), "polynomials": len(system.ideal.generators)}
 
 
-SUBCOMMANDS: dict[str, tuple[str, str, Callable, Callable]] = {
-    "basis": (
-        "reduced Groebner basis of a system file",
-        "example: fibrewise basis examples/toy_cipher_gf101.txt --order lex",
-        _basis,
-        _print_basis,
-    ),
+# ----------------------------------------------------------------------------------------------
+# basis
+
+
+def _basis(args: argparse.Namespace, activity) -> dict:
+    system = _system(args)
+    order = args.order or system.ring.order
+    activity.set_step("Groebner basis")
+    gb, seconds = _timed(lambda: system.ideal.groebner_basis(order))
+    return {**_header(system), "order": str(order), "basis": [str(g) for g in gb],
+            "seconds": seconds, "stats": gb.stats.to_dict()}
+
+
+# ----------------------------------------------------------------------------------------------
+# analyze
+
+
+def _analyze(args: argparse.Namespace, activity) -> dict:
+    from .jobs import NotAvailable, capability
+
+    system = _system(args)
+    ideal = system.ideal
+    result: dict[str, Any] = _header(system)
+    unavailable: list[str] = []
+
+    failed: dict[str, str] = {}
+
+    def part(name: str, step: str, call: Callable[[], Any]) -> Any:
+        """One piece of the analysis; a piece that is missing or fails is noted, the rest goes on."""
+        activity.set_step(step)
+        try:
+            value, result[f"seconds_{name}"] = _timed(call)
+        except NotAvailable as e:
+            unavailable.append(str(e))
+            return None
+        except (ValueError, RuntimeError) as e:  # RuntimeError: fibrewise.ResourceLimit
+            failed[step] = f"{type(e).__name__}: {e}" if not isinstance(e, ValueError) else str(e)
+            return None
+        result[name] = value
+        return value
+
+    activity.set_step("Groebner basis")
+    gb, result["seconds_basis"] = _timed(ideal.groebner_basis)
+    result["basis"] = {"size": len(gb), "max_degree": gb.stats.max_degree, "engine": gb.stats.engine}
+    dim = part("dimension", "dimension", lambda: capability("dimension", lambda: ideal.dimension()))
+    if dim is not None and dim >= 0:
+        part("independent_variables", "independent variables",
+             lambda: [str(v) for v in capability("independent_variables", lambda: ideal.independent_variables())])
+        part("degree", "degree", lambda: capability("degree", lambda: ideal.degree()))
+        part("hilbert_series", "Hilbert series", lambda: _hilbert(ideal))
+        if dim == 0:
+            part("vector_space_dimension", "dim_k R/I",
+                 lambda: capability("vector_space_dimension", lambda: ideal.vector_space_dimension()))
+        part("normalization", "Noether normalization", lambda: _normalization_summary(ideal))
+        points = _cheap_points(system, args, result)
+        if points is not None:
+            part("points", "points", points)
+    result["unavailable"] = unavailable
+    result["failed"] = failed
+    result["summary"] = _summary(result)
+    result["stats"] = gb.stats.to_dict()
+    if args.plot:
+        from .plot import draw_analysis
+
+        activity.set_step("plot")
+        draw_analysis(args.plot, result)
+        result["plot"] = args.plot
+    return result
+
+
+def _hilbert(ideal) -> dict:
+    from .jobs import capability
+
+    series = capability("hilbert_series", lambda: ideal.hilbert_series())
+    return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent,
+            "polynomial": [_json_number(c) for c in series.polynomial()],
+            "regularity_index": series.regularity_index()}
+
+
+def _json_number(c) -> int | str:
+    """An exact rational for JSON: an int, or the text "a/b" (JSON has no exact fractions)."""
+    return int(c) if int(c) == c else str(c)
+
+
+def _normalization_summary(ideal) -> dict:
+    from .jobs import capability
+
+    cert = capability("noether_normalization", lambda: ideal.noether_normalization()).to_dict()
+    return {key: cert[key] for key in ("dimension", "parameters", "rank", "strategy")}
+
+
+def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
+    """The point count when it is cheap (the count bounds the size of the work), else None with
+    the reason in ``result["points_skipped"]``."""
+    from .jobs import capability
+
+    q = system.ring.field.order
+    if q is None:
+        result["points_skipped"] = "the field is infinite"
+        return None
+    dim, degree = result.get("dimension"), result.get("degree")
+    homogeneous = all(g.is_homogeneous() for g in system.ideal.generators)
+    if args.points is None and dim != 0:
+        bound = None if degree is None else degree * q ** dim
+        if bound is None or bound > CHEAP_POINTS:
+            result["points_skipped"] = f"up to {bound} points; run 'fibrewise points' to count them" \
+                if bound is not None else "no degree to bound the count; run 'fibrewise points'"
+            return None
+    if args.points is False:
+        result["points_skipped"] = "--no-points"
+        return None
+
+    def count() -> dict:
+        counts = {"affine": capability("count_points", lambda: system.ideal.count_points())}
+        if homogeneous and dim is not None and dim > 0:
+            counts["projective"] = capability("count_points", lambda: system.ideal.count_points(projective=True))
+        return counts
+
+    return count
+
+
+def _summary(result: dict) -> str:
+    """The main answer in one line: ``dimension 2, degree 6; finite over k[x + y, z] of rank 6 (linear change)``."""
+    dim = result.get("dimension")
+    if dim is None:
+        from .report import plural
+
+        return f"reduced Groebner basis of {plural(result['basis']['size'], 'polynomial')} (dimension not available in this build)"
+    if dim < 0:
+        return "no solutions: the ideal is the whole ring (dimension -1)"
+    text = f"dimension {dim}"
+    if result.get("degree") is not None:
+        text += f", degree {result['degree']}"
+    norm = result.get("normalization")
+    if norm is not None:
+        from .report import finite_over
+
+        text += "; " + finite_over(norm)
+    return text
+
+
+# ----------------------------------------------------------------------------------------------
+# normalize, integral, points, check
+
+
+def _normalize(args: argparse.Namespace, activity) -> dict:
+    from .jobs import capability
+
+    system = _system(args)
+    activity.set_step("Noether normalization")
+    nn, seconds = _timed(lambda: capability("noether_normalization", lambda: system.ideal.noether_normalization(
+        strategy=args.strategy, seed=args.seed)))
+    result = {**_header(system), "certificate": nn.to_dict(), "seconds": seconds}
+    if not args.no_verify:
+        activity.set_step("verifying the certificate")
+        start = time.perf_counter()
+        try:
+            outcome = nn.verify()
+        except ValueError as e:  # the certificate does not hold: e says what is wrong
+            outcome = [str(e)]
+        result["seconds_verify"] = time.perf_counter() - start
+        result["verified"], result["problems"] = verdict(outcome)
+    if args.output:
+        with open(args.output, "w", encoding="utf-8") as handle:
+            json.dump({"system": system.path, **nn.to_dict()}, handle, indent=2)
+            handle.write("\n")
+        result["saved"] = args.output
+    return result
+
+
+def _integral(args: argparse.Namespace, activity) -> dict:
+    from .jobs import capability
+
+    system = _system(args)
+    ideal, ring = system.ideal, system.ring
+    element = _polynomial(ring, args.element, "--element")
+    over = [_polynomial(ring, g, "--over") for g in args.over]
+    activity.set_step("integral equation")
+    equation, seconds = _timed(lambda: capability("integral_equation", lambda: ideal.integral_equation(element, over=over)))
+    result = {**_header(system), "element": str(element), "over": [str(g) for g in over],
+              "integral": equation is not None, "seconds": seconds}
+    if equation is not None:
+        result.update(equation=str(equation), degree=equation.degree, coefficients=list(map(str, equation.coefficients)))
+    return result
+
+
+def _polynomial(ring, text: str, option: str):
+    try:
+        return ring(text)
+    except ValueError as e:
+        raise ValueError(f"{option} {text!r}: {e}") from None
+
+
+def _points(args: argparse.Namespace, activity) -> dict:
+    from .jobs import capability
+
+    system = _system(args)
+    if system.ring.field.order is None:
+        raise ValueError(f"{system.path}: points are counted over a finite field, not {system.ring.field}")
+    activity.set_step("counting points")
+    count, seconds = _timed(lambda: capability(
+        "count_points", lambda: system.ideal.count_points(projective=args.projective)))
+    return {**_header(system), "points": count, "projective": args.projective, "seconds": seconds}
+
+
+def _check(args: argparse.Namespace, activity) -> dict:
+    system = _system(args)
+    saved = _read_json(args.certificate)
+    if not isinstance(saved, dict):
+        raise ValueError(f"{args.certificate}: a certificate is a JSON object, not {type(saved).__name__}")
+    certificate = {key: value for key, value in saved.items() if key != "system"}  # "system": where it came from
+    check_certificate = _certificate_checker()
+    activity.set_step("checking the certificate")
+    try:
+        outcome, seconds = _timed(lambda: check_certificate(certificate, system.ideal))
+        valid, problems = verdict(outcome)
+    except ValueError as e:  # an unreadable certificate
+        valid, problems, seconds = False, [str(e)], None
+    return {**_header(system), "certificate": args.certificate, "valid": valid, "problems": problems,
+            "seconds": seconds}
+
+
+def _certificate_checker() -> Callable:
+    """The normalization module's ``check_certificate(certificate_dict, ideal)``."""
+    from .jobs import NotAvailable
+
+    try:
+        from .normalization import check_certificate  # type: ignore[import-not-found]
+    except ImportError:
+        raise NotAvailable("checking a saved certificate (fibrewise.normalization.check_certificate) "
+                           "is not available in this build") from None
+    return check_certificate
+
+
+def verdict(outcome: Any) -> tuple[bool, list[str]]:
+    """A check's outcome as (holds, problems): checks answer either a bool or the list of
+    problems found (empty when the certificate holds)."""
+    if isinstance(outcome, bool):
+        return outcome, [] if outcome else ["the certificate does not hold"]
+    problems = [str(p) for p in outcome]
+    return not problems, problems
+
+
+def _read_json(path: str) -> Any:
+    with open(path, encoding="utf-8") as handle:
+        text = handle.read()
+    try:
+        return json.loads(text)
+    except json.JSONDecodeError as e:
+        raise ValueError(f"{path}:{e.lineno}:{e.colno}: malformed JSON: {e.msg}") from None
+
+
+# ----------------------------------------------------------------------------------------------
+# batch
+
+
+def _batch(args: argparse.Namespace, activity) -> dict:
+    from .batch import run_batch
+
+    summary = run_batch(args.file, args.output, workers=args.workers, timeout=args.timeout,
+                        memory_mb=args.memory, scheduler=args.scheduler, quiet=args.quiet)
+    return {"input": args.file, "output": args.output, **summary.to_dict()}
+
+
+# ----------------------------------------------------------------------------------------------
+# Parser and main
+
+
+FILE_HELP = "system file (field:, variables:, order: headers, then one polynomial a line)"
+
+SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
+    "analyze": ("dimension, degree, Hilbert series, Noether normalization and, where cheap, the point count",
+                "example: fibrewise analyze examples/curve_code_gf7.txt --plot steps.png", _analyze),
+    "basis": ("reduced Groebner basis of a system file",
+              "example: fibrewise basis examples/toy_cipher_gf101.txt --order lex", _basis),
+    "normalize": ("Noether normalization with its certificate",
+                  "example: fibrewise normalize examples/curve_code_gf7.txt -o cert.json", _normalize),
+    "integral": ("is an element integral over a subalgebra, and its monic equation",
+                 "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
+    "points": ("number of points with coordinates in the (finite) field",
+               "example: fibrewise points examples/curve_code_gf7.txt --projective", _points),
+    "check": ("verify a saved normalization certificate against the system file",
+              "example: fibrewise check examples/curve_code_gf7.txt cert.json", _check),
+    "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
+              "example: fibrewise batch examples/batch.jsonl -o results.jsonl --timeout 10", _batch),
 }
 
 
+def _positive(kind: type) -> Callable[[str], Any]:
+    def parse(text: str):
+        try:
+            value = kind(text)
+        except ValueError:
+            raise argparse.ArgumentTypeError(f"expected a positive number, got {text!r}") from None
+        if value <= 0:
+            raise argparse.ArgumentTypeError(f"expected a positive number, got {text!r}")
+        return value
+
+    return parse
+
+
+def _add_options(name: str, p: argparse.ArgumentParser) -> None:
+    from .jobs import TASK_NAMES
+
+    if name == "batch":
+        p.add_argument("file", metavar="IN.jsonl", help="one job a line: {\"id\", \"field\", \"variables\", \"polynomials\", "
+                       "\"tasks\"}; tasks: " + ", ".join(TASK_NAMES))
+        p.add_argument("-o", "--output", metavar="OUT.jsonl", required=True,
+                       help="results, one line a job; ids already there are skipped (resume)")
+        p.add_argument("--workers", type=_positive(int), metavar="N", help="worker processes (default: all cores)")
+        p.add_argument("--timeout", type=_positive(float), metavar="S", help="time limit per job, in seconds")
+        p.add_argument("--memory", type=_positive(int), metavar="MB", help="memory limit per worker, in MiB")
+        p.add_argument("--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)")
+        return
+    p.add_argument("file", help=FILE_HELP)
+    if name == "basis":
+        p.add_argument("--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)")
+    elif name == "analyze":
+        p.add_argument("--plot", metavar="FILE.png", help="draw degree and matrix size per Groebner step and the Hilbert function")
+        group = p.add_mutually_exclusive_group()
+        group.add_argument("--points", dest="points", action="store_const", const=True, default=None,
+                           help="count the points even when the count may be large")
+        group.add_argument("--no-points", dest="points", action="store_const", const=False, help="do not count points")
+    elif name == "normalize":
+        p.add_argument("--strategy", choices=["auto", "variables", "linear", "nonlinear"], default="auto",
+                       help="the kind of change of coordinates to use (default: the simplest that works)")
+        p.add_argument("--seed", type=int, help="seed for random changes of coordinates (reproducible runs)")
+        p.add_argument("--no-verify", action="store_true", help="skip re-checking the certificate")
+        p.add_argument("-o", "--output", metavar="CERT.json", help="save the certificate for 'fibrewise check'")
+    elif name == "integral":
+        p.add_argument("--element", required=True, metavar="F", help="the polynomial to test")
+        p.add_argument("--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)")
+    elif name == "points":
+        p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
+    elif name == "check":
+        p.add_argument("certificate", metavar="CERT.json", help="a certificate saved by 'fibrewise normalize -o'")
+
+
 def _parser() -> argparse.ArgumentParser:
-    parser = argparse.ArgumentParser(prog="fibrewise", description="Exact analysis of polynomial systems.")
-    sub = parser.add_subparsers(dest="command", required=True)
-    for name, (help_text, example, _, _) in SUBCOMMANDS.items():
+    parser = argparse.ArgumentParser(
+        prog="fibrewise", description="Exact analysis of polynomial systems.",
+        epilog="example: fibrewise analyze examples/toy_cipher_4round_gf101.txt   "
+               "(fibrewise SUBCOMMAND --help for each subcommand)")
+    sub = parser.add_subparsers(dest="command", required=True, metavar="SUBCOMMAND")
+    for name, (help_text, example, _) in SUBCOMMANDS.items():
         p = sub.add_parser(name, help=help_text, description=help_text, epilog=example)
-        p.add_argument("file", help="system file (field:, variables:, order: headers, one polynomial a line)")
+        _add_options(name, p)
         p.add_argument("--json", action="store_true", help="print one JSON object")
-        if name == "basis":
-            p.add_argument("--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)")
+        p.add_argument("-q", "--quiet", action="store_true", help="no progress display on stderr")
     return parser
 
 
 def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
-    _, _, compute, show = SUBCOMMANDS[args.command]
+    from .jobs import NotAvailable
+    from .progress import Activity
+
     try:
-        result = compute(args)
-    except (ValueError, OSError) as e:
-        print(f"fibrewise {args.command}: error: {e}", file=sys.stderr)
-        return EXIT_BAD_INPUT
+        # a batch draws its own progress (jobs done / total); the others show what they compute
+        with Activity(f"fibrewise {args.command}", quiet=args.quiet or args.command == "batch") as activity:
+            result = SUBCOMMANDS[args.command][2](args, activity)
+    except (ValueError, NotAvailable) as e:
+        return _fail(args, str(e), EXIT_BAD_INPUT)
+    except OSError as e:
+        where = f"{e.filename}: " if e.filename else ""
+        return _fail(args, f"{where}{e.strerror or e}", EXIT_BAD_INPUT)
+    except RuntimeError as e:  # fibrewise.ResourceLimit and engine failures
+        return _fail(args, f"{type(e).__name__}: {e}", EXIT_FAILED)
     except KeyboardInterrupt:
-        print(f"fibrewise {args.command}: interrupted", file=sys.stderr)
-        return 130
+        return _fail(args, "interrupted", EXIT_INTERRUPTED)
+    from .report import render
+
+    text = json.dumps(result) if args.json else render(args.command, result)
+    try:
+        print(text, flush=True)
+    except BrokenPipeError:  # `fibrewise ... | head`: the reader has seen enough
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+    return _exit_status(args.command, result)
+
+
+def _exit_status(command: str, result: dict) -> int:
+    if command == "batch" and result.get("interrupted"):
+        return 143 if result["interrupted"] == "SIGTERM" else EXIT_INTERRUPTED
+    if command == "batch" and result.get("lost"):
+        return EXIT_FAILED
+    if command == "check" and not result["valid"]:
+        return EXIT_FAILED
+    if command == "normalize" and result.get("verified") is False:
+        return EXIT_FAILED
+    return EXIT_OK
+
+
+def _fail(args: argparse.Namespace, message: str, status: int) -> int:
+    print(f"fibrewise {args.command}: error: {message}", file=sys.stderr)
     if args.json:
-        print(json.dumps(result))
-    else:
-        show(result)
-    return 0
+        print(json.dumps({"error": message, "status": status}))
+    return status
 
 
 if __name__ == "__main__":

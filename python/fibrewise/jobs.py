@@ -1,0 +1,142 @@
+"""One batch job: checking its description and computing its tasks.
+
+A job is one JSON object, ``{"id": ..., "field": "GF(7)", "variables": ["x", "y"], "polynomials":
+[...], "tasks": [...], "order": "grevlex"}``. ``check_job`` validates its shape without the native
+engine (so a whole input file is checked before any work starts); ``run_job`` computes the tasks
+and always returns one result record ``{"id", "status", "result", "error", "seconds"}``: a failing
+job becomes a record with status ``"error"``, never an exception.
+"""
+
+from __future__ import annotations
+
+import time
+from typing import Any, Callable
+
+TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis")
+DEFAULT_TASKS = ("dimension",)
+JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order")
+
+
+class JobError(ValueError):
+    """A job description that is not well-formed (reported before any work starts)."""
+
+
+class NotAvailable(RuntimeError):
+    """A capability the interface promises but this build does not have yet."""
+
+
+def job_id(obj: dict) -> str | int:
+    value = obj.get("id")
+    if isinstance(value, bool) or not isinstance(value, (str, int)):
+        raise JobError('"id" must be a string or an integer')
+    return value
+
+
+def check_job(obj: Any) -> dict:
+    """The job with defaults filled in; raises ``JobError`` saying which key is wrong."""
+    if not isinstance(obj, dict):
+        raise JobError(f"a job must be a JSON object, not {type(obj).__name__}")
+    unknown = [k for k in obj if k not in JOB_KEYS]
+    if unknown:
+        raise JobError(f'unknown key "{unknown[0]}" (expected {", ".join(JOB_KEYS)})')
+    job_id(obj)
+    if not isinstance(obj.get("field"), (str, int)) or isinstance(obj.get("field"), bool):
+        raise JobError('"field" must be a field spec such as "GF(7)"')
+    variables = obj.get("variables")
+    if isinstance(variables, str):
+        variables = [v for v in variables.replace(",", " ").split() if v]
+    if not isinstance(variables, list) or not variables or not all(isinstance(v, str) for v in variables):
+        raise JobError('"variables" must be a non-empty list of names')
+    polys = obj.get("polynomials")
+    if not isinstance(polys, list) or not all(isinstance(p, str) for p in polys):
+        raise JobError('"polynomials" must be a list of strings')
+    tasks = obj.get("tasks", list(DEFAULT_TASKS))
+    if not isinstance(tasks, list) or not tasks:
+        raise JobError('"tasks" must be a non-empty list')
+    for task in tasks:
+        if task not in TASK_NAMES:
+            raise JobError(f'unknown task "{task}" (expected {", ".join(TASK_NAMES)})')
+    order = obj.get("order", "grevlex")
+    if not isinstance(order, str):
+        raise JobError('"order" must be "lex", "grlex" or "grevlex"')
+    return {"id": obj["id"], "field": obj["field"], "variables": variables, "polynomials": polys,
+            "tasks": tasks, "order": order}
+
+
+def capability(method: str, call: Callable[[], Any]) -> Any:
+    """Calls an interface method; a method missing from this build becomes ``NotAvailable``."""
+    try:
+        return call()
+    except AttributeError as e:
+        owner = type(getattr(e, "obj", None)).__module__
+        if getattr(e, "name", None) == method and owner.startswith("fibrewise"):
+            raise NotAvailable(f"{method}() is not available in this build") from None
+        raise
+
+
+def _hilbert(ideal) -> dict:
+    series = capability("hilbert_series", lambda: ideal.hilbert_series())
+    return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent}
+
+
+def _points(ideal) -> int:
+    return capability("count_points", lambda: ideal.count_points())
+
+
+def _normalize(ideal) -> dict | None:
+    """The certificate; ``None`` for a system without solutions (the unit ideal, dimension -1),
+    which has nothing to normalize, so that its other tasks still get their answers."""
+    basis = ideal.groebner_basis()
+    if len(basis) == 1 and basis[0].degree() == 0:
+        return None
+    return capability("noether_normalization", lambda: ideal.noether_normalization()).to_dict()
+
+
+TASKS: dict[str, Callable[[Any], Any]] = {
+    "dimension": lambda I: capability("dimension", lambda: I.dimension()),
+    "independent_variables": lambda I: [str(v) for v in capability("independent_variables", lambda: I.independent_variables())],
+    "degree": lambda I: capability("degree", lambda: I.degree()),
+    "hilbert": _hilbert,
+    "normalize": _normalize,
+    "points": _points,
+    "basis": lambda I: [str(g) for g in I.groebner_basis()],
+}
+
+
+def compute_tasks(job: dict) -> dict:
+    """The results of a checked job's tasks, by task name; raises on bad input."""
+    from .rings import PolynomialRing
+
+    ring = PolynomialRing(job["field"], job["variables"], order=job["order"])
+    ideal = ring.ideal(_polynomials(ring, job["polynomials"]))
+    return {task: TASKS[task](ideal) for task in job["tasks"]}
+
+
+def _polynomials(ring, texts: list[str]) -> list:
+    polys = []
+    for number, text in enumerate(texts, 1):
+        try:
+            polys.append(ring(text))
+        except ValueError as e:
+            raise ValueError(f"polynomial {number}: {e}") from None
+    return polys
+
+
+def run_job(job: dict) -> dict:
+    """One result record for a checked job; errors become status ``"error"`` with a message."""
+    start = time.perf_counter()
+    record: dict[str, Any] = {"id": job["id"]}
+    try:
+        record["status"], record["result"] = "ok", compute_tasks(job)
+    except MemoryError:
+        record["status"], record["error"] = "error", "out of memory"
+    except Exception as e:  # noqa: BLE001 - a failing job is reported, the batch goes on
+        record["status"], record["error"] = "error", _describe(e)
+    record["seconds"] = round(time.perf_counter() - start, 6)
+    return record
+
+
+def _describe(e: Exception) -> str:
+    if isinstance(e, (ValueError, NotAvailable)):
+        return str(e)
+    return f"{type(e).__name__}: {e}"
