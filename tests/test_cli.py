@@ -158,7 +158,7 @@ def test_normalize_saves_a_certificate_that_check_accepts(tmp_path):
     assert result["verified"] is True
     assert result["certificate"]["dimension"] == 1
     assert len(result["certificate"]["parameters"]) == 1
-    checked = fibrewise_json("check", EXAMPLES / "curve_code_gf7.txt", cert)
+    checked = fibrewise_json("check", cert, EXAMPLES / "curve_code_gf7.txt")
     assert checked["valid"] is True
 
 
@@ -169,7 +169,7 @@ def test_check_rejects_a_tampered_certificate(tmp_path):
     data = json.loads(cert.read_text())
     data["rank"] += 1  # a false claim about the degree of the projection
     cert.write_text(json.dumps(data))
-    done = fibrewise("check", EXAMPLES / "curve_code_gf7.txt", cert)
+    done = fibrewise("check", cert, EXAMPLES / "curve_code_gf7.txt")
     assert done.returncode == 1, done.stdout + done.stderr
     assert "certificate REJECTED" in done.stdout
 
@@ -260,7 +260,7 @@ def test_missing_file(tmp_path):
 
 def test_malformed_certificate_json(tmp_path):
     cert = write(tmp_path, "cert.json", '{"dimension": 1,\n "rank": }\n')
-    done = fibrewise("check", EXAMPLES / "curve_code_gf7.txt", cert)
+    done = fibrewise("check", cert, EXAMPLES / "curve_code_gf7.txt")
     assert done.returncode == 2
     assert f"{cert}:2:10: malformed JSON" in done.stderr
 

@@ -321,7 +321,7 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
     "points": ("number of points with coordinates in the (finite) field",
                "example: fibrewise points examples/curve_code_gf7.txt --projective", _points),
     "check": ("verify a saved normalization certificate against the system file",
-              "example: fibrewise check examples/curve_code_gf7.txt cert.json", _check),
+              "example: fibrewise check cert.json examples/curve_code_gf7.txt", _check),
     "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
               "example: fibrewise batch examples/batch.jsonl -o results.jsonl --timeout 10", _batch),
 }
@@ -353,6 +353,10 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
         p.add_argument("--memory", type=_positive(int), metavar="MB", help="memory limit per worker, in MiB")
         p.add_argument("--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)")
         return
+    if name == "check":
+        p.add_argument("certificate", metavar="CERT.json", help="a certificate saved by 'fibrewise normalize -o'")
+        p.add_argument("file", metavar="SYSTEM", help=FILE_HELP)
+        return
     p.add_argument("file", help=FILE_HELP)
     if name == "basis":
         p.add_argument("--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)")
@@ -373,8 +377,6 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
         p.add_argument("--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)")
     elif name == "points":
         p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
-    elif name == "check":
-        p.add_argument("certificate", metavar="CERT.json", help="a certificate saved by 'fibrewise normalize -o'")
 
 
 def _parser() -> argparse.ArgumentParser:
