@@ -1,0 +1,1 @@
+//! F4 against the reference engine and published counts.
