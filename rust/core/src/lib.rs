@@ -7,6 +7,7 @@
 //! - [`groebner`]: Gröbner basis engines and what is computed from a basis (normal forms,
 //!   membership, ideal comparison).
 //! - [`control`]: interruption and resource limits for long computations.
+//! - [`systems`]: standard benchmark systems (cyclic, katsura, eco, noon, random quadratics).
 
 pub mod control;
 pub mod dimension;
@@ -17,6 +18,7 @@ pub mod monomial;
 pub mod order;
 pub mod parse;
 pub mod poly;
+pub mod systems;
 
 pub use control::Control;
 pub use error::{Error, Result};
