@@ -15,7 +15,7 @@
 use crate::field::Field;
 use std::marker::PhantomData;
 
-/// The arithmetic one matrix computation runs on.
+/// The arithmetic one matrix computation runs on. `axpy` expects strictly increasing columns.
 pub trait Arith<F: Field>: Send + Sync {
     /// A stored coefficient.
     type C: Clone + Send + Sync + 'static;
@@ -151,15 +151,22 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
     #[inline]
     fn axpy(&self, acc: &mut [u64], cols: &[u32], coeffs: &[W], m: &W) {
         let m = m.get();
+        // Row columns are strictly increasing, so checking the last one bounds them all and the
+        // hot loops can skip per-element bounds checks.
+        debug_assert!(cols.windows(2).all(|w| w[0] < w[1]));
+        assert!(cols.last().is_none_or(|&c| (c as usize) < acc.len()) && coeffs.len() >= cols.len());
         if self.lazy {
             for (&c, &x) in cols.iter().zip(coeffs) {
-                acc[c as usize] += m * x.get();
+                // SAFETY: columns increase and the last is below acc.len() (checked above).
+                unsafe { *acc.get_unchecked_mut(c as usize) += m * x.get() };
             }
         } else {
             let p2 = self.p2;
             for (&c, &x) in cols.iter().zip(coeffs) {
-                let v = acc[c as usize] + m * x.get();
-                acc[c as usize] = v.min(v.wrapping_sub(p2));
+                // SAFETY: columns increase and the last is below acc.len() (checked above).
+                let slot = unsafe { acc.get_unchecked_mut(c as usize) };
+                let v = *slot + m * x.get();
+                *slot = v.min(v.wrapping_sub(p2));
             }
         }
     }
