@@ -88,6 +88,11 @@ impl Control {
         Ok(())
     }
 
+    /// Asks the computation to stop: the next [`Control::check`] returns `Interrupted`.
+    pub fn request_stop(&self) {
+        self.stopped.store(true, Ordering::Relaxed);
+    }
+
     /// Raises `ResourceLimit` when `degree` is over the caller's maximum degree.
     pub fn check_degree(&self, degree: u32, step: usize) -> Result<()> {
         match self.limits.max_degree {

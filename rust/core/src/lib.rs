@@ -6,6 +6,9 @@
 //!   sparse polynomials and the polynomial text syntax.
 //! - [`groebner`]: Gröbner basis engines and what is computed from a basis (normal forms,
 //!   membership, ideal comparison).
+//! - [`dimension`], [`hilbert`], [`zerodim`], [`points`]: invariants read off a basis: Krull
+//!   dimension, Hilbert series and degree, the finite-dimensional quotient of a zero-dimensional
+//!   ideal (radical, maximality), and point counts over finite fields ([`frobenius`]).
 //! - [`control`]: interruption and resource limits for long computations.
 //! - [`systems`]: standard benchmark systems (cyclic, katsura, eco, noon, random quadratics).
 
@@ -13,12 +16,16 @@ pub mod control;
 pub mod dimension;
 pub mod error;
 pub mod field;
+pub mod frobenius;
 pub mod groebner;
+pub mod hilbert;
 pub mod monomial;
 pub mod order;
 pub mod parse;
+pub mod points;
 pub mod poly;
 pub mod systems;
+pub mod zerodim;
 
 pub use control::Control;
 pub use error::{Error, Result};

@@ -1,0 +1,82 @@
+//! Whether a zero-dimensional ideal I over GF(q) is maximal, i.e. R/I is a field, and then its
+//! degree [R/I : k].
+//!
+//! A finite-dimensional reduced GF(q)-algebra is a product of fields GF(q^{m_j}), and the
+//! elements fixed by Frobenius a ↦ a^q form the subalgebra ∏ GF(q), of dimension the number of
+//! factors (the idea of Berlekamp 1967). So R/I is a field exactly when it is reduced (every
+//! variable's minimal polynomial is squarefree, Seidenberg 1974) and Frobenius − identity has
+//! rank dim R/I − 1. Frobenius is a ring map, so its value on a standard monomial is the product
+//! of the images x_i^q, computed once by repeated squaring in R/I.
+
+use super::linear::rank;
+use super::radical::variable_minimal_polynomials;
+use super::univariate::degree;
+use super::Quotient;
+use crate::control::Control;
+use crate::dimension::krull_dimension;
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::frobenius::field_order_limbs;
+use crate::groebner::GroebnerBasis;
+
+/// The coordinates of x_i^q in R/I for each variable, q the field order.
+pub fn frobenius_coordinates<F: Field>(quotient: &Quotient<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+    let ring = &quotient.basis.ring;
+    let q = field_order_limbs(&ring.field, "the Frobenius map")?;
+    (0..ring.nvars()).map(|i| quotient.power(&quotient.coordinates(&ring.var(i))?, &q, control)).collect()
+}
+
+/// Columns: coordinates of b^q for each standard monomial b, from b^q = (b / x_i)^q · x_i^q.
+fn frobenius_matrix<F: Field>(quotient: &Quotient<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+    let ring = &quotient.basis.ring;
+    let images = frobenius_coordinates(quotient, control)?;
+    let image_multiples: Vec<Vec<Vec<F::Elem>>> =
+        images.iter().map(|x| quotient.multiples(x, control)).collect::<Result<_>>()?;
+    // b_j = x_i · b_k with k < j, so the image of b_k is ready.
+    let mut image_of: Vec<Vec<F::Elem>> = Vec::with_capacity(quotient.dimension());
+    for j in 0..quotient.dimension() {
+        control.check()?;
+        let image = match quotient.parent(j) {
+            None => quotient.coordinates(&ring.one())?,
+            Some((i, k)) => quotient.combine(&image_of[k], &image_multiples[i]),
+        };
+        image_of.push(image);
+    }
+    Ok(image_of)
+}
+
+/// Whether the ideal with basis `gb` is maximal. Positive-dimensional and unit ideals are not.
+pub fn is_maximal<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<bool> {
+    field_order_limbs(&gb.ring.field, "is_maximal")?;
+    if krull_dimension(gb.ring.nvars(), &gb.leading_monomials()) != 0 {
+        return Ok(false);
+    }
+    let quotient = Quotient::new(gb.clone(), control)?;
+    let reduced = variable_minimal_polynomials(&quotient, control)?
+        .iter()
+        .all(|(m, s)| degree::<F>(m) == degree::<F>(s));
+    if !reduced {
+        return Ok(false);
+    }
+    let field = &gb.ring.field;
+    let columns = frobenius_matrix(&quotient, control)?;
+    let d = quotient.dimension();
+    // Rows of (Φ − Id)ᵀ: the rank is the same.
+    let shifted: Vec<Vec<F::Elem>> = columns
+        .into_iter()
+        .enumerate()
+        .map(|(j, mut col)| {
+            col[j] = field.sub(&col[j], &field.one());
+            col
+        })
+        .collect();
+    Ok(rank(field, shifted) == d - 1)
+}
+
+/// [R/I : k] for a maximal ideal I; an error naming the problem otherwise.
+pub fn residue_field_degree<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<u128> {
+    if !is_maximal(gb, control)? {
+        return Err(Error::invalid("residue_field_degree needs a maximal ideal; this ideal is not maximal"));
+    }
+    super::vector_space_dimension(gb, control)
+}

@@ -1,0 +1,167 @@
+//! The quotient algebra against published solution counts, Stickelberger's theorem and
+//! hand-checked factorizations over small fields.
+
+use super::maximal::{is_maximal, residue_field_degree};
+use super::radical::count_solutions;
+use super::*;
+use crate::field::PrimeField;
+use crate::groebner::{groebner_basis, Engine};
+use crate::order::MonomialOrder;
+use crate::parse::parse_poly;
+use crate::poly::Ring;
+
+fn basis(p: u64, vars: &[&str], gens: &[&str]) -> GroebnerBasis<PrimeField> {
+    let names = vars.iter().map(|s| s.to_string()).collect();
+    let r = Ring::new(PrimeField::new(p).unwrap(), names, MonomialOrder::Grevlex).unwrap();
+    let gens: Vec<_> = gens.iter().map(|g| parse_poly(&r, g).unwrap()).collect();
+    groebner_basis(&r, &gens, Engine::default(), &Control::new()).unwrap()
+}
+
+const CYCLIC5: [&str; 5] = [
+    "a + b + c + d + e",
+    "a*b + b*c + c*d + d*e + e*a",
+    "a*b*c + b*c*d + c*d*e + d*e*a + e*a*b",
+    "a*b*c*d + b*c*d*e + c*d*e*a + d*e*a*b + e*a*b*c",
+    "a*b*c*d*e - 1",
+];
+
+const KATSURA4: [&str; 5] = [
+    "u0 + 2*u1 + 2*u2 + 2*u3 + 2*u4 - 1",
+    "u0*u0 + 2*u1*u1 + 2*u2*u2 + 2*u3*u3 + 2*u4*u4 - u0",
+    "2*u0*u1 + 2*u1*u2 + 2*u2*u3 + 2*u3*u4 - u1",
+    "2*u0*u2 + u1*u1 + 2*u1*u3 + 2*u2*u4 - u2",
+    "2*u0*u3 + 2*u1*u2 + 2*u1*u4 - u3",
+];
+
+#[test]
+fn cyclic5_has_70_solutions() {
+    // Cyclic-5: 70 solutions, all simple (Björck and Fröberg 1991, from memory).
+    let gb = basis(32003, &["a", "b", "c", "d", "e"], &CYCLIC5);
+    let c = Control::new();
+    assert_eq!(vector_space_dimension(&gb, &c).unwrap(), 70);
+    assert_eq!(Quotient::new(gb.clone(), &c).unwrap().dimension(), 70);
+    assert_eq!(count_solutions(&gb, Engine::default(), &c).unwrap(), 70);
+}
+
+#[test]
+fn katsura4_has_16_solutions() {
+    // Katsura-n has 2^n solutions (Katsura 1990, from memory): the Bézout bound.
+    let gb = basis(32003, &["u0", "u1", "u2", "u3", "u4"], &KATSURA4);
+    let c = Control::new();
+    assert_eq!(vector_space_dimension(&gb, &c).unwrap(), 16);
+    assert_eq!(count_solutions(&gb, Engine::default(), &c).unwrap(), 16);
+}
+
+#[test]
+fn multiplication_matrices_obey_stickelberger() {
+    // (x(x-1)(x-2), y - x^2) vanishes exactly at (0,0), (1,1), (2,4), each simply; by
+    // Stickelberger's theorem (Cox–Little–O'Shea, Using Algebraic Geometry, §2.4, from memory)
+    // the eigenvalues of M_x, M_y are the coordinates: traces 3 and 5, M_x singular.
+    let gb = basis(101, &["x", "y"], &["x*(x - 1)*(x - 2)", "y - x^2"]);
+    let c = Control::new();
+    let q = Quotient::new(gb.clone(), &c).unwrap();
+    assert_eq!(q.dimension(), 3);
+    let ring = &gb.ring;
+    let trace = |m: &Vec<Vec<u64>>| (0..m.len()).fold(0, |acc, i| (acc + m[i][i]) % 101);
+    let mx = q.multiplication_matrix(&ring.var(0), &c).unwrap();
+    let my = q.multiplication_matrix(&ring.var(1), &c).unwrap();
+    assert_eq!((trace(&mx), trace(&my)), (3, 5));
+    assert_eq!(linear::rank(&ring.field, mx.clone()), 2);
+    // Multiplication matrices of R/I commute.
+    let product = |a: &Vec<Vec<u64>>, b: &Vec<Vec<u64>>| -> Vec<Vec<u64>> {
+        (0..3).map(|i| (0..3).map(|j| (0..3).fold(0, |s, k| (s + a[i][k] * b[k][j]) % 101)).collect()).collect()
+    };
+    assert_eq!(product(&mx, &my), product(&my, &mx));
+    // In grevlex x^2 leads y - x^2, then x·y and y^2 lead: standard monomials 1 < y < x.
+    let names = ring.names();
+    let listed: Vec<String> = q.standard_monomials().iter().map(|m| m.format(names)).collect();
+    assert_eq!(listed, vec!["1", "y", "x"]);
+    // The minimal polynomial of y is (y)(y - 1)(y - 4) = y^3 - 5y^2 + 4y.
+    assert_eq!(q.minimal_polynomial(&ring.var(1), &c).unwrap(), vec![0, 4, 101 - 5, 1]);
+}
+
+#[test]
+fn distinct_solutions_in_characteristic_three() {
+    // Over GF(3): (x+1)^3 (x^2+1)^2 = 0, y^3 = 0. dim R/I = 7·3 = 21; distinct solutions over the
+    // closure: x = -1 or x = ±i (x^2 + 1 is irreducible mod 3 since 3 ≡ 3 mod 4), y = 0: three.
+    // (x+1)^3 = x^3 + 1 has zero derivative in characteristic 3.
+    let gb = basis(3, &["x", "y"], &["(x + 1)^3*(x^2 + 1)^2", "y^3"]);
+    let c = Control::new();
+    assert_eq!(vector_space_dimension(&gb, &c).unwrap(), 21);
+    assert_eq!(count_solutions(&gb, Engine::default(), &c).unwrap(), 3);
+    // The radical is ((x + 1)(x^2 + 1), y).
+    let rad = radical::zero_dimensional_radical(&gb, Engine::default(), &c).unwrap();
+    let expected = basis(3, &["x", "y"], &["(x + 1)*(x^2 + 1)", "y"]);
+    assert_eq!(rad.polys, expected.polys);
+}
+
+#[test]
+fn maximal_ideals_and_residue_degrees() {
+    let c = Control::new();
+    // x^2 + 1 is irreducible over GF(3): (x^2 + 1, y - x) is maximal with residue field GF(9).
+    let gf9 = basis(3, &["x", "y"], &["x^2 + 1", "y - x"]);
+    assert!(is_maximal(&gf9, &c).unwrap());
+    assert_eq!(residue_field_degree(&gf9, &c).unwrap(), 2);
+    // (x^2 + 1, y^2 + 1) over GF(3) is the two points (i, ±i) and their conjugates: two
+    // Galois orbits, so R/I = GF(9) x GF(9) is not a field.
+    assert!(!is_maximal(&basis(3, &["x", "y"], &["x^2 + 1", "y^2 + 1"]), &c).unwrap());
+    // x^3 - 2 is irreducible over GF(7) (2 is not a cube mod 7: cubes are 0, ±1).
+    let gf343 = basis(7, &["x", "y", "z"], &["x^3 - 2", "y - x^2", "z - x - y"]);
+    assert!(is_maximal(&gf343, &c).unwrap());
+    assert_eq!(residue_field_degree(&gf343, &c).unwrap(), 3);
+    // A rational point is maximal of degree 1; a double point, two points and a curve are not.
+    assert_eq!(residue_field_degree(&basis(5, &["x", "y"], &["x - 1", "y + 2"]), &c).unwrap(), 1);
+    assert!(!is_maximal(&basis(5, &["x", "y"], &["x^2", "y"]), &c).unwrap());
+    assert!(!is_maximal(&basis(5, &["x", "y"], &["x^2 - 1", "y"]), &c).unwrap());
+    assert!(!is_maximal(&basis(5, &["x", "y"], &["x*y - 1"]), &c).unwrap());
+    assert!(!is_maximal(&basis(5, &["x", "y"], &["1"]), &c).unwrap());
+    let err = residue_field_degree(&basis(5, &["x", "y"], &["x^2 - 1", "y"]), &c).unwrap_err();
+    assert!(err.to_string().contains("not maximal"), "{err}");
+}
+
+#[test]
+fn positive_dimensional_ideals_are_rejected() {
+    let gb = basis(7, &["x", "y", "z"], &["x*y - z"]);
+    let err = vector_space_dimension(&gb, &Control::new()).unwrap_err();
+    assert!(matches!(err, crate::Error::InvalidInput(ref m) if m.contains("dimension 2")), "{err}");
+    assert!(Quotient::new(gb, &Control::new()).is_err());
+    // The unit ideal: R/I = 0.
+    assert_eq!(vector_space_dimension(&basis(7, &["x"], &["x", "x - 1"]), &Control::new()).unwrap(), 0);
+}
+
+#[test]
+fn quotient_powers_agree_with_powers_of_normal_forms() {
+    // Two independent routes to x^q in R/I: vector arithmetic on the multiplication matrices,
+    // and repeated squaring of polynomials with a normal form after each product.
+    let gb = basis(32003, &["a", "b", "c", "d", "e"], &CYCLIC5);
+    let c = Control::new();
+    let q = Quotient::new(gb.clone(), &c).unwrap();
+    let ring = &gb.ring;
+    let f = crate::parse::parse_poly(ring, "a + 2*b*c - e^2").unwrap();
+    for exponent in [vec![32003u64], vec![5, 1]] {
+        let by_vectors = q.element(&q.power(&q.coordinates(&f).unwrap(), &exponent, &c).unwrap());
+        let by_polys = crate::frobenius::power_modulo(&gb, &f, &exponent, &c).unwrap();
+        assert_eq!(by_vectors, by_polys);
+    }
+}
+
+#[test]
+fn multiplication_matrices_agree_with_the_division_algorithm() {
+    // Border normal forms are built from earlier ones; each column must equal the remainder of
+    // x_i·b_j by the division algorithm (Cox–Little–O'Shea §2.3).
+    for (vars, gens) in [(&["a", "b", "c", "d", "e"][..], &CYCLIC5[..]), (&["u0", "u1", "u2", "u3", "u4"][..], &KATSURA4[..])] {
+        let gb = basis(32003, vars, gens);
+        let c = Control::new();
+        let q = Quotient::new(gb.clone(), &c).unwrap();
+        let ring = &gb.ring;
+        for i in 0..ring.nvars() {
+            let matrix = q.multiplication_matrix(&ring.var(i), &c).unwrap();
+            for (j, b) in q.standard_monomials().iter().enumerate() {
+                let product = ring.term(b.mul(&Monomial::var_power(ring.nvars(), i, 1)).unwrap(), 1);
+                let expected = q.coordinates(&product).unwrap();
+                let column: Vec<u64> = matrix.iter().map(|row| row[j]).collect();
+                assert_eq!(column, expected, "x{i} times {}", b.format(ring.names()));
+            }
+        }
+    }
+}

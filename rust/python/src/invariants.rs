@@ -1,0 +1,178 @@
+//! Dimension, Hilbert series, zero-dimensional invariants and point counts: conversion and
+//! dispatch to `fibrewise_core::{dimension, hilbert, zerodim, points}`.
+//!
+//! Functions taking `basis` expect the reduced Gröbner basis of the ideal for the order of
+//! `ring` (the Python `Ideal` passes its cached basis), so no basis is computed twice.
+
+use crate::dispatch::{with_ring, Kind};
+use crate::errors::IntoPy;
+use crate::ideal::{engine_by_name, polys_in};
+use crate::long_run;
+use crate::ring::{NativePoly, NativeRing};
+use fibrewise_core::control::Limits;
+use fibrewise_core::groebner::{GroebnerBasis, Stats};
+use fibrewise_core::hilbert::{series_of_basis, HilbertSeries};
+use fibrewise_core::zerodim::{maximal, radical, vector_space_dimension as core_vs_dimension, Quotient};
+use fibrewise_core::{dimension, points, Ring};
+use pyo3::prelude::*;
+
+pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
+    m.add_function(wrap_pyfunction!(krull_dimension, m)?)?;
+    m.add_function(wrap_pyfunction!(independent_variables, m)?)?;
+    m.add_function(wrap_pyfunction!(is_degree_compatible, m)?)?;
+    m.add_function(wrap_pyfunction!(hilbert_series, m)?)?;
+    m.add_function(wrap_pyfunction!(hilbert_polynomial, m)?)?;
+    m.add_function(wrap_pyfunction!(regularity_index, m)?)?;
+    m.add_function(wrap_pyfunction!(vector_space_dimension, m)?)?;
+    m.add_function(wrap_pyfunction!(standard_monomials, m)?)?;
+    m.add_function(wrap_pyfunction!(multiplication_matrix, m)?)?;
+    m.add_function(wrap_pyfunction!(count_solutions, m)?)?;
+    m.add_function(wrap_pyfunction!(is_maximal, m)?)?;
+    m.add_function(wrap_pyfunction!(residue_field_degree, m)?)?;
+    m.add_function(wrap_pyfunction!(count_points, m)?)?;
+    Ok(())
+}
+
+fn basis_of<F: Kind>(ring: &NativeRing, r: &Ring<F>, basis: &[PyRef<'_, NativePoly>]) -> PyResult<GroebnerBasis<F>> {
+    Ok(GroebnerBasis { ring: r.clone(), polys: polys_in(ring, r, basis)?, stats: Stats::default() })
+}
+
+fn leading_monomials<F: Kind>(ring: &NativeRing, r: &Ring<F>, basis: &[PyRef<'_, NativePoly>]) -> PyResult<Vec<fibrewise_core::Monomial>> {
+    Ok(basis_of(ring, r, basis)?.leading_monomials())
+}
+
+/// Krull dimension of R/I from the basis; -1 for the unit ideal.
+#[pyfunction]
+fn krull_dimension(ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<i64> {
+    with_ring!(&ring.ring, r => Ok(dimension::krull_dimension(r.nvars(), &leading_monomials(ring, r, &basis)?)))
+}
+
+/// Names of a maximal independent set of variables; `None` for the unit ideal.
+#[pyfunction]
+fn independent_variables(ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<Option<Vec<String>>> {
+    with_ring!(&ring.ring, r => {
+        let set = dimension::independent_variables(r.nvars(), &leading_monomials(ring, r, &basis)?);
+        Ok(set.map(|s| s.into_iter().map(|i| r.names()[i].clone()).collect()))
+    })
+}
+
+/// Whether the ring's order compares total degrees first (needed for affine Hilbert series).
+#[pyfunction]
+fn is_degree_compatible(ring: &NativeRing) -> bool {
+    with_ring!(&ring.ring, r => r.order.is_degree_compatible())
+}
+
+/// (numerator, denominator exponent, affine) of the Hilbert series of R/I.
+#[pyfunction]
+fn hilbert_series(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<(Vec<i128>, u32, bool)> {
+    with_ring!(&ring.ring, r => {
+        let gb = basis_of(ring, r, &basis)?;
+        let s = long_run::run(py, Limits::default(), |control| series_of_basis(&gb, control))?;
+        Ok((s.numerator, s.denominator_exponent, s.affine))
+    })
+}
+
+fn series(numerator: Vec<i128>, denominator_exponent: u32) -> HilbertSeries {
+    HilbertSeries { numerator, denominator_exponent, affine: false }
+}
+
+/// Hilbert polynomial coefficients (numerator, denominator), constant term first.
+#[pyfunction]
+fn hilbert_polynomial(numerator: Vec<i128>, denominator_exponent: u32) -> PyResult<Vec<(i128, i128)>> {
+    series(numerator, denominator_exponent).polynomial().py_err()
+}
+
+/// Least s0 from which the Hilbert function equals the Hilbert polynomial.
+#[pyfunction]
+fn regularity_index(numerator: Vec<i128>, denominator_exponent: u32) -> PyResult<u64> {
+    series(numerator, denominator_exponent).regularity_index().py_err()
+}
+
+#[pyfunction]
+fn vector_space_dimension(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<u128> {
+    with_ring!(&ring.ring, r => {
+        let gb = basis_of(ring, r, &basis)?;
+        long_run::run(py, Limits::default(), |control| core_vs_dimension(&gb, control))
+    })
+}
+
+/// Exponent vectors of the standard monomials, increasing in the ring's order.
+#[pyfunction]
+fn standard_monomials(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<Vec<Vec<u32>>> {
+    with_ring!(&ring.ring, r => {
+        let gb = basis_of(ring, r, &basis)?;
+        let q = long_run::run(py, Limits::default(), |control| Quotient::new(gb, control))?;
+        Ok(q.standard_monomials().iter().map(|m| m.exponents().to_vec()).collect())
+    })
+}
+
+/// Matrix of multiplication by `f` on the standard monomials; column j is the image of the j-th.
+#[pyfunction]
+fn multiplication_matrix(
+    py: Python<'_>,
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+    f: PyRef<'_, NativePoly>,
+) -> PyResult<Vec<Vec<PyObject>>> {
+    with_ring!(&ring.ring, r => {
+        let gb = basis_of(ring, r, &basis)?;
+        let f = f.other_in(r, &f)?;
+        let matrix = long_run::run(py, Limits::default(), |control| {
+            Quotient::new(gb, control)?.multiplication_matrix(&f, control)
+        })?;
+        matrix
+            .iter()
+            .map(|row| row.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
+            .collect()
+    })
+}
+
+/// Number of distinct solutions over the algebraic closure (zero-dimensional ideals).
+#[pyfunction]
+#[pyo3(signature = (ring, basis, engine="auto"))]
+fn count_solutions(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>, engine: &str) -> PyResult<u128> {
+    let engine = engine_by_name(engine)?;
+    with_ring!(&ring.ring, r => {
+        let gb = basis_of(ring, r, &basis)?;
+        long_run::run(py, Limits::default(), |control| radical::count_solutions(&gb, engine, control))
+    })
+}
+
+#[pyfunction]
+fn is_maximal(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<bool> {
+    with_ring!(&ring.ring, r => {
+        let gb = basis_of(ring, r, &basis)?;
+        long_run::run(py, Limits::default(), |control| maximal::is_maximal(&gb, control))
+    })
+}
+
+#[pyfunction]
+fn residue_field_degree(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<u128> {
+    with_ring!(&ring.ring, r => {
+        let gb = basis_of(ring, r, &basis)?;
+        long_run::run(py, Limits::default(), |control| maximal::residue_field_degree(&gb, control))
+    })
+}
+
+/// Points of V(gens) with coordinates in the finite field: affine, or projective.
+#[pyfunction]
+#[pyo3(signature = (ring, gens, projective=false, engine="auto"))]
+fn count_points(
+    py: Python<'_>,
+    ring: &NativeRing,
+    gens: Vec<PyRef<'_, NativePoly>>,
+    projective: bool,
+    engine: &str,
+) -> PyResult<u128> {
+    let engine = engine_by_name(engine)?;
+    with_ring!(&ring.ring, r => {
+        let gens = polys_in(ring, r, &gens)?;
+        long_run::run(py, Limits::default(), |control| {
+            if projective {
+                points::count_projective_points(r, &gens, engine, control)
+            } else {
+                points::count_affine_points(r, &gens, engine, control)
+            }
+        })
+    })
+}
