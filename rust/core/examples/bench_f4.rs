@@ -13,11 +13,13 @@ use std::time::Instant;
 
 const PRIME: u64 = 65521;
 
-const DEFAULT: [&str; 12] = [
+/// `name@k` runs on k threads. Random quadratics: m = n + 1 (n = 10, 11; n = 14 takes minutes)
+/// and m = 2n (n = 14).
+const DEFAULT: [&str; 13] = [
     "cyclic-6", "cyclic-7", "cyclic-8", "cyclic-8@2", "katsura-10", "katsura-11", "eco-10", "eco-11", "noon-6",
-    "noon-7", "random-14-15", "random-14-28",
+    "noon-7", "random-10-11", "random-11-12", "random-14-28",
 ];
-const QUICK: [&str; 6] = ["cyclic-6", "cyclic-7", "katsura-9", "eco-9", "noon-5", "random-10-20"];
+const QUICK: [&str; 7] = ["cyclic-6", "cyclic-7", "katsura-9", "eco-9", "noon-5", "random-8-9", "random-10-20"];
 
 fn system(name: &str) -> Option<System> {
     let (family, size) = name.split_once('-')?;
