@@ -48,6 +48,10 @@ impl MonomialTable {
         self.monos.len()
     }
 
+    pub fn is_empty(&self) -> bool {
+        self.monos.is_empty()
+    }
+
     #[inline]
     pub fn monomial(&self, i: u32) -> &Monomial {
         &self.monos[i as usize]

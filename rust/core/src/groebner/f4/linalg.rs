@@ -28,6 +28,9 @@ pub struct Echelon<C> {
     pub multiply_adds: u64,
 }
 
+/// A sparse row under construction: columns and coefficients.
+type Entries<C> = (Vec<u32>, Vec<C>);
+
 /// One worker's dense accumulator.
 struct Dense<'a, F: Field, A: Arith<F>> {
     arith: &'a A,
@@ -93,7 +96,7 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
     }
 
     /// The nonzero entries from column `from` on, times `scale`; clears them when `clear`.
-    fn extract(&mut self, from: usize, scale: Option<&A::C>, clear: bool) -> (Vec<u32>, Vec<A::C>) {
+    fn extract(&mut self, from: usize, scale: Option<&A::C>, clear: bool) -> Entries<A::C> {
         let arith = self.arith;
         let (mut cols, mut coeffs) = (Vec::new(), Vec::new());
         for k in from..self.acc.len() {
@@ -126,7 +129,7 @@ fn reduce_by_known<F: Field, A: Arith<F>>(
     skip_lead: bool,
     control: &Control,
     multiply_adds: &AtomicU64,
-) -> Result<Vec<(Vec<u32>, Vec<A::C>)>> {
+) -> Result<Vec<Entries<A::C>>> {
     let pivot_of = |k: usize| pivots[k];
     rows.par_iter()
         .map_init(
