@@ -141,7 +141,7 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             let clock = Instant::now();
             let (known, new) = self.pair_rows(&selected);
             let divisors = self.divisors(&self.pairs.active_indices());
-            let matrix = symbolic::preprocess(&mut self.table, &self.basis, &divisors, &known, &new)?;
+            let matrix = symbolic::preprocess(control, &mut self.table, &self.basis, &divisors, &known, &new)?;
             stats.seconds_symbolic = clock.elapsed().as_secs_f64();
             (stats.rows, stats.columns, stats.nonzeros) = (matrix.rows(), matrix.columns.len(), matrix.nonzeros());
             control.check_matrix(stats.rows, stats.columns, step)?;
@@ -239,7 +239,7 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
         let one = self.table.insert(&Monomial::one(self.ring.nvars()));
         let known: Vec<Multiple> = minimal.iter().map(|&element| Multiple { mult: one, element }).collect();
         let divisors = self.divisors(&minimal);
-        let matrix = symbolic::preprocess(&mut self.table, &self.basis, &divisors, &known, &[])?;
+        let matrix = symbolic::preprocess(control, &mut self.table, &self.basis, &divisors, &known, &[])?;
         let rows = linalg::reduce_tails(&self.arith, &matrix, known.len(), control)?;
         let mut polys: Vec<Poly<F>> = rows.into_iter().map(|r| self.export(&element_of(&matrix, r))).collect();
         polys.sort_by(|a, b| self.ring.cmp(b.leading_monomial().unwrap(), a.leading_monomial().unwrap()));

@@ -5,6 +5,7 @@
 //! known-pivot rows (distinct leading columns) and the new rows to be reduced by them.
 
 use super::hash::MonomialTable;
+use crate::control::Control;
 use crate::error::Result;
 use std::sync::Arc;
 
@@ -117,6 +118,7 @@ impl<C> Closure<'_, C> {
 /// Builds the matrix for the `known` rows (distinct leading monomials: they become pivots) and
 /// the `new` rows, adding reducers from `divisors` for every reducible monomial.
 pub fn preprocess<C>(
+    control: &Control,
     table: &mut MonomialTable,
     basis: &[Element<C>],
     divisors: &[Divisor],
@@ -141,6 +143,9 @@ pub fn preprocess<C>(
         closure.visit_tail(monos);
     }
     while let Some(m) = closure.todo.pop() {
+        if closure.seen.len() % 1024 == 0 {
+            control.check()?;
+        }
         if closure.state_of(m) == PIVOT {
             continue;
         }
