@@ -13,6 +13,7 @@
 //! - [`normalization`], [`integrality`]: Noether normalization with a checkable certificate;
 //!   integrality and finiteness over subalgebras.
 //! - [`control`]: interruption and resource limits for long computations.
+//! - [`systems`]: standard benchmark systems (cyclic, katsura, eco, noon, random quadratics).
 
 pub mod control;
 pub mod dimension;
@@ -28,6 +29,7 @@ pub mod order;
 pub mod parse;
 pub mod points;
 pub mod poly;
+pub mod systems;
 pub mod zerodim;
 
 pub use control::Control;

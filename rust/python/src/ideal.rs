@@ -19,8 +19,9 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
 pub fn engine_by_name(name: &str) -> PyResult<Engine> {
     match name {
         "buchberger" => Ok(Engine::Buchberger),
+        "f4" => Ok(Engine::F4),
         "auto" => Ok(Engine::default()),
-        other => Err(PyValueError::new_err(format!("unknown engine '{other}': expected auto or buchberger"))),
+        other => Err(PyValueError::new_err(format!("unknown engine '{other}': expected auto, f4 or buchberger"))),
     }
 }
 

@@ -103,6 +103,25 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     fn div(&self, a: &Self::Elem, b: &Self::Elem) -> Option<Self::Elem> {
         self.inv(b).map(|bi| self.mul(a, &bi))
     }
+
+    // Hooks for matrix engines (F4): a prime field whose elements are machine words lets the
+    // linear algebra run on packed integer coefficients with delayed modular reduction. Every
+    // other field keeps the defaults and is handled through the generic methods above.
+
+    /// `Some(p)` when this is the prime field GF(p) with p < 2^63 and elements convert losslessly
+    /// to their canonical residues in [0, p) by [`Field::to_word`] and back by [`Field::from_word`].
+    fn word_modulus(&self) -> Option<u64> {
+        None
+    }
+    /// The canonical residue of `a` (only meaningful when [`Field::word_modulus`] is `Some`).
+    fn to_word(&self, _a: &Self::Elem) -> u64 {
+        0
+    }
+    /// The element with canonical residue `w < p` (only meaningful when
+    /// [`Field::word_modulus`] is `Some`).
+    fn from_word(&self, _w: u64) -> Self::Elem {
+        self.zero()
+    }
 }
 
 #[cfg(test)]

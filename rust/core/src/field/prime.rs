@@ -178,4 +178,15 @@ impl Field for PrimeField {
     fn pth_root(&self, a: &u64) -> Option<u64> {
         Some(*a)
     }
+    fn word_modulus(&self) -> Option<u64> {
+        Some(self.p)
+    }
+    #[inline]
+    fn to_word(&self, a: &u64) -> u64 {
+        *a
+    }
+    #[inline]
+    fn from_word(&self, w: u64) -> u64 {
+        w
+    }
 }

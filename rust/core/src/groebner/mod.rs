@@ -2,11 +2,13 @@
 //! containment.
 //!
 //! Engines: [`buchberger`] (Buchberger 1965 with the Gebauer–Möller criteria, 1988, and the
-//! sugar strategy of Giovini et al. 1991) is the reference; faster engines are checked
-//! against it. All engines return the *reduced* basis, so two bases of the same ideal in the same
-//! order are equal as lists.
+//! sugar strategy of Giovini et al. 1991) is the reference; [`f4`] (Faugère 1999, with the
+//! linear algebra of Faugère and Lachartre 2010) is the default and is checked against it;
+//! [`modular`] lifts bases over QQ from prime fields. All engines return the *reduced* basis, so
+//! two bases of the same ideal in the same order are equal as lists.
 
 pub mod buchberger;
+pub mod f4;
 pub mod modular;
 pub mod pairs;
 pub mod reduce;
@@ -21,14 +23,18 @@ pub use stats::{Stats, StepStats};
 /// Which engine computes a basis.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
 pub enum Engine {
-    #[default]
+    /// One S-polynomial at a time by the division algorithm: the reference.
     Buchberger,
+    /// Many S-polynomials at once as rows of a sparse matrix.
+    #[default]
+    F4,
 }
 
 impl Engine {
     pub fn name(&self) -> &'static str {
         match self {
             Engine::Buchberger => "buchberger",
+            Engine::F4 => "f4",
         }
     }
 }
@@ -55,6 +61,7 @@ pub fn groebner_basis<F: Field>(
     let start = std::time::Instant::now();
     let (polys, mut stats) = match engine {
         Engine::Buchberger => buchberger::compute(ring, gens, control)?,
+        Engine::F4 => f4::compute(ring, gens, control)?,
     };
     stats.engine = engine.name().to_string();
     stats.seconds = start.elapsed().as_secs_f64();

@@ -74,12 +74,23 @@ impl PairSet {
     /// Removes and returns the pairs of least sugar (ties: all of that sugar), for engines that
     /// handle a whole degree at once; `limit` caps how many.
     pub fn take_lowest(&mut self, limit: Option<usize>) -> Vec<Pair> {
-        let Some(min) = self.pairs.iter().map(|p| p.sugar).min() else { return vec![] };
-        let (mut now, later): (Vec<Pair>, Vec<Pair>) = self.pairs.drain(..).partition(|p| p.sugar == min);
+        self.take_lowest_by(limit, |p| p.sugar)
+    }
+
+    /// The normal selection strategy (Buchberger 1985; as used by Faugère 1999 for F4): removes
+    /// and returns all pairs whose lcm has the least total degree; `limit` caps how many, the
+    /// rest wait for the next step.
+    pub fn take_lowest_degree(&mut self, limit: Option<usize>) -> Vec<Pair> {
+        self.take_lowest_by(limit, |p| p.lcm.degree())
+    }
+
+    fn take_lowest_by(&mut self, limit: Option<usize>, key: impl Fn(&Pair) -> u32) -> Vec<Pair> {
+        let Some(min) = self.pairs.iter().map(&key).min() else { return vec![] };
+        let (mut now, later): (Vec<Pair>, Vec<Pair>) = self.pairs.drain(..).partition(|p| key(p) == min);
         self.pairs = later;
         if let Some(limit) = limit {
-            if now.len() > limit {
-                self.pairs.extend(now.drain(limit..));
+            if now.len() > limit.max(1) {
+                self.pairs.extend(now.drain(limit.max(1)..));
             }
         }
         now

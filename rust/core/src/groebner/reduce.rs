@@ -4,6 +4,7 @@
 use crate::error::Result;
 use crate::field::Field;
 use crate::monomial::Monomial;
+use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
 
 /// Index of a divisor of `m` among `leads`, preferring the first found.
@@ -34,22 +35,31 @@ pub fn normal_form<F: Field>(ring: &Ring<F>, f: &Poly<F>, basis: &[Poly<F>]) -> 
     Ok(Poly::from_sorted(remainder))
 }
 
+/// Indices of a minimal subset with the same leading ideal: for each leading monomial not a
+/// proper multiple of another, the first element carrying it. Increasing order of leading monomial.
+pub fn minimal_indices(leads: &[&Monomial], order: &MonomialOrder) -> Vec<usize> {
+    let mut idx: Vec<usize> = (0..leads.len()).collect();
+    idx.sort_by(|&a, &b| order.cmp(leads[a], leads[b]).then(a.cmp(&b)));
+    idx.dedup_by(|a, b| leads[*a] == leads[*b]);
+    let mut minimal: Vec<usize> = Vec::new();
+    for k in idx {
+        if !minimal.iter().any(|&h| leads[h].divides(leads[k])) {
+            minimal.push(k);
+        }
+    }
+    minimal
+}
+
 /// The reduced Gröbner basis from any Gröbner basis: drop elements whose leading monomial is a
 /// multiple of another's, reduce the tails, make monic, sort by decreasing leading monomial.
 pub fn reduced_basis<F: Field>(ring: &Ring<F>, basis: Vec<Poly<F>>) -> Result<Vec<Poly<F>>> {
-    let mut basis: Vec<Poly<F>> = basis.into_iter().filter(|g| !g.is_zero()).collect();
+    let basis: Vec<Poly<F>> = basis.into_iter().filter(|g| !g.is_zero()).collect();
     if basis.iter().any(|g| g.is_constant()) {
         return Ok(vec![ring.one()]);
     }
-    basis.sort_by(|a, b| ring.cmp(a.leading_monomial().unwrap(), b.leading_monomial().unwrap()));
-    basis.dedup_by(|a, b| a.leading_monomial() == b.leading_monomial());
-    let mut minimal: Vec<Poly<F>> = Vec::new();
-    for g in basis {
-        let lg = g.leading_monomial().unwrap();
-        if !minimal.iter().any(|h| h.leading_monomial().unwrap().divides(lg)) {
-            minimal.push(g);
-        }
-    }
+    let leads: Vec<&Monomial> = basis.iter().map(|g| g.leading_monomial().unwrap()).collect();
+    let minimal: Vec<Poly<F>> =
+        minimal_indices(&leads, &ring.order).into_iter().map(|k| basis[k].clone()).collect();
     let mut reduced = Vec::with_capacity(minimal.len());
     for k in 0..minimal.len() {
         let g = &minimal[k];

@@ -13,6 +13,8 @@ pub struct StepStats {
     pub new_elements: usize,
     pub seconds_symbolic: f64,
     pub seconds_linear_algebra: f64,
+    /// Multiply-adds performed by the linear algebra of this step (0 for engines without matrices).
+    pub multiply_adds: u64,
 }
 
 #[derive(Clone, Debug, Default, PartialEq)]

@@ -1,0 +1,349 @@
+//! Coefficient arithmetic of the F4 matrices: rows are stored in the smallest type that holds the
+//! field's elements, and a row being reduced lives in a dense accumulator where multiply-adds are
+//! summed with *delayed modular reduction* (Faugère–Lachartre 2010; Dumas, Giorgi and Pernet 2008
+//! for the accumulation bounds): an entry is reduced modulo p only when it is read, or when the
+//! accumulator could otherwise overflow.
+//!
+//! Three word kernels for GF(p), chosen by the size of p, and one generic kernel for any field:
+//! - p < 2^21, stored as u16/u32, u64 accumulator, no reduction at all during a row's reduction
+//!   unless more than (2^64 - p) / (p - 1)^2 multiply-adds land on one entry (2^22 at least);
+//! - p < 2^31, stored as u32, u64 accumulator kept below p^2 by one branch-free conditional
+//!   subtraction of p^2 per multiply-add;
+//! - p < 2^63, stored as u64, u128 accumulator kept below p^2 the same way;
+//! - any other field: the field's own elements and operations.
+
+use crate::field::Field;
+use std::marker::PhantomData;
+
+/// The arithmetic one matrix computation runs on. `axpy` expects strictly increasing columns.
+pub trait Arith<F: Field>: Send + Sync {
+    /// A stored coefficient.
+    type C: Clone + Send + Sync + 'static;
+    /// An accumulator entry.
+    type A: Clone + Send + Sync;
+    fn import(&self, field: &F, e: &F::Elem) -> Self::C;
+    fn export(&self, field: &F, c: &Self::C) -> F::Elem;
+    fn acc_zero(&self) -> Self::A;
+    /// Whether the entry is exactly zero (it may still be ≡ 0 when not: see `settle`).
+    fn acc_is_zero(&self, a: &Self::A) -> bool;
+    fn load(&self, c: &Self::C) -> Self::A;
+    /// The canonical coefficient an accumulator entry stands for.
+    fn settle(&self, a: &Self::A) -> Self::C;
+    fn is_zero(&self, c: &Self::C) -> bool;
+    fn one(&self) -> Self::C;
+    fn mul(&self, a: &Self::C, b: &Self::C) -> Self::C;
+    /// Inverse of a nonzero coefficient.
+    fn inv(&self, a: &Self::C) -> Self::C;
+    fn neg(&self, a: &Self::C) -> Self::C;
+    /// acc[cols[k]] += m · coeffs[k] for every k.
+    fn axpy(&self, acc: &mut [Self::A], cols: &[u32], coeffs: &[Self::C], m: &Self::C);
+    /// How many `axpy` calls an entry survives before `normalize` must run.
+    fn headroom(&self) -> u64 {
+        u64::MAX
+    }
+    /// Brings accumulator entries back into their canonical range.
+    fn normalize(&self, _acc: &mut [Self::A]) {}
+}
+
+/// Storage types for residues.
+pub trait Word: Copy + Send + Sync + 'static {
+    fn from_u64(v: u64) -> Self;
+    fn get(self) -> u64;
+}
+
+impl Word for u16 {
+    #[inline]
+    fn from_u64(v: u64) -> Self {
+        v as u16
+    }
+    #[inline]
+    fn get(self) -> u64 {
+        self as u64
+    }
+}
+
+impl Word for u32 {
+    #[inline]
+    fn from_u64(v: u64) -> Self {
+        v as u32
+    }
+    #[inline]
+    fn get(self) -> u64 {
+        self as u64
+    }
+}
+
+/// Inverse modulo p by the extended Euclidean algorithm (a ≠ 0 mod p).
+fn inv_mod(a: u64, p: u64) -> u64 {
+    let (mut r0, mut r1) = (p as i128, a as i128);
+    let (mut t0, mut t1) = (0i128, 1i128);
+    while r1 != 0 {
+        let q = r0 / r1;
+        (r0, r1) = (r1, r0 - q * r1);
+        (t0, t1) = (t1, t0 - q * t1);
+    }
+    t0.rem_euclid(p as i128) as u64
+}
+
+/// GF(p) for p < 2^31 with coefficients stored as `W` and a u64 accumulator.
+pub struct SmallPrime<W> {
+    p: u64,
+    p2: u64,
+    /// No reduction during accumulation (p < 2^21); otherwise conditional subtraction of p^2.
+    lazy: bool,
+    headroom: u64,
+    _w: PhantomData<W>,
+}
+
+impl<W: Word> SmallPrime<W> {
+    pub fn new(p: u64) -> Self {
+        debug_assert!(p < 1 << 31);
+        let lazy = p < 1 << 21;
+        let sq = (p - 1).max(1) * (p - 1).max(1);
+        let headroom = if lazy { (u64::MAX - p) / sq } else { u64::MAX };
+        SmallPrime { p, p2: p * p, lazy, headroom, _w: PhantomData }
+    }
+}
+
+impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
+    type C = W;
+    type A = u64;
+    fn import(&self, field: &F, e: &F::Elem) -> W {
+        W::from_u64(field.to_word(e))
+    }
+    fn export(&self, field: &F, c: &W) -> F::Elem {
+        field.from_word(c.get())
+    }
+    #[inline]
+    fn acc_zero(&self) -> u64 {
+        0
+    }
+    #[inline]
+    fn acc_is_zero(&self, a: &u64) -> bool {
+        *a == 0
+    }
+    #[inline]
+    fn load(&self, c: &W) -> u64 {
+        c.get()
+    }
+    #[inline]
+    fn settle(&self, a: &u64) -> W {
+        W::from_u64(*a % self.p)
+    }
+    #[inline]
+    fn is_zero(&self, c: &W) -> bool {
+        c.get() == 0
+    }
+    fn one(&self) -> W {
+        W::from_u64(1)
+    }
+    #[inline]
+    fn mul(&self, a: &W, b: &W) -> W {
+        W::from_u64(a.get() * b.get() % self.p)
+    }
+    fn inv(&self, a: &W) -> W {
+        W::from_u64(inv_mod(a.get(), self.p))
+    }
+    #[inline]
+    fn neg(&self, a: &W) -> W {
+        W::from_u64(if a.get() == 0 { 0 } else { self.p - a.get() })
+    }
+    #[inline]
+    fn axpy(&self, acc: &mut [u64], cols: &[u32], coeffs: &[W], m: &W) {
+        let m = m.get();
+        // Row columns are strictly increasing, so checking the last one bounds them all and the
+        // hot loops can skip per-element bounds checks.
+        debug_assert!(cols.windows(2).all(|w| w[0] < w[1]));
+        assert!(cols.last().is_none_or(|&c| (c as usize) < acc.len()) && coeffs.len() >= cols.len());
+        if self.lazy {
+            for (&c, &x) in cols.iter().zip(coeffs) {
+                // SAFETY: columns increase and the last is below acc.len() (checked above).
+                unsafe { *acc.get_unchecked_mut(c as usize) += m * x.get() };
+            }
+        } else {
+            let p2 = self.p2;
+            for (&c, &x) in cols.iter().zip(coeffs) {
+                // SAFETY: columns increase and the last is below acc.len() (checked above).
+                let slot = unsafe { acc.get_unchecked_mut(c as usize) };
+                let v = *slot + m * x.get();
+                *slot = v.min(v.wrapping_sub(p2));
+            }
+        }
+    }
+    fn headroom(&self) -> u64 {
+        self.headroom
+    }
+    fn normalize(&self, acc: &mut [u64]) {
+        for a in acc {
+            *a %= self.p;
+        }
+    }
+}
+
+/// GF(p) for 2^31 ≤ p < 2^63: u64 coefficients, u128 accumulator below p^2.
+pub struct LargePrime {
+    p: u64,
+    p2: u128,
+}
+
+impl LargePrime {
+    pub fn new(p: u64) -> Self {
+        LargePrime { p, p2: p as u128 * p as u128 }
+    }
+}
+
+impl<F: Field> Arith<F> for LargePrime {
+    type C = u64;
+    type A = u128;
+    fn import(&self, field: &F, e: &F::Elem) -> u64 {
+        field.to_word(e)
+    }
+    fn export(&self, field: &F, c: &u64) -> F::Elem {
+        field.from_word(*c)
+    }
+    #[inline]
+    fn acc_zero(&self) -> u128 {
+        0
+    }
+    #[inline]
+    fn acc_is_zero(&self, a: &u128) -> bool {
+        *a == 0
+    }
+    #[inline]
+    fn load(&self, c: &u64) -> u128 {
+        *c as u128
+    }
+    #[inline]
+    fn settle(&self, a: &u128) -> u64 {
+        (*a % self.p as u128) as u64
+    }
+    #[inline]
+    fn is_zero(&self, c: &u64) -> bool {
+        *c == 0
+    }
+    fn one(&self) -> u64 {
+        1
+    }
+    #[inline]
+    fn mul(&self, a: &u64, b: &u64) -> u64 {
+        ((*a as u128 * *b as u128) % self.p as u128) as u64
+    }
+    fn inv(&self, a: &u64) -> u64 {
+        inv_mod(*a, self.p)
+    }
+    #[inline]
+    fn neg(&self, a: &u64) -> u64 {
+        if *a == 0 {
+            0
+        } else {
+            self.p - a
+        }
+    }
+    #[inline]
+    fn axpy(&self, acc: &mut [u128], cols: &[u32], coeffs: &[u64], m: &u64) {
+        let (m, p2) = (*m as u128, self.p2);
+        for (&c, &x) in cols.iter().zip(coeffs) {
+            let v = acc[c as usize] + m * x as u128;
+            acc[c as usize] = v.min(v.wrapping_sub(p2));
+        }
+    }
+}
+
+/// Any field, through its own operations (no delayed reduction).
+pub struct Generic<F: Field> {
+    field: F,
+}
+
+impl<F: Field> Generic<F> {
+    pub fn new(field: F) -> Self {
+        Generic { field }
+    }
+}
+
+impl<F: Field> Arith<F> for Generic<F> {
+    type C = F::Elem;
+    type A = F::Elem;
+    fn import(&self, _field: &F, e: &F::Elem) -> F::Elem {
+        e.clone()
+    }
+    fn export(&self, _field: &F, c: &F::Elem) -> F::Elem {
+        c.clone()
+    }
+    fn acc_zero(&self) -> F::Elem {
+        self.field.zero()
+    }
+    fn acc_is_zero(&self, a: &F::Elem) -> bool {
+        self.field.is_zero(a)
+    }
+    fn load(&self, c: &F::Elem) -> F::Elem {
+        c.clone()
+    }
+    fn settle(&self, a: &F::Elem) -> F::Elem {
+        a.clone()
+    }
+    fn is_zero(&self, c: &F::Elem) -> bool {
+        self.field.is_zero(c)
+    }
+    fn one(&self) -> F::Elem {
+        self.field.one()
+    }
+    fn mul(&self, a: &F::Elem, b: &F::Elem) -> F::Elem {
+        self.field.mul(a, b)
+    }
+    fn inv(&self, a: &F::Elem) -> F::Elem {
+        self.field.inv(a).expect("pivots are nonzero")
+    }
+    fn neg(&self, a: &F::Elem) -> F::Elem {
+        self.field.neg(a)
+    }
+    fn axpy(&self, acc: &mut [F::Elem], cols: &[u32], coeffs: &[F::Elem], m: &F::Elem) {
+        for (&c, x) in cols.iter().zip(coeffs) {
+            let slot = &mut acc[c as usize];
+            *slot = self.field.add(slot, &self.field.mul(m, x));
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::field::PrimeField;
+
+    /// Each kernel, fed many multiply-adds onto one entry, agrees with exact integer arithmetic.
+    fn check<A: Arith<PrimeField>>(a: &A, p: u64) {
+        let f = PrimeField::new(p).unwrap();
+        let mut acc = vec![a.acc_zero(); 3];
+        let (mut exact0, mut exact2) = (0u128, 0u128);
+        let mut budget = a.headroom();
+        for k in 0..1000u64 {
+            let (x, y, m) = ((p - 1 - k % p) % p, (k * 7919) % p, (p - 1 - (k * 31) % p) % p);
+            let (xs, ys, ms) = (a.import(&f, &x), a.import(&f, &y), a.import(&f, &m));
+            a.axpy(&mut acc, &[0, 2], &[xs, ys], &ms);
+            exact0 = (exact0 + m as u128 * x as u128) % p as u128;
+            exact2 = (exact2 + m as u128 * y as u128) % p as u128;
+            budget -= 1;
+            if budget == 0 {
+                a.normalize(&mut acc);
+                budget = a.headroom();
+            }
+        }
+        assert_eq!(a.export(&f, &a.settle(&acc[0])) as u128, exact0);
+        assert_eq!(a.export(&f, &a.settle(&acc[2])) as u128, exact2);
+        assert!(a.acc_is_zero(&acc[1]));
+        let x = a.import(&f, &(p - 1));
+        assert_eq!(a.export(&f, &a.mul(&x, &a.inv(&x))), 1);
+    }
+
+    #[test]
+    fn kernels_agree_with_exact_arithmetic() {
+        // Primes from the field tests' list (2^31 - 1 and 2^63 - 25 are the largest primes below
+        // those powers of two; tables of primes, from memory).
+        check(&SmallPrime::<u16>::new(2), 2);
+        check(&SmallPrime::<u16>::new(3), 3);
+        check(&SmallPrime::<u16>::new(65521), 65521);
+        check(&SmallPrime::<u32>::new(2147483647), 2147483647);
+        check(&LargePrime::new((1 << 31) + 11), (1 << 31) + 11);
+        check(&LargePrime::new((1 << 63) - 25), (1 << 63) - 25);
+        check(&Generic::new(PrimeField::new(65521).unwrap()), 65521);
+    }
+}

@@ -1,0 +1,226 @@
+//! The monomial table of F4: every monomial met during a computation is stored once and named by
+//! a `u32` index, so matrix rows are lists of indices and products are table look-ups.
+//!
+//! Hashing is linear in the exponent vector (h(a·b) = h(a) + h(b) with fixed pseudo-random
+//! weights per variable), so the hash of a product costs one addition. Each entry also carries a
+//! 64-bit divisibility mask: one bit per (variable, threshold), set when the exponent exceeds the
+//! threshold, so `mask(a) & !mask(b) != 0` proves that a does not divide b without reading the
+//! exponents; divisor searches mostly stop there.
+
+use crate::error::{Error, Result};
+use crate::monomial::Monomial;
+use crate::order::MonomialOrder;
+use std::cmp::Ordering;
+
+pub struct MonomialTable {
+    nvars: usize,
+    order: MonomialOrder,
+    monos: Vec<Monomial>,
+    hashes: Vec<u64>,
+    masks: Vec<u64>,
+    /// Open addressing: slot holds index + 1, 0 when empty. Length is a power of two.
+    slots: Vec<u32>,
+    weights: Vec<u64>,
+    /// Bit layout of the masks: (variable, threshold) per bit.
+    mask_bits: Vec<(usize, u32)>,
+    scratch: Vec<u32>,
+}
+
+impl MonomialTable {
+    pub fn new(nvars: usize, order: MonomialOrder) -> Self {
+        // Fixed pseudo-random weights (splitmix64): runs are reproducible.
+        let mut state = 0x9E37_79B9_7F4A_7C15u64;
+        let weights = (0..nvars).map(|_| splitmix(&mut state)).collect();
+        MonomialTable {
+            nvars,
+            order,
+            monos: Vec::new(),
+            hashes: Vec::new(),
+            masks: Vec::new(),
+            slots: vec![0; 1 << 12],
+            weights,
+            mask_bits: mask_layout(nvars),
+            scratch: vec![0; nvars],
+        }
+    }
+
+    pub fn len(&self) -> usize {
+        self.monos.len()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.monos.is_empty()
+    }
+
+    #[inline]
+    pub fn monomial(&self, i: u32) -> &Monomial {
+        &self.monos[i as usize]
+    }
+
+    #[inline]
+    pub fn degree(&self, i: u32) -> u32 {
+        self.monos[i as usize].degree()
+    }
+
+    /// Order comparison of two stored monomials.
+    #[inline]
+    pub fn cmp(&self, a: u32, b: u32) -> Ordering {
+        if a == b {
+            return Ordering::Equal;
+        }
+        self.order.cmp(&self.monos[a as usize], &self.monos[b as usize])
+    }
+
+    /// Whether monomial `a` divides monomial `b` (mask first, exponents only when needed).
+    #[inline]
+    pub fn divides(&self, a: u32, b: u32) -> bool {
+        let (a, b) = (a as usize, b as usize);
+        self.masks[a] & !self.masks[b] == 0 && self.monos[a].divides(&self.monos[b])
+    }
+
+    /// Whether a monomial with mask `mask_a` can divide monomial `b` (a fast necessary test).
+    #[inline]
+    pub fn may_divide(&self, mask_a: u64, b: u32) -> bool {
+        mask_a & !self.masks[b as usize] == 0
+    }
+
+    #[inline]
+    pub fn mask(&self, i: u32) -> u64 {
+        self.masks[i as usize]
+    }
+
+    /// Index of `m`, inserting it if new.
+    pub fn insert(&mut self, m: &Monomial) -> u32 {
+        self.scratch.copy_from_slice(m.exponents());
+        let h = self.hash_of(m.exponents());
+        self.lookup_scratch(h).expect("a stored monomial's degree fits")
+    }
+
+    /// Index of the product a·b; `Overflow` when an exponent or the degree exceeds u32.
+    pub fn mul(&mut self, a: u32, b: u32) -> Result<u32> {
+        let (ea, eb) = (self.monos[a as usize].exponents(), self.monos[b as usize].exponents());
+        for k in 0..self.nvars {
+            self.scratch[k] = ea[k].checked_add(eb[k]).ok_or_else(overflow)?;
+        }
+        let h = self.hashes[a as usize].wrapping_add(self.hashes[b as usize]);
+        self.lookup_scratch(h)
+    }
+
+    /// Index of the quotient a / b, for b dividing a.
+    pub fn div(&mut self, a: u32, b: u32) -> u32 {
+        let (ea, eb) = (self.monos[a as usize].exponents(), self.monos[b as usize].exponents());
+        for k in 0..self.nvars {
+            self.scratch[k] = ea[k] - eb[k];
+        }
+        let h = self.hashes[a as usize].wrapping_sub(self.hashes[b as usize]);
+        self.lookup_scratch(h).expect("a quotient's degree fits")
+    }
+
+    fn hash_of(&self, exps: &[u32]) -> u64 {
+        exps.iter().zip(&self.weights).fold(0u64, |h, (&e, &w)| h.wrapping_add(w.wrapping_mul(e as u64)))
+    }
+
+    /// Finds or inserts the monomial in `scratch` whose hash is `h`.
+    fn lookup_scratch(&mut self, h: u64) -> Result<u32> {
+        let mask = self.slots.len() - 1;
+        let mut pos = (h as usize) & mask;
+        loop {
+            let slot = self.slots[pos];
+            if slot == 0 {
+                break;
+            }
+            let i = (slot - 1) as usize;
+            if self.hashes[i] == h && self.monos[i].exponents() == &self.scratch[..] {
+                return Ok(i as u32);
+            }
+            pos = (pos + 1) & mask;
+        }
+        let m = Monomial::from_exponents(self.scratch.clone())?;
+        let index = u32::try_from(self.monos.len())
+            .map_err(|_| Error::ResourceLimit("more than 2^32 distinct monomials".into()))?;
+        self.masks.push(self.mask_of(m.exponents()));
+        self.monos.push(m);
+        self.hashes.push(h);
+        self.slots[pos] = index + 1;
+        if 2 * self.monos.len() > self.slots.len() {
+            self.grow();
+        }
+        Ok(index)
+    }
+
+    fn grow(&mut self) {
+        let size = self.slots.len() * 2;
+        let mut slots = vec![0u32; size];
+        for (i, &h) in self.hashes.iter().enumerate() {
+            let mut pos = (h as usize) & (size - 1);
+            while slots[pos] != 0 {
+                pos = (pos + 1) & (size - 1);
+            }
+            slots[pos] = i as u32 + 1;
+        }
+        self.slots = slots;
+    }
+
+    fn mask_of(&self, exps: &[u32]) -> u64 {
+        self.mask_bits
+            .iter()
+            .enumerate()
+            .filter(|(_, &(v, t))| exps[v] > t)
+            .fold(0u64, |m, (bit, _)| m | (1 << bit))
+    }
+}
+
+fn overflow() -> Error {
+    Error::Overflow("exponent overflow: a degree exceeds 2^32 - 1".into())
+}
+
+fn splitmix(state: &mut u64) -> u64 {
+    *state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
+    let mut z = *state;
+    z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+    z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+    z ^ (z >> 31)
+}
+
+/// Up to 64 mask bits: with few variables several thresholds (0, 1, 3, 7, ...) per variable,
+/// with more than 64 variables the first 64 get one bit each (exponent > 0).
+fn mask_layout(nvars: usize) -> Vec<(usize, u32)> {
+    if nvars == 0 {
+        return vec![];
+    }
+    let per_var = (64 / nvars).clamp(1, 8);
+    let mut bits = Vec::new();
+    for v in 0..nvars.min(64) {
+        for k in 0..per_var {
+            bits.push((v, (1u32 << k) - 1));
+        }
+    }
+    bits
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn products_quotients_and_masks_agree_with_monomials() {
+        let mut t = MonomialTable::new(3, MonomialOrder::Grevlex);
+        let a = t.insert(&Monomial::from_exponents(vec![2, 0, 1]).unwrap());
+        let b = t.insert(&Monomial::from_exponents(vec![0, 3, 1]).unwrap());
+        let ab = t.mul(a, b).unwrap();
+        assert_eq!(t.monomial(ab).exponents(), &[2, 3, 2]);
+        assert_eq!(t.insert(&Monomial::from_exponents(vec![2, 3, 2]).unwrap()), ab);
+        assert_eq!(t.div(ab, a), b);
+        assert!(t.divides(a, ab) && t.divides(b, ab) && !t.divides(a, b) && !t.divides(ab, a));
+        // Many inserts force the table to grow; indices stay stable.
+        let ids: Vec<u32> = (0..5000u32)
+            .map(|k| t.insert(&Monomial::from_exponents(vec![k % 17, k / 17 % 19, k / 323]).unwrap()))
+            .collect();
+        for (k, &i) in ids.iter().enumerate() {
+            let k = k as u32;
+            assert_eq!(t.monomial(i).exponents(), &[k % 17, k / 17 % 19, k / 323]);
+        }
+        let big = t.insert(&Monomial::var_power(3, 0, u32::MAX));
+        assert!(matches!(t.mul(big, a), Err(Error::Overflow(_))));
+    }
+}
