@@ -12,7 +12,10 @@ pub enum MonomialOrder {
     Grlex,
     Grevlex,
     /// Compare by the weighted degree first, then by `tie`. Weights are non-negative.
-    Weight { weights: Vec<u64>, tie: Box<MonomialOrder> },
+    Weight {
+        weights: Vec<u64>,
+        tie: Box<MonomialOrder>,
+    },
     /// Compare block by block; each block orders its own variables (global indices).
     Block(Vec<Block>),
 }
@@ -41,7 +44,9 @@ impl MonomialOrder {
         let mut seen = vec![false; n];
         for b in &blocks {
             if matches!(b.order, MonomialOrder::Block(_)) {
-                return Err(Error::invalid("a block of a block order must be lex, grlex, grevlex or a weight order"));
+                return Err(Error::invalid(
+                    "a block of a block order must be lex, grlex, grevlex or a weight order",
+                ));
             }
             for &v in &b.vars {
                 if v >= n || seen[v] {
@@ -54,7 +59,9 @@ impl MonomialOrder {
             b.order.validate(b.vars.len())?;
         }
         if let Some(v) = seen.iter().position(|s| !s) {
-            return Err(Error::invalid(format!("block order: variable index {v} is in no block")));
+            return Err(Error::invalid(format!(
+                "block order: variable index {v} is in no block"
+            )));
         }
         Ok(MonomialOrder::Block(blocks))
     }
@@ -65,10 +72,16 @@ impl MonomialOrder {
         let rest: Vec<usize> = (0..n).filter(|v| !first.contains(v)).collect();
         let mut blocks = vec![];
         if !first.is_empty() {
-            blocks.push(Block { order: MonomialOrder::Grevlex, vars: first.to_vec() });
+            blocks.push(Block {
+                order: MonomialOrder::Grevlex,
+                vars: first.to_vec(),
+            });
         }
         if !rest.is_empty() {
-            blocks.push(Block { order: MonomialOrder::Grevlex, vars: rest });
+            blocks.push(Block {
+                order: MonomialOrder::Grevlex,
+                vars: rest,
+            });
         }
         MonomialOrder::Block(blocks)
     }
@@ -94,9 +107,9 @@ impl MonomialOrder {
     pub fn is_degree_compatible(&self) -> bool {
         match self {
             MonomialOrder::Grlex | MonomialOrder::Grevlex => true,
-            MonomialOrder::Weight { weights, .. } => {
-                weights.first().is_some_and(|w| *w > 0 && weights.iter().all(|v| v == w))
-            }
+            MonomialOrder::Weight { weights, .. } => weights
+                .first()
+                .is_some_and(|w| *w > 0 && weights.iter().all(|v| v == w)),
             _ => false,
         }
     }
@@ -105,10 +118,14 @@ impl MonomialOrder {
     pub fn cmp(&self, a: &Monomial, b: &Monomial) -> Ordering {
         match self {
             MonomialOrder::Lex => lex(a.exponents(), b.exponents()),
-            MonomialOrder::Grlex => a.degree().cmp(&b.degree()).then_with(|| lex(a.exponents(), b.exponents())),
-            MonomialOrder::Grevlex => {
-                a.degree().cmp(&b.degree()).then_with(|| revlex(a.exponents(), b.exponents()))
-            }
+            MonomialOrder::Grlex => a
+                .degree()
+                .cmp(&b.degree())
+                .then_with(|| lex(a.exponents(), b.exponents())),
+            MonomialOrder::Grevlex => a
+                .degree()
+                .cmp(&b.degree())
+                .then_with(|| revlex(a.exponents(), b.exponents())),
             _ => self.cmp_on(a.exponents(), b.exponents(), None),
         }
     }
@@ -117,9 +134,18 @@ impl MonomialOrder {
     fn cmp_on(&self, a: &[u32], b: &[u32], vars: Option<&[usize]>) -> Ordering {
         let n = vars.map_or(a.len(), |v| v.len());
         let at = |e: &[u32], i: usize| vars.map_or(e[i], |v| e[v[i]]);
-        let lex_on = || (0..n).map(|i| at(a, i).cmp(&at(b, i))).find(|o| o.is_ne()).unwrap_or(Ordering::Equal);
+        let lex_on = || {
+            (0..n)
+                .map(|i| at(a, i).cmp(&at(b, i)))
+                .find(|o| o.is_ne())
+                .unwrap_or(Ordering::Equal)
+        };
         let revlex_on = || {
-            (0..n).rev().map(|i| at(b, i).cmp(&at(a, i))).find(|o| o.is_ne()).unwrap_or(Ordering::Equal)
+            (0..n)
+                .rev()
+                .map(|i| at(b, i).cmp(&at(a, i)))
+                .find(|o| o.is_ne())
+                .unwrap_or(Ordering::Equal)
         };
         let deg = |e: &[u32]| (0..n).map(|i| at(e, i) as u64).sum::<u64>();
         match self {
@@ -127,17 +153,22 @@ impl MonomialOrder {
             MonomialOrder::Grlex => deg(a).cmp(&deg(b)).then_with(lex_on),
             MonomialOrder::Grevlex => deg(a).cmp(&deg(b)).then_with(revlex_on),
             MonomialOrder::Weight { weights, tie } => {
-                let w = |e: &[u32]| (0..n).map(|i| weights[i] as u128 * at(e, i) as u128).sum::<u128>();
+                let w = |e: &[u32]| {
+                    (0..n)
+                        .map(|i| weights[i] as u128 * at(e, i) as u128)
+                        .sum::<u128>()
+                };
                 w(a).cmp(&w(b)).then_with(|| tie.cmp_on(a, b, vars))
             }
             MonomialOrder::Block(blocks) => blocks
                 .iter()
-                .map(|blk| {
-                    let idx: Vec<usize> = match vars {
-                        None => blk.vars.clone(),
-                        Some(v) => blk.vars.iter().map(|&j| v[j]).collect(),
-                    };
-                    blk.order.cmp_on(a, b, Some(&idx))
+                .map(|blk| match vars {
+                    // Blocks never nest, so at the top level a block's own indices are global.
+                    None => blk.order.cmp_on(a, b, Some(&blk.vars)),
+                    Some(v) => {
+                        let idx: Vec<usize> = blk.vars.iter().map(|&j| v[j]).collect();
+                        blk.order.cmp_on(a, b, Some(&idx))
+                    }
                 })
                 .find(|o| o.is_ne())
                 .unwrap_or(Ordering::Equal),
@@ -176,12 +207,21 @@ mod tests {
             MonomialOrder::Lex,
             MonomialOrder::Grlex,
             MonomialOrder::Grevlex,
-            MonomialOrder::Weight { weights: vec![1, 2, 3], tie: Box::new(MonomialOrder::Grevlex) },
+            MonomialOrder::Weight {
+                weights: vec![1, 2, 3],
+                tie: Box::new(MonomialOrder::Grevlex),
+            },
             MonomialOrder::elimination(&[1], 3),
             MonomialOrder::block(
                 vec![
-                    Block { order: MonomialOrder::Lex, vars: vec![2, 0] },
-                    Block { order: MonomialOrder::Grlex, vars: vec![1] },
+                    Block {
+                        order: MonomialOrder::Lex,
+                        vars: vec![2, 0],
+                    },
+                    Block {
+                        order: MonomialOrder::Grlex,
+                        vars: vec![1],
+                    },
                 ],
                 3,
             )
@@ -205,9 +245,15 @@ mod tests {
 
     #[test]
     fn bad_blocks_are_rejected() {
-        let b = |vars: Vec<usize>| Block { order: MonomialOrder::Lex, vars };
+        let b = |vars: Vec<usize>| Block {
+            order: MonomialOrder::Lex,
+            vars,
+        };
         assert!(MonomialOrder::block(vec![b(vec![0]), b(vec![0, 1])], 2).is_err());
-        assert!(MonomialOrder::block(vec![b(vec![0])], 2).unwrap_err().to_string().contains("in no block"));
+        assert!(MonomialOrder::block(vec![b(vec![0])], 2)
+            .unwrap_err()
+            .to_string()
+            .contains("in no block"));
     }
 
     proptest! {

@@ -68,7 +68,8 @@ impl MonomialTable {
         if a == b {
             return Ordering::Equal;
         }
-        self.order.cmp(&self.monos[a as usize], &self.monos[b as usize])
+        self.order
+            .cmp(&self.monos[a as usize], &self.monos[b as usize])
     }
 
     /// Whether monomial `a` divides monomial `b` (mask first, exponents only when needed).
@@ -93,12 +94,16 @@ impl MonomialTable {
     pub fn insert(&mut self, m: &Monomial) -> u32 {
         self.scratch.copy_from_slice(m.exponents());
         let h = self.hash_of(m.exponents());
-        self.lookup_scratch(h).expect("a stored monomial's degree fits")
+        self.lookup_scratch(h)
+            .expect("a stored monomial's degree fits")
     }
 
     /// Index of the product a·b; `Overflow` when an exponent or the degree exceeds u32.
     pub fn mul(&mut self, a: u32, b: u32) -> Result<u32> {
-        let (ea, eb) = (self.monos[a as usize].exponents(), self.monos[b as usize].exponents());
+        let (ea, eb) = (
+            self.monos[a as usize].exponents(),
+            self.monos[b as usize].exponents(),
+        );
         for k in 0..self.nvars {
             self.scratch[k] = ea[k].checked_add(eb[k]).ok_or_else(overflow)?;
         }
@@ -108,7 +113,10 @@ impl MonomialTable {
 
     /// Index of the quotient a / b, for b dividing a.
     pub fn div(&mut self, a: u32, b: u32) -> u32 {
-        let (ea, eb) = (self.monos[a as usize].exponents(), self.monos[b as usize].exponents());
+        let (ea, eb) = (
+            self.monos[a as usize].exponents(),
+            self.monos[b as usize].exponents(),
+        );
         for k in 0..self.nvars {
             self.scratch[k] = ea[k] - eb[k];
         }
@@ -117,13 +125,23 @@ impl MonomialTable {
     }
 
     fn hash_of(&self, exps: &[u32]) -> u64 {
-        exps.iter().zip(&self.weights).fold(0u64, |h, (&e, &w)| h.wrapping_add(w.wrapping_mul(e as u64)))
+        exps.iter()
+            .zip(&self.weights)
+            .fold(0u64, |h, (&e, &w)| h.wrapping_add(w.wrapping_mul(e as u64)))
+    }
+
+    /// First slot to probe for hash `h` in a table of `size` slots (a power of two). The hash is
+    /// linear in the exponents, so its low bits follow the lattice of exponent vectors and would
+    /// cluster under linear probing; a multiplicative mix takes the well-spread high bits instead.
+    #[inline]
+    fn home_slot(h: u64, size: usize) -> usize {
+        (h.wrapping_mul(0x9E37_79B9_7F4A_7C15) >> (64 - size.trailing_zeros())) as usize
     }
 
     /// Finds or inserts the monomial in `scratch` whose hash is `h`.
     fn lookup_scratch(&mut self, h: u64) -> Result<u32> {
         let mask = self.slots.len() - 1;
-        let mut pos = (h as usize) & mask;
+        let mut pos = Self::home_slot(h, self.slots.len());
         loop {
             let slot = self.slots[pos];
             if slot == 0 {
@@ -152,7 +170,7 @@ impl MonomialTable {
         let size = self.slots.len() * 2;
         let mut slots = vec![0u32; size];
         for (i, &h) in self.hashes.iter().enumerate() {
-            let mut pos = (h as usize) & (size - 1);
+            let mut pos = Self::home_slot(h, size);
             while slots[pos] != 0 {
                 pos = (pos + 1) & (size - 1);
             }
@@ -209,12 +227,17 @@ mod tests {
         let b = t.insert(&Monomial::from_exponents(vec![0, 3, 1]).unwrap());
         let ab = t.mul(a, b).unwrap();
         assert_eq!(t.monomial(ab).exponents(), &[2, 3, 2]);
-        assert_eq!(t.insert(&Monomial::from_exponents(vec![2, 3, 2]).unwrap()), ab);
+        assert_eq!(
+            t.insert(&Monomial::from_exponents(vec![2, 3, 2]).unwrap()),
+            ab
+        );
         assert_eq!(t.div(ab, a), b);
         assert!(t.divides(a, ab) && t.divides(b, ab) && !t.divides(a, b) && !t.divides(ab, a));
         // Many inserts force the table to grow; indices stay stable.
         let ids: Vec<u32> = (0..5000u32)
-            .map(|k| t.insert(&Monomial::from_exponents(vec![k % 17, k / 17 % 19, k / 323]).unwrap()))
+            .map(|k| {
+                t.insert(&Monomial::from_exponents(vec![k % 17, k / 17 % 19, k / 323]).unwrap())
+            })
             .collect();
         for (k, &i) in ids.iter().enumerate() {
             let k = k as u32;

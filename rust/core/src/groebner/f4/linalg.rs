@@ -44,7 +44,13 @@ struct Dense<'a, F: Field, A: Arith<F>> {
 impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
     fn new(arith: &'a A, width: usize) -> Self {
         let acc = vec![arith.acc_zero(); width];
-        Dense { arith, acc, budget: arith.headroom(), multiply_adds: 0, _f: PhantomData }
+        Dense {
+            arith,
+            acc,
+            budget: arith.headroom(),
+            multiply_adds: 0,
+            _f: PhantomData,
+        }
     }
 
     fn load(&mut self, cols: &[u32], coeffs: &[A::C]) {
@@ -83,7 +89,12 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
                 continue;
             };
             // Pivots are monic: adding -c times the pivot's tail clears column k.
-            arith.axpy(&mut self.acc, &pivot.cols[1..], &pivot.coeffs[1..], &arith.neg(&c));
+            arith.axpy(
+                &mut self.acc,
+                &pivot.cols[1..],
+                &pivot.coeffs[1..],
+                &arith.neg(&c),
+            );
             self.acc[k] = arith.acc_zero();
             self.multiply_adds += (pivot.cols.len() - 1) as u64;
             self.budget -= 1;
@@ -131,24 +142,48 @@ fn reduce_by_known<F: Field, A: Arith<F>>(
     multiply_adds: &AtomicU64,
 ) -> Result<Vec<Entries<A::C>>> {
     let pivot_of = |k: usize| pivots[k];
-    rows.par_iter()
-        .map_init(
-            || Dense::new(arith, width),
-            |dense, row| {
-                control.check()?;
-                let skip = usize::from(skip_lead);
-                if row.cols.len() <= skip {
-                    return Ok((vec![], vec![]));
-                }
-                dense.load(&row.cols[skip..], &row.coeffs[skip..]);
-                let before = dense.multiply_adds;
-                let start = row.cols[skip] as usize;
-                dense.sweep(start, &pivot_of, false);
-                multiply_adds.fetch_add(dense.multiply_adds - before, Ordering::Relaxed);
-                Ok(dense.extract(start, None, true))
-            },
-        )
-        .collect()
+    map_rows(
+        rows,
+        control,
+        || Dense::new(arith, width),
+        |dense, row| {
+            control.check()?;
+            let skip = usize::from(skip_lead);
+            if row.cols.len() <= skip {
+                return Ok((vec![], vec![]));
+            }
+            dense.load(&row.cols[skip..], &row.coeffs[skip..]);
+            let before = dense.multiply_adds;
+            let start = row.cols[skip] as usize;
+            dense.sweep(start, &pivot_of, false);
+            multiply_adds.fetch_add(dense.multiply_adds - before, Ordering::Relaxed);
+            Ok(dense.extract(start, None, true))
+        },
+    )
+    .into_iter()
+    .collect()
+}
+
+/// Rows below which a matrix is reduced on the calling thread: waking the worker pool costs
+/// more than it saves on small matrices, which is most of them for small systems.
+const PARALLEL_MIN_ROWS: usize = 64;
+
+/// `work` on every row with a per-thread scratch from `init`: in parallel for large matrices
+/// unless the caller asked for one thread, sequentially otherwise.
+fn map_rows<T: Sync, D, R: Send>(
+    rows: &[T],
+    control: &Control,
+    init: impl Fn() -> D + Sync + Send,
+    work: impl Fn(&mut D, &T) -> R + Sync + Send,
+) -> Vec<R> {
+    if rows.len() >= PARALLEL_MIN_ROWS && control.limits.threads != Some(1) {
+        rows.par_iter()
+            .map_init(&init, |scratch, row| work(scratch, row))
+            .collect()
+    } else {
+        let mut scratch = init();
+        rows.iter().map(|row| work(&mut scratch, row)).collect()
+    }
 }
 
 /// Echelonizes `rows` (over `width` columns, no pivots known); returns the installed pivots and
@@ -162,32 +197,44 @@ fn echelonize<F: Field, A: Arith<F>>(
 ) -> Result<(Vec<Row<A::C>>, usize)> {
     let pivots: Vec<OnceLock<Row<A::C>>> = (0..width).map(|_| OnceLock::new()).collect();
     let pivot_of = |k: usize| pivots[k].get();
-    let zero: Vec<bool> = rows
-        .par_iter()
-        .map_init(
-            || Dense::new(arith, width),
-            |dense, row| {
-                control.check()?;
-                dense.load(&row.cols, &row.coeffs);
-                let before = dense.multiply_adds;
-                let mut from = row.cols[0] as usize;
-                let is_zero = loop {
-                    let Some(k) = dense.sweep(from, &pivot_of, true) else { break true };
-                    let inv = arith.inv(&arith.settle(&dense.acc[k]));
-                    let (cols, coeffs) = dense.extract(k, Some(&inv), false);
-                    if pivots[k].set(Row { cols, coeffs: coeffs.into() }).is_ok() {
-                        dense.extract(k, None, true);
-                        break false;
-                    }
-                    // Another worker took column k first: reduce by its row and go on.
-                    from = k;
+    let zero: Vec<bool> = map_rows(
+        rows,
+        control,
+        || Dense::new(arith, width),
+        |dense, row| {
+            control.check()?;
+            dense.load(&row.cols, &row.coeffs);
+            let before = dense.multiply_adds;
+            let mut from = row.cols[0] as usize;
+            let is_zero = loop {
+                let Some(k) = dense.sweep(from, &pivot_of, true) else {
+                    break true;
                 };
-                multiply_adds.fetch_add(dense.multiply_adds - before, Ordering::Relaxed);
-                Ok(is_zero)
-            },
-        )
-        .collect::<Result<_>>()?;
-    let installed = pivots.into_iter().filter_map(OnceLock::into_inner).collect();
+                let inv = arith.inv(&arith.settle(&dense.acc[k]));
+                let (cols, coeffs) = dense.extract(k, Some(&inv), false);
+                if pivots[k]
+                    .set(Row {
+                        cols,
+                        coeffs: coeffs.into(),
+                    })
+                    .is_ok()
+                {
+                    dense.extract(k, None, true);
+                    break false;
+                }
+                // Another worker took column k first: reduce by its row and go on.
+                from = k;
+            };
+            multiply_adds.fetch_add(dense.multiply_adds - before, Ordering::Relaxed);
+            Ok(is_zero)
+        },
+    )
+    .into_iter()
+    .collect::<Result<_>>()?;
+    let installed = pivots
+        .into_iter()
+        .filter_map(OnceLock::into_inner)
+        .collect();
     Ok((installed, zero.iter().filter(|z| **z).count()))
 }
 
@@ -209,10 +256,20 @@ pub fn reduce_new_rows<F: Field, A: Arith<F>>(
     let pivots = pivot_table(matrix);
     let multiply_adds = AtomicU64::new(0);
     let new_rows: Vec<&Row<A::C>> = matrix.new_rows.iter().collect();
-    let left = reduce_by_known(arith, width, &pivots, &new_rows, false, control, &multiply_adds)?;
+    let left = reduce_by_known(
+        arith,
+        width,
+        &pivots,
+        &new_rows,
+        false,
+        control,
+        &multiply_adds,
+    )?;
 
     // The remaining matrix lives in the columns without a known pivot; renumber them densely.
-    let free_cols: Vec<u32> = (0..width as u32).filter(|&k| pivots[k as usize].is_none()).collect();
+    let free_cols: Vec<u32> = (0..width as u32)
+        .filter(|&k| pivots[k as usize].is_none())
+        .collect();
     let mut free_index = vec![u32::MAX; width];
     for (i, &k) in free_cols.iter().enumerate() {
         free_index[k as usize] = i as u32;
@@ -227,13 +284,21 @@ pub fn reduce_new_rows<F: Field, A: Arith<F>>(
         })
         .collect();
     remaining.sort_by_key(|r| r.cols[0]);
-    let (installed, zero) = echelonize(arith, free_cols.len(), &remaining, control, &multiply_adds)?;
+    let (installed, zero) =
+        echelonize(arith, free_cols.len(), &remaining, control, &multiply_adds)?;
     zero_rows += zero;
     let rows = installed
         .into_iter()
-        .map(|r| Row { cols: r.cols.iter().map(|&i| free_cols[i as usize]).collect(), coeffs: r.coeffs })
+        .map(|r| Row {
+            cols: r.cols.iter().map(|&i| free_cols[i as usize]).collect(),
+            coeffs: r.coeffs,
+        })
         .collect();
-    Ok(Echelon { rows, zero_rows, multiply_adds: multiply_adds.into_inner() })
+    Ok(Echelon {
+        rows,
+        zero_rows,
+        multiply_adds: multiply_adds.into_inner(),
+    })
 }
 
 /// Fully reduces the tails of the first `count` known pivots by all known pivots: with the
@@ -248,7 +313,15 @@ pub fn reduce_tails<F: Field, A: Arith<F>>(
     let pivots = pivot_table(matrix);
     let multiply_adds = AtomicU64::new(0);
     let rows: Vec<&Row<A::C>> = matrix.reducers[..count].iter().collect();
-    let tails = reduce_by_known(arith, matrix.columns.len(), &pivots, &rows, true, control, &multiply_adds)?;
+    let tails = reduce_by_known(
+        arith,
+        matrix.columns.len(),
+        &pivots,
+        &rows,
+        true,
+        control,
+        &multiply_adds,
+    )?;
     Ok(rows
         .iter()
         .zip(tails)

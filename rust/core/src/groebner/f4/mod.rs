@@ -39,7 +39,11 @@ pub struct Options {
 }
 
 /// Reduced Gröbner basis of `gens` and the run's statistics, with default options.
-pub fn compute<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], control: &Control) -> Result<(Vec<Poly<F>>, Stats)> {
+pub fn compute<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    control: &Control,
+) -> Result<(Vec<Poly<F>>, Stats)> {
     compute_with(ring, gens, control, &Options::default())
 }
 
@@ -52,7 +56,8 @@ pub fn compute_with<F: Field>(
 ) -> Result<(Vec<Poly<F>>, Stats)> {
     let run = || dispatch(ring, gens, control, options);
     match control.limits.threads {
-        None => run(),
+        // One thread: no pool at all (the linear algebra then stays on this thread).
+        None | Some(1) => run(),
         Some(0) => Err(Error::invalid("thread count must be at least 1")),
         Some(n) => rayon::ThreadPoolBuilder::new()
             .num_threads(n)
@@ -63,10 +68,19 @@ pub fn compute_with<F: Field>(
 }
 
 /// Picks the coefficient kernel: packed words for GF(p), the field's own arithmetic otherwise.
-fn dispatch<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], control: &Control, options: &Options) -> Result<(Vec<Poly<F>>, Stats)> {
+fn dispatch<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    control: &Control,
+    options: &Options,
+) -> Result<(Vec<Poly<F>>, Stats)> {
     match ring.field.word_modulus() {
-        Some(p) if p < 1 << 16 => Engine::new(ring, SmallPrime::<u16>::new(p), options).run(gens, control),
-        Some(p) if p < 1 << 31 => Engine::new(ring, SmallPrime::<u32>::new(p), options).run(gens, control),
+        Some(p) if p < 1 << 16 => {
+            Engine::new(ring, SmallPrime::<u16>::new(p), options).run(gens, control)
+        }
+        Some(p) if p < 1 << 31 => {
+            Engine::new(ring, SmallPrime::<u32>::new(p), options).run(gens, control)
+        }
         Some(_) => {
             let p = ring.field.word_modulus().unwrap();
             Engine::new(ring, LargePrime::new(p), options).run(gens, control)
@@ -132,18 +146,34 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
         }
         loop {
             control.check()?;
-            let selected = self.pairs.take_lowest_degree(self.options.max_pairs_per_step);
-            let Some(degree) = selected.first().map(|p| p.lcm.degree()) else { break };
+            let selected = self
+                .pairs
+                .take_lowest_degree(self.options.max_pairs_per_step);
+            let Some(degree) = selected.first().map(|p| p.lcm.degree()) else {
+                break;
+            };
             let step = self.stats.steps.len();
             control.check_degree(degree, step)?;
-            let mut stats = StepStats { degree, pairs: selected.len(), ..Default::default() };
+            let mut stats = StepStats {
+                degree,
+                pairs: selected.len(),
+                ..Default::default()
+            };
 
             let clock = Instant::now();
             let (known, new) = self.pair_rows(&selected);
             let divisors = self.divisors(&self.pairs.active_indices());
-            let matrix = symbolic::preprocess(control, &mut self.table, &self.basis, &divisors, &known, &new)?;
+            let matrix = symbolic::preprocess(
+                control,
+                &mut self.table,
+                &self.basis,
+                &divisors,
+                &known,
+                &new,
+            )?;
             stats.seconds_symbolic = clock.elapsed().as_secs_f64();
-            (stats.rows, stats.columns, stats.nonzeros) = (matrix.rows(), matrix.columns.len(), matrix.nonzeros());
+            (stats.rows, stats.columns, stats.nonzeros) =
+                (matrix.rows(), matrix.columns.len(), matrix.nonzeros());
             control.check_matrix(stats.rows, stats.columns, step)?;
 
             let clock = Instant::now();
@@ -154,8 +184,11 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             self.stats.zero_reductions += echelon.zero_rows;
             self.stats.steps.push(stats);
 
-            let mut found: Vec<Element<A::C>> =
-                echelon.rows.into_iter().map(|r| element_of(&matrix, r)).collect();
+            let mut found: Vec<Element<A::C>> = echelon
+                .rows
+                .into_iter()
+                .map(|r| element_of(&matrix, r))
+                .collect();
             if found.iter().any(|e| self.table.degree(e.lead()) == 0) {
                 return Ok(Outcome::Unit);
             }
@@ -198,14 +231,23 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             .iter()
             .map(|&element| {
                 let lead = self.basis[element].lead();
-                Divisor { lead, mask: self.table.mask(lead), element }
+                Divisor {
+                    lead,
+                    mask: self.table.mask(lead),
+                    element,
+                }
             })
             .collect()
     }
 
     fn add_element(&mut self, e: Element<A::C>) {
         let lead = self.table.monomial(e.lead()).clone();
-        let degree = e.monos.iter().map(|&m| self.table.degree(m)).max().unwrap_or(0);
+        let degree = e
+            .monos
+            .iter()
+            .map(|&m| self.table.degree(m))
+            .max()
+            .unwrap_or(0);
         self.pairs.insert(lead, degree);
         self.basis.push(e);
     }
@@ -213,9 +255,19 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
     /// A nonzero input polynomial as a monic element.
     fn import(&mut self, f: &Poly<F>) -> Element<A::C> {
         let field = &self.ring.field;
-        let inv = self.arith.inv(&self.arith.import(field, f.leading_coefficient().unwrap()));
-        let monos = f.terms().iter().map(|(m, _)| self.table.insert(m)).collect();
-        let coeffs = f.terms().iter().map(|(_, c)| self.arith.mul(&self.arith.import(field, c), &inv)).collect();
+        let inv = self
+            .arith
+            .inv(&self.arith.import(field, f.leading_coefficient().unwrap()));
+        let monos = f
+            .terms()
+            .iter()
+            .map(|(m, _)| self.table.insert(m))
+            .collect();
+        let coeffs = f
+            .terms()
+            .iter()
+            .map(|(_, c)| self.arith.mul(&self.arith.import(field, c), &inv))
+            .collect();
         Element { monos, coeffs }
     }
 
@@ -234,20 +286,49 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
     /// more matrix (the minimal elements as known pivots, closed by symbolic preprocessing).
     fn final_basis(&mut self, control: &Control) -> Result<Vec<Poly<F>>> {
         let active = self.pairs.active_indices();
-        let leads: Vec<&Monomial> = active.iter().map(|&k| self.table.monomial(self.basis[k].lead())).collect();
-        let minimal: Vec<usize> = minimal_indices(&leads, &self.ring.order).into_iter().map(|i| active[i]).collect();
+        let leads: Vec<&Monomial> = active
+            .iter()
+            .map(|&k| self.table.monomial(self.basis[k].lead()))
+            .collect();
+        let minimal: Vec<usize> = minimal_indices(&leads, &self.ring.order)
+            .into_iter()
+            .map(|i| active[i])
+            .collect();
         let one = self.table.insert(&Monomial::one(self.ring.nvars()));
-        let known: Vec<Multiple> = minimal.iter().map(|&element| Multiple { mult: one, element }).collect();
+        let known: Vec<Multiple> = minimal
+            .iter()
+            .map(|&element| Multiple { mult: one, element })
+            .collect();
         let divisors = self.divisors(&minimal);
-        let matrix = symbolic::preprocess(control, &mut self.table, &self.basis, &divisors, &known, &[])?;
+        let matrix = symbolic::preprocess(
+            control,
+            &mut self.table,
+            &self.basis,
+            &divisors,
+            &known,
+            &[],
+        )?;
         let rows = linalg::reduce_tails(&self.arith, &matrix, known.len(), control)?;
-        let mut polys: Vec<Poly<F>> = rows.into_iter().map(|r| self.export(&element_of(&matrix, r))).collect();
-        polys.sort_by(|a, b| self.ring.cmp(b.leading_monomial().unwrap(), a.leading_monomial().unwrap()));
+        let mut polys: Vec<Poly<F>> = rows
+            .into_iter()
+            .map(|r| self.export(&element_of(&matrix, r)))
+            .collect();
+        polys.sort_by(|a, b| {
+            self.ring
+                .cmp(b.leading_monomial().unwrap(), a.leading_monomial().unwrap())
+        });
         Ok(polys)
     }
 }
 
 /// A matrix row as a basis element (columns back to monomials).
 fn element_of<C>(matrix: &SymbolicMatrix<C>, row: Row<C>) -> Element<C> {
-    Element { monos: row.cols.iter().map(|&c| matrix.columns[c as usize]).collect(), coeffs: row.coeffs }
+    Element {
+        monos: row
+            .cols
+            .iter()
+            .map(|&c| matrix.columns[c as usize])
+            .collect(),
+        coeffs: row.coeffs,
+    }
 }
