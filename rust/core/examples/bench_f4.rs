@@ -16,10 +16,29 @@ const PRIME: u64 = 65521;
 /// `name@k` runs on k threads. Random quadratics: m = n + 1 (n = 10, 11; n = 14 takes minutes)
 /// and m = 2n (n = 14).
 const DEFAULT: [&str; 13] = [
-    "cyclic-6", "cyclic-7", "cyclic-8", "cyclic-8@2", "katsura-10", "katsura-11", "eco-10", "eco-11", "noon-6",
-    "noon-7", "random-10-11", "random-11-12", "random-14-28",
+    "cyclic-6",
+    "cyclic-7",
+    "cyclic-8",
+    "cyclic-8@2",
+    "katsura-10",
+    "katsura-11",
+    "eco-10",
+    "eco-11",
+    "noon-6",
+    "noon-7",
+    "random-10-11",
+    "random-11-12",
+    "random-14-28",
 ];
-const QUICK: [&str; 7] = ["cyclic-6", "cyclic-7", "katsura-9", "eco-9", "noon-5", "random-8-9", "random-10-20"];
+const QUICK: [&str; 7] = [
+    "cyclic-6",
+    "cyclic-7",
+    "katsura-9",
+    "eco-9",
+    "noon-5",
+    "random-8-9",
+    "random-10-20",
+];
 
 fn system(name: &str) -> Option<System> {
     let (family, size) = name.split_once('-')?;
@@ -38,8 +57,15 @@ fn system(name: &str) -> Option<System> {
 /// Peak resident memory of this process in MB (Linux), 0 if unknown.
 fn peak_memory_mb() -> f64 {
     let status = std::fs::read_to_string("/proc/self/status").unwrap_or_default();
-    let line = status.lines().find(|l| l.starts_with("VmHWM:")).unwrap_or("");
-    let kb: f64 = line.split_whitespace().nth(1).and_then(|v| v.parse().ok()).unwrap_or(0.0);
+    let line = status
+        .lines()
+        .find(|l| l.starts_with("VmHWM:"))
+        .unwrap_or("");
+    let kb: f64 = line
+        .split_whitespace()
+        .nth(1)
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(0.0);
     kb / 1024.0
 }
 
@@ -47,7 +73,8 @@ fn peak_memory_mb() -> f64 {
 fn run_one(name: &str, threads: usize) -> Result<(), String> {
     let sys = system(name).ok_or_else(|| format!("unknown system {name}"))?;
     let field = PrimeField::new(PRIME).map_err(|e| e.to_string())?;
-    let ring = Ring::new(field, sys.vars.clone(), MonomialOrder::Grevlex).map_err(|e| e.to_string())?;
+    let ring =
+        Ring::new(field, sys.vars.clone(), MonomialOrder::Grevlex).map_err(|e| e.to_string())?;
     let gens = sys.polys(&ring).map_err(|e| e.to_string())?;
     let mut control = Control::new();
     control.limits.threads = Some(threads);
@@ -59,13 +86,25 @@ fn run_one(name: &str, threads: usize) -> Result<(), String> {
         for st in &s.steps {
             eprintln!(
                 "  deg {} pairs {} matrix {}x{} nnz {} new {} sym {:.3}s la {:.3}s madds {:.2e}",
-                st.degree, st.pairs, st.rows, st.columns, st.nonzeros, st.new_elements,
-                st.seconds_symbolic, st.seconds_linear_algebra, st.multiply_adds as f64
+                st.degree,
+                st.pairs,
+                st.rows,
+                st.columns,
+                st.nonzeros,
+                st.new_elements,
+                st.seconds_symbolic,
+                st.seconds_linear_algebra,
+                st.multiply_adds as f64
             );
         }
         eprintln!("  zero reductions {}", s.zero_reductions);
     }
-    let largest = s.steps.iter().max_by_key(|st| st.rows * st.columns).cloned().unwrap_or_default();
+    let largest = s
+        .steps
+        .iter()
+        .max_by_key(|st| st.rows * st.columns)
+        .cloned()
+        .unwrap_or_default();
     let la: f64 = s.steps.iter().map(|st| st.seconds_linear_algebra).sum();
     let madds: u64 = s.steps.iter().map(|st| st.multiply_adds).sum();
     println!(
@@ -126,7 +165,10 @@ fn main() {
     if names.is_empty() {
         names.extend(DEFAULT.iter().map(|s| s.to_string()));
     }
-    println!("F4 over GF({PRIME}), grevlex; peak multiply-add rate of this machine: {:.2e}/s", peak_rate());
+    println!(
+        "F4 over GF({PRIME}), grevlex; peak multiply-add rate of this machine: {:.2e}/s",
+        peak_rate()
+    );
     println!("system\tthreads\tseconds\tpeak_MB\tsteps\tmax_deg\tlargest_matrix\tnonzeros\tlin_alg\tmadds/s\tbasis");
     let exe = std::env::current_exe().expect("own path");
     for name in names {
@@ -135,7 +177,9 @@ fn main() {
             Some((s, t)) => (s.to_string(), t.parse().unwrap_or(threads)),
             None => (name.clone(), threads),
         };
-        let status = Command::new(&exe).args(["--one", &sys, &t.to_string()]).status();
+        let status = Command::new(&exe)
+            .args(["--one", &sys, &t.to_string()])
+            .status();
         if !matches!(status, Ok(s) if s.success()) {
             println!("{sys}\t{t}\tfailed");
         }

@@ -32,7 +32,9 @@ fn binomial(n: u128, k: u128) -> u128 {
 fn random_ideal(n: usize, count: usize, lo: u32, hi: u32, seed: u64) -> Vec<Monomial> {
     let mut state = seed;
     let mut next = |m: u64| {
-        state = state.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        state = state
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
         (state >> 33) % m
     };
     (0..count)
@@ -48,17 +50,33 @@ fn random_ideal(n: usize, count: usize, lo: u32, hi: u32, seed: u64) -> Vec<Mono
 }
 
 fn main() {
-    println!("{:40} {:>8} {:>10} {:>12}", "monomial ideal", "gens", "seconds", "degree");
+    println!(
+        "{:40} {:>8} {:>10} {:>12}",
+        "monomial ideal", "gens", "seconds", "degree"
+    );
     for (n, s) in [(5usize, 12u32), (6, 10), (8, 6)] {
         let gens = all_of_degree(n, s);
         let start = Instant::now();
         let series = monomial_ideal_series(n, &gens, false, &Control::new()).unwrap();
         let secs = start.elapsed().as_secs_f64();
         let degree = series.degree().unwrap();
-        assert_eq!(degree as u128, binomial(s as u128 + n as u128 - 1, n as u128));
-        println!("{:40} {:>8} {:>10.4} {:>12}", format!("all of degree {s} in {n} vars"), gens.len(), secs, degree);
+        assert_eq!(
+            degree as u128,
+            binomial(s as u128 + n as u128 - 1, n as u128)
+        );
+        println!(
+            "{:40} {:>8} {:>10.4} {:>12}",
+            format!("all of degree {s} in {n} vars"),
+            gens.len(),
+            secs,
+            degree
+        );
     }
-    for (n, count, lo, hi) in [(10usize, 2000usize, 4u32, 8u32), (12, 5000, 5, 9), (16, 3000, 3, 6)] {
+    for (n, count, lo, hi) in [
+        (10usize, 2000usize, 4u32, 8u32),
+        (12, 5000, 5, 9),
+        (16, 3000, 3, 6),
+    ] {
         let gens = random_ideal(n, count, lo, hi, 1997);
         let start = Instant::now();
         let series = monomial_ideal_series(n, &gens, false, &Control::new()).unwrap();

@@ -67,7 +67,9 @@ impl Control {
         if self.stopped.load(Ordering::Relaxed) {
             return Err(Error::Interrupted);
         }
-        let Some(interrupt) = &self.interrupt else { return Ok(()) };
+        let Some(interrupt) = &self.interrupt else {
+            return Ok(());
+        };
         // Reading the clock on every call would cost more than most callers' work.
         if self.calls.fetch_add(1, Ordering::Relaxed) % 256 != 0 {
             return Ok(());

@@ -68,13 +68,17 @@ struct Search {
 impl Search {
     fn independent_with(&self, set: &VarSet, i: usize) -> bool {
         // Only supports containing i can become subsets by adding i.
-        self.supports.iter().all(|s| !s.contains(i) || !s.is_subset(set))
+        self.supports
+            .iter()
+            .all(|s| !s.contains(i) || !s.is_subset(set))
     }
 
     /// Variables `order[pos..]` still to decide; `set` holds those included.
     fn run(&mut self, order: &[usize], pos: usize, set: &mut VarSet, size: usize, enumerate: bool) {
         let remaining = order.len() - pos;
-        if size + remaining < self.best || (!enumerate && size + remaining == self.best && !self.found.is_empty()) {
+        if size + remaining < self.best
+            || (!enumerate && size + remaining == self.best && !self.found.is_empty())
+        {
             return;
         }
         if self.found.len() >= self.limit && size + remaining <= self.best {
@@ -104,7 +108,13 @@ fn search(n: usize, leads: &[Monomial], enumerate: bool, limit: usize) -> Option
     if leads.iter().any(|m| m.is_one()) {
         return None;
     }
-    let mut s = Search { n, supports: minimal_supports(leads), best: 0, found: vec![], limit };
+    let mut s = Search {
+        n,
+        supports: minimal_supports(leads),
+        best: 0,
+        found: vec![],
+        limit,
+    };
     let order: Vec<usize> = (0..n).rev().collect();
     s.run(&order, 0, &mut VarSet::empty(n), 0, enumerate);
     Some(s)
@@ -123,7 +133,9 @@ pub fn independent_variables(n: usize, leads: &[Monomial]) -> Option<Vec<usize>>
 
 /// Up to `limit` independent sets of largest size, the ones made of later variables first.
 pub fn maximum_independent_sets(n: usize, leads: &[Monomial], limit: usize) -> Vec<Vec<usize>> {
-    search(n, leads, true, limit.max(1)).map(|s| s.found).unwrap_or_default()
+    search(n, leads, true, limit.max(1))
+        .map(|s| s.found)
+        .unwrap_or_default()
 }
 
 #[cfg(test)]
@@ -138,7 +150,10 @@ mod tests {
     fn textbook_dimensions() {
         // in(I) = (xy) in k[x, y]: the coordinate cross, dimension 1, independent {y} or {x}.
         assert_eq!(krull_dimension(2, &[m(&[1, 1])]), 1);
-        assert_eq!(maximum_independent_sets(2, &[m(&[1, 1])], 10), vec![vec![1], vec![0]]);
+        assert_eq!(
+            maximum_independent_sets(2, &[m(&[1, 1])], 10),
+            vec![vec![1], vec![0]]
+        );
         // Zero ideal: all variables; unit ideal: -1; (x^2, y^3): dimension 0.
         assert_eq!(krull_dimension(3, &[]), 3);
         assert_eq!(independent_variables(3, &[]), Some(vec![0, 1, 2]));
@@ -146,7 +161,12 @@ mod tests {
         assert_eq!(krull_dimension(2, &[m(&[2, 0]), m(&[0, 3])]), 0);
         // Twisted cubic, grevlex leading monomials y^2, xz... of (xz - y^2, yw - z^2, xw - yz)
         // in k[x, y, z, w]: the cone has dimension 2 (Cox–Little–O'Shea, from memory).
-        let leads = [m(&[0, 2, 0, 0]), m(&[1, 0, 1, 0]), m(&[0, 1, 1, 0]), m(&[0, 0, 2, 0])];
+        let leads = [
+            m(&[0, 2, 0, 0]),
+            m(&[1, 0, 1, 0]),
+            m(&[0, 1, 1, 0]),
+            m(&[0, 0, 2, 0]),
+        ];
         assert_eq!(krull_dimension(4, &leads), 2);
     }
 

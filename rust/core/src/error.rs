@@ -24,7 +24,10 @@ impl Error {
         Error::InvalidInput(msg.into())
     }
     pub fn parse(msg: impl Into<String>, column: usize) -> Self {
-        Error::Parse { message: msg.into(), column }
+        Error::Parse {
+            message: msg.into(),
+            column,
+        }
     }
 }
 

@@ -9,7 +9,12 @@ use crate::groebner::GroebnerBasis;
 use crate::poly::Poly;
 
 /// The normal form of f^e modulo the basis, e given as little-endian 64-bit limbs.
-pub fn power_modulo<F: Field>(gb: &GroebnerBasis<F>, f: &Poly<F>, exponent: &[u64], control: &Control) -> Result<Poly<F>> {
+pub fn power_modulo<F: Field>(
+    gb: &GroebnerBasis<F>,
+    f: &Poly<F>,
+    exponent: &[u64],
+    control: &Control,
+) -> Result<Poly<F>> {
     let ring = &gb.ring;
     let mut acc = gb.reduce(&ring.one())?;
     let bits = exponent.len() * 64;
@@ -28,6 +33,9 @@ pub fn power_modulo<F: Field>(gb: &GroebnerBasis<F>, f: &Poly<F>, exponent: &[u6
 /// q as limbs for a finite field; an error naming the field otherwise.
 pub fn field_order_limbs<F: Field>(field: &F, what: &str) -> Result<Vec<u64>> {
     field.order_limbs().ok_or_else(|| {
-        Error::invalid(format!("{what} needs a finite field; {} is infinite", field.spec()))
+        Error::invalid(format!(
+            "{what} needs a finite field; {} is infinite",
+            field.spec()
+        ))
     })
 }

@@ -65,9 +65,9 @@ fn tokenize(text: &str) -> Result<Vec<(Tok, usize)>> {
                 continue;
             }
             '0'..='9' => Tok::Int(take_while(&mut i, &|c| c.is_ascii_digit())),
-            c if c.is_ascii_alphabetic() || c == '_' => {
-                Tok::Name(take_while(&mut i, &|c| c.is_ascii_alphanumeric() || c == '_'))
-            }
+            c if c.is_ascii_alphabetic() || c == '_' => Tok::Name(take_while(&mut i, &|c| {
+                c.is_ascii_alphanumeric() || c == '_'
+            })),
             _ => {
                 i += 1;
                 match c {
@@ -82,7 +82,9 @@ fn tokenize(text: &str) -> Result<Vec<(Tok, usize)>> {
                     '^' => Tok::Caret,
                     '(' => Tok::LParen,
                     ')' => Tok::RParen,
-                    other => return Err(Error::parse(format!("unexpected character '{other}'"), col)),
+                    other => {
+                        return Err(Error::parse(format!("unexpected character '{other}'"), col))
+                    }
                 }
             }
         };
@@ -104,14 +106,22 @@ const MAX_DEPTH: usize = 500;
 
 /// Parses `text` as a polynomial of `ring`.
 pub fn parse_poly<F: Field>(ring: &Ring<F>, text: &str) -> Result<Poly<F>> {
-    let mut p = Parser { ring, toks: tokenize(text)?, pos: 0, depth: 0 };
+    let mut p = Parser {
+        ring,
+        toks: tokenize(text)?,
+        pos: 0,
+        depth: 0,
+    };
     if p.peek() == &Tok::End {
         return Err(Error::parse("empty polynomial text", 1));
     }
     let f = p.sum()?;
     match p.peek() {
         Tok::End => Ok(f),
-        Tok::RParen => Err(Error::parse("unbalanced parenthesis: ')' without '('", p.col())),
+        Tok::RParen => Err(Error::parse(
+            "unbalanced parenthesis: ')' without '('",
+            p.col(),
+        )),
         Tok::Int(_) | Tok::Name(_) | Tok::LParen => Err(Error::parse(
             format!("expected an operator before {}", describe(p.peek())),
             p.col(),
@@ -175,7 +185,10 @@ impl<F: Field> Parser<'_, F> {
             return Err(Error::parse("division by a non-constant polynomial", col));
         }
         let field = &self.ring.field;
-        let c = d.leading_coefficient().cloned().unwrap_or_else(|| field.zero());
+        let c = d
+            .leading_coefficient()
+            .cloned()
+            .unwrap_or_else(|| field.zero());
         match field.inv(&c) {
             Some(ci) => Ok(self.ring.scale(f, &ci)),
             None => Err(Error::parse(
@@ -219,17 +232,28 @@ impl<F: Field> Parser<'_, F> {
         let (tok, col) = self.bump();
         let Tok::Int(digits) = tok else {
             return Err(Error::parse(
-                format!("expected a non-negative integer exponent, found {}", describe(&tok)),
+                format!(
+                    "expected a non-negative integer exponent, found {}",
+                    describe(&tok)
+                ),
                 col,
             ));
         };
-        let e: u32 = digits
-            .parse()
-            .map_err(|_| Error::parse(format!("exponent {digits} is too large (at most 2^32 - 1)"), col))?;
+        let e: u32 = digits.parse().map_err(|_| {
+            Error::parse(
+                format!("exponent {digits} is too large (at most 2^32 - 1)"),
+                col,
+            )
+        })?;
         if self.peek() == &Tok::Caret {
-            return Err(Error::parse("chained exponents are ambiguous: use parentheses", self.col()));
+            return Err(Error::parse(
+                "chained exponents are ambiguous: use parentheses",
+                self.col(),
+            ));
         }
-        self.ring.pow(&base, e as u64).map_err(|e| Error::parse(e.to_string(), col))
+        self.ring
+            .pow(&base, e as u64)
+            .map_err(|e| Error::parse(e.to_string(), col))
     }
 
     fn atom(&mut self) -> Result<Poly<F>> {
@@ -242,7 +266,10 @@ impl<F: Field> Parser<'_, F> {
                 match self.bump() {
                     (Tok::RParen, _) => Ok(f),
                     (Tok::End, c) => Err(Error::parse("unbalanced parenthesis: missing ')'", c)),
-                    (t, c) => Err(Error::parse(format!("expected ')' but found {}", describe(&t)), c)),
+                    (t, c) => Err(Error::parse(
+                        format!("expected ')' but found {}", describe(&t)),
+                        c,
+                    )),
                 }
             }
             Tok::End => Err(Error::parse(
@@ -250,7 +277,10 @@ impl<F: Field> Parser<'_, F> {
                 col,
             )),
             t => Err(Error::parse(
-                format!("expected a number, a variable or '(' but found {}", describe(&t)),
+                format!(
+                    "expected a number, a variable or '(' but found {}",
+                    describe(&t)
+                ),
                 col,
             )),
         }
@@ -265,7 +295,10 @@ impl<F: Field> Parser<'_, F> {
             return Ok(self.ring.constant(field.generator().expect("generator")));
         }
         Err(Error::parse(
-            format!("unknown variable '{name}' (the ring has {})", self.ring.names().join(", ")),
+            format!(
+                "unknown variable '{name}' (the ring has {})",
+                self.ring.names().join(", ")
+            ),
             col,
         ))
     }
@@ -306,17 +339,35 @@ mod tests {
 
     #[test]
     fn errors_name_what_and_where() {
-        assert_eq!(err("x + w"), ("unknown variable 'w' (the ring has x, y, z)".into(), 5));
-        assert_eq!(err("(x + y"), ("unbalanced parenthesis: missing ')'".into(), 7));
-        assert_eq!(err("x + y)"), ("unbalanced parenthesis: ')' without '('".into(), 6));
-        assert_eq!(err("1/7*x"), ("division by zero (the divisor is 0 in GF(7))".into(), 2));
+        assert_eq!(
+            err("x + w"),
+            ("unknown variable 'w' (the ring has x, y, z)".into(), 5)
+        );
+        assert_eq!(
+            err("(x + y"),
+            ("unbalanced parenthesis: missing ')'".into(), 7)
+        );
+        assert_eq!(
+            err("x + y)"),
+            ("unbalanced parenthesis: ')' without '('".into(), 6)
+        );
+        assert_eq!(
+            err("1/7*x"),
+            ("division by zero (the divisor is 0 in GF(7))".into(), 2)
+        );
         assert_eq!(
             err("x +"),
-            ("unexpected end of input: expected a number, a variable or '('".into(), 4)
+            (
+                "unexpected end of input: expected a number, a variable or '('".into(),
+                4
+            )
         );
         assert_eq!(err("2x").1, 2);
         assert_eq!(err("x / y").0, "division by a non-constant polynomial");
-        assert_eq!(err("x^y").0, "expected a non-negative integer exponent, found name 'y'");
+        assert_eq!(
+            err("x^y").0,
+            "expected a non-negative integer exponent, found name 'y'"
+        );
         assert_eq!(err("x ? y"), ("unexpected character '?'".into(), 3));
         assert_eq!(err("").0, "empty polynomial text");
         assert!(err("x^99999999999").0.contains("too large"));

@@ -14,19 +14,24 @@
 //! dehomogenized ideals on the charts add up without double counting.
 
 use crate::control::Control;
+use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::frobenius::{field_order_limbs, power_modulo};
+use crate::groebner::GroebnerBasis;
 use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
-use crate::dimension::{krull_dimension, maximum_independent_sets};
-use crate::groebner::GroebnerBasis;
 use crate::zerodim::linear::Echelon;
 use crate::zerodim::{maximal, vector_space_dimension, Quotient};
 
 /// Number of points of V(gens) in GF(q)^n.
-pub fn count_affine_points<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], engine: Engine, control: &Control) -> Result<u128> {
+pub fn count_affine_points<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    engine: Engine,
+    control: &Control,
+) -> Result<u128> {
     // The count does not depend on the order; grevlex keeps the bases small.
     let r = ring.with_order(MonomialOrder::Grevlex)?;
     let gens: Vec<Poly<F>> = gens.iter().map(|g| r.adopt(g.clone())).collect();
@@ -44,7 +49,9 @@ pub fn count_affine_points<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], engine: E
         }
         // The field equation of an independent variable cuts the dimension; once the ideal is
         // finite, the remaining equations cost only linear algebra in the quotient.
-        let Some(var) = next_variable(&gb, &has_equation) else { return vector_space_dimension(&gb, control) };
+        let Some(var) = next_variable(&gb, &has_equation) else {
+            return vector_space_dimension(&gb, control);
+        };
         has_equation[var] = true;
         let image = power_modulo(&gb, &r.var(var), &q, control)?;
         let mut with_equation = gb.polys.clone();
@@ -59,24 +66,39 @@ pub fn count_affine_points<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], engine: E
 fn next_variable<F: Field>(gb: &GroebnerBasis<F>, has_equation: &[bool]) -> Option<usize> {
     let n = has_equation.len();
     let degree_in = |i: usize| {
-        gb.polys.iter().flat_map(|g| g.terms().iter().map(move |(m, _)| m.exponents()[i])).max().unwrap_or(0)
+        gb.polys
+            .iter()
+            .flat_map(|g| g.terms().iter().map(move |(m, _)| m.exponents()[i]))
+            .max()
+            .unwrap_or(0)
     };
-    let mut candidates: Vec<usize> =
-        maximum_independent_sets(n, &gb.leading_monomials(), 16).into_iter().flatten().collect();
+    let mut candidates: Vec<usize> = maximum_independent_sets(n, &gb.leading_monomials(), 16)
+        .into_iter()
+        .flatten()
+        .collect();
     candidates.retain(|&i| !has_equation[i]);
-    candidates.into_iter().min_by_key(|&i| (degree_in(i), n - i)).or_else(|| (0..n).find(|&i| !has_equation[i]))
+    candidates
+        .into_iter()
+        .min_by_key(|&i| (degree_in(i), n - i))
+        .or_else(|| (0..n).find(|&i| !has_equation[i]))
 }
 
 /// For zero-dimensional I: dim_k A/(x_i^q − x_i)A with A = R/I, by linear algebra in A instead
 /// of a second basis. The ideal (x_i^q − x_i)A is spanned by the products (x_i^q − x_i)·b over
 /// the standard monomials b.
-fn rational_points_of_finite_set<F: Field>(gb: GroebnerBasis<F>, control: &Control) -> Result<u128> {
+fn rational_points_of_finite_set<F: Field>(
+    gb: GroebnerBasis<F>,
+    control: &Control,
+) -> Result<u128> {
     let quotient = Quotient::new(gb, control)?;
     let ring = &quotient.basis.ring;
     let field = &ring.field;
     let d = quotient.dimension();
     let mut span = Echelon::span(field.clone());
-    for (i, image) in maximal::frobenius_coordinates(&quotient, control)?.into_iter().enumerate() {
+    for (i, image) in maximal::frobenius_coordinates(&quotient, control)?
+        .into_iter()
+        .enumerate()
+    {
         let x = quotient.coordinates(&ring.var(i))?;
         let g: Vec<F::Elem> = image.iter().zip(&x).map(|(a, b)| field.sub(a, b)).collect();
         for w in quotient.multiples(&g, control)? {
@@ -91,7 +113,12 @@ fn rational_points_of_finite_set<F: Field>(gb: GroebnerBasis<F>, control: &Contr
 }
 
 /// Number of points of the projective variety of homogeneous `gens` in P^{n−1}(GF(q)).
-pub fn count_projective_points<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], engine: Engine, control: &Control) -> Result<u128> {
+pub fn count_projective_points<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    engine: Engine,
+    control: &Control,
+) -> Result<u128> {
     field_order_limbs(&ring.field, "count_points")?;
     if let Some(k) = gens.iter().position(|g| !g.is_homogeneous()) {
         return Err(Error::invalid(format!(
@@ -110,7 +137,13 @@ pub fn count_projective_points<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], engin
 }
 
 /// Points with x_0 = … = x_{j−1} = 0 and x_j = 1.
-fn count_on_chart<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], j: usize, engine: Engine, control: &Control) -> Result<u128> {
+fn count_on_chart<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    j: usize,
+    engine: Engine,
+    control: &Control,
+) -> Result<u128> {
     let n = ring.nvars();
     let field = &ring.field;
     if j + 1 == n {
@@ -123,7 +156,11 @@ fn count_on_chart<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], j: usize, engine: 
         }
         return Ok(1);
     }
-    let chart = Ring::new(field.clone(), ring.names()[j + 1..].to_vec(), MonomialOrder::Grevlex)?;
+    let chart = Ring::new(
+        field.clone(),
+        ring.names()[j + 1..].to_vec(),
+        MonomialOrder::Grevlex,
+    )?;
     let images: Vec<Poly<F>> = (0..n)
         .map(|k| match k.cmp(&j) {
             std::cmp::Ordering::Less => Poly::zero(),
@@ -131,7 +168,10 @@ fn count_on_chart<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], j: usize, engine: 
             std::cmp::Ordering::Greater => chart.var(k - j - 1),
         })
         .collect();
-    let dehomogenized: Vec<Poly<F>> = gens.iter().map(|g| ring.substitute(g, &images, &chart)).collect::<Result<_>>()?;
+    let dehomogenized: Vec<Poly<F>> = gens
+        .iter()
+        .map(|g| ring.substitute(g, &images, &chart))
+        .collect::<Result<_>>()?;
     count_affine_points(&chart, &dehomogenized, engine, control)
 }
 

@@ -47,7 +47,9 @@ impl<F: Field> Poly<F> {
         self.terms.iter().map(|t| t.0.degree()).max()
     }
     pub fn is_homogeneous(&self) -> bool {
-        self.terms.windows(2).all(|w| w[0].0.degree() == w[1].0.degree())
+        self.terms
+            .windows(2)
+            .all(|w| w[0].0.degree() == w[1].0.degree())
     }
     pub fn is_constant(&self) -> bool {
         self.terms.iter().all(|t| t.0.is_one())
@@ -63,7 +65,12 @@ impl<F: Field> Poly<F> {
     }
     /// The leading term and the rest (`self` must be nonzero).
     pub fn split_lead(&self) -> ((Monomial, F::Elem), Poly<F>) {
-        (self.terms[0].clone(), Poly { terms: self.terms[1..].to_vec() })
+        (
+            self.terms[0].clone(),
+            Poly {
+                terms: self.terms[1..].to_vec(),
+            },
+        )
     }
 }
 
@@ -100,7 +107,11 @@ impl<F: Field> Ring<F> {
             }
         }
         order.validate(names.len())?;
-        Ok(Ring { field, names, order })
+        Ok(Ring {
+            field,
+            names,
+            order,
+        })
     }
 
     pub fn nvars(&self) -> usize {
@@ -131,7 +142,9 @@ impl<F: Field> Ring<F> {
         if self.field.is_zero(&c) {
             Poly::zero()
         } else {
-            Poly { terms: vec![(m, c)] }
+            Poly {
+                terms: vec![(m, c)],
+            }
         }
     }
     pub fn var(&self, i: usize) -> Poly<F> {
@@ -149,7 +162,10 @@ impl<F: Field> Ring<F> {
                 }
             }
         }
-        let mut terms: Vec<_> = acc.into_iter().filter(|(_, c)| !self.field.is_zero(c)).collect();
+        let mut terms: Vec<_> = acc
+            .into_iter()
+            .filter(|(_, c)| !self.field.is_zero(c))
+            .collect();
         terms.sort_by(|a, b| self.cmp(&b.0, &a.0));
         Poly { terms }
     }
@@ -162,7 +178,13 @@ impl<F: Field> Ring<F> {
     }
 
     /// f + c·m·g, the workhorse of reduction: one merge of two sorted lists.
-    pub fn add_scaled(&self, f: &Poly<F>, c: &F::Elem, m: &Monomial, g: &Poly<F>) -> Result<Poly<F>> {
+    pub fn add_scaled(
+        &self,
+        f: &Poly<F>,
+        c: &F::Elem,
+        m: &Monomial,
+        g: &Poly<F>,
+    ) -> Result<Poly<F>> {
         let mut out = Vec::with_capacity(f.len() + g.len());
         let mut it_g = g.terms.iter().peekable();
         let mut shifted = |t: &(Monomial, F::Elem)| -> Result<(Monomial, F::Elem)> {
@@ -209,29 +231,46 @@ impl<F: Field> Ring<F> {
 
     pub fn add(&self, f: &Poly<F>, g: &Poly<F>) -> Poly<F> {
         let one = Monomial::one(self.nvars());
-        self.add_scaled(f, &self.field.one(), &one, g).expect("multiplying by 1 cannot overflow")
+        self.add_scaled(f, &self.field.one(), &one, g)
+            .expect("multiplying by 1 cannot overflow")
     }
     pub fn sub(&self, f: &Poly<F>, g: &Poly<F>) -> Poly<F> {
         let one = Monomial::one(self.nvars());
         let m1 = self.field.neg(&self.field.one());
-        self.add_scaled(f, &m1, &one, g).expect("multiplying by 1 cannot overflow")
+        self.add_scaled(f, &m1, &one, g)
+            .expect("multiplying by 1 cannot overflow")
     }
     pub fn neg(&self, f: &Poly<F>) -> Poly<F> {
-        Poly { terms: f.terms.iter().map(|(m, c)| (m.clone(), self.field.neg(c))).collect() }
+        Poly {
+            terms: f
+                .terms
+                .iter()
+                .map(|(m, c)| (m.clone(), self.field.neg(c)))
+                .collect(),
+        }
     }
     pub fn scale(&self, f: &Poly<F>, c: &F::Elem) -> Poly<F> {
         if self.field.is_zero(c) {
             return Poly::zero();
         }
-        Poly { terms: f.terms.iter().map(|(m, a)| (m.clone(), self.field.mul(a, c))).collect() }
+        Poly {
+            terms: f
+                .terms
+                .iter()
+                .map(|(m, a)| (m.clone(), self.field.mul(a, c)))
+                .collect(),
+        }
     }
     /// c·m·f (order is preserved by multiplication with a monomial).
     pub fn mul_term(&self, f: &Poly<F>, c: &F::Elem, m: &Monomial) -> Result<Poly<F>> {
         if self.field.is_zero(c) {
             return Ok(Poly::zero());
         }
-        let terms: Result<Vec<_>> =
-            f.terms.iter().map(|(a, x)| Ok((a.mul(m)?, self.field.mul(x, c)))).collect();
+        let terms: Result<Vec<_>> = f
+            .terms
+            .iter()
+            .map(|(a, x)| Ok((a.mul(m)?, self.field.mul(x, c))))
+            .collect();
         Ok(Poly { terms: terms? })
     }
     pub fn mul(&self, f: &Poly<F>, g: &Poly<F>) -> Result<Poly<F>> {
@@ -293,7 +332,10 @@ impl<F: Field> Ring<F> {
         if images.len() != self.nvars() {
             return Err(Error::invalid("substitution needs one image per variable"));
         }
-        let mut powers: Vec<Vec<Poly<F>>> = images.iter().map(|g| vec![target.one(), g.clone()]).collect();
+        let mut powers: Vec<Vec<Poly<F>>> = images
+            .iter()
+            .map(|g| vec![target.one(), g.clone()])
+            .collect();
         let mut acc = Poly::zero();
         for (m, c) in &f.terms {
             let mut t = target.constant(c.clone());
@@ -331,7 +373,11 @@ impl<F: Field> Ring<F> {
             } else {
                 out.push_str(if negative { " - " } else { " + " });
             }
-            let magnitude = if is_atom(&magnitude) { magnitude } else { format!("({magnitude})") };
+            let magnitude = if is_atom(&magnitude) {
+                magnitude
+            } else {
+                format!("({magnitude})")
+            };
             if m.is_one() {
                 out.push_str(&magnitude);
             } else if magnitude == "1" {

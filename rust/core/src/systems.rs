@@ -37,13 +37,23 @@ pub fn cyclic(n: usize) -> System {
     let vars = names("x", 0..n);
     let mut equations: Vec<String> = (1..n)
         .map(|k| {
-            let terms: Vec<String> =
-                (0..n).map(|i| (0..k).map(|j| vars[(i + j) % n].clone()).collect::<Vec<_>>().join("*")).collect();
+            let terms: Vec<String> = (0..n)
+                .map(|i| {
+                    (0..k)
+                        .map(|j| vars[(i + j) % n].clone())
+                        .collect::<Vec<_>>()
+                        .join("*")
+                })
+                .collect();
             terms.join(" + ")
         })
         .collect();
     equations.push(format!("{} - 1", vars.join("*")));
-    System { name: format!("cyclic-{n}"), vars, equations }
+    System {
+        name: format!("cyclic-{n}"),
+        vars,
+        equations,
+    }
 }
 
 /// katsura-n: unknowns u_0..u_n with u_{-l} = u_l and u_l = 0 for |l| > n;
@@ -51,16 +61,23 @@ pub fn cyclic(n: usize) -> System {
 pub fn katsura(n: usize) -> System {
     let vars = names("u", 0..n + 1);
     let n = n as i64;
-    let u = |l: i64| -> Option<&String> { vars.get(l.unsigned_abs() as usize).filter(|_| l.abs() <= n) };
+    let u = |l: i64| -> Option<&String> {
+        vars.get(l.unsigned_abs() as usize).filter(|_| l.abs() <= n)
+    };
     let mut equations = Vec::new();
     let linear: Vec<String> = (-n..=n).filter_map(|l| u(l).cloned()).collect();
     equations.push(format!("{} - 1", linear.join(" + ")));
     for m in 0..n {
-        let products: Vec<String> =
-            (-n..=n).filter_map(|l| Some(format!("{}*{}", u(l)?, u(m - l)?))).collect();
+        let products: Vec<String> = (-n..=n)
+            .filter_map(|l| Some(format!("{}*{}", u(l)?, u(m - l)?)))
+            .collect();
         equations.push(format!("{} - {}", products.join(" + "), vars[m as usize]));
     }
-    System { name: format!("katsura-{n}"), vars, equations }
+    System {
+        name: format!("katsura-{n}"),
+        vars,
+        equations,
+    }
 }
 
 /// eco-n: unknowns x_1..x_n; for k = 1..n-1: (x_k + sum_{i=1}^{n-k-1} x_i x_{i+k}) x_n - k,
@@ -77,7 +94,11 @@ pub fn eco(n: usize) -> System {
         .collect();
     let linear: Vec<String> = (1..n).map(x).collect();
     equations.push(format!("{} + 1", linear.join(" + ")));
-    System { name: format!("eco-{n}"), vars, equations }
+    System {
+        name: format!("eco-{n}"),
+        vars,
+        equations,
+    }
 }
 
 /// noon-n: for i = 1..n, x_i (sum_{j ≠ i} x_j^2) - 1.1 x_i + 1, written times 10 to keep
@@ -86,11 +107,22 @@ pub fn noon(n: usize) -> System {
     let vars = names("x", 1..n + 1);
     let equations = (0..n)
         .map(|i| {
-            let squares: Vec<String> = (0..n).filter(|&j| j != i).map(|j| format!("{}^2", vars[j])).collect();
-            format!("10*{v}*({}) - 11*{v} + 10", squares.join(" + "), v = vars[i])
+            let squares: Vec<String> = (0..n)
+                .filter(|&j| j != i)
+                .map(|j| format!("{}^2", vars[j]))
+                .collect();
+            format!(
+                "10*{v}*({}) - 11*{v} + 10",
+                squares.join(" + "),
+                v = vars[i]
+            )
         })
         .collect();
-    System { name: format!("noon-{n}"), vars, equations }
+    System {
+        name: format!("noon-{n}"),
+        vars,
+        equations,
+    }
 }
 
 /// m dense quadratic polynomials in n variables (every monomial of degree ≤ 2), coefficients
@@ -114,9 +146,19 @@ pub fn random_quadratic(n: usize, m: usize, seed: u64) -> System {
     monomials.extend(vars.iter().cloned());
     monomials.push("1".into());
     let equations = (0..m)
-        .map(|_| monomials.iter().map(|t| format!("{}*{t}", next())).collect::<Vec<_>>().join(" + "))
+        .map(|_| {
+            monomials
+                .iter()
+                .map(|t| format!("{}*{t}", next()))
+                .collect::<Vec<_>>()
+                .join(" + ")
+        })
         .collect();
-    System { name: format!("random-quadratic-{n}-{m}"), vars, equations }
+    System {
+        name: format!("random-quadratic-{n}-{m}"),
+        vars,
+        equations,
+    }
 }
 
 #[cfg(test)]
@@ -126,14 +168,23 @@ mod tests {
     #[test]
     fn shapes_of_the_systems() {
         let c = cyclic(3);
-        assert_eq!(c.equations, vec!["x0 + x1 + x2", "x0*x1 + x1*x2 + x2*x0", "x0*x1*x2 - 1"]);
+        assert_eq!(
+            c.equations,
+            vec!["x0 + x1 + x2", "x0*x1 + x1*x2 + x2*x0", "x0*x1*x2 - 1"]
+        );
         let k = katsura(2);
         assert_eq!(k.vars, vec!["u0", "u1", "u2"]);
         assert_eq!(k.equations[0], "u2 + u1 + u0 + u1 + u2 - 1");
         assert_eq!(k.equations.len(), 3);
         let e = eco(3);
-        assert_eq!(e.equations, vec!["(x1 + x1*x2)*x3 - 1", "(x2)*x3 - 2", "x1 + x2 + 1"]);
-        assert_eq!(noon(2).equations, vec!["10*x1*(x2^2) - 11*x1 + 10", "10*x2*(x1^2) - 11*x2 + 10"]);
+        assert_eq!(
+            e.equations,
+            vec!["(x1 + x1*x2)*x3 - 1", "(x2)*x3 - 2", "x1 + x2 + 1"]
+        );
+        assert_eq!(
+            noon(2).equations,
+            vec!["10*x1*(x2^2) - 11*x1 + 10", "10*x2*(x1^2) - 11*x2 + 10"]
+        );
         let q = random_quadratic(3, 4, 1);
         assert_eq!(q.equations.len(), 4);
         assert_eq!(q.equations[0].matches('+').count(), 9);

@@ -48,10 +48,17 @@ impl<const N: usize> BigPrimeField<N> {
             return Err(Error::invalid(format!("GF({p}): {p} is not a prime{why}")));
         }
         let mont = Montgomery::<N>::new(p).ok_or_else(|| {
-            Error::invalid(format!("GF({p}): the prime needs more than {} bits", 64 * N))
+            Error::invalid(format!(
+                "GF({p}): the prime needs more than {} bits",
+                64 * N
+            ))
         })?;
         let half = to_limbs::<N>(&(p >> 1u32)).expect("fits");
-        Ok(BigPrimeField { mont, p: p.clone(), half })
+        Ok(BigPrimeField {
+            mont,
+            p: p.clone(),
+            half,
+        })
     }
 
     pub fn modulus(&self) -> &BigUint {
@@ -60,7 +67,8 @@ impl<const N: usize> BigPrimeField<N> {
 
     /// The element of an ordinary value x (any size; reduced mod p).
     pub fn from_biguint(&self, x: &BigUint) -> Limbs<N> {
-        self.mont.enter(&to_limbs::<N>(&(x % &self.p)).expect("reduced"))
+        self.mont
+            .enter(&to_limbs::<N>(&(x % &self.p)).expect("reduced"))
     }
     /// The ordinary value in [0, p) of an element.
     pub fn to_biguint(&self, a: &Limbs<N>) -> BigUint {
@@ -189,11 +197,17 @@ mod tests {
         assert_eq!(f.to_biguint(&f.add(&x, &y)), (a + b) % p);
         assert_eq!(f.to_biguint(&f.sub(&x, &y)), (a % p + p - b % p) % p);
         assert_eq!(f.mul(&f.mul(&x, &y), &z), f.mul(&x, &f.mul(&y, &z)));
-        assert_eq!(f.mul(&x, &f.add(&y, &z)), f.add(&f.mul(&x, &y), &f.mul(&x, &z)));
+        assert_eq!(
+            f.mul(&x, &f.add(&y, &z)),
+            f.add(&f.mul(&x, &y), &f.mul(&x, &z))
+        );
         if !f.is_zero(&x) {
             assert!(f.is_one(&f.mul(&x, &f.inv(&x).unwrap())));
         }
-        assert_eq!(f.to_biguint(&f.pow(&x, 65537)), a.modpow(&BigUint::from(65537u32), p));
+        assert_eq!(
+            f.to_biguint(&f.pow(&x, 65537)),
+            a.modpow(&BigUint::from(65537u32), p)
+        );
         let text = f.format(&x);
         let back = match text.strip_prefix('-') {
             Some(t) => f.neg(&f.from_decimal(t)),
@@ -224,14 +238,26 @@ mod tests {
         let m1 = f.from_i64(-1);
         assert_eq!(f.format(&m1), "-1");
         assert_eq!(f.mul(&m1, &m1), f.one());
-        assert_eq!(f.format(&f.from_decimal("57896044618658097711785492504343953926634992332820282019728792003956564819949")), "0");
-        assert_eq!(f.characteristic(), "57896044618658097711785492504343953926634992332820282019728792003956564819949");
+        assert_eq!(
+            f.format(&f.from_decimal(
+                "57896044618658097711785492504343953926634992332820282019728792003956564819949"
+            )),
+            "0"
+        );
+        assert_eq!(
+            f.characteristic(),
+            "57896044618658097711785492504343953926634992332820282019728792003956564819949"
+        );
         // A prime just above 2^63 (2^63 + 29, from sympy.nextprime(2^63), from memory) on 2 limbs.
         let small = BigPrimeField::<2>::new(&(two_pow(63) + 29u32)).unwrap();
         assert_eq!(small.characteristic_u64(), Some((1 << 63) + 29));
-        let e = BigPrimeField::<4>::new(&(two_pow(255) - 21u32)).unwrap_err().to_string();
+        let e = BigPrimeField::<4>::new(&(two_pow(255) - 21u32))
+            .unwrap_err()
+            .to_string();
         assert!(e.contains("is not a prime"), "{e}");
-        let e = BigPrimeField::<2>::new(&(two_pow(255) - 19u32)).unwrap_err().to_string();
+        let e = BigPrimeField::<2>::new(&(two_pow(255) - 19u32))
+            .unwrap_err()
+            .to_string();
         assert!(e.contains("more than 128 bits"), "{e}");
     }
 }

@@ -120,7 +120,9 @@ fn selfridge_parameters(n: &BigUint) -> Option<i64> {
 }
 
 fn strong_lucas<const N: usize>(m: &Montgomery<N>, n: &BigUint) -> bool {
-    let Some(d) = selfridge_parameters(n) else { return false };
+    let Some(d) = selfridge_parameters(n) else {
+        return false;
+    };
     let signed = |v: i64| {
         let x = m.enter(&to_limbs::<N>(&BigUint::from(v.unsigned_abs())).unwrap());
         if v < 0 {
@@ -202,7 +204,9 @@ mod tests {
         assert!(!is_probable_prime(&(two.pow(256) - 1u32)));
         assert!(!is_probable_prime(&(&m127 * &p25519)));
         assert!(!is_probable_prime(&(&m127 * &m127)));
-        assert!(!is_probable_prime(&(big("18446744073709551557") * big("18446744073709551533"))));
+        assert!(!is_probable_prime(
+            &(big("18446744073709551557") * big("18446744073709551533"))
+        ));
     }
 
     #[test]
@@ -226,10 +230,15 @@ mod tests {
     fn strong_lucas_pseudoprimes_pass_lucas_and_fail_miller_rabin() {
         // The first strong Lucas pseudoprimes for Selfridge's parameters (OEIS A217255, from
         // memory): composite, yet they pass the strong Lucas test; Miller–Rabin catches them.
-        for n in [5459u64, 5777, 10877, 16109, 18971, 22499, 24569, 25199, 40309, 58519] {
+        for n in [
+            5459u64, 5777, 10877, 16109, 18971, 22499, 24569, 25199, 40309, 58519,
+        ] {
             let big = BigUint::from(n);
             let m = Montgomery::<1>::new(&big).unwrap();
-            assert!(strong_lucas(&m, &big), "{n} should pass the strong Lucas test");
+            assert!(
+                strong_lucas(&m, &big),
+                "{n} should pass the strong Lucas test"
+            );
             assert!(!miller_rabin(&m, &big), "{n}");
         }
         // Strong pseudoprimes to base 2 (2047 = 23·89, 3277, 4033) fail the Lucas part.
@@ -242,9 +251,18 @@ mod tests {
 
     #[test]
     fn prime_powers() {
-        assert_eq!(prime_power(&BigUint::from(256u32)), Some((BigUint::from(2u8), 8)));
-        assert_eq!(prime_power(&BigUint::from(9u32)), Some((BigUint::from(3u8), 2)));
-        assert_eq!(prime_power(&BigUint::from(7u32)), Some((BigUint::from(7u8), 1)));
+        assert_eq!(
+            prime_power(&BigUint::from(256u32)),
+            Some((BigUint::from(2u8), 8))
+        );
+        assert_eq!(
+            prime_power(&BigUint::from(9u32)),
+            Some((BigUint::from(3u8), 2))
+        );
+        assert_eq!(
+            prime_power(&BigUint::from(7u32)),
+            Some((BigUint::from(7u8), 1))
+        );
         assert_eq!(prime_power(&BigUint::from(12u32)), None);
         assert_eq!(prime_power(&BigUint::from(1u32)), None);
         let p = BigUint::from((1u64 << 61) - 1);

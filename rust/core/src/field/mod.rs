@@ -8,8 +8,8 @@ mod bigprime;
 pub mod bpsw;
 pub mod extension;
 pub mod montgomery;
-mod prime;
 pub mod primality;
+mod prime;
 mod rational;
 mod spec;
 

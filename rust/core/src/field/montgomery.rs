@@ -74,7 +74,10 @@ pub fn to_limbs<const N: usize>(x: &BigUint) -> Option<Limbs<N>> {
 }
 
 pub fn from_limbs(x: &[u64]) -> BigUint {
-    let words: Vec<u32> = x.iter().flat_map(|w| [*w as u32, (*w >> 32) as u32]).collect();
+    let words: Vec<u32> = x
+        .iter()
+        .flat_map(|w| [*w as u32, (*w >> 32) as u32])
+        .collect();
     BigUint::new(words)
 }
 
@@ -90,7 +93,12 @@ impl<const N: usize> Montgomery<N> {
         for _ in 0..6 {
             inv = inv.wrapping_mul(2u64.wrapping_sub(limbs[0].wrapping_mul(inv)));
         }
-        let mut m = Montgomery { n: limbs, n_inv_neg: inv.wrapping_neg(), r1: [0; N], r2: [0; N] };
+        let mut m = Montgomery {
+            n: limbs,
+            n_inv_neg: inv.wrapping_neg(),
+            r1: [0; N],
+            r2: [0; N],
+        };
         // 2^(64N) and 2^(128N) mod n by doubling from 1: no division needed.
         let mut x = [0u64; N];
         x[0] = 1;
@@ -140,7 +148,11 @@ impl<const N: usize> Montgomery<N> {
 
     /// a / 2 mod n (valid in and out of Montgomery form: halving commutes with scaling by R).
     pub fn half(&self, a: &Limbs<N>) -> Limbs<N> {
-        let (x, top) = if a[0] & 1 == 1 { add_with_carry(a, &self.n) } else { (*a, false) };
+        let (x, top) = if a[0] & 1 == 1 {
+            add_with_carry(a, &self.n)
+        } else {
+            (*a, false)
+        };
         let mut out = [0u64; N];
         for i in 0..N {
             let next = if i + 1 < N { x[i + 1] } else { top as u64 };

@@ -72,7 +72,7 @@ mod tests {
         assert!(is_prime((1 << 61) - 1));
         assert!(is_prime((1 << 63) - 25));
         assert!(is_prime(18446744073709551557)); // largest 64-bit prime (same tables)
-        // Strong pseudoprime to bases 2..37 products and Carmichael numbers are composite.
+                                                 // Strong pseudoprime to bases 2..37 products and Carmichael numbers are composite.
         assert!(!is_prime(561));
         assert!(!is_prime(3_215_031_751)); // spsp to bases 2, 3, 5, 7 (Pomerance et al. 1980)
         assert!(!is_prime(((1u64 << 31) - 1) * ((1u64 << 31) - 1)));

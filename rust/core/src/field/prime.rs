@@ -41,7 +41,11 @@ impl PrimeField {
             return Err(Error::invalid(format!("GF({p}): {p} is not a prime{why}")));
         }
         let mu = u128::MAX / p as u128 + u128::from(u128::MAX % p as u128 == p as u128 - 1);
-        Ok(PrimeField { p, mu_hi: (mu >> 64) as u64, mu_lo: mu as u64 })
+        Ok(PrimeField {
+            p,
+            mu_hi: (mu >> 64) as u64,
+            mu_lo: mu as u64,
+        })
     }
 
     #[inline]

@@ -138,7 +138,12 @@ mod tests {
 
     #[test]
     fn fractions_print_and_read_back() {
-        let r = Ring::new(RationalField, vec!["x".into(), "y".into()], MonomialOrder::Grevlex).unwrap();
+        let r = Ring::new(
+            RationalField,
+            vec!["x".into(), "y".into()],
+            MonomialOrder::Grevlex,
+        )
+        .unwrap();
         let f = parse_poly(&r, "3/4*x^2 - 6/8*y + 1000000000000000000000000000001/3").unwrap();
         let text = r.format(&f);
         assert_eq!(text, "3/4*x^2 - 3/4*y + 1000000000000000000000000000001/3");

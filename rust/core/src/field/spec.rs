@@ -7,7 +7,10 @@
 //! q ≤ 2^16, [`BinaryField`] for GF(2^k) up to k = 64, else [`ExtensionField`]; `QQ` → [`RationalField`].
 
 use super::bpsw;
-use super::{BigPrimeField, BinaryField, ExtensionField, Field, Modulus, PrimeField, RationalField, TableField};
+use super::{
+    BigPrimeField, BinaryField, ExtensionField, Field, Modulus, PrimeField, RationalField,
+    TableField,
+};
 use crate::error::{Error, Result};
 use num_bigint::BigUint;
 use num_traits::ToPrimitive;
@@ -56,7 +59,11 @@ impl AnyField {
         let inner = text
             .strip_prefix("GF(")
             .and_then(|t| t.strip_suffix(')'))
-            .ok_or_else(|| Error::invalid(format!("unknown field spec '{spec}': expected {SPEC_FORMS}")))?;
+            .ok_or_else(|| {
+                Error::invalid(format!(
+                    "unknown field spec '{spec}': expected {SPEC_FORMS}"
+                ))
+            })?;
         let (order, modulus) = match inner.split_once(',') {
             None => (inner.trim(), None),
             Some((order, rest)) => (order.trim(), Some(parse_modulus_option(spec, rest)?)),
@@ -79,10 +86,15 @@ impl AnyField {
             Some((base, exp)) => {
                 let p = number(base)?;
                 let k = number(exp)?.to_u32().filter(|&k| k >= 1).ok_or_else(|| {
-                    Error::invalid(format!("field spec '{spec}': the exponent must be between 1 and 2^32 - 1"))
+                    Error::invalid(format!(
+                        "field spec '{spec}': the exponent must be between 1 and 2^32 - 1"
+                    ))
                 })?;
                 if !bpsw::is_probable_prime(&p) {
-                    return Err(Error::invalid(format!("field spec '{spec}': {p} is not a prime{}", factor_note(&p))));
+                    return Err(Error::invalid(format!(
+                        "field spec '{spec}': {p} is not a prime{}",
+                        factor_note(&p)
+                    )));
                 }
                 (p, k)
             }
@@ -159,7 +171,11 @@ fn factor_note(n: &BigUint) -> String {
 
 /// `modulus='...'` (or double quotes) after the comma; returns the quoted text.
 fn parse_modulus_option<'a>(spec: &str, rest: &'a str) -> Result<&'a str> {
-    let bad = || Error::invalid(format!("field spec '{spec}': expected modulus='...' after the comma"));
+    let bad = || {
+        Error::invalid(format!(
+            "field spec '{spec}': expected modulus='...' after the comma"
+        ))
+    };
     let (key, value) = rest.split_once('=').ok_or_else(bad)?;
     if key.trim() != "modulus" {
         return Err(Error::invalid(format!(
@@ -168,8 +184,15 @@ fn parse_modulus_option<'a>(spec: &str, rest: &'a str) -> Result<&'a str> {
         )));
     }
     let value = value.trim();
-    let quote = value.chars().next().filter(|c| *c == '\'' || *c == '"').ok_or_else(bad)?;
-    value.strip_prefix(quote).and_then(|v| v.strip_suffix(quote)).ok_or_else(bad)
+    let quote = value
+        .chars()
+        .next()
+        .filter(|c| *c == '\'' || *c == '"')
+        .ok_or_else(bad)?;
+    value
+        .strip_prefix(quote)
+        .and_then(|v| v.strip_suffix(quote))
+        .ok_or_else(bad)
 }
 
 /// The prime field of an extension: word-size only.
@@ -191,7 +214,9 @@ pub fn prime_field(p: &BigUint) -> Result<AnyField> {
         Some(2) => Ok(AnyField::BigPrime2(BigPrimeField::new(p)?)),
         Some(4) => Ok(AnyField::BigPrime4(BigPrimeField::new(p)?)),
         Some(_) => Ok(AnyField::BigPrime8(BigPrimeField::new(p)?)),
-        None => Err(Error::invalid(format!("GF({p}): primes above 2^512 are not supported"))),
+        None => Err(Error::invalid(format!(
+            "GF({p}): primes above 2^512 are not supported"
+        ))),
     }
 }
 
@@ -227,9 +252,17 @@ mod tests {
             ("GF(2^64)", "Binary", "GF(2^64)"),
             ("GF(2^65)", "Extension", "GF(2^65)"),
             ("GF(3^11)", "Extension", "GF(3^11)"),
-            ("GF(2^8, modulus='a^8+a^4+a^3+a^2+1')", "Table", "GF(2^8, modulus='a^8 + a^4 + a^3 + a^2 + 1')"),
+            (
+                "GF(2^8, modulus='a^8+a^4+a^3+a^2+1')",
+                "Table",
+                "GF(2^8, modulus='a^8 + a^4 + a^3 + a^2 + 1')",
+            ),
             ("GF(2^8, modulus=\"a^8+a^4+a^3+a+1\")", "Table", "GF(2^8)"),
-            ("GF(9223372036854775837)", "BigPrime2", "GF(9223372036854775837)"),
+            (
+                "GF(9223372036854775837)",
+                "BigPrime2",
+                "GF(9223372036854775837)",
+            ),
             (
                 "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)",
                 "BigPrime4",
@@ -243,32 +276,61 @@ mod tests {
             assert_eq!(AnyField::parse(&f.spec()).unwrap(), f, "{spec}");
         }
         let f = AnyField::parse("GF(3^5)").unwrap();
-        assert_eq!((f.characteristic(), f.order(), f.degree()), ("3".into(), Some("243".into()), 5));
+        assert_eq!(
+            (f.characteristic(), f.order(), f.degree()),
+            ("3".into(), Some("243".into()), 5)
+        );
         assert_eq!(AnyField::parse("QQ").unwrap().order(), None);
     }
 
     #[test]
     fn bad_specs_say_what_is_wrong() {
-        assert!(err("GF(12)").contains("12 is not a prime (it is divisible by 2) nor a prime power"), "{}", err("GF(12)"));
-        assert!(err("GF(6^2)").contains("6 is not a prime"), "{}", err("GF(6^2)"));
+        assert!(
+            err("GF(12)").contains("12 is not a prime (it is divisible by 2) nor a prime power"),
+            "{}",
+            err("GF(12)")
+        );
+        assert!(
+            err("GF(6^2)").contains("6 is not a prime"),
+            "{}",
+            err("GF(6^2)")
+        );
         assert!(err("GF(1)").contains("not a prime"), "{}", err("GF(1)"));
-        assert!(err("GF(2^8, modulus='a^8+1')").contains("reducible over GF(2)"), "{}", err("GF(2^8, modulus='a^8+1')"));
-        assert!(err("GF(2^8, modulus='a^5+a^2+1')").contains("degree 5"), "{}", err("GF(2^8, modulus='a^5+a^2+1')"));
+        assert!(
+            err("GF(2^8, modulus='a^8+1')").contains("reducible over GF(2)"),
+            "{}",
+            err("GF(2^8, modulus='a^8+1')")
+        );
+        assert!(
+            err("GF(2^8, modulus='a^5+a^2+1')").contains("degree 5"),
+            "{}",
+            err("GF(2^8, modulus='a^5+a^2+1')")
+        );
         assert!(err("GF(2^8, poly='a^8+1')").contains("unknown option 'poly'"));
         assert!(err("GF(2^8, modulus=a^8+1)").contains("expected modulus='...'"));
         assert!(err("ZZ").contains("unknown field spec 'ZZ'"));
         assert!(err("GF(x)").contains("'x' is not a positive integer"));
         assert!(err("GF(2^0)").contains("exponent"));
-        let big = "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949^2)";
+        let big =
+            "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949^2)";
         assert!(err(big).contains("need p < 2^63"), "{}", err(big));
-        assert!(err("GF(57896044618658097711785492504343953926634992332820282019728792003956564819951)").contains("is not a prime"));
+        assert!(err(
+            "GF(57896044618658097711785492504343953926634992332820282019728792003956564819951)"
+        )
+        .contains("is not a prime"));
     }
 
     #[test]
     fn from_modulus_coefficients() {
-        let f = AnyField::from_modulus(&BigUint::from(2u8), vec![1, 1, 0, 1, 1, 0, 0, 0, 1]).unwrap();
+        let f =
+            AnyField::from_modulus(&BigUint::from(2u8), vec![1, 1, 0, 1, 1, 0, 0, 0, 1]).unwrap();
         assert_eq!(f.spec(), "GF(2^8)");
-        assert_eq!(AnyField::from_modulus(&BigUint::from(7u8), vec![0, 1]).unwrap().spec(), "GF(7)");
+        assert_eq!(
+            AnyField::from_modulus(&BigUint::from(7u8), vec![0, 1])
+                .unwrap()
+                .spec(),
+            "GF(7)"
+        );
         assert!(AnyField::from_modulus(&BigUint::from(2u8), vec![1, 0, 1]).is_err());
     }
 }

@@ -13,7 +13,10 @@ fn check_axioms(f: &PrimeField, a: u64, b: u64, c: u64) {
     assert_eq!(f.add(&a, &b), f.add(&b, &a));
     assert_eq!(f.mul(&a, &b), f.mul(&b, &a));
     assert_eq!(f.mul(&f.mul(&a, &b), &c), f.mul(&a, &f.mul(&b, &c)));
-    assert_eq!(f.mul(&a, &f.add(&b, &c)), f.add(&f.mul(&a, &b), &f.mul(&a, &c)));
+    assert_eq!(
+        f.mul(&a, &f.add(&b, &c)),
+        f.add(&f.mul(&a, &b), &f.mul(&a, &c))
+    );
     assert_eq!(f.add(&a, &f.neg(&a)), 0);
     assert_eq!(f.sub(&a, &b), f.add(&a, &f.neg(&b)));
     // Reference product by 128-bit division.
@@ -57,7 +60,10 @@ fn extreme_residues() {
 #[test]
 fn composite_and_oversized_moduli_are_rejected_with_the_number() {
     let e = PrimeField::new(65535).unwrap_err().to_string();
-    assert!(e.contains("65535 is not a prime") && e.contains("divisible by 3"), "{e}");
+    assert!(
+        e.contains("65535 is not a prime") && e.contains("divisible by 3"),
+        "{e}"
+    );
     let e = PrimeField::new(1).unwrap_err().to_string();
     assert!(e.contains("1 is not a prime"), "{e}");
     let e = PrimeField::new(1 << 63).unwrap_err().to_string();

@@ -24,7 +24,11 @@ fn s_polynomial<F: Field>(ring: &Ring<F>, g: &[Poly<F>], pair: &Pair) -> Result<
 }
 
 /// Reduced Gröbner basis of `gens` and the run's statistics.
-pub fn compute<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], control: &Control) -> Result<(Vec<Poly<F>>, Stats)> {
+pub fn compute<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    control: &Control,
+) -> Result<(Vec<Poly<F>>, Stats)> {
     let mut stats = Stats::default();
     let mut basis: Vec<Poly<F>> = Vec::new();
     let mut pairs = PairSet::default();
@@ -38,7 +42,11 @@ pub fn compute<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], control: &Control) ->
         basis.push(f);
     }
     let active_of = |pairs: &PairSet, basis: &[Poly<F>]| -> Vec<Poly<F>> {
-        pairs.active_indices().into_iter().map(|k| basis[k].clone()).collect()
+        pairs
+            .active_indices()
+            .into_iter()
+            .map(|k| basis[k].clone())
+            .collect()
     };
     let mut active = active_of(&pairs, &basis);
     while let Some(pair) = next_pair(&mut pairs) {
@@ -64,7 +72,8 @@ pub fn compute<F: Field>(ring: &Ring<F>, gens: &[Poly<F>], control: &Control) ->
 
 /// The pair of least sugar, ties broken by the smaller lcm in total degree.
 fn next_pair(pairs: &mut PairSet) -> Option<Pair> {
-    let k = (0..pairs.pairs.len()).min_by_key(|&k| (pairs.pairs[k].sugar, pairs.pairs[k].lcm.degree()))?;
+    let k = (0..pairs.pairs.len())
+        .min_by_key(|&k| (pairs.pairs[k].sugar, pairs.pairs[k].lcm.degree()))?;
     Some(pairs.pairs.swap_remove(k))
 }
 
@@ -72,6 +81,10 @@ fn next_pair(pairs: &mut PairSet) -> Option<Pair> {
 fn record_step(stats: &mut Stats, sugar: u32) {
     match stats.steps.last_mut() {
         Some(s) if s.degree == sugar => s.pairs += 1,
-        _ => stats.steps.push(StepStats { degree: sugar, pairs: 1, ..Default::default() }),
+        _ => stats.steps.push(StepStats {
+            degree: sugar,
+            pairs: 1,
+            ..Default::default()
+        }),
     }
 }

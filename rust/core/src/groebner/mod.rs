@@ -65,7 +65,11 @@ pub fn groebner_basis<F: Field>(
     };
     stats.engine = engine.name().to_string();
     stats.seconds = start.elapsed().as_secs_f64();
-    Ok(GroebnerBasis { ring: ring.clone(), polys, stats })
+    Ok(GroebnerBasis {
+        ring: ring.clone(),
+        polys,
+        stats,
+    })
 }
 
 impl<F: Field> GroebnerBasis<F> {
@@ -95,7 +99,10 @@ impl<F: Field> GroebnerBasis<F> {
 
     /// Leading monomials of the basis, in basis order.
     pub fn leading_monomials(&self) -> Vec<crate::Monomial> {
-        self.polys.iter().filter_map(|p| p.leading_monomial().cloned()).collect()
+        self.polys
+            .iter()
+            .filter_map(|p| p.leading_monomial().cloned())
+            .collect()
     }
 }
 

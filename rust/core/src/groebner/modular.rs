@@ -41,10 +41,16 @@ pub(crate) fn route<F: Field>(
     let ring_q = (ring as &dyn Any).downcast_ref::<Ring<RationalField>>()?;
     let gens_q: Vec<Poly<RationalField>> = gens
         .iter()
-        .map(|g| (g as &dyn Any).downcast_ref::<Poly<RationalField>>().cloned())
+        .map(|g| {
+            (g as &dyn Any)
+                .downcast_ref::<Poly<RationalField>>()
+                .cloned()
+        })
         .collect::<Option<_>>()?;
     let result = rational_groebner_basis(ring_q, &gens_q, engine, control).map(|gb| {
-        *(Box::new(gb) as Box<dyn Any>).downcast::<GroebnerBasis<F>>().expect("F is QQ")
+        *(Box::new(gb) as Box<dyn Any>)
+            .downcast::<GroebnerBasis<F>>()
+            .expect("F is QQ")
     });
     Some(result)
 }
@@ -56,12 +62,20 @@ pub fn rational_groebner_basis(
     engine: Engine,
     control: &Control,
 ) -> Result<GroebnerBasis<RationalField>> {
-    let gens: Vec<Poly<RationalField>> = gens.iter().filter(|g| !g.is_zero()).map(|g| integer_multiple(ring, g)).collect();
+    let gens: Vec<Poly<RationalField>> = gens
+        .iter()
+        .filter(|g| !g.is_zero())
+        .map(|g| integer_multiple(ring, g))
+        .collect();
     let start = std::time::Instant::now();
     let mut groups: HashMap<Vec<Monomial>, Lift> = HashMap::new();
     let mut primes = PrimeSequence::new();
     // Images are computed a batch at a time, one prime per worker thread.
-    let batch = control.limits.threads.unwrap_or_else(rayon::current_num_threads).max(1);
+    let batch = control
+        .limits
+        .threads
+        .unwrap_or_else(rayon::current_num_threads)
+        .max(1);
     loop {
         control.check()?;
         let batch_primes: Vec<u64> = (0..batch).map(|_| primes.next_good(&gens)).collect();
@@ -70,20 +84,32 @@ pub fn rational_groebner_basis(
             .map(|&p| modular_image(ring, &gens, p, engine, control))
             .collect::<Result<_>>()?;
         for (&p, (image, mut stats)) in batch_primes.iter().zip(images) {
-            let leads: Vec<Monomial> = image.iter().map(|g| g.leading_monomial().unwrap().clone()).collect();
-            groups.entry(leads.clone()).or_default().add_image(p, &image);
+            let leads: Vec<Monomial> = image
+                .iter()
+                .map(|g| g.leading_monomial().unwrap().clone())
+                .collect();
+            groups
+                .entry(leads.clone())
+                .or_default()
+                .add_image(p, &image);
             let count = groups[&leads].primes;
             if groups.values().any(|other| other.primes > count) {
                 continue; // a larger group outvotes this one: this prime is likely unlucky
             }
             let lift = groups.get_mut(&leads).unwrap();
-            let Some(candidate) = lift.reconstruct(ring) else { continue };
+            let Some(candidate) = lift.reconstruct(ring) else {
+                continue;
+            };
             let stable = lift.previous.as_ref() == Some(&candidate);
             lift.previous = Some(candidate.clone());
             if stable && verify::is_groebner_basis_containing(ring, &candidate, &gens, control)? {
                 stats.engine = format!("{} (multi-modular, {} primes)", engine.name(), primes.used);
                 stats.seconds = start.elapsed().as_secs_f64();
-                return Ok(GroebnerBasis { ring: ring.clone(), polys: candidate, stats });
+                return Ok(GroebnerBasis {
+                    ring: ring.clone(),
+                    polys: candidate,
+                    stats,
+                });
             }
         }
     }
@@ -103,7 +129,10 @@ struct PrimeSequence {
 
 impl PrimeSequence {
     fn new() -> Self {
-        PrimeSequence { next: 1 << 62, used: 0 }
+        PrimeSequence {
+            next: 1 << 62,
+            used: 0,
+        }
     }
 
     /// The next prime that divides no leading coefficient of the (integer) generators.
@@ -114,7 +143,9 @@ impl PrimeSequence {
             if !primality::is_prime(p) {
                 continue;
             }
-            let bad = gens.iter().any(|g| residue(g.leading_coefficient().unwrap().numer(), p) == 0);
+            let bad = gens
+                .iter()
+                .any(|g| residue(g.leading_coefficient().unwrap().numer(), p) == 0);
             if !bad {
                 self.used += 1;
                 return p;
@@ -135,10 +166,20 @@ fn modular_image(
     engine: Engine,
     control: &Control,
 ) -> Result<(Vec<Poly<PrimeField>>, Stats)> {
-    let ring_p = Ring::new(PrimeField::new(p)?, ring.names().to_vec(), ring.order.clone())?;
+    let ring_p = Ring::new(
+        PrimeField::new(p)?,
+        ring.names().to_vec(),
+        ring.order.clone(),
+    )?;
     let images: Vec<Poly<PrimeField>> = gens
         .iter()
-        .map(|g| ring_p.from_terms(g.terms().iter().map(|(m, c)| (m.clone(), residue(c.numer(), p)))))
+        .map(|g| {
+            ring_p.from_terms(
+                g.terms()
+                    .iter()
+                    .map(|(m, c)| (m.clone(), residue(c.numer(), p))),
+            )
+        })
         .collect();
     let gb = groebner_basis(&ring_p, &images, engine, control)?;
     Ok((gb.polys, gb.stats))
@@ -162,15 +203,23 @@ impl Lift {
             self.modulus = pb;
             self.coeffs = image
                 .iter()
-                .map(|g| g.terms().iter().map(|(m, c)| (m.clone(), BigInt::from(*c))).collect())
+                .map(|g| {
+                    g.terms()
+                        .iter()
+                        .map(|(m, c)| (m.clone(), BigInt::from(*c)))
+                        .collect()
+                })
                 .collect();
             self.primes = 1;
             return;
         }
         let field = PrimeField::new(p).expect("prime");
-        let m_inv = field.inv(&residue(&self.modulus, p)).expect("distinct primes");
+        let m_inv = field
+            .inv(&residue(&self.modulus, p))
+            .expect("distinct primes");
         for (old, new) in self.coeffs.iter_mut().zip(image) {
-            let new_terms: BTreeMap<&Monomial, u64> = new.terms().iter().map(|(m, c)| (m, *c)).collect();
+            let new_terms: BTreeMap<&Monomial, u64> =
+                new.terms().iter().map(|(m, c)| (m, *c)).collect();
             for m in new_terms.keys() {
                 old.entry((*m).clone()).or_insert_with(BigInt::zero);
             }
@@ -217,7 +266,11 @@ pub fn rational_reconstruction(u: &BigInt, modulus: &BigInt) -> Option<BigRation
     if t1.is_zero() || t1.abs() > bound || !r1.gcd(&t1).is_one() {
         return None;
     }
-    let (num, den) = if t1.sign() == Sign::Minus { (-r1, -t1) } else { (r1, t1) };
+    let (num, den) = if t1.sign() == Sign::Minus {
+        (-r1, -t1)
+    } else {
+        (r1, t1)
+    };
     Some(BigRational::new(num, den))
 }
 

@@ -29,7 +29,12 @@ impl PairSet {
         let lcm = self.leads[i].lcm(&self.leads[j]);
         let s_i = self.sugars[i] + (lcm.degree() - self.leads[i].degree());
         let s_j = self.sugars[j] + (lcm.degree() - self.leads[j].degree());
-        Pair { i, j, lcm, sugar: s_i.max(s_j) }
+        Pair {
+            i,
+            j,
+            lcm,
+            sugar: s_i.max(s_j),
+        }
     }
 
     /// Adds a basis element with leading monomial `lead` and sugar `sugar`; returns its index.
@@ -41,12 +46,17 @@ impl PairSet {
         let h = &self.leads[t];
 
         // New pairs {g, h}: keep one per lcm, and none whose lcm is a multiple of another's.
-        let mut candidates: Vec<Pair> =
-            (0..t).filter(|&g| self.active[g]).map(|g| self.pair(g, t)).collect();
+        let mut candidates: Vec<Pair> = (0..t)
+            .filter(|&g| self.active[g])
+            .map(|g| self.pair(g, t))
+            .collect();
         let mut kept: Vec<Pair> = Vec::new();
         while let Some(p) = candidates.pop() {
             let coprime = self.leads[p.i].coprime(h);
-            let dominated = candidates.iter().chain(kept.iter()).any(|q| q.lcm.divides(&p.lcm));
+            let dominated = candidates
+                .iter()
+                .chain(kept.iter())
+                .any(|q| q.lcm.divides(&p.lcm));
             if coprime || !dominated {
                 kept.push(p);
             }
@@ -57,9 +67,7 @@ impl PairSet {
         // Old pairs whose lcm is a multiple of lead(h), strictly "in between" (chain criterion).
         let leads = &self.leads;
         self.pairs.retain(|p| {
-            !(h.divides(&p.lcm)
-                && leads[p.i].lcm(h) != p.lcm
-                && leads[p.j].lcm(h) != p.lcm)
+            !(h.divides(&p.lcm) && leads[p.i].lcm(h) != p.lcm && leads[p.j].lcm(h) != p.lcm)
         });
         self.pairs.extend(kept);
 
@@ -85,8 +93,11 @@ impl PairSet {
     }
 
     fn take_lowest_by(&mut self, limit: Option<usize>, key: impl Fn(&Pair) -> u32) -> Vec<Pair> {
-        let Some(min) = self.pairs.iter().map(&key).min() else { return vec![] };
-        let (mut now, later): (Vec<Pair>, Vec<Pair>) = self.pairs.drain(..).partition(|p| key(p) == min);
+        let Some(min) = self.pairs.iter().map(&key).min() else {
+            return vec![];
+        };
+        let (mut now, later): (Vec<Pair>, Vec<Pair>) =
+            self.pairs.drain(..).partition(|p| key(p) == min);
         self.pairs = later;
         if let Some(limit) = limit {
             if now.len() > limit.max(1) {

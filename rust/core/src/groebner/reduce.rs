@@ -9,7 +9,9 @@ use crate::poly::{Poly, Ring};
 
 /// Index of a divisor of `m` among `leads`, preferring the first found.
 fn find_divisor(m: &Monomial, basis: &[Poly<impl Field>]) -> Option<usize> {
-    basis.iter().position(|g| g.leading_monomial().is_some_and(|l| l.divides(m)))
+    basis
+        .iter()
+        .position(|g| g.leading_monomial().is_some_and(|l| l.divides(m)))
 }
 
 /// Fully reduced normal form of `f` by `basis` (a remainder of the division algorithm; unique
@@ -57,15 +59,24 @@ pub fn reduced_basis<F: Field>(ring: &Ring<F>, basis: Vec<Poly<F>>) -> Result<Ve
     if basis.iter().any(|g| g.is_constant()) {
         return Ok(vec![ring.one()]);
     }
-    let leads: Vec<&Monomial> = basis.iter().map(|g| g.leading_monomial().unwrap()).collect();
-    let minimal: Vec<Poly<F>> =
-        minimal_indices(&leads, &ring.order).into_iter().map(|k| basis[k].clone()).collect();
+    let leads: Vec<&Monomial> = basis
+        .iter()
+        .map(|g| g.leading_monomial().unwrap())
+        .collect();
+    let minimal: Vec<Poly<F>> = minimal_indices(&leads, &ring.order)
+        .into_iter()
+        .map(|k| basis[k].clone())
+        .collect();
     let mut reduced = Vec::with_capacity(minimal.len());
     for k in 0..minimal.len() {
         let g = &minimal[k];
         let (lead, tail) = g.split_lead();
-        let others: Vec<Poly<F>> =
-            minimal.iter().enumerate().filter(|(i, _)| *i != k).map(|(_, h)| h.clone()).collect();
+        let others: Vec<Poly<F>> = minimal
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| *i != k)
+            .map(|(_, h)| h.clone())
+            .collect();
         let tail = normal_form(ring, &tail, &others)?;
         let full = ring.add(&ring.term(lead.0, lead.1), &tail);
         reduced.push(ring.monic(&full));

@@ -17,7 +17,10 @@ fn basis_text(r: &Ring<PrimeField>, gens: &[&str]) -> Vec<String> {
 }
 
 fn parsed(r: &Ring<PrimeField>, texts: &[&str]) -> Vec<String> {
-    texts.iter().map(|t| r.format(&parse_poly(r, t).unwrap())).collect()
+    texts
+        .iter()
+        .map(|t| r.format(&parse_poly(r, t).unwrap()))
+        .collect()
 }
 
 #[test]
@@ -35,7 +38,10 @@ fn lex_example_from_cox_little_oshea() {
     // {x - z, y - 2z^2, z^4 + z^2/2 - 1/4}.
     let r = ring(&["x", "y", "z"], MonomialOrder::Lex);
     let gb = basis_text(&r, &["x^2 + y^2 + z^2 - 1", "x^2 + z^2 - y", "x - z"]);
-    assert_eq!(gb, parsed(&r, &["x - z", "y - 2*z^2", "z^4 + 1/2*z^2 - 1/4"]));
+    assert_eq!(
+        gb,
+        parsed(&r, &["x - z", "y - 2*z^2", "z^4 + 1/2*z^2 - 1/4"])
+    );
 }
 
 #[test]
@@ -51,10 +57,16 @@ fn membership_of_known_elements() {
     // The twisted cubic's ideal (y - x^2, z - x^3) contains xz - y^2 and y^3 - z^2 (minors of
     // the 2x3 matrix [[1, x, y], [x, y, z]]; Cox, Little, O'Shea §1.4, from memory).
     let r = ring(&["x", "y", "z"], MonomialOrder::Grevlex);
-    let gens: Vec<_> = ["y - x^2", "z - x^3"].iter().map(|g| parse_poly(&r, g).unwrap()).collect();
+    let gens: Vec<_> = ["y - x^2", "z - x^3"]
+        .iter()
+        .map(|g| parse_poly(&r, g).unwrap())
+        .collect();
     let gb = groebner_basis(&r, &gens, Engine::Buchberger, &Control::new()).unwrap();
     for member in ["x*z - y^2", "y^3 - z^2", "x*y - z"] {
-        assert!(gb.contains(&parse_poly(&r, member).unwrap()).unwrap(), "{member}");
+        assert!(
+            gb.contains(&parse_poly(&r, member).unwrap()).unwrap(),
+            "{member}"
+        );
     }
     assert!(!gb.contains(&parse_poly(&r, "x").unwrap()).unwrap());
     let nf = gb.reduce(&parse_poly(&r, "x^3 + y").unwrap()).unwrap();
@@ -64,10 +76,19 @@ fn membership_of_known_elements() {
 #[test]
 fn degree_limit_and_interrupt() {
     let r = ring(&["x", "y", "z"], MonomialOrder::Grevlex);
-    let gens: Vec<_> = ["x^2*y + z", "x*y^2 + 1", "z^3 - x"].iter().map(|g| parse_poly(&r, g).unwrap()).collect();
-    let limited = Control::new().with_limits(crate::control::Limits { max_degree: Some(3), ..Default::default() });
+    let gens: Vec<_> = ["x^2*y + z", "x*y^2 + 1", "z^3 - x"]
+        .iter()
+        .map(|g| parse_poly(&r, g).unwrap())
+        .collect();
+    let limited = Control::new().with_limits(crate::control::Limits {
+        max_degree: Some(3),
+        ..Default::default()
+    });
     let err = groebner_basis(&r, &gens, Engine::Buchberger, &limited).unwrap_err();
-    assert!(matches!(err, crate::Error::ResourceLimit(ref m) if m.contains("degree limit 3")), "{err}");
+    assert!(
+        matches!(err, crate::Error::ResourceLimit(ref m) if m.contains("degree limit 3")),
+        "{err}"
+    );
     let stop = Control::new().with_interrupt(|| true);
     // The first poll happens on the first check.
     std::thread::sleep(std::time::Duration::from_millis(25));

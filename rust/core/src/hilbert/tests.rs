@@ -7,7 +7,12 @@ use crate::parse::parse_poly;
 
 fn ring(vars: &[&str]) -> Ring<PrimeField> {
     let names = vars.iter().map(|s| s.to_string()).collect();
-    Ring::new(PrimeField::new(32003).unwrap(), names, MonomialOrder::Grevlex).unwrap()
+    Ring::new(
+        PrimeField::new(32003).unwrap(),
+        names,
+        MonomialOrder::Grevlex,
+    )
+    .unwrap()
 }
 
 fn series_of(r: &Ring<PrimeField>, gens: &[&str]) -> HilbertSeries {
@@ -19,7 +24,10 @@ fn series_of(r: &Ring<PrimeField>, gens: &[&str]) -> HilbertSeries {
 struct Lcg(u64);
 impl Lcg {
     fn next(&mut self, modulus: u64) -> u64 {
-        self.0 = self.0.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        self.0 = self
+            .0
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
         (self.0 >> 33) % modulus
     }
 }
@@ -87,7 +95,14 @@ fn unit_zero_and_coordinate_ideals() {
     let unit = series_of(&r, &["x", "x + 1"]);
     assert_eq!((unit.numerator.clone(), unit.dimension()), (vec![], -1));
     let zero = series_of(&r, &["0"]);
-    assert_eq!((zero.numerator.clone(), zero.denominator_exponent, zero.dimension()), (vec![1], 3, 3));
+    assert_eq!(
+        (
+            zero.numerator.clone(),
+            zero.denominator_exponent,
+            zero.dimension()
+        ),
+        (vec![1], 3, 3)
+    );
     // k[x,y,z]/(x): a polynomial ring in two variables, Hilbert polynomial s + 1.
     let plane = series_of(&r, &["x"]);
     assert_eq!(plane.polynomial().unwrap(), vec![(1, 1), (1, 1)]);
@@ -121,7 +136,10 @@ fn segre_embedding_of_p1_times_p1() {
     let s = series_of(&r, &["a*e - b*d", "a*f - c*d", "b*f - c*e"]);
     assert_eq!((s.degree().unwrap(), s.dimension()), (3, 4));
     // (s+1)^2 (s+2) / 2 = (s^3 + 4 s^2 + 5 s + 2) / 2.
-    assert_eq!(s.polynomial().unwrap(), vec![(1, 1), (5, 2), (2, 1), (1, 2)]);
+    assert_eq!(
+        s.polynomial().unwrap(),
+        vec![(1, 1), (5, 2), (2, 1), (1, 2)]
+    );
 }
 
 #[test]
@@ -129,10 +147,23 @@ fn bezout_complete_intersections() {
     // Generic forms of degrees d_1..d_c form a complete intersection of degree d_1···d_c with
     // Hilbert series ∏ (1 - t^{d_i}) / (1 - t)^n (Bézout; Hartshorne I.7).
     let mut rng = Lcg(7);
-    for (n, degrees) in [(3usize, vec![2u32, 3]), (4, vec![2, 2, 2]), (3, vec![2, 2, 3]), (4, vec![3, 2])] {
+    for (n, degrees) in [
+        (3usize, vec![2u32, 3]),
+        (4, vec![2, 2, 2]),
+        (3, vec![2, 2, 3]),
+        (4, vec![3, 2]),
+    ] {
         let names: Vec<String> = (0..n).map(|i| format!("x{i}")).collect();
-        let r = Ring::new(PrimeField::new(32003).unwrap(), names, MonomialOrder::Grevlex).unwrap();
-        let gens: Vec<_> = degrees.iter().map(|&d| random_form(&r, d, &mut rng)).collect();
+        let r = Ring::new(
+            PrimeField::new(32003).unwrap(),
+            names,
+            MonomialOrder::Grevlex,
+        )
+        .unwrap();
+        let gens: Vec<_> = degrees
+            .iter()
+            .map(|&d| random_form(&r, d, &mut rng))
+            .collect();
         let s = hilbert_series(&r, &gens, Engine::default(), &Control::new()).unwrap();
         let product: i128 = degrees.iter().map(|&d| d as i128).product();
         assert_eq!(s.degree().unwrap(), product, "degrees {degrees:?}");
@@ -176,7 +207,12 @@ fn semi_regular_quadratic_systems() {
     let mut rng = Lcg(2004);
     for (n, m) in [(3usize, 3usize), (3, 4), (4, 5), (4, 6), (5, 6), (5, 3)] {
         let names: Vec<String> = (0..n).map(|i| format!("x{i}")).collect();
-        let r = Ring::new(PrimeField::new(32003).unwrap(), names, MonomialOrder::Grevlex).unwrap();
+        let r = Ring::new(
+            PrimeField::new(32003).unwrap(),
+            names,
+            MonomialOrder::Grevlex,
+        )
+        .unwrap();
         let gens: Vec<_> = (0..m).map(|_| random_form(&r, 2, &mut rng)).collect();
         let s = hilbert_series(&r, &gens, Engine::default(), &Control::new()).unwrap();
         let values = s.coefficients(12).unwrap();
@@ -184,7 +220,10 @@ fn semi_regular_quadratic_systems() {
         let k = expected.len();
         assert_eq!(&values[..k], &expected[..], "n = {n}, m = {m}");
         if m > n {
-            assert!(values[k..].iter().all(|&v| v == 0), "n = {n}, m = {m}: {values:?}");
+            assert!(
+                values[k..].iter().all(|&v| v == 0),
+                "n = {n}, m = {m}: {values:?}"
+            );
         }
     }
 }
@@ -228,7 +267,13 @@ fn overflow_is_an_error() {
 #[test]
 fn non_homogeneous_basis_in_lex_is_rejected() {
     let r = ring(&["x", "y"]).with_order(MonomialOrder::Lex).unwrap();
-    let gb = groebner_basis(&r, &[parse_poly(&r, "y - x^2").unwrap()], Engine::default(), &Control::new()).unwrap();
+    let gb = groebner_basis(
+        &r,
+        &[parse_poly(&r, "y - x^2").unwrap()],
+        Engine::default(),
+        &Control::new(),
+    )
+    .unwrap();
     let err = series_of_basis(&gb, &Control::new()).unwrap_err();
     assert!(err.to_string().contains("degree-compatible"), "{err}");
 }
@@ -243,7 +288,11 @@ mod against_enumeration {
         let mut exps = vec![0u32; n];
         loop {
             let d: u32 = exps.iter().sum();
-            if d <= top && !gens.iter().any(|g| g.iter().zip(&exps).all(|(a, b)| a <= b)) {
+            if d <= top
+                && !gens
+                    .iter()
+                    .any(|g| g.iter().zip(&exps).all(|(a, b)| a <= b))
+            {
                 counts[d as usize] += 1;
             }
             // Next exponent vector in [0, top]^n.

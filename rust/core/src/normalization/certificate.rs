@@ -98,7 +98,11 @@ pub fn build<F: Field>(
 }
 
 /// x_{s_j} = y_j - h_j(y_N), x_b = y_b, written in the coordinate ring (parameters first).
-fn inverse_map<F: Field>(ring: &Ring<F>, change: &Change<F>, coords: &Ring<F>) -> Result<Vec<Poly<F>>> {
+fn inverse_map<F: Field>(
+    ring: &Ring<F>,
+    change: &Change<F>,
+    coords: &Ring<F>,
+) -> Result<Vec<Poly<F>>> {
     let d = change.params.len();
     let mut renaming = vec![Poly::zero(); ring.nvars()];
     for (k, &b) in change.nonparams.iter().enumerate() {
@@ -121,15 +125,29 @@ struct Module<'a, F: Field> {
 
 impl<'a, F: Field> Module<'a, F> {
     fn new(proof: &'a Proof<F>, params: &'a Ring<F>, standard: Vec<Monomial>) -> Self {
-        let index = standard.iter().enumerate().map(|(k, m)| (m.clone(), k)).collect();
-        Module { proof, params, standard, index }
+        let index = standard
+            .iter()
+            .enumerate()
+            .map(|(k, m)| (m.clone(), k))
+            .collect();
+        Module {
+            proof,
+            params,
+            standard,
+            index,
+        }
     }
 
     /// Splits a monomial of the proof ring into its non-parameter part and its parameter part
     /// (a monomial of k[T]).
     fn split(&self, m: &Monomial) -> Result<(Monomial, Monomial)> {
         let mut x = m.exponents().to_vec();
-        let t: Vec<u32> = self.proof.param_pos.iter().map(|&p| std::mem::take(&mut x[p])).collect();
+        let t: Vec<u32> = self
+            .proof
+            .param_pos
+            .iter()
+            .map(|&p| std::mem::take(&mut x[p]))
+            .collect();
         Ok((Monomial::from_exponents(x)?, Monomial::from_exponents(t)?))
     }
 
@@ -177,7 +195,11 @@ impl<'a, F: Field> Module<'a, F> {
                 let k = self.index[&x];
                 row[k].push((t, c.clone()));
             }
-            matrix.push(row.into_iter().map(|terms| self.params.from_terms(terms)).collect());
+            matrix.push(
+                row.into_iter()
+                    .map(|terms| self.params.from_terms(terms))
+                    .collect(),
+            );
         }
         Ok(matrix)
     }
@@ -185,7 +207,9 @@ impl<'a, F: Field> Module<'a, F> {
     /// A basis element in k[T][x] monic in x, when `e` is the non-parameter variable x: it is an
     /// equation at no cost, often of smaller degree than the determinant.
     fn basis_equation(&self, e: &Poly<F>) -> Result<Option<Vec<Poly<F>>>> {
-        let Some(v) = single_variable(e) else { return Ok(None) };
+        let Some(v) = single_variable(e) else {
+            return Ok(None);
+        };
         let mut best: Option<Vec<Poly<F>>> = None;
         for g in &self.proof.basis {
             if let Some(eq) = self.as_monic_in(g, v)? {
@@ -211,14 +235,22 @@ impl<'a, F: Field> Module<'a, F> {
             by_degree.entry(k).or_default().push((t, c.clone()));
         }
         let top = by_degree.keys().copied().max().unwrap_or(0);
-        let lead = self.params.from_terms(by_degree.remove(&top).unwrap_or_default());
+        let lead = self
+            .params
+            .from_terms(by_degree.remove(&top).unwrap_or_default());
         if top == 0 || !lead.is_constant() || lead.is_zero() {
             return Ok(None);
         }
-        let scale = self.params.field.inv(lead.leading_coefficient().unwrap()).unwrap();
+        let scale = self
+            .params
+            .field
+            .inv(lead.leading_coefficient().unwrap())
+            .unwrap();
         let mut eq = vec![self.params.one()];
         for k in (0..top).rev() {
-            let c = self.params.from_terms(by_degree.remove(&k).unwrap_or_default());
+            let c = self
+                .params
+                .from_terms(by_degree.remove(&k).unwrap_or_default());
             eq.push(self.params.scale(&c, &scale));
         }
         Ok(Some(eq))
@@ -275,16 +307,28 @@ impl<F: Field> NoetherNormalization<F> {
             return Ok(problems);
         }
         if dim != self.dimension as i64 {
-            problems.push(format!("d = {} but the ideal has dimension {dim}", self.dimension));
+            problems.push(format!(
+                "d = {} but the ideal has dimension {dim}",
+                self.dimension
+            ));
         }
         for (i, coefficients) in self.equations.iter().enumerate() {
             control.check()?;
             let name = &self.ring.names()[i];
-            if !coefficients.first().is_some_and(|c| *c == self.parameter_ring.one()) {
-                problems.push(format!("the equation for {name} is not monic: its first coefficient must be 1"));
+            if !coefficients
+                .first()
+                .is_some_and(|c| *c == self.parameter_ring.one())
+            {
+                problems.push(format!(
+                    "the equation for {name} is not monic: its first coefficient must be 1"
+                ));
                 continue;
             }
-            let params: Vec<Poly<F>> = self.parameters.iter().map(|p| grevlex.adopt(p.clone())).collect();
+            let params: Vec<Poly<F>> = self
+                .parameters
+                .iter()
+                .map(|p| grevlex.adopt(p.clone()))
+                .collect();
             if !reduces_to_zero(&gb, &self.parameter_ring, &params, i, coefficients)? {
                 problems.push(format!("the equation for {name} does not lie in the ideal"));
             }
@@ -313,16 +357,24 @@ impl<F: Field> NoetherNormalization<F> {
             ));
         }
         if self.equations.len() != n {
-            problems.push(format!("{} equations for {n} variables: every variable needs one", self.equations.len()));
+            problems.push(format!(
+                "{} equations for {n} variables: every variable needs one",
+                self.equations.len()
+            ));
         }
-        if self.coordinates.len() != n || self.inverse.len() != n || self.coordinate_ring.nvars() != n {
+        if self.coordinates.len() != n
+            || self.inverse.len() != n
+            || self.coordinate_ring.nvars() != n
+        {
             problems.push(format!(
                 "{} coordinates, {} inverse images and {} coordinate symbols for {n} variables",
                 self.coordinates.len(),
                 self.inverse.len(),
                 self.coordinate_ring.nvars()
             ));
-        } else if self.coordinates[..d.min(n)] != self.parameters[..d.min(n).min(self.parameters.len())] {
+        } else if self.coordinates[..d.min(n)]
+            != self.parameters[..d.min(n).min(self.parameters.len())]
+        {
             problems.push("the first d coordinates are not the parameters".into());
         }
         problems
@@ -332,7 +384,9 @@ impl<F: Field> NoetherNormalization<F> {
     fn composition_problems(&self) -> Result<Vec<String>> {
         let mut problems = Vec::new();
         for (i, g) in self.inverse.iter().enumerate() {
-            let back = self.coordinate_ring.substitute(g, &self.coordinates, &self.ring)?;
+            let back = self
+                .coordinate_ring
+                .substitute(g, &self.coordinates, &self.ring)?;
             if back != self.ring.var(i) {
                 problems.push(format!(
                     "inverse image of {} composed with the coordinates gives {}, not {}",
@@ -343,7 +397,9 @@ impl<F: Field> NoetherNormalization<F> {
             }
         }
         for (j, y) in self.coordinates.iter().enumerate() {
-            let back = self.ring.substitute(y, &self.inverse, &self.coordinate_ring)?;
+            let back = self
+                .ring
+                .substitute(y, &self.inverse, &self.coordinate_ring)?;
             if back != self.coordinate_ring.var(j) {
                 problems.push(format!(
                     "coordinate {} composed with the inverse gives {}",
@@ -399,7 +455,11 @@ impl<F: Field> NoetherNormalization<F> {
             coordinates: fmt(&self.ring, &self.coordinates),
             coordinate_symbols: self.coordinate_ring.names().to_vec(),
             inverse: fmt(&self.coordinate_ring, &self.inverse),
-            equations: self.equations.iter().map(|e| fmt(&self.parameter_ring, e)).collect(),
+            equations: self
+                .equations
+                .iter()
+                .map(|e| fmt(&self.parameter_ring, e))
+                .collect(),
             module_generators: fmt(&self.ring, &self.module_generators),
             rank: self.rank as i64,
             strategy: self.strategy.name().into(),
@@ -409,15 +469,20 @@ impl<F: Field> NoetherNormalization<F> {
 
     /// Reads a saved certificate for the ring `ring`; the message says which entry is unreadable.
     pub fn from_text(ring: &Ring<F>, text: &CertificateText) -> std::result::Result<Self, String> {
-        let dimension = usize::try_from(text.dimension).map_err(|_| format!("d = {} is negative", text.dimension))?;
-        let rank = usize::try_from(text.rank).map_err(|_| format!("rank {} is negative", text.rank))?;
+        let dimension = usize::try_from(text.dimension)
+            .map_err(|_| format!("d = {} is negative", text.dimension))?;
+        let rank =
+            usize::try_from(text.rank).map_err(|_| format!("rank {} is negative", text.rank))?;
         let symbols_ring = |names: &[String], what: &str| {
             Ring::new(ring.field.clone(), names.to_vec(), MonomialOrder::Grevlex)
                 .map_err(|e| format!("{what}: {e}"))
         };
         let parameter_ring = symbols_ring(&text.parameter_symbols, "parameter_symbols")?;
         let coordinate_ring = symbols_ring(&text.coordinate_symbols, "coordinate_symbols")?;
-        let read = |r: &Ring<F>, items: &[String], what: &str| -> std::result::Result<Vec<Poly<F>>, String> {
+        let read = |r: &Ring<F>,
+                    items: &[String],
+                    what: &str|
+         -> std::result::Result<Vec<Poly<F>>, String> {
             items
                 .iter()
                 .enumerate()
@@ -429,8 +494,16 @@ impl<F: Field> NoetherNormalization<F> {
             .iter()
             .enumerate()
             .map(|(i, eq)| {
-                let name = ring.names().get(i).cloned().unwrap_or_else(|| format!("#{}", i + 1));
-                read(&parameter_ring, eq, &format!("equation for {name}, coefficient"))
+                let name = ring
+                    .names()
+                    .get(i)
+                    .cloned()
+                    .unwrap_or_else(|| format!("#{}", i + 1));
+                read(
+                    &parameter_ring,
+                    eq,
+                    &format!("equation for {name}, coefficient"),
+                )
             })
             .collect::<std::result::Result<Vec<_>, String>>()?;
         Ok(NoetherNormalization {

@@ -39,17 +39,28 @@ impl<F: Field> Change<F> {
 
     /// Whether every shift is a linear form (so the parameters are linear forms).
     pub fn is_linear(&self) -> bool {
-        self.shifts.iter().all(|h| h.terms().iter().all(|(m, _)| m.degree() == 1))
+        self.shifts
+            .iter()
+            .all(|h| h.terms().iter().all(|(m, _)| m.degree() == 1))
     }
 
     /// Largest total degree of a parameter.
     pub fn parameter_degree(&self) -> u32 {
-        self.shifts.iter().filter_map(|h| h.degree()).max().unwrap_or(1).max(1)
+        self.shifts
+            .iter()
+            .filter_map(|h| h.degree())
+            .max()
+            .unwrap_or(1)
+            .max(1)
     }
 
     /// The parameters p_j as polynomials in the original variables.
     pub fn parameters(&self, ring: &Ring<F>) -> Vec<Poly<F>> {
-        self.params.iter().zip(&self.shifts).map(|(&s, h)| ring.add(&ring.var(s), h)).collect()
+        self.params
+            .iter()
+            .zip(&self.shifts)
+            .map(|(&s, h)| ring.add(&ring.var(s), h))
+            .collect()
     }
 }
 
@@ -73,7 +84,12 @@ pub struct Coordinates<F: Field> {
 impl<F: Field> Coordinates<F> {
     pub fn new(ring: &Ring<F>, change: &Change<F>) -> Result<Self> {
         let n = ring.nvars();
-        let order: Vec<usize> = change.nonparams.iter().chain(&change.params).copied().collect();
+        let order: Vec<usize> = change
+            .nonparams
+            .iter()
+            .chain(&change.params)
+            .copied()
+            .collect();
         let names = order.iter().map(|&i| ring.names()[i].clone()).collect();
         let target = Ring::new(ring.field.clone(), names, MonomialOrder::Grevlex)?;
         let mut position = vec![0; n];
@@ -87,18 +103,30 @@ impl<F: Field> Coordinates<F> {
             let h_new = ring.substitute(h, &renaming, &target)?;
             images[s] = target.sub(&target.var(position[s]), &h_new);
         }
-        Ok(Coordinates { ring: target, images, n_nonparams: change.nonparams.len() })
+        Ok(Coordinates {
+            ring: target,
+            images,
+            n_nonparams: change.nonparams.len(),
+        })
     }
 
     /// The same variables with the non-parameters eliminated first (block order N >> T).
     pub fn elimination_ring(&self) -> Result<Ring<F>> {
         let first: Vec<usize> = (0..self.n_nonparams).collect();
-        self.ring.with_order(MonomialOrder::elimination(&first, self.ring.nvars()))
+        self.ring
+            .with_order(MonomialOrder::elimination(&first, self.ring.nvars()))
     }
 
     /// The generators of the ideal in these coordinates, for `target` (this ring in some order).
-    pub fn transform(&self, ring: &Ring<F>, gens: &[Poly<F>], target: &Ring<F>) -> Result<Vec<Poly<F>>> {
-        gens.iter().map(|g| ring.substitute(g, &self.images, target)).collect()
+    pub fn transform(
+        &self,
+        ring: &Ring<F>,
+        gens: &[Poly<F>],
+        target: &Ring<F>,
+    ) -> Result<Vec<Poly<F>>> {
+        gens.iter()
+            .map(|g| ring.substitute(g, &self.images, target))
+            .collect()
     }
 }
 
@@ -129,7 +157,10 @@ impl Rng {
 
 /// Number of field elements when it fits 64 bits.
 pub fn field_size<F: Field>(field: &F) -> Option<u64> {
-    field.order().and_then(|q| q.parse().ok()).or_else(|| field.order().map(|_| u64::MAX))
+    field
+        .order()
+        .and_then(|q| q.parse().ok())
+        .or_else(|| field.order().map(|_| u64::MAX))
 }
 
 /// Sparse unit-triangular linear change: each parameter x_{s_j} is shifted by c·x_b for one
@@ -149,7 +180,11 @@ pub fn sparse_linear<F: Field>(
             ring.scale(&ring.var(b), &rng.nonzero(&ring.field))
         })
         .collect();
-    Change { params: params.to_vec(), nonparams: complement(params, n), shifts }
+    Change {
+        params: params.to_vec(),
+        nonparams: complement(params, n),
+        shifts,
+    }
 }
 
 /// Dense random linear change: each parameter is x_{s_j} plus a random combination of all
@@ -160,9 +195,18 @@ pub fn dense_linear<F: Field>(ring: &Ring<F>, params: &[usize], rng: &mut Rng) -
     let shifts = params
         .iter()
         .map(|_| {
-            let terms = nonparams.iter().map(|&b| (crate::Monomial::var_power(n, b, 1), rng.nonzero(&ring.field)));
+            let terms = nonparams.iter().map(|&b| {
+                (
+                    crate::Monomial::var_power(n, b, 1),
+                    rng.nonzero(&ring.field),
+                )
+            });
             ring.from_terms(terms)
         })
         .collect();
-    Change { params: params.to_vec(), nonparams, shifts }
+    Change {
+        params: params.to_vec(),
+        nonparams,
+        shifts,
+    }
 }

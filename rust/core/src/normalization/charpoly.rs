@@ -18,7 +18,11 @@ use std::collections::HashMap;
 
 /// Coefficients [1, c_{r-1}, ..., c_0] of det(x·Id - A) = x^r + c_{r-1} x^{r-1} + ... + c_0,
 /// for an r × r matrix `a` (rows of equal length r) over `ring`.
-pub fn characteristic_polynomial<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) -> Result<Vec<Poly<F>>> {
+pub fn characteristic_polynomial<F: Field>(
+    ring: &Ring<F>,
+    a: &[Vec<Poly<F>>],
+    control: &Control,
+) -> Result<Vec<Poly<F>>> {
     match interpolation_grid(ring, a) {
         Some((bounds, total)) => by_interpolation(ring, a, &LowerSet::new(&bounds, total), control),
         None => berkowitz(ring, a, control),
@@ -33,15 +37,34 @@ const MAX_INTERPOLATION_VALUES: u64 = 20_000_000;
 fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(Vec<u64>, u64)> {
     let d = ring.nvars();
     let r = a.len();
-    let degree_in = |p: &Poly<F>, i: usize| p.terms().iter().map(|(m, _)| u64::from(m.exponents()[i])).max().unwrap_or(0);
+    let degree_in = |p: &Poly<F>, i: usize| {
+        p.terms()
+            .iter()
+            .map(|(m, _)| u64::from(m.exponents()[i]))
+            .max()
+            .unwrap_or(0)
+    };
     let total = |p: &Poly<F>| p.degree().map(u64::from);
-    let total_bound = cycle_mean_bound(&a.iter().map(|row| row.iter().map(total).collect()).collect::<Vec<_>>());
+    let total_bound = cycle_mean_bound(
+        &a.iter()
+            .map(|row| row.iter().map(total).collect())
+            .collect::<Vec<_>>(),
+    );
     let bounds: Vec<u64> = (0..d)
         .map(|i| {
-            let rows: u64 = a.iter().map(|row| row.iter().map(|p| degree_in(p, i)).max().unwrap_or(0)).sum();
-            let cols: u64 = (0..r).map(|k| a.iter().map(|row| degree_in(&row[k], i)).max().unwrap_or(0)).sum();
+            let rows: u64 = a
+                .iter()
+                .map(|row| row.iter().map(|p| degree_in(p, i)).max().unwrap_or(0))
+                .sum();
+            let cols: u64 = (0..r)
+                .map(|k| a.iter().map(|row| degree_in(&row[k], i)).max().unwrap_or(0))
+                .sum();
             let in_i = |p: &Poly<F>| (!p.is_zero()).then(|| degree_in(p, i));
-            let cycles = cycle_mean_bound(&a.iter().map(|row| row.iter().map(in_i).collect()).collect::<Vec<_>>());
+            let cycles = cycle_mean_bound(
+                &a.iter()
+                    .map(|row| row.iter().map(in_i).collect())
+                    .collect::<Vec<_>>(),
+            );
             rows.min(cols).min(cycles).min(total_bound)
         })
         .collect();
@@ -49,7 +72,9 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(V
     if bounds.iter().any(|&b| b >= q) {
         return None;
     }
-    let points = bounds.iter().try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
+    let points = bounds
+        .iter()
+        .try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
     (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((bounds, total_bound))
 }
 
@@ -64,7 +89,11 @@ fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
     let mut walks: Vec<Vec<Option<i64>>> = vec![vec![Some(0); r]];
     for j in 1..=r {
         let next = (0..r)
-            .map(|v| (0..r).filter_map(|u| Some(walks[j - 1][u]? + degrees[u][v]? as i64)).max())
+            .map(|v| {
+                (0..r)
+                    .filter_map(|u| Some(walks[j - 1][u]? + degrees[u][v]? as i64))
+                    .max()
+            })
             .collect();
         walks.push(next);
     }
@@ -75,24 +104,43 @@ fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
         let Some(last) = walks[r][v] else { continue };
         let ratio = (0..r)
             .filter_map(|j| walks[j][v].map(|w| (last - w, (r - j) as i64)))
-            .min_by(|a, b| (i128::from(a.0) * i128::from(b.1)).cmp(&(i128::from(b.0) * i128::from(a.1))));
+            .min_by(|a, b| {
+                (i128::from(a.0) * i128::from(b.1)).cmp(&(i128::from(b.0) * i128::from(a.1)))
+            });
         if let Some(q) = ratio {
-            if best.is_none_or(|b| i128::from(q.0) * i128::from(b.1) > i128::from(b.0) * i128::from(q.1)) {
+            if best.is_none_or(|b| {
+                i128::from(q.0) * i128::from(b.1) > i128::from(b.0) * i128::from(q.1)
+            }) {
                 best = Some(q);
             }
         }
     }
-    best.map_or(0, |(num, den)| u64::try_from((r as i64 * num).div_euclid(den)).unwrap_or(0))
+    best.map_or(0, |(num, den)| {
+        u64::try_from((r as i64 * num).div_euclid(den)).unwrap_or(0)
+    })
 }
 
-fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], set: &LowerSet, control: &Control) -> Result<Vec<Poly<F>>> {
+fn by_interpolation<F: Field>(
+    ring: &Ring<F>,
+    a: &[Vec<Poly<F>>],
+    set: &LowerSet,
+    control: &Control,
+) -> Result<Vec<Poly<F>>> {
     let field = &ring.field;
     let r = a.len();
     let d = ring.nvars();
     let longest = set.exponents.iter().flatten().copied().max().unwrap_or(0);
-    let nodes: Vec<F::Elem> = (0..=u64::from(longest)).map(|j| field.element_from_index(j)).collect();
+    let nodes: Vec<F::Elem> = (0..=u64::from(longest))
+        .map(|j| field.element_from_index(j))
+        .collect();
     let max_exponents: Vec<u32> = (0..d)
-        .map(|i| a.iter().flatten().flat_map(|p| p.terms().iter().map(move |(m, _)| m.exponents()[i])).max().unwrap_or(0))
+        .map(|i| {
+            a.iter()
+                .flatten()
+                .flat_map(|p| p.terms().iter().map(move |(m, _)| m.exponents()[i]))
+                .max()
+                .unwrap_or(0)
+        })
         .collect();
     // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
     let mut values = vec![vec![field.zero(); set.exponents.len()]; r + 1];
@@ -100,7 +148,10 @@ fn by_interpolation<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], set: &LowerSet
         control.check()?;
         let point: Vec<F::Elem> = alpha.iter().map(|&j| nodes[j as usize].clone()).collect();
         let powers = PowerTable::new(field, &point, &max_exponents);
-        let scalar: Vec<Vec<F::Elem>> = a.iter().map(|row| row.iter().map(|p| powers.evaluate(field, p)).collect()).collect();
+        let scalar: Vec<Vec<F::Elem>> = a
+            .iter()
+            .map(|row| row.iter().map(|p| powers.evaluate(field, p)).collect())
+            .collect();
         for (k, c) in hessenberg_charpoly(field, scalar).into_iter().enumerate() {
             values[k][g] = c;
         }
@@ -137,11 +188,21 @@ impl LowerSet {
         let mut exponents = Vec::new();
         let mut current = vec![0u32; bounds.len()];
         Self::enumerate(bounds, total, 0, &mut current, &mut exponents);
-        let index = exponents.iter().enumerate().map(|(g, e)| (e.clone(), g)).collect();
+        let index = exponents
+            .iter()
+            .enumerate()
+            .map(|(g, e)| (e.clone(), g))
+            .collect();
         LowerSet { exponents, index }
     }
 
-    fn enumerate(bounds: &[u64], left: u64, i: usize, current: &mut Vec<u32>, out: &mut Vec<Vec<u32>>) {
+    fn enumerate(
+        bounds: &[u64],
+        left: u64,
+        i: usize,
+        current: &mut Vec<u32>,
+        out: &mut Vec<Vec<u32>>,
+    ) {
         if i == bounds.len() {
             out.push(current.clone());
             return;
@@ -165,7 +226,12 @@ impl LowerSet {
     }
 
     /// Values at the node points -> coefficients of the monomials t^α.
-    fn interpolate<F: Field>(&self, field: &F, nodes: &[F::Elem], mut values: Vec<F::Elem>) -> Vec<F::Elem> {
+    fn interpolate<F: Field>(
+        &self,
+        field: &F,
+        nodes: &[F::Elem],
+        mut values: Vec<F::Elem>,
+    ) -> Vec<F::Elem> {
         let d = self.exponents.first().map_or(0, |e| e.len());
         for pass in 0..2 {
             for i in 0..d {
@@ -173,7 +239,11 @@ impl LowerSet {
                     let line = self.line(start, i);
                     let ys: Vec<F::Elem> = line.iter().map(|&g| values[g].clone()).collect();
                     let xs = &nodes[..line.len()];
-                    let out = if pass == 0 { divided_differences(field, xs, &ys) } else { newton_to_monomial(field, xs, &ys) };
+                    let out = if pass == 0 {
+                        divided_differences(field, xs, &ys)
+                    } else {
+                        newton_to_monomial(field, xs, &ys)
+                    };
                     for (&g, c) in line.iter().zip(out) {
                         values[g] = c;
                     }
@@ -243,7 +313,11 @@ fn newton_to_monomial<F: Field>(field: &F, xs: &[F::Elem], dd: &[F::Elem]) -> Ve
     for i in (0..n).rev() {
         // coeffs := coeffs·(x - x_i) + dd[i]; the degree stays below n.
         for j in (0..n).rev() {
-            let shifted = if j > 0 { coeffs[j - 1].clone() } else { field.zero() };
+            let shifted = if j > 0 {
+                coeffs[j - 1].clone()
+            } else {
+                field.zero()
+            };
             coeffs[j] = field.sub(&shifted, &field.mul(&coeffs[j], &xs[i]));
         }
         coeffs[0] = field.add(&coeffs[0], &dd[i]);
@@ -256,7 +330,9 @@ fn newton_to_monomial<F: Field>(field: &F, xs: &[F::Elem], dd: &[F::Elem]) -> Ve
 fn hessenberg_charpoly<F: Field>(field: &F, mut h: Vec<Vec<F::Elem>>) -> Vec<F::Elem> {
     let n = h.len();
     for m in 1..n.saturating_sub(1) {
-        let Some(i) = (m..n).find(|&i| !field.is_zero(&h[i][m - 1])) else { continue };
+        let Some(i) = (m..n).find(|&i| !field.is_zero(&h[i][m - 1])) else {
+            continue;
+        };
         if i != m {
             h.swap(i, m);
             for row in h.iter_mut() {
@@ -305,7 +381,11 @@ fn hessenberg_charpoly<F: Field>(field: &F, mut h: Vec<Vec<F::Elem>>) -> Vec<F::
 }
 
 /// Berkowitz's division-free algorithm over k[T].
-fn berkowitz<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) -> Result<Vec<Poly<F>>> {
+fn berkowitz<F: Field>(
+    ring: &Ring<F>,
+    a: &[Vec<Poly<F>>],
+    control: &Control,
+) -> Result<Vec<Poly<F>>> {
     let mut coeffs = vec![ring.one()];
     for r in 0..a.len() {
         let toeplitz = toeplitz_column(ring, a, r, control)?;
@@ -326,14 +406,21 @@ fn berkowitz<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], control: &Control) ->
 /// First column of Berkowitz's Toeplitz matrix for step r:
 /// [1, -a_rr, -R·C, -R·A_r·C, ..., -R·A_r^{r-1}·C], with A_r the leading r × r block,
 /// R = a[r][0..r] and C = a[0..r][r].
-fn toeplitz_column<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>], r: usize, control: &Control) -> Result<Vec<Poly<F>>> {
+fn toeplitz_column<F: Field>(
+    ring: &Ring<F>,
+    a: &[Vec<Poly<F>>],
+    r: usize,
+    control: &Control,
+) -> Result<Vec<Poly<F>>> {
     let mut column = vec![ring.one(), ring.neg(&a[r][r])];
     let mut w: Vec<Poly<F>> = (0..r).map(|i| a[i][r].clone()).collect();
     for k in 0..r {
         control.check()?;
         column.push(ring.neg(&dot(ring, &a[r][..r], &w)?));
         if k + 1 < r {
-            w = (0..r).map(|i| dot(ring, &a[i][..r], &w)).collect::<Result<_>>()?;
+            w = (0..r)
+                .map(|i| dot(ring, &a[i][..r], &w))
+                .collect::<Result<_>>()?;
         }
     }
     Ok(column)
@@ -361,15 +448,24 @@ mod tests {
     fn interpolation_agrees_with_berkowitz() {
         let mut rng = crate::normalization::changes::Rng::new(9);
         for (nvars, size) in (1..=3).flat_map(|d| (0..6).map(move |s| (d, s))) {
-            let names = ["s", "t", "u"][..nvars].iter().map(|v| v.to_string()).collect();
-            let ring = Ring::new(PrimeField::new(101).unwrap(), names, MonomialOrder::Grevlex).unwrap();
+            let names = ["s", "t", "u"][..nvars]
+                .iter()
+                .map(|v| v.to_string())
+                .collect();
+            let ring =
+                Ring::new(PrimeField::new(101).unwrap(), names, MonomialOrder::Grevlex).unwrap();
             let a: Vec<Vec<Poly<PrimeField>>> = (0..size)
                 .map(|_| {
                     (0..size)
                         .map(|_| {
                             let terms = (0..3).map(|_| {
-                                let e = (0..nvars).map(|i| (rng.next_u64() % (3 - i as u64 % 2)) as u32).collect();
-                                (crate::Monomial::from_exponents(e).unwrap(), rng.next_u64() % 101)
+                                let e = (0..nvars)
+                                    .map(|i| (rng.next_u64() % (3 - i as u64 % 2)) as u32)
+                                    .collect();
+                                (
+                                    crate::Monomial::from_exponents(e).unwrap(),
+                                    rng.next_u64() % 101,
+                                )
                             });
                             ring.from_terms(terms)
                         })
@@ -378,13 +474,22 @@ mod tests {
                 .collect();
             let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
             assert!(interpolation_grid(&ring, &a).is_some());
-            assert_eq!(fast, berkowitz(&ring, &a, &Control::new()).unwrap(), "{nvars} variables, size {size}");
+            assert_eq!(
+                fast,
+                berkowitz(&ring, &a, &Control::new()).unwrap(),
+                "{nvars} variables, size {size}"
+            );
         }
     }
 
     #[test]
     fn two_by_two_and_companion() {
-        let ring = Ring::new(PrimeField::new(101).unwrap(), vec!["t".into()], MonomialOrder::Grevlex).unwrap();
+        let ring = Ring::new(
+            PrimeField::new(101).unwrap(),
+            vec!["t".into()],
+            MonomialOrder::Grevlex,
+        )
+        .unwrap();
         let p = |s: &str| parse_poly(&ring, s).unwrap();
         // det(x - [[a, b], [c, d]]) = x^2 - (a + d) x + (ad - bc).
         let a = vec![vec![p("t"), p("2")], vec![p("3"), p("t + 1")]];
@@ -392,7 +497,11 @@ mod tests {
         assert_eq!(cp, vec![p("1"), p("-2*t - 1"), p("t^2 + t - 6")]);
         // The companion matrix of x^3 + t x + 5 has that characteristic polynomial (Lang, Algebra).
         let z = Poly::zero;
-        let comp = vec![vec![z(), z(), p("-5")], vec![p("1"), z(), p("-t")], vec![z(), p("1"), z()]];
+        let comp = vec![
+            vec![z(), z(), p("-5")],
+            vec![p("1"), z(), p("-t")],
+            vec![z(), p("1"), z()],
+        ];
         let cp = characteristic_polynomial(&ring, &comp, &Control::new()).unwrap();
         assert_eq!(cp, vec![p("1"), z(), p("t"), p("5")]);
     }

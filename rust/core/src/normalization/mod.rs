@@ -159,7 +159,12 @@ struct Search<'a, F: Field> {
 }
 
 impl<'a, F: Field> Search<'a, F> {
-    fn new(ring: &'a Ring<F>, gens: &'a [Poly<F>], options: &'a Options, control: &'a Control) -> Result<Self> {
+    fn new(
+        ring: &'a Ring<F>,
+        gens: &'a [Poly<F>],
+        options: &'a Options,
+        control: &'a Control,
+    ) -> Result<Self> {
         let grevlex_ring = ring.with_order(MonomialOrder::Grevlex)?;
         let adopted: Vec<Poly<F>> = gens.iter().map(|g| grevlex_ring.adopt(g.clone())).collect();
         let grevlex = groebner_basis(&grevlex_ring, &adopted, Engine::default(), control)?;
@@ -198,7 +203,11 @@ impl<'a, F: Field> Search<'a, F> {
         }
         if request.allows(Strategy::Nonlinear) {
             let (change, proof) = self.by_nagata()?;
-            let strategy = if change.is_linear() { Strategy::Linear } else { Strategy::Nonlinear };
+            let strategy = if change.is_linear() {
+                Strategy::Linear
+            } else {
+                Strategy::Nonlinear
+            };
             return Ok((change, proof, strategy));
         }
         Err(Error::invalid(format!(
@@ -219,7 +228,10 @@ impl<'a, F: Field> Search<'a, F> {
     }
 
     fn gens_grevlex(&self) -> Vec<Poly<F>> {
-        self.gens.iter().map(|g| self.grevlex.ring.adopt(g.clone())).collect()
+        self.gens
+            .iter()
+            .map(|g| self.grevlex.ring.adopt(g.clone()))
+            .collect()
     }
 
     /// A subset of the variables: free when the grevlex basis has the pure powers, else an
@@ -240,11 +252,16 @@ impl<'a, F: Field> Search<'a, F> {
             // When the parameters are already the last variables, the grevlex basis in the new
             // coordinates is the one at hand, known to lack pure powers.
             let last = set.iter().enumerate().all(|(j, &s)| s == n - set.len() + j);
-            let plan = TestPlan { grevlex_decides: self.homogeneous, skip_grevlex: last };
+            let plan = TestPlan {
+                grevlex_decides: self.homogeneous,
+                skip_grevlex: last,
+            };
             if last && self.homogeneous {
                 continue;
             }
-            if let Some(proof) = test_change(&self.grevlex.ring, &gens, &change, plan, self.control)? {
+            if let Some(proof) =
+                test_change(&self.grevlex.ring, &gens, &change, plan, self.control)?
+            {
                 return Ok(Some((change, proof)));
             }
         }
@@ -258,7 +275,11 @@ impl<'a, F: Field> Search<'a, F> {
         if d == 0 || d == n {
             return Ok(None);
         }
-        let params = self.independent_sets().into_iter().next().unwrap_or_else(|| ((n - d)..n).collect());
+        let params = self
+            .independent_sets()
+            .into_iter()
+            .next()
+            .unwrap_or_else(|| ((n - d)..n).collect());
         let nonparams = complement(&params, n);
         let mut targets = missing_pure_powers(&self.leads(), &nonparams);
         if targets.is_empty() {
@@ -266,7 +287,10 @@ impl<'a, F: Field> Search<'a, F> {
         }
         let gens = self.gens_grevlex();
         let ring = self.grevlex.ring.clone();
-        let plan = TestPlan { grevlex_decides: self.homogeneous, skip_grevlex: false };
+        let plan = TestPlan {
+            grevlex_decides: self.homogeneous,
+            skip_grevlex: false,
+        };
         for round in 0..SPARSE_TRIES.min(targets.len().max(1) + 1) {
             let change = sparse_linear(&ring, &params, &targets, round, &mut self.rng);
             if let Some(proof) = test_change(&ring, &gens, &change, plan, self.control)? {
@@ -293,7 +317,11 @@ impl<'a, F: Field> Search<'a, F> {
         let mut degrees: Vec<u32> = self.gens.iter().filter_map(|g| g.degree()).collect();
         degrees.sort_unstable_by(|a, b| b.cmp(a));
         let codim = self.ring.nvars() - self.dimension;
-        let bezout: f64 = degrees.iter().take(codim).map(|&e| f64::from(e.max(1))).product();
+        let bezout: f64 = degrees
+            .iter()
+            .take(codim)
+            .map(|&e| f64::from(e.max(1)))
+            .product();
         let q = field_size(&self.ring.field).map_or(f64::INFINITY, |q| q as f64);
         if bezout / q <= 0.5 {
             DENSE_TRIES
@@ -308,10 +336,16 @@ impl<'a, F: Field> Search<'a, F> {
     fn by_nagata(&mut self) -> Result<(Change<F>, Proof<F>)> {
         let ring = self.grevlex.ring.clone();
         let gens = self.gens_grevlex();
-        let change = nagata::nagata_change(&ring, &gens, self.dimension, &mut self.rng, self.control)?;
-        let plan = TestPlan { grevlex_decides: false, skip_grevlex: false };
+        let change =
+            nagata::nagata_change(&ring, &gens, self.dimension, &mut self.rng, self.control)?;
+        let plan = TestPlan {
+            grevlex_decides: false,
+            skip_grevlex: false,
+        };
         let proof = test_change(&ring, &gens, &change, plan, self.control)?.ok_or_else(|| {
-            Error::invalid("Noether normalization: Nagata's substitution did not give a finite projection")
+            Error::invalid(
+                "Noether normalization: Nagata's substitution did not give a finite projection",
+            )
         })?;
         Ok((change, proof))
     }

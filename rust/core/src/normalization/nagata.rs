@@ -43,8 +43,15 @@ pub fn nagata_change<F: Field>(
         let elim = ring.with_order(MonomialOrder::elimination(&integral, n))?;
         let adopted: Vec<Poly<F>> = current.iter().map(|g| elim.adopt(g.clone())).collect();
         let gb = groebner_basis(&elim, &adopted, Engine::default(), control)?;
-        let mut in_rest: Vec<&Poly<F>> =
-            gb.polys.iter().filter(|g| g.terms().iter().all(|(m, _)| integral.iter().all(|&i| m.exponents()[i] == 0))).collect();
+        let mut in_rest: Vec<&Poly<F>> = gb
+            .polys
+            .iter()
+            .filter(|g| {
+                g.terms()
+                    .iter()
+                    .all(|(m, _)| integral.iter().all(|&i| m.exponents()[i] == 0))
+            })
+            .collect();
         in_rest.sort_by_key(|g| (g.len(), g.degree()));
         let step = choose_step(&elim, &in_rest, rng).ok_or_else(|| {
             Error::invalid("Noether normalization: the elimination ideal is zero although the dimension is smaller")
@@ -56,20 +63,35 @@ pub fn nagata_change<F: Field>(
             let shift = ring.scale(&ring.pow(&coords[step.v], u64::from(*e))?, c);
             coords[*u] = ring.sub(&coords[*u], &shift);
         }
-        current = gb.polys.iter().map(|g| elim.substitute(g, &images, &elim)).collect::<Result<_>>()?;
+        current = gb
+            .polys
+            .iter()
+            .map(|g| elim.substitute(g, &images, &elim))
+            .collect::<Result<_>>()?;
         rest.retain(|&i| i != step.v);
         integral.push(step.v);
     }
     integral.sort_unstable();
-    let shifts = rest.iter().map(|&s| ring.sub(&coords[s], &ring.var(s))).collect();
-    Ok(Change { params: rest, nonparams: integral, shifts })
+    let shifts = rest
+        .iter()
+        .map(|&s| ring.sub(&coords[s], &ring.var(s)))
+        .collect();
+    Ok(Change {
+        params: rest,
+        nonparams: integral,
+        shifts,
+    })
 }
 
 /// The cheapest substitution that makes one of `candidates` monic in one of its variables v,
 /// shifting as few of its other variables as possible: none (f already monic in v), then linear
 /// shifts with random coefficients, then equal and then distinct small exponents, and Nagata's
 /// exponents (all other variables of f) last.
-fn choose_step<F: Field>(ring: &Ring<F>, candidates: &[&Poly<F>], rng: &mut Rng) -> Option<Step<F>> {
+fn choose_step<F: Field>(
+    ring: &Ring<F>,
+    candidates: &[&Poly<F>],
+    rng: &mut Rng,
+) -> Option<Step<F>> {
     let field = &ring.field;
     let one = field.one();
     let options: Vec<Candidate<'_, F>> = candidates
@@ -86,10 +108,15 @@ fn choose_step<F: Field>(ring: &Ring<F>, candidates: &[&Poly<F>], rng: &mut Rng)
                 .collect::<Vec<_>>()
         })
         .collect();
-    let test = |f: &Poly<F>, v: usize, set: &[usize], cs: &[F::Elem], es: &[u32]| top_coefficient_is_constant(ring, f, v, set, cs, es);
+    let test = |f: &Poly<F>, v: usize, set: &[usize], cs: &[F::Elem], es: &[u32]| {
+        top_coefficient_is_constant(ring, f, v, set, cs, es)
+    };
     for (f, v, _) in &options {
         if test(f, *v, &[], &[], &[]) {
-            return Some(Step { v: *v, shifts: vec![] });
+            return Some(Step {
+                v: *v,
+                shifts: vec![],
+            });
         }
     }
     for _ in 0..2 {
@@ -103,7 +130,11 @@ fn choose_step<F: Field>(ring: &Ring<F>, candidates: &[&Poly<F>], rng: &mut Rng)
             }
         }
     }
-    let max_r = candidates.iter().map(|f| exponent_bound(f)).max().unwrap_or(2);
+    let max_r = candidates
+        .iter()
+        .map(|f| exponent_bound(f))
+        .max()
+        .unwrap_or(2);
     for e in 2..=max_r {
         for (f, v, subsets) in &options {
             for set in subsets.iter().filter(|s| !s.is_empty()) {
@@ -133,7 +164,14 @@ fn subsets_by_size(items: &[usize]) -> Vec<Vec<usize>> {
         return vec![vec![], items.to_vec()];
     }
     let mut all: Vec<Vec<usize>> = (0u32..1 << items.len())
-        .map(|mask| items.iter().enumerate().filter(|(k, _)| mask >> k & 1 == 1).map(|(_, &u)| u).collect())
+        .map(|mask| {
+            items
+                .iter()
+                .enumerate()
+                .filter(|(k, _)| mask >> k & 1 == 1)
+                .map(|(_, &u)| u)
+                .collect()
+        })
         .collect();
     all.sort_by_key(|s: &Vec<usize>| s.len());
     all
@@ -143,18 +181,39 @@ fn subsets_by_size(items: &[usize]) -> Vec<Vec<usize>> {
 /// that may be shifted, smallest first.
 type Candidate<'a, F> = (&'a Poly<F>, usize, Vec<Vec<usize>>);
 
-fn step<F: Field>(v: usize, others: &[usize], coefficients: Vec<F::Elem>, exps: Vec<u32>) -> Step<F> {
-    Step { v, shifts: others.iter().copied().zip(coefficients).zip(exps).map(|((u, c), e)| (u, c, e)).collect() }
+fn step<F: Field>(
+    v: usize,
+    others: &[usize],
+    coefficients: Vec<F::Elem>,
+    exps: Vec<u32>,
+) -> Step<F> {
+    Step {
+        v,
+        shifts: others
+            .iter()
+            .copied()
+            .zip(coefficients)
+            .zip(exps)
+            .map(|((u, c), e)| (u, c, e))
+            .collect(),
+    }
 }
 
 fn support<F: Field>(f: &Poly<F>) -> Vec<usize> {
     let n = f.terms().first().map_or(0, |t| t.0.nvars());
-    (0..n).filter(|&i| f.terms().iter().any(|(m, _)| m.exponents()[i] > 0)).collect()
+    (0..n)
+        .filter(|&i| f.terms().iter().any(|(m, _)| m.exponents()[i] > 0))
+        .collect()
 }
 
 /// One more than the largest exponent in f.
 fn exponent_bound<F: Field>(f: &Poly<F>) -> u32 {
-    f.terms().iter().flat_map(|(m, _)| m.exponents().iter().copied()).max().unwrap_or(0) + 1
+    f.terms()
+        .iter()
+        .flat_map(|(m, _)| m.exponents().iter().copied())
+        .max()
+        .unwrap_or(0)
+        + 1
 }
 
 /// [e, e^2, ..., e^k], or `None` when they overflow.
@@ -176,11 +235,25 @@ fn top_coefficient_is_constant<F: Field>(
 ) -> bool {
     let field = &ring.field;
     let weight = |e: &[u32]| -> u128 {
-        u128::from(e[v]) + shifted.iter().zip(exps).map(|(&u, &w)| u128::from(e[u]) * u128::from(w)).sum::<u128>()
+        u128::from(e[v])
+            + shifted
+                .iter()
+                .zip(exps)
+                .map(|(&u, &w)| u128::from(e[u]) * u128::from(w))
+                .sum::<u128>()
     };
-    let top = f.terms().iter().map(|(m, _)| weight(m.exponents())).max().unwrap_or(0);
+    let top = f
+        .terms()
+        .iter()
+        .map(|(m, _)| weight(m.exponents()))
+        .max()
+        .unwrap_or(0);
     let mut sums: std::collections::HashMap<Vec<u32>, F::Elem> = std::collections::HashMap::new();
-    for (m, c) in f.terms().iter().filter(|(m, _)| weight(m.exponents()) == top) {
+    for (m, c) in f
+        .terms()
+        .iter()
+        .filter(|(m, _)| weight(m.exponents()) == top)
+    {
         let mut t = c.clone();
         for (&u, cu) in shifted.iter().zip(coefficients) {
             t = field.mul(&t, &field.pow(cu, u64::from(m.exponents()[u])));
@@ -193,6 +266,11 @@ fn top_coefficient_is_constant<F: Field>(
         let entry = sums.entry(rest).or_insert_with(|| field.zero());
         *entry = field.add(entry, &t);
     }
-    sums.iter().all(|(rest, c)| if rest.iter().all(|&e| e == 0) { !field.is_zero(c) } else { field.is_zero(c) })
-        && sums.keys().any(|rest| rest.iter().all(|&e| e == 0))
+    sums.iter().all(|(rest, c)| {
+        if rest.iter().all(|&e| e == 0) {
+            !field.is_zero(c)
+        } else {
+            field.is_zero(c)
+        }
+    }) && sums.keys().any(|rest| rest.iter().all(|&e| e == 0))
 }

@@ -32,7 +32,9 @@ fn vector_space_dimension(r: &Ring<PrimeField>, gens: &[P]) -> usize {
         return 0;
     }
     let all: Vec<usize> = (0..r.nvars()).collect();
-    standard_monomials(&gb.leading_monomials(), &all, r.nvars(), &Control::new()).unwrap().len()
+    standard_monomials(&gb.leading_monomials(), &all, r.nvars(), &Control::new())
+        .unwrap()
+        .len()
 }
 
 #[test]
@@ -68,9 +70,22 @@ fn cusp_is_finite_over_one_variable() {
     assert_verifies(&nn, &gens);
     // Over k[x]: the eliminating candidate with parameter x has rank 2.
     let change = changes::Change::variables(&[0], 2);
-    let plan = finiteness::TestPlan { grevlex_decides: false, skip_grevlex: false };
-    let proof = finiteness::test_change(&r, &gens, &change, plan, &Control::new()).unwrap().unwrap();
-    let over_x = certificate::build(&r, &change, &proof, Strategy::Variables, false, &Control::new()).unwrap();
+    let plan = finiteness::TestPlan {
+        grevlex_decides: false,
+        skip_grevlex: false,
+    };
+    let proof = finiteness::test_change(&r, &gens, &change, plan, &Control::new())
+        .unwrap()
+        .unwrap();
+    let over_x = certificate::build(
+        &r,
+        &change,
+        &proof,
+        Strategy::Variables,
+        false,
+        &Control::new(),
+    )
+    .unwrap();
     assert_eq!(over_x.rank, 2);
     assert_verifies(&over_x, &gens);
 }
@@ -84,9 +99,22 @@ fn affine_twisted_cubic_has_rank_one() {
     assert_eq!(nn.dimension, 1);
     assert_verifies(&nn, &gens);
     let change = changes::Change::variables(&[0], 3);
-    let plan = finiteness::TestPlan { grevlex_decides: false, skip_grevlex: false };
-    let proof = finiteness::test_change(&r, &gens, &change, plan, &Control::new()).unwrap().unwrap();
-    let over_x = certificate::build(&r, &change, &proof, Strategy::Variables, false, &Control::new()).unwrap();
+    let plan = finiteness::TestPlan {
+        grevlex_decides: false,
+        skip_grevlex: false,
+    };
+    let proof = finiteness::test_change(&r, &gens, &change, plan, &Control::new())
+        .unwrap()
+        .unwrap();
+    let over_x = certificate::build(
+        &r,
+        &change,
+        &proof,
+        Strategy::Variables,
+        false,
+        &Control::new(),
+    )
+    .unwrap();
     assert_eq!(over_x.rank, 1);
     // y = x^2 and z = x^3 as equations of degree 1.
     let eq_text: Vec<Vec<String>> = over_x.to_text().equations;
@@ -130,10 +158,23 @@ fn zero_ideal_and_unit_ideal() {
     let nn = normalize(&r, &[]);
     assert_eq!(nn.dimension, 2);
     assert_eq!(nn.parameters, polys(&r, &["x", "y"]));
-    assert_eq!(nn.to_text().equations, vec![vec!["1", "-t1"], vec!["1", "-t2"]]);
+    assert_eq!(
+        nn.to_text().equations,
+        vec![vec!["1", "-t1"], vec!["1", "-t2"]]
+    );
     assert_verifies(&nn, &[]);
-    let err = noether_normalization(&r, &polys(&r, &["x", "x - 1"]), &Options::default(), &Control::new()).unwrap_err();
-    assert!(err.to_string().contains("no solutions over the algebraic closure"), "{err}");
+    let err = noether_normalization(
+        &r,
+        &polys(&r, &["x", "x - 1"]),
+        &Options::default(),
+        &Control::new(),
+    )
+    .unwrap_err();
+    assert!(
+        err.to_string()
+            .contains("no solutions over the algebraic closure"),
+        "{err}"
+    );
 }
 
 #[test]
@@ -143,10 +184,13 @@ fn rational_lines_need_a_nonlinear_change() {
     // Every linear form over GF(q) vanishes on one of these lines, so no linear parameter exists.
     for q in [2u64, 3, 5, 7] {
         let r = ring(q, &["x", "y"]);
-        let gens = polys(&r, &["x^".to_string() + &q.to_string() + "*y - x*y^" + &q.to_string()]
-            .iter()
-            .map(String::as_str)
-            .collect::<Vec<_>>());
+        let gens = polys(
+            &r,
+            &["x^".to_string() + &q.to_string() + "*y - x*y^" + &q.to_string()]
+                .iter()
+                .map(String::as_str)
+                .collect::<Vec<_>>(),
+        );
         let nn = normalize(&r, &gens);
         assert_eq!(nn.dimension, 1);
         assert_eq!(nn.strategy, Strategy::Nonlinear, "q = {q}");
@@ -154,7 +198,10 @@ fn rational_lines_need_a_nonlinear_change() {
         // The smallest exponent works: p = y ± x^2 (or x ± y^2). It has degree 1 on one line
         // and degree 2 on each of the q others, so the rank is 2q + 1.
         let p = r.format(&nn.parameters[0]);
-        assert!(["x^2 + y", "-x^2 + y", "y^2 + x", "-y^2 + x"].contains(&p.as_str()), "q = {q}: parameter {p}");
+        assert!(
+            ["x^2 + y", "-x^2 + y", "y^2 + x", "-y^2 + x"].contains(&p.as_str()),
+            "q = {q}: parameter {p}"
+        );
         assert_eq!(nn.rank, 2 * q as usize + 1, "q = {q}");
         assert_verifies(&nn, &gens);
     }
@@ -166,19 +213,30 @@ fn tampered_certificates_are_rejected() {
     let gens = polys(&r, &["x*y"]);
     let nn = normalize(&r, &gens);
     let good = nn.to_text();
-    let check = |text: &CertificateText| check_certificate(&r, &gens, text, &Control::new()).unwrap();
+    let check =
+        |text: &CertificateText| check_certificate(&r, &gens, text, &Control::new()).unwrap();
     assert!(check(&good).is_empty());
 
     let mut changed = good.clone();
     let last = changed.equations[0].len() - 1;
     changed.equations[0][last] = format!("({}) + 1", changed.equations[0][last]);
     let problems = check(&changed);
-    assert!(problems.iter().any(|p| p.contains("equation for x does not lie in the ideal")), "{problems:?}");
+    assert!(
+        problems
+            .iter()
+            .any(|p| p.contains("equation for x does not lie in the ideal")),
+        "{problems:?}"
+    );
 
     let mut dropped = good.clone();
     dropped.equations.pop();
     let problems = check(&dropped);
-    assert!(problems.iter().any(|p| p.contains("1 equations for 2 variables")), "{problems:?}");
+    assert!(
+        problems
+            .iter()
+            .any(|p| p.contains("1 equations for 2 variables")),
+        "{problems:?}"
+    );
 
     let mut wrong_d = good.clone();
     wrong_d.dimension = 0;
@@ -188,12 +246,20 @@ fn tampered_certificates_are_rejected() {
     let mut not_monic = good.clone();
     not_monic.equations[1][0] = "2".into();
     let problems = check(&not_monic);
-    assert!(problems.iter().any(|p| p.contains("equation for y is not monic")), "{problems:?}");
+    assert!(
+        problems
+            .iter()
+            .any(|p| p.contains("equation for y is not monic")),
+        "{problems:?}"
+    );
 
     let mut bad_inverse = good.clone();
     bad_inverse.inverse[0] = format!("{} + 1", bad_inverse.inverse[0]);
     let problems = check(&bad_inverse);
-    assert!(problems.iter().any(|p| p.contains("inverse image of x")), "{problems:?}");
+    assert!(
+        problems.iter().any(|p| p.contains("inverse image of x")),
+        "{problems:?}"
+    );
 
     let mut unreadable = good;
     unreadable.parameters[0] = "x +* y".into();
@@ -219,12 +285,18 @@ fn fiber_dimension_is_bounded_by_module_generators() {
 fn seed_reproduces_the_result() {
     let r = ring(32003, &["x", "y", "z"]);
     let gens = polys(&r, &["x*y - z", "x*z"]);
-    let opts = Options { request: Request::Auto, seed: 17 };
+    let opts = Options {
+        request: Request::Auto,
+        seed: 17,
+    };
     let a = noether_normalization(&r, &gens, &opts, &Control::new()).unwrap();
     let b = noether_normalization(&r, &gens, &opts, &Control::new()).unwrap();
     assert_eq!(a.to_text(), b.to_text());
     assert_verifies(&a, &gens);
-    let forced = Options { request: Request::Only(Strategy::Nonlinear), seed: 3 };
+    let forced = Options {
+        request: Request::Only(Strategy::Nonlinear),
+        seed: 3,
+    };
     let c = noether_normalization(&r, &gens, &forced, &Control::new()).unwrap();
     assert_verifies(&c, &gens);
 }
@@ -268,7 +340,10 @@ fn random_ideals_verify_over_small_and_large_primes() {
         let gens = random_ideal(&r, &mut rng, count);
         let gb = groebner_basis(&r, &gens, Engine::default(), &Control::new()).unwrap();
         let dim = crate::dimension::krull_dimension(n, &gb.leading_monomials());
-        let opts = Options { request: Request::Auto, seed: case as u64 };
+        let opts = Options {
+            request: Request::Auto,
+            seed: case as u64,
+        };
         let result = noether_normalization(&r, &gens, &opts, &Control::new());
         if dim < 0 {
             assert!(result.is_err());

@@ -42,7 +42,10 @@ fn textbook_elliptic_curve_over_gf5() {
     // y^2 = x^3 + x + 1 over GF(5): 8 affine points, 9 with the point at infinity (common
     // textbook example; also enumerated).
     assert_eq!(affine(5, &["x", "y"], &["y^2 - x^3 - x - 1"]), 8);
-    assert_eq!(projective(5, &["x", "y", "z"], &["y^2*z - x^3 - x*z^2 - z^3"]), 9);
+    assert_eq!(
+        projective(5, &["x", "y", "z"], &["y^2*z - x^3 - x*z^2 - z^3"]),
+        9
+    );
 }
 
 #[test]
@@ -84,7 +87,11 @@ fn union_of_all_rational_lines() {
 #[test]
 fn projective_counts_agree_with_charts_by_enumeration() {
     // Klein quartic over GF(p) and a conic: projective points = (affine cone points - 1)/(p - 1).
-    for (p, gens) in [(5u64, vec!["x^3*y + y^3*z + z^3*x"]), (7, vec!["x^2 + y^2 - z^2"]), (3, vec!["x*y - z*w", "x^2 - y*w"])] {
+    for (p, gens) in [
+        (5u64, vec!["x^3*y + y^3*z + z^3*x"]),
+        (7, vec!["x^2 + y^2 - z^2"]),
+        (3, vec!["x*y - z*w", "x^2 - y*w"]),
+    ] {
         let vars: Vec<&str> = ["x", "y", "z", "w"][..if gens.len() == 2 { 4 } else { 3 }].to_vec();
         let r = ring(p, &vars);
         let g = polys(&r, &gens);
@@ -102,7 +109,10 @@ fn hasse_weil_bound_for_elliptic_curves() {
         assert_ne!((4 * a * a * a + 27 * b * b) % q, 0);
         let f = format!("y^2*z - x^3 - {a}*x*z^2 - {b}*z^3");
         let n = projective(q, &["x", "y", "z"], &[&f]) as f64;
-        assert!((n - (q as f64 + 1.0)).abs() <= 2.0 * (q as f64).sqrt(), "GF({q}): {n}");
+        assert!(
+            (n - (q as f64 + 1.0)).abs() <= 2.0 * (q as f64).sqrt(),
+            "GF({q}): {n}"
+        );
     }
 }
 
@@ -119,6 +129,12 @@ fn large_field_exponent_is_cheap() {
 #[test]
 fn projective_count_needs_homogeneous_input() {
     let r = ring(5, &["x", "y", "z"]);
-    let err = count_projective_points(&r, &polys(&r, &["x^2 - y"]), Engine::default(), &Control::new()).unwrap_err();
+    let err = count_projective_points(
+        &r,
+        &polys(&r, &["x^2 - y"]),
+        Engine::default(),
+        &Control::new(),
+    )
+    .unwrap_err();
     assert!(err.to_string().contains("not homogeneous"), "{err}");
 }

@@ -23,12 +23,22 @@ pub struct Echelon<F: Field> {
 impl<F: Field> Echelon<F> {
     /// An echelon that records combinations, for [`Echelon::add`]'s dependence.
     pub fn new(field: F) -> Self {
-        Echelon { field, rows: Vec::new(), inputs: 0, track: true }
+        Echelon {
+            field,
+            rows: Vec::new(),
+            inputs: 0,
+            track: true,
+        }
     }
 
     /// An echelon for spans and ranks only (no combinations kept).
     pub fn span(field: F) -> Self {
-        Echelon { field, rows: Vec::new(), inputs: 0, track: false }
+        Echelon {
+            field,
+            rows: Vec::new(),
+            inputs: 0,
+            track: false,
+        }
     }
 
     /// Dimension of the span of the vectors added so far.
@@ -42,11 +52,20 @@ impl<F: Field> Echelon<F> {
     pub fn add(&mut self, mut v: Vec<F::Elem>) -> Option<Vec<F::Elem>> {
         let f = &self.field;
         let k = self.inputs;
-        let mut combo = if self.track { vec![f.zero(); k + 1] } else { vec![] };
+        let mut combo = if self.track {
+            vec![f.zero(); k + 1]
+        } else {
+            vec![]
+        };
         if self.track {
             combo[k] = f.one();
         }
-        for EchelonRow { row, pivot, combination } in &self.rows {
+        for EchelonRow {
+            row,
+            pivot,
+            combination,
+        } in &self.rows
+        {
             let factor = v[*pivot].clone();
             if f.is_zero(&factor) {
                 continue;
@@ -58,11 +77,17 @@ impl<F: Field> Echelon<F> {
                 *x = f.sub(x, &f.mul(&factor, y));
             }
         }
-        let Some(pivot) = v.iter().position(|x| !f.is_zero(x)) else { return Some(combo) };
+        let Some(pivot) = v.iter().position(|x| !f.is_zero(x)) else {
+            return Some(combo);
+        };
         let inv = f.inv(&v[pivot]).expect("nonzero");
         let row = v.iter().map(|x| f.mul(x, &inv)).collect();
         let combination = combo.iter().map(|x| f.mul(x, &inv)).collect();
-        self.rows.push(EchelonRow { row, pivot, combination });
+        self.rows.push(EchelonRow {
+            row,
+            pivot,
+            combination,
+        });
         self.inputs += 1;
         None
     }

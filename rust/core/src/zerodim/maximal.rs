@@ -20,18 +20,28 @@ use crate::frobenius::field_order_limbs;
 use crate::groebner::GroebnerBasis;
 
 /// The coordinates of x_i^q in R/I for each variable, q the field order.
-pub fn frobenius_coordinates<F: Field>(quotient: &Quotient<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+pub fn frobenius_coordinates<F: Field>(
+    quotient: &Quotient<F>,
+    control: &Control,
+) -> Result<Vec<Vec<F::Elem>>> {
     let ring = &quotient.basis.ring;
     let q = field_order_limbs(&ring.field, "the Frobenius map")?;
-    (0..ring.nvars()).map(|i| quotient.power(&quotient.coordinates(&ring.var(i))?, &q, control)).collect()
+    (0..ring.nvars())
+        .map(|i| quotient.power(&quotient.coordinates(&ring.var(i))?, &q, control))
+        .collect()
 }
 
 /// Columns: coordinates of b^q for each standard monomial b, from b^q = (b / x_i)^q · x_i^q.
-fn frobenius_matrix<F: Field>(quotient: &Quotient<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+fn frobenius_matrix<F: Field>(
+    quotient: &Quotient<F>,
+    control: &Control,
+) -> Result<Vec<Vec<F::Elem>>> {
     let ring = &quotient.basis.ring;
     let images = frobenius_coordinates(quotient, control)?;
-    let image_multiples: Vec<Vec<Vec<F::Elem>>> =
-        images.iter().map(|x| quotient.multiples(x, control)).collect::<Result<_>>()?;
+    let image_multiples: Vec<Vec<Vec<F::Elem>>> = images
+        .iter()
+        .map(|x| quotient.multiples(x, control))
+        .collect::<Result<_>>()?;
     // b_j = x_i · b_k with k < j, so the image of b_k is ready.
     let mut image_of: Vec<Vec<F::Elem>> = Vec::with_capacity(quotient.dimension());
     for j in 0..quotient.dimension() {
@@ -76,7 +86,9 @@ pub fn is_maximal<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<
 /// [R/I : k] for a maximal ideal I; an error naming the problem otherwise.
 pub fn residue_field_degree<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<u128> {
     if !is_maximal(gb, control)? {
-        return Err(Error::invalid("residue_field_degree needs a maximal ideal; this ideal is not maximal"));
+        return Err(Error::invalid(
+            "residue_field_degree needs a maximal ideal; this ideal is not maximal",
+        ));
     }
     super::vector_space_dimension(gb, control)
 }

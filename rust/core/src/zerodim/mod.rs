@@ -90,7 +90,11 @@ impl<F: Field> Quotient<F> {
         }
         let ring = &basis.ring;
         monomials.sort_by(|a, b| ring.cmp(a, b));
-        let index: HashMap<Monomial, usize> = monomials.iter().enumerate().map(|(k, m)| (m.clone(), k)).collect();
+        let index: HashMap<Monomial, usize> = monomials
+            .iter()
+            .enumerate()
+            .map(|(k, m)| (m.clone(), k))
+            .collect();
         let parents = monomials
             .iter()
             .map(|b| {
@@ -98,7 +102,13 @@ impl<F: Field> Quotient<F> {
                 Some((i, index[&b.div(&Monomial::var_power(n, i, 1))]))
             })
             .collect();
-        Ok(Quotient { basis, monomials, index, parents, variable_columns: OnceLock::new() })
+        Ok(Quotient {
+            basis,
+            monomials,
+            index,
+            parents,
+            variable_columns: OnceLock::new(),
+        })
     }
 
     pub fn dimension(&self) -> usize {
@@ -182,13 +192,14 @@ impl<F: Field> Quotient<F> {
         }
         monomials.sort_by(|a, b| ring.cmp(a, b));
         monomials.dedup();
-        let leads: std::collections::HashSet<Monomial> = self.basis.leading_monomials().into_iter().collect();
-        let mut border: HashMap<Monomial, SparseColumn<F>> = HashMap::with_capacity(monomials.len());
+        let leads: std::collections::HashSet<Monomial> =
+            self.basis.leading_monomials().into_iter().collect();
+        let mut border: HashMap<Monomial, SparseColumn<F>> =
+            HashMap::with_capacity(monomials.len());
         for m in monomials {
             control.check()?;
-            let smaller = (0..n).find(|&j| {
-                m.exponents()[j] > 0 && border.contains_key(&m.div(&variables[j]))
-            });
+            let smaller = (0..n)
+                .find(|&j| m.exponents()[j] > 0 && border.contains_key(&m.div(&variables[j])));
             let column = match smaller {
                 Some(j) if !leads.contains(&m) => {
                     let mut dense = vec![field.zero(); self.dimension()];
@@ -203,11 +214,18 @@ impl<F: Field> Quotient<F> {
                             }
                         }
                     }
-                    dense.into_iter().enumerate().filter(|(_, c)| !field.is_zero(c)).collect()
+                    dense
+                        .into_iter()
+                        .enumerate()
+                        .filter(|(_, c)| !field.is_zero(c))
+                        .collect()
                 }
                 _ => {
                     let nf = self.basis.reduce(&ring.term(m.clone(), field.one()))?;
-                    nf.into_terms().into_iter().map(|(t, c)| (self.index[&t], c)).collect()
+                    nf.into_terms()
+                        .into_iter()
+                        .map(|(t, c)| (self.index[&t], c))
+                        .collect()
                 }
             };
             border.insert(m, column);
@@ -262,12 +280,22 @@ impl<F: Field> Quotient<F> {
     }
 
     /// The product a·c in R/I.
-    pub fn multiply(&self, a: &[F::Elem], c: &[F::Elem], control: &Control) -> Result<Vec<F::Elem>> {
+    pub fn multiply(
+        &self,
+        a: &[F::Elem],
+        c: &[F::Elem],
+        control: &Control,
+    ) -> Result<Vec<F::Elem>> {
         Ok(self.combine(a, &self.multiples(c, control)?))
     }
 
     /// v^e in R/I, e as little-endian 64-bit limbs, by square-and-multiply.
-    pub fn power(&self, v: &[F::Elem], exponent: &[u64], control: &Control) -> Result<Vec<F::Elem>> {
+    pub fn power(
+        &self,
+        v: &[F::Elem],
+        exponent: &[u64],
+        control: &Control,
+    ) -> Result<Vec<F::Elem>> {
         let mut acc = self.coordinates(&self.basis.ring.one())?;
         let base_multiples = self.multiples(v, control)?;
         for k in (0..exponent.len() * 64).rev() {
@@ -281,10 +309,16 @@ impl<F: Field> Quotient<F> {
 
     /// The matrix of multiplication by f: entry (i, j) is the coefficient of the i-th standard
     /// monomial in f·b_j (column j holds the image of the j-th basis monomial).
-    pub fn multiplication_matrix(&self, f: &Poly<F>, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
+    pub fn multiplication_matrix(
+        &self,
+        f: &Poly<F>,
+        control: &Control,
+    ) -> Result<Vec<Vec<F::Elem>>> {
         let columns = self.multiples(&self.coordinates(f)?, control)?;
         let d = self.dimension();
-        Ok((0..d).map(|i| columns.iter().map(|col| col[i].clone()).collect()).collect())
+        Ok((0..d)
+            .map(|i| columns.iter().map(|col| col[i].clone()).collect())
+            .collect())
     }
 
     /// The monic minimal polynomial of f in R/I: the first dependence among 1, f, f^2, ...

@@ -18,7 +18,11 @@ use crate::poly::{Poly, Ring};
 /// The univariate polynomial g as a polynomial in variable `var` of `ring`.
 fn in_variable<F: Field>(ring: &Ring<F>, g: &Univariate<F>, var: usize) -> Poly<F> {
     let n = ring.nvars();
-    ring.from_terms(g.iter().enumerate().map(|(e, c)| (Monomial::var_power(n, var, e as u32), c.clone())))
+    ring.from_terms(
+        g.iter()
+            .enumerate()
+            .map(|(e, c)| (Monomial::var_power(n, var, e as u32), c.clone())),
+    )
 }
 
 /// For each variable, its minimal polynomial in R/I and that polynomial's squarefree part.
@@ -37,7 +41,11 @@ pub fn variable_minimal_polynomials<F: Field>(
 }
 
 /// A Gröbner basis (same order) of the radical of the zero-dimensional ideal with basis `gb`.
-pub fn zero_dimensional_radical<F: Field>(gb: &GroebnerBasis<F>, engine: Engine, control: &Control) -> Result<GroebnerBasis<F>> {
+pub fn zero_dimensional_radical<F: Field>(
+    gb: &GroebnerBasis<F>,
+    engine: Engine,
+    control: &Control,
+) -> Result<GroebnerBasis<F>> {
     if gb.is_unit_ideal() {
         return Ok(gb.clone());
     }
@@ -45,7 +53,10 @@ pub fn zero_dimensional_radical<F: Field>(gb: &GroebnerBasis<F>, engine: Engine,
     let ring = &gb.ring;
     let mut gens = gb.polys.clone();
     let mut changed = false;
-    for (i, (m, s)) in variable_minimal_polynomials(&quotient, control)?.into_iter().enumerate() {
+    for (i, (m, s)) in variable_minimal_polynomials(&quotient, control)?
+        .into_iter()
+        .enumerate()
+    {
         if degree::<F>(&s) < degree::<F>(&m) {
             gens.push(in_variable(ring, &s, i));
             changed = true;
@@ -58,7 +69,11 @@ pub fn zero_dimensional_radical<F: Field>(gb: &GroebnerBasis<F>, engine: Engine,
 }
 
 /// Number of distinct points of V(I) over the algebraic closure, for zero-dimensional I.
-pub fn count_solutions<F: Field>(gb: &GroebnerBasis<F>, engine: Engine, control: &Control) -> Result<u128> {
+pub fn count_solutions<F: Field>(
+    gb: &GroebnerBasis<F>,
+    engine: Engine,
+    control: &Control,
+) -> Result<u128> {
     super::require_zero_dimensional(gb, "count_solutions")?;
     vector_space_dimension(&zero_dimensional_radical(gb, engine, control)?, control)
 }

@@ -69,15 +69,28 @@ fn multiplication_matrices_obey_stickelberger() {
     assert_eq!(linear::rank(&ring.field, mx.clone()), 2);
     // Multiplication matrices of R/I commute.
     let product = |a: &Vec<Vec<u64>>, b: &Vec<Vec<u64>>| -> Vec<Vec<u64>> {
-        (0..3).map(|i| (0..3).map(|j| (0..3).fold(0, |s, k| (s + a[i][k] * b[k][j]) % 101)).collect()).collect()
+        (0..3)
+            .map(|i| {
+                (0..3)
+                    .map(|j| (0..3).fold(0, |s, k| (s + a[i][k] * b[k][j]) % 101))
+                    .collect()
+            })
+            .collect()
     };
     assert_eq!(product(&mx, &my), product(&my, &mx));
     // In grevlex x^2 leads y - x^2, then x·y and y^2 lead: standard monomials 1 < y < x.
     let names = ring.names();
-    let listed: Vec<String> = q.standard_monomials().iter().map(|m| m.format(names)).collect();
+    let listed: Vec<String> = q
+        .standard_monomials()
+        .iter()
+        .map(|m| m.format(names))
+        .collect();
     assert_eq!(listed, vec!["1", "y", "x"]);
     // The minimal polynomial of y is (y)(y - 1)(y - 4) = y^3 - 5y^2 + 4y.
-    assert_eq!(q.minimal_polynomial(&ring.var(1), &c).unwrap(), vec![0, 4, 101 - 5, 1]);
+    assert_eq!(
+        q.minimal_polynomial(&ring.var(1), &c).unwrap(),
+        vec![0, 4, 101 - 5, 1]
+    );
 }
 
 #[test]
@@ -110,7 +123,10 @@ fn maximal_ideals_and_residue_degrees() {
     assert!(is_maximal(&gf343, &c).unwrap());
     assert_eq!(residue_field_degree(&gf343, &c).unwrap(), 3);
     // A rational point is maximal of degree 1; a double point, two points and a curve are not.
-    assert_eq!(residue_field_degree(&basis(5, &["x", "y"], &["x - 1", "y + 2"]), &c).unwrap(), 1);
+    assert_eq!(
+        residue_field_degree(&basis(5, &["x", "y"], &["x - 1", "y + 2"]), &c).unwrap(),
+        1
+    );
     assert!(!is_maximal(&basis(5, &["x", "y"], &["x^2", "y"]), &c).unwrap());
     assert!(!is_maximal(&basis(5, &["x", "y"], &["x^2 - 1", "y"]), &c).unwrap());
     assert!(!is_maximal(&basis(5, &["x", "y"], &["x*y - 1"]), &c).unwrap());
@@ -123,10 +139,16 @@ fn maximal_ideals_and_residue_degrees() {
 fn positive_dimensional_ideals_are_rejected() {
     let gb = basis(7, &["x", "y", "z"], &["x*y - z"]);
     let err = vector_space_dimension(&gb, &Control::new()).unwrap_err();
-    assert!(matches!(err, crate::Error::InvalidInput(ref m) if m.contains("dimension 2")), "{err}");
+    assert!(
+        matches!(err, crate::Error::InvalidInput(ref m) if m.contains("dimension 2")),
+        "{err}"
+    );
     assert!(Quotient::new(gb, &Control::new()).is_err());
     // The unit ideal: R/I = 0.
-    assert_eq!(vector_space_dimension(&basis(7, &["x"], &["x", "x - 1"]), &Control::new()).unwrap(), 0);
+    assert_eq!(
+        vector_space_dimension(&basis(7, &["x"], &["x", "x - 1"]), &Control::new()).unwrap(),
+        0
+    );
 }
 
 #[test]
@@ -149,7 +171,10 @@ fn quotient_powers_agree_with_powers_of_normal_forms() {
 fn multiplication_matrices_agree_with_the_division_algorithm() {
     // Border normal forms are built from earlier ones; each column must equal the remainder of
     // x_i·b_j by the division algorithm (Cox–Little–O'Shea §2.3).
-    for (vars, gens) in [(&["a", "b", "c", "d", "e"][..], &CYCLIC5[..]), (&["u0", "u1", "u2", "u3", "u4"][..], &KATSURA4[..])] {
+    for (vars, gens) in [
+        (&["a", "b", "c", "d", "e"][..], &CYCLIC5[..]),
+        (&["u0", "u1", "u2", "u3", "u4"][..], &KATSURA4[..]),
+    ] {
         let gb = basis(32003, vars, gens);
         let c = Control::new();
         let q = Quotient::new(gb.clone(), &c).unwrap();
@@ -157,7 +182,8 @@ fn multiplication_matrices_agree_with_the_division_algorithm() {
         for i in 0..ring.nvars() {
             let matrix = q.multiplication_matrix(&ring.var(i), &c).unwrap();
             for (j, b) in q.standard_monomials().iter().enumerate() {
-                let product = ring.term(b.mul(&Monomial::var_power(ring.nvars(), i, 1)).unwrap(), 1);
+                let product =
+                    ring.term(b.mul(&Monomial::var_power(ring.nvars(), i, 1)).unwrap(), 1);
                 let expected = q.coordinates(&product).unwrap();
                 let column: Vec<u64> = matrix.iter().map(|row| row[j]).collect();
                 assert_eq!(column, expected, "x{i} times {}", b.format(ring.names()));

@@ -28,14 +28,22 @@ fn monic<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
 }
 
 fn derivative<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
-    let mut d: Univariate<F> =
-        p.iter().enumerate().skip(1).map(|(i, c)| field.mul(c, &field.from_i64(i as i64))).collect();
+    let mut d: Univariate<F> = p
+        .iter()
+        .enumerate()
+        .skip(1)
+        .map(|(i, c)| field.mul(c, &field.from_i64(i as i64)))
+        .collect();
     trim(field, &mut d);
     d
 }
 
 /// (quotient, remainder) of a by b ≠ 0.
-fn divide<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> (Univariate<F>, Univariate<F>) {
+fn divide<F: Field>(
+    field: &F,
+    a: &Univariate<F>,
+    b: &Univariate<F>,
+) -> (Univariate<F>, Univariate<F>) {
     let db = degree::<F>(b).expect("division by zero polynomial");
     let inv = field.inv(&b[db]).expect("nonzero");
     let mut r = a.clone();
@@ -139,7 +147,10 @@ mod tests {
         let expected = expand(&f, &[(&[1, 1], 1), (&[1, 0, 1], 1), (&[0, 1], 1)]);
         assert_eq!(squarefree_part(&f, &poly), expected);
         let p_power = expand(&f, &[(&[1, 1], 3), (&[0, 1], 6)]);
-        assert_eq!(squarefree_part(&f, &p_power), expand(&f, &[(&[1, 1], 1), (&[0, 1], 1)]));
+        assert_eq!(
+            squarefree_part(&f, &p_power),
+            expand(&f, &[(&[1, 1], 1), (&[0, 1], 1)])
+        );
         // x^9 - x over GF(3) is squarefree (it is the product of x - a over GF(9) ⊃ GF(3)).
         let mut frob = vec![0; 10];
         frob[9] = 1;

@@ -28,7 +28,11 @@ impl PartialEq for BinaryField {
 fn clmul(a: u64, b: u64) -> u128 {
     let mut table = [0u128; 16];
     for i in 1..16 {
-        table[i] = if i & 1 == 1 { table[i - 1] ^ a as u128 } else { table[i / 2] << 1 };
+        table[i] = if i & 1 == 1 {
+            table[i - 1] ^ a as u128
+        } else {
+            table[i / 2] << 1
+        };
     }
     let mut r = 0u128;
     for nibble in (0..16).rev() {
@@ -127,7 +131,10 @@ impl Field for BinaryField {
         (v & 1) as u64
     }
     fn from_decimal(&self, digits: &str) -> u64 {
-        digits.bytes().last().map_or(0, |d| u64::from((d - b'0') & 1))
+        digits
+            .bytes()
+            .last()
+            .map_or(0, |d| u64::from((d - b'0') & 1))
     }
     fn characteristic(&self) -> String {
         "2".into()

@@ -36,7 +36,10 @@ impl ExtensionField {
 
     /// GF(p^k) on its default modulus.
     pub fn with_default_modulus(p: u64, k: u32) -> Result<Self> {
-        Ok(ExtensionField::new(Modulus::first_irreducible(PrimeField::new(p)?, k)?))
+        Ok(ExtensionField::new(Modulus::first_irreducible(
+            PrimeField::new(p)?,
+            k,
+        )?))
     }
 
     pub fn modulus(&self) -> &Modulus {

@@ -70,7 +70,11 @@ impl Modulus {
         }
         let lead_inv = base.inv(coeffs.last().unwrap()).expect("nonzero");
         let coeffs = coeffs.iter().map(|c| base.mul(c, &lead_inv)).collect();
-        let mut m = Modulus { base, coeffs, is_default: false };
+        let mut m = Modulus {
+            base,
+            coeffs,
+            is_default: false,
+        };
         if let Some(why) = m.reducibility_witness() {
             return Err(Error::invalid(format!(
                 "the modulus {} is reducible over GF({p}){why}",
@@ -92,7 +96,11 @@ impl Modulus {
         loop {
             let mut coeffs = lower.clone();
             coeffs.push(1);
-            let m = Modulus { base: base.clone(), coeffs, is_default: true };
+            let m = Modulus {
+                base: base.clone(),
+                coeffs,
+                is_default: true,
+            };
             if lower[0] != 0 && m.reducibility_witness().is_none() {
                 return Ok(m);
             }
@@ -106,7 +114,9 @@ impl Modulus {
                 lower[i] = 0;
                 i += 1;
                 if i == k as usize {
-                    return Err(Error::invalid(format!("no irreducible polynomial of degree {k} over GF({p})")));
+                    return Err(Error::invalid(format!(
+                        "no irreducible polynomial of degree {k} over GF({p})"
+                    )));
                 }
             }
         }
@@ -186,13 +196,20 @@ impl Modulus {
 
     fn eval(&self, r: u64) -> u64 {
         let b = &self.base;
-        self.coeffs.iter().rev().fold(0, |acc, c| b.add(&b.mul(&acc, &r), c))
+        self.coeffs
+            .iter()
+            .rev()
+            .fold(0, |acc, c| b.add(&b.mul(&acc, &r), c))
     }
 
     pub(crate) fn sub(&self, a: &[u64], b: &[u64]) -> Dense {
         let b_ = &self.base;
         let n = a.len().max(b.len());
-        trim((0..n).map(|i| b_.sub(a.get(i).unwrap_or(&0), b.get(i).unwrap_or(&0))).collect())
+        trim(
+            (0..n)
+                .map(|i| b_.sub(a.get(i).unwrap_or(&0), b.get(i).unwrap_or(&0)))
+                .collect(),
+        )
     }
 
     /// Product of two dense polynomials (no reduction).
@@ -217,7 +234,9 @@ impl Modulus {
     fn rem(&self, mut a: Dense, m: &[u64]) -> Dense {
         let f = &self.base;
         let dm = m.len() - 1;
-        let lead_inv = f.inv(m.last().unwrap()).expect("nonzero leading coefficient");
+        let lead_inv = f
+            .inv(m.last().unwrap())
+            .expect("nonzero leading coefficient");
         while a.len() > dm {
             let top = a.len() - 1;
             let c = f.mul(&a[top], &lead_inv);

@@ -37,7 +37,13 @@ impl TableField {
             )));
         }
         let (p, q) = (modulus.characteristic() as u32, q64 as u32);
-        let mut f = TableField { modulus, p, q, exp: Vec::new(), log: vec![0; q as usize] };
+        let mut f = TableField {
+            modulus,
+            p,
+            q,
+            exp: Vec::new(),
+            log: vec![0; q as usize],
+        };
         let g = f.primitive_element();
         let mut x: Dense = vec![1];
         f.exp = Vec::with_capacity(2 * (q as usize - 1));
@@ -77,7 +83,11 @@ impl TableField {
         let factors = prime_divisors(n);
         (2..self.q)
             .map(|x| self.decode(x))
-            .find(|g| factors.iter().all(|r| self.modulus.pow_mod(g, n / r) != vec![1]))
+            .find(|g| {
+                factors
+                    .iter()
+                    .all(|r| self.modulus.pow_mod(g, n / r) != vec![1])
+            })
             .expect("a finite field has a primitive element")
     }
 

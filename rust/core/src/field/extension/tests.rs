@@ -42,16 +42,33 @@ fn irreducible_by_trial_division(p: u64, f: &[u64]) -> bool {
 fn default_modulus_is_the_first_irreducible() {
     // GF(2^8): a^8 + a^4 + a^3 + a + 1, the modulus of FIPS-197 (AES) §4.2, from memory.
     assert_eq!(default_modulus(2, 8).text(), "a^8 + a^4 + a^3 + a + 1");
-    for (p, k) in [(2u64, 2u32), (2, 3), (2, 4), (2, 8), (3, 2), (3, 3), (3, 5), (5, 2), (7, 3), (2, 16)] {
+    for (p, k) in [
+        (2u64, 2u32),
+        (2, 3),
+        (2, 4),
+        (2, 8),
+        (3, 2),
+        (3, 3),
+        (3, 5),
+        (5, 2),
+        (7, 3),
+        (2, 16),
+    ] {
         let m = default_modulus(p, k);
-        assert!(irreducible_by_trial_division(p, m.coefficients()), "GF({p}^{k})");
+        assert!(
+            irreducible_by_trial_division(p, m.coefficients()),
+            "GF({p}^{k})"
+        );
         // Every smaller monic polynomial of degree k (integer order) is reducible.
         let code_of = |c: &[u64]| c.iter().rev().skip(1).fold(0u64, |acc, &d| acc * p + d);
         if p.pow(k) <= 1 << 10 {
             for code in 0..code_of(m.coefficients()) {
                 let mut g: Vec<u64> = (0..k).map(|i| (code / p.pow(i)) % p).collect();
                 g.push(1);
-                assert!(!irreducible_by_trial_division(p, &g), "GF({p}^{k}) code {code}");
+                assert!(
+                    !irreducible_by_trial_division(p, &g),
+                    "GF({p}^{k}) code {code}"
+                );
             }
         }
     }
@@ -88,20 +105,40 @@ fn aes_products_from_fips_197() {
     assert_eq!(t.mul(&0x57, &0x13), 0xfe);
     assert_eq!(t.inv(&0x53), Some(0xca));
     let enc = |x: &Box<[u64]>| t.encode(x);
-    assert_eq!(enc(&e.mul(&e.from_coefficients(&t.decode(0x57)), &e.from_coefficients(&t.decode(0x83)))), 0xc1);
-    assert_eq!(enc(&e.inv(&e.from_coefficients(&t.decode(0x53))).unwrap()), 0xca);
+    assert_eq!(
+        enc(&e.mul(
+            &e.from_coefficients(&t.decode(0x57)),
+            &e.from_coefficients(&t.decode(0x83))
+        )),
+        0xc1
+    );
+    assert_eq!(
+        enc(&e.inv(&e.from_coefficients(&t.decode(0x53))).unwrap()),
+        0xca
+    );
 }
 
 #[test]
 fn reducible_and_malformed_moduli_are_clear_errors() {
     let gf2 = || PrimeField::new(2).unwrap();
-    let e = Modulus::parse(gf2(), Some(8), "a^8+1").unwrap_err().to_string();
-    assert!(e.contains("a^8 + 1 is reducible over GF(2)") && e.contains("a = 1 is a root"), "{e}");
-    let e = Modulus::parse(gf2(), Some(4), "a^4+a^2+1").unwrap_err().to_string();
+    let e = Modulus::parse(gf2(), Some(8), "a^8+1")
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("a^8 + 1 is reducible over GF(2)") && e.contains("a = 1 is a root"),
+        "{e}"
+    );
+    let e = Modulus::parse(gf2(), Some(4), "a^4+a^2+1")
+        .unwrap_err()
+        .to_string();
     assert!(e.contains("reducible"), "{e}"); // (a^2+a+1)^2, no root
-    let e = Modulus::parse(gf2(), Some(8), "a^4+a+1").unwrap_err().to_string();
+    let e = Modulus::parse(gf2(), Some(8), "a^4+a+1")
+        .unwrap_err()
+        .to_string();
     assert!(e.contains("degree 4, but the field needs degree 8"), "{e}");
-    let e = Modulus::parse(gf2(), Some(8), "a^8+b").unwrap_err().to_string();
+    let e = Modulus::parse(gf2(), Some(8), "a^8+b")
+        .unwrap_err()
+        .to_string();
     assert!(e.contains("unknown variable 'b'"), "{e}");
 }
 
@@ -121,8 +158,16 @@ fn hermitian_count<F: Field>(f: &F, q: u64) -> u64 {
 fn hermitian_curves_have_q_cubed_points() {
     for (p, k, q) in [(2u64, 2u32, 2u64), (3, 2, 3), (2, 4, 4)] {
         let m = default_modulus(p, k);
-        assert_eq!(hermitian_count(&TableField::new(m.clone()).unwrap(), q), q * q * q, "table q={q}");
-        assert_eq!(hermitian_count(&ExtensionField::new(m), q), q * q * q, "general q={q}");
+        assert_eq!(
+            hermitian_count(&TableField::new(m.clone()).unwrap(), q),
+            q * q * q,
+            "table q={q}"
+        );
+        assert_eq!(
+            hermitian_count(&ExtensionField::new(m), q),
+            q * q * q,
+            "general q={q}"
+        );
     }
 }
 
@@ -148,20 +193,33 @@ fn f_spec<F: Field>(f: &F) -> String {
 fn spec_names_non_default_moduli() {
     let t = TableField::new(modulus(2, "a^8+a^4+a^3+a^2+1")).unwrap();
     assert_eq!(t.spec(), "GF(2^8, modulus='a^8 + a^4 + a^3 + a^2 + 1')");
-    assert_eq!(TableField::new(default_modulus(2, 8)).unwrap().spec(), "GF(2^8)");
+    assert_eq!(
+        TableField::new(default_modulus(2, 8)).unwrap().spec(),
+        "GF(2^8)"
+    );
     assert_eq!(t.order().unwrap(), "256");
     let big = ExtensionField::with_default_modulus((1 << 61) - 1, 3).unwrap();
     // (2^61 - 1)^3, as printed by Python's exact integers.
-    assert_eq!(big.order().unwrap(), "12259964326927110850916040267783483001021757281745764351");
+    assert_eq!(
+        big.order().unwrap(),
+        "12259964326927110850916040267783483001021757281745764351"
+    );
 }
 
 fn check_axioms<F: Field>(f: &F, a: u64, b: u64, c: u64) {
-    let (a, b, c) = (f.element_from_index(a), f.element_from_index(b), f.element_from_index(c));
+    let (a, b, c) = (
+        f.element_from_index(a),
+        f.element_from_index(b),
+        f.element_from_index(c),
+    );
     assert_eq!(f.add(&a, &b), f.add(&b, &a));
     assert_eq!(f.mul(&a, &b), f.mul(&b, &a));
     assert_eq!(f.mul(&f.mul(&a, &b), &c), f.mul(&a, &f.mul(&b, &c)));
     assert_eq!(f.add(&f.add(&a, &b), &c), f.add(&a, &f.add(&b, &c)));
-    assert_eq!(f.mul(&a, &f.add(&b, &c)), f.add(&f.mul(&a, &b), &f.mul(&a, &c)));
+    assert_eq!(
+        f.mul(&a, &f.add(&b, &c)),
+        f.add(&f.mul(&a, &b), &f.mul(&a, &c))
+    );
     assert!(f.is_zero(&f.add(&a, &f.neg(&a))));
     assert_eq!(f.sub(&a, &b), f.add(&a, &f.neg(&b)));
     if !f.is_zero(&a) {
@@ -173,7 +231,8 @@ fn check_axioms<F: Field>(f: &F, a: u64, b: u64, c: u64) {
 
 /// The fields under test, built once (tables of GF(2^16) take a moment).
 fn small_fields() -> &'static [(TableField, ExtensionField)] {
-    static FIELDS: std::sync::OnceLock<Vec<(TableField, ExtensionField)>> = std::sync::OnceLock::new();
+    static FIELDS: std::sync::OnceLock<Vec<(TableField, ExtensionField)>> =
+        std::sync::OnceLock::new();
     FIELDS.get_or_init(|| {
         [(2u64, 2u32), (2, 3), (3, 2), (2, 8), (3, 5), (2, 16)]
             .iter()
@@ -196,9 +255,13 @@ fn large_fields() -> &'static [ExtensionField] {
 }
 
 fn binary_fields() -> &'static [(BinaryField, ExtensionField)] {
-    static FIELDS: std::sync::OnceLock<Vec<(BinaryField, ExtensionField)>> = std::sync::OnceLock::new();
+    static FIELDS: std::sync::OnceLock<Vec<(BinaryField, ExtensionField)>> =
+        std::sync::OnceLock::new();
     FIELDS.get_or_init(|| {
-        let mut moduli: Vec<Modulus> = [17u32, 32, 61, 64].iter().map(|&k| default_modulus(2, k)).collect();
+        let mut moduli: Vec<Modulus> = [17u32, 32, 61, 64]
+            .iter()
+            .map(|&k| default_modulus(2, k))
+            .collect();
         // A dense modulus makes the reduction fold many times: the last irreducible of degree
         // 64 in integer order (found by search from the top).
         let gf2 = PrimeField::new(2).unwrap();
@@ -211,7 +274,10 @@ fn binary_fields() -> &'static [(BinaryField, ExtensionField)] {
             })
             .unwrap();
         moduli.push(dense);
-        moduli.into_iter().map(|m| (BinaryField::new(m.clone()).unwrap(), ExtensionField::new(m))).collect()
+        moduli
+            .into_iter()
+            .map(|m| (BinaryField::new(m.clone()).unwrap(), ExtensionField::new(m)))
+            .collect()
     })
 }
 

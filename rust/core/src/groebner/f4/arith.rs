@@ -101,7 +101,13 @@ impl<W: Word> SmallPrime<W> {
         let lazy = p < 1 << 21;
         let sq = (p - 1).max(1) * (p - 1).max(1);
         let headroom = if lazy { (u64::MAX - p) / sq } else { u64::MAX };
-        SmallPrime { p, p2: p * p, lazy, headroom, _w: PhantomData }
+        SmallPrime {
+            p,
+            p2: p * p,
+            lazy,
+            headroom,
+            _w: PhantomData,
+        }
     }
 }
 
@@ -154,7 +160,9 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
         // Row columns are strictly increasing, so checking the last one bounds them all and the
         // hot loops can skip per-element bounds checks.
         debug_assert!(cols.windows(2).all(|w| w[0] < w[1]));
-        assert!(cols.last().is_none_or(|&c| (c as usize) < acc.len()) && coeffs.len() >= cols.len());
+        assert!(
+            cols.last().is_none_or(|&c| (c as usize) < acc.len()) && coeffs.len() >= cols.len()
+        );
         if self.lazy {
             for (&c, &x) in cols.iter().zip(coeffs) {
                 // SAFETY: columns increase and the last is below acc.len() (checked above).
@@ -188,7 +196,10 @@ pub struct LargePrime {
 
 impl LargePrime {
     pub fn new(p: u64) -> Self {
-        LargePrime { p, p2: p as u128 * p as u128 }
+        LargePrime {
+            p,
+            p2: p as u128 * p as u128,
+        }
     }
 }
 
@@ -316,7 +327,11 @@ mod tests {
         let (mut exact0, mut exact2) = (0u128, 0u128);
         let mut budget = a.headroom();
         for k in 0..1000u64 {
-            let (x, y, m) = ((p - 1 - k % p) % p, (k * 7919) % p, (p - 1 - (k * 31) % p) % p);
+            let (x, y, m) = (
+                (p - 1 - k % p) % p,
+                (k * 7919) % p,
+                (p - 1 - (k * 31) % p) % p,
+            );
             let (xs, ys, ms) = (a.import(&f, &x), a.import(&f, &y), a.import(&f, &m));
             a.axpy(&mut acc, &[0, 2], &[xs, ys], &ms);
             exact0 = (exact0 + m as u128 * x as u128) % p as u128;

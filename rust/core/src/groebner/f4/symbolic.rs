@@ -58,7 +58,11 @@ impl<C> SymbolicMatrix<C> {
         self.reducers.len() + self.new_rows.len()
     }
     pub fn nonzeros(&self) -> usize {
-        self.reducers.iter().chain(&self.new_rows).map(|r| r.cols.len()).sum()
+        self.reducers
+            .iter()
+            .chain(&self.new_rows)
+            .map(|r| r.cols.len())
+            .sum()
     }
 }
 
@@ -77,7 +81,8 @@ struct Closure<'a, C> {
 impl<C> Closure<'_, C> {
     fn mark(&mut self, m: u32, to: u8) {
         if self.state.len() <= m as usize {
-            self.state.resize(self.table.len().max(m as usize + 1), UNSEEN);
+            self.state
+                .resize(self.table.len().max(m as usize + 1), UNSEEN);
         }
         let s = &mut self.state[m as usize];
         if *s == UNSEEN {
@@ -98,7 +103,11 @@ impl<C> Closure<'_, C> {
     /// The monomials of mult · basis[element].
     fn expand(&mut self, mult: Multiple) -> Result<Vec<u32>> {
         let basis = self.basis;
-        basis[mult.element].monos.iter().map(|&t| self.table.mul(mult.mult, t)).collect()
+        basis[mult.element]
+            .monos
+            .iter()
+            .map(|&t| self.table.mul(mult.mult, t))
+            .collect()
     }
 
     fn visit_tail(&mut self, monos: &[u32]) {
@@ -111,7 +120,10 @@ impl<C> Closure<'_, C> {
     /// `m`. (Preferring the sparsest, the newest or the one of largest leading degree all gave
     /// larger matrices on katsura-9 and cyclic-7.)
     fn find_divisor(&self, m: u32, divisors: &[Divisor]) -> Option<Divisor> {
-        divisors.iter().copied().find(|d| self.table.may_divide(d.mask, m) && self.table.divides(d.lead, m))
+        divisors
+            .iter()
+            .copied()
+            .find(|d| self.table.may_divide(d.mask, m) && self.table.divides(d.lead, m))
     }
 }
 
@@ -126,7 +138,13 @@ pub fn preprocess<C>(
     new: &[Multiple],
 ) -> Result<SymbolicMatrix<C>> {
     let state = vec![UNSEEN; table.len()];
-    let mut closure = Closure { table, basis, state, seen: vec![], todo: vec![] };
+    let mut closure = Closure {
+        table,
+        basis,
+        state,
+        seen: vec![],
+        todo: vec![],
+    };
     let mut reducers: Vec<(Multiple, Vec<u32>)> = Vec::with_capacity(known.len());
     let mut new_rows: Vec<(Multiple, Vec<u32>)> = Vec::with_capacity(new.len());
     for &k in known {
@@ -149,14 +167,21 @@ pub fn preprocess<C>(
         if closure.state_of(m) == PIVOT {
             continue;
         }
-        let Some(d) = closure.find_divisor(m, divisors) else { continue };
-        let mult = Multiple { mult: closure.table.div(m, d.lead), element: d.element };
+        let Some(d) = closure.find_divisor(m, divisors) else {
+            continue;
+        };
+        let mult = Multiple {
+            mult: closure.table.div(m, d.lead),
+            element: d.element,
+        };
         let monos = closure.expand(mult)?;
         closure.mark(m, PIVOT);
         closure.visit_tail(&monos);
         reducers.push((mult, monos));
     }
-    let Closure { table, mut seen, .. } = closure;
+    let Closure {
+        table, mut seen, ..
+    } = closure;
     seen.sort_unstable_by(|&a, &b| table.cmp(b, a));
     let mut col_of = vec![u32::MAX; table.len()];
     for (c, &m) in seen.iter().enumerate() {

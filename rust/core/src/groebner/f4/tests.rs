@@ -19,13 +19,24 @@ fn orders(n: usize) -> Vec<MonomialOrder> {
     let split = n / 2;
     let block = MonomialOrder::block(
         vec![
-            Block { order: MonomialOrder::Grevlex, vars: (0..split).collect() },
-            Block { order: MonomialOrder::Lex, vars: (split..n).collect() },
+            Block {
+                order: MonomialOrder::Grevlex,
+                vars: (0..split).collect(),
+            },
+            Block {
+                order: MonomialOrder::Lex,
+                vars: (split..n).collect(),
+            },
         ],
         n,
     )
     .unwrap();
-    vec![MonomialOrder::Lex, MonomialOrder::Grlex, MonomialOrder::Grevlex, block]
+    vec![
+        MonomialOrder::Lex,
+        MonomialOrder::Grlex,
+        MonomialOrder::Grevlex,
+        block,
+    ]
 }
 
 fn ring(p: u64, n: usize, order: MonomialOrder) -> Ring<PrimeField> {
@@ -42,7 +53,11 @@ fn system_in(ring: &Ring<PrimeField>, s: &systems::System) -> Vec<Poly<PrimeFiel
 /// dimension of R/I for a Gröbner basis with these leading monomials), or `None` if more than
 /// `limit`. Each standard monomial m ≠ 1 is reached once, from m / x_j with j its last variable.
 fn standard_monomials(leads: &[Monomial], n: usize, limit: usize) -> Option<usize> {
-    let standard = |m: &[u32]| !leads.iter().any(|l| l.exponents().iter().zip(m).all(|(a, b)| a <= b));
+    let standard = |m: &[u32]| {
+        !leads
+            .iter()
+            .any(|l| l.exponents().iter().zip(m).all(|(a, b)| a <= b))
+    };
     let mut stack = vec![(vec![0u32; n], 0usize)];
     let mut count = 0;
     while let Some((m, last)) = stack.pop() {
@@ -75,9 +90,12 @@ fn buchberger(ring: &Ring<PrimeField>, gens: &[Poly<PrimeField>]) -> GroebnerBas
 /// A random polynomial: up to 4 terms, exponents below 3, coefficients from the field's
 /// enumeration.
 fn random_poly(ring: &Ring<PrimeField>, terms: &[(Vec<u32>, u64)]) -> Poly<PrimeField> {
-    ring.from_terms(
-        terms.iter().map(|(e, c)| (Monomial::from_exponents(e.clone()).unwrap(), ring.field.element_from_index(*c))),
-    )
+    ring.from_terms(terms.iter().map(|(e, c)| {
+        (
+            Monomial::from_exponents(e.clone()).unwrap(),
+            ring.field.element_from_index(*c),
+        )
+    }))
 }
 
 proptest! {
@@ -128,11 +146,20 @@ fn standard_systems_agree_with_buchberger() {
         (2147483647, systems::cyclic(4), true),
         (65521, systems::random_quadratic(4, 5, 7), false),
     ] {
-        let orders = if lex { vec![MonomialOrder::Grevlex, MonomialOrder::Lex] } else { vec![MonomialOrder::Grevlex] };
+        let orders = if lex {
+            vec![MonomialOrder::Grevlex, MonomialOrder::Lex]
+        } else {
+            vec![MonomialOrder::Grevlex]
+        };
         for order in orders {
             let r = ring(p, system.vars.len(), order);
             let gens = system_in(&r, &system);
-            assert_eq!(f4(&r, &gens).unwrap(), buchberger(&r, &gens).unwrap(), "{} over GF({p})", system.name);
+            assert_eq!(
+                f4(&r, &gens).unwrap(),
+                buchberger(&r, &gens).unwrap(),
+                "{} over GF({p})",
+                system.name
+            );
         }
     }
 }
@@ -159,18 +186,34 @@ fn textbook_examples() {
     // Cox, Little, O'Shea, Ideals, Varieties, and Algorithms, §2.7 and §3.1 (from memory), as in
     // the reference engine's tests.
     let r = ring(32003, 2, MonomialOrder::Grlex);
-    let p = |r: &Ring<PrimeField>, t: &[&str]| t.iter().map(|t| parse_poly(r, t).unwrap()).collect::<Vec<_>>();
+    let p = |r: &Ring<PrimeField>, t: &[&str]| {
+        t.iter()
+            .map(|t| parse_poly(r, t).unwrap())
+            .collect::<Vec<_>>()
+    };
     let gens = p(&r, &["x0^3 - 2*x0*x1", "x0^2*x1 - 2*x1^2 + x0"]);
-    assert_eq!(f4(&r, &gens).unwrap(), p(&r, &["x0^2", "x0*x1", "x1^2 - 1/2*x0"]));
+    assert_eq!(
+        f4(&r, &gens).unwrap(),
+        p(&r, &["x0^2", "x0*x1", "x1^2 - 1/2*x0"])
+    );
     let r = ring(32003, 3, MonomialOrder::Lex);
-    let gens = p(&r, &["x0^2 + x1^2 + x2^2 - 1", "x0^2 + x2^2 - x1", "x0 - x2"]);
-    assert_eq!(f4(&r, &gens).unwrap(), p(&r, &["x0 - x2", "x1 - 2*x2^2", "x2^4 + 1/2*x2^2 - 1/4"]));
+    let gens = p(
+        &r,
+        &["x0^2 + x1^2 + x2^2 - 1", "x0^2 + x2^2 - x1", "x0 - x2"],
+    );
+    assert_eq!(
+        f4(&r, &gens).unwrap(),
+        p(&r, &["x0 - x2", "x1 - 2*x2^2", "x2^4 + 1/2*x2^2 - 1/4"])
+    );
     // Unit and zero ideals.
     assert_eq!(f4(&r, &p(&r, &["x0*x1 - 1", "x0"])).unwrap(), p(&r, &["1"]));
     assert_eq!(f4(&r, &p(&r, &["0"])).unwrap(), vec![]);
     // GF(2): x^2 + x and x*y + 1 give x + 1, y + 1 (x = 0 would contradict x*y = 1).
     let r = ring(2, 2, MonomialOrder::Grevlex);
-    assert_eq!(f4(&r, &p(&r, &["x0^2 + x0", "x0*x1 + 1"])).unwrap(), p(&r, &["x0 + 1", "x1 + 1"]));
+    assert_eq!(
+        f4(&r, &p(&r, &["x0^2 + x0", "x0*x1 + 1"])).unwrap(),
+        p(&r, &["x0 + 1", "x1 + 1"])
+    );
 }
 
 #[test]
@@ -178,11 +221,17 @@ fn membership_through_the_basis() {
     // Twisted cubic (y - x^2, z - x^3) contains xz - y^2 and y^3 - z^2 (Cox, Little, O'Shea §1.4,
     // from memory).
     let r = ring(32003, 3, MonomialOrder::Grevlex);
-    let gens: Vec<_> = ["x1 - x0^2", "x2 - x0^3"].iter().map(|g| parse_poly(&r, g).unwrap()).collect();
+    let gens: Vec<_> = ["x1 - x0^2", "x2 - x0^3"]
+        .iter()
+        .map(|g| parse_poly(&r, g).unwrap())
+        .collect();
     let gb = groebner_basis(&r, &gens, Engine::default(), &Control::new()).unwrap();
     assert_eq!(gb.stats.engine, "f4");
     for member in ["x0*x2 - x1^2", "x1^3 - x2^2"] {
-        assert!(gb.contains(&parse_poly(&r, member).unwrap()).unwrap(), "{member}");
+        assert!(
+            gb.contains(&parse_poly(&r, member).unwrap()).unwrap(),
+            "{member}"
+        );
     }
     assert!(!gb.contains(&parse_poly(&r, "x0").unwrap()).unwrap());
 }
@@ -192,27 +241,64 @@ fn limits_name_the_step_and_threads_do_not_change_the_result() {
     let s = systems::katsura(4);
     let r = ring(65521, 5, MonomialOrder::Grevlex);
     let gens = system_in(&r, &s);
-    let limited = |limits: Limits| groebner_basis(&r, &gens, Engine::F4, &Control::new().with_limits(limits));
-    let err = limited(Limits { max_degree: Some(3), ..Default::default() }).unwrap_err();
-    assert!(matches!(err, Error::ResourceLimit(ref m) if m.contains("degree limit 3") && m.contains("step")), "{err}");
-    let err = limited(Limits { max_matrix_entries: Some(10), ..Default::default() }).unwrap_err();
-    assert!(matches!(err, Error::ResourceLimit(ref m) if m.contains("step 0")), "{err}");
-    let one = limited(Limits { threads: Some(1), ..Default::default() }).unwrap();
-    let two = limited(Limits { threads: Some(2), ..Default::default() }).unwrap();
+    let limited =
+        |limits: Limits| groebner_basis(&r, &gens, Engine::F4, &Control::new().with_limits(limits));
+    let err = limited(Limits {
+        max_degree: Some(3),
+        ..Default::default()
+    })
+    .unwrap_err();
+    assert!(
+        matches!(err, Error::ResourceLimit(ref m) if m.contains("degree limit 3") && m.contains("step")),
+        "{err}"
+    );
+    let err = limited(Limits {
+        max_matrix_entries: Some(10),
+        ..Default::default()
+    })
+    .unwrap_err();
+    assert!(
+        matches!(err, Error::ResourceLimit(ref m) if m.contains("step 0")),
+        "{err}"
+    );
+    let one = limited(Limits {
+        threads: Some(1),
+        ..Default::default()
+    })
+    .unwrap();
+    let two = limited(Limits {
+        threads: Some(2),
+        ..Default::default()
+    })
+    .unwrap();
     assert_eq!(one.polys, two.polys);
-    assert!(limited(Limits { threads: Some(0), ..Default::default() }).is_err());
+    assert!(limited(Limits {
+        threads: Some(0),
+        ..Default::default()
+    })
+    .is_err());
     // Stats: every step has a matrix; the largest degree reached is at least the input degree.
-    assert!(one.stats.steps.iter().all(|s| s.rows > 0 && s.columns > 0 && s.nonzeros >= s.rows));
+    assert!(one
+        .stats
+        .steps
+        .iter()
+        .all(|s| s.rows > 0 && s.columns > 0 && s.nonzeros >= s.rows));
     assert!(one.stats.max_degree() >= 2);
     let stop = Control::new().with_interrupt(|| true);
     std::thread::sleep(std::time::Duration::from_millis(25));
-    assert_eq!(groebner_basis(&r, &gens, Engine::F4, &stop).unwrap_err(), Error::Interrupted);
+    assert_eq!(
+        groebner_basis(&r, &gens, Engine::F4, &stop).unwrap_err(),
+        Error::Interrupted
+    );
 }
 
 #[test]
 fn counting_helper_on_a_known_monomial_ideal() {
     // (x^2, y^3) has 2·3 standard monomials; (x) in two variables has infinitely many.
     let m = |e: &[u32]| Monomial::from_exponents(e.to_vec()).unwrap();
-    assert_eq!(standard_monomials(&[m(&[2, 0]), m(&[0, 3])], 2, 100), Some(6));
+    assert_eq!(
+        standard_monomials(&[m(&[2, 0]), m(&[0, 3])], 2, 100),
+        Some(6)
+    );
     assert_eq!(standard_monomials(&[m(&[1, 0])], 2, 100), None);
 }

@@ -6,7 +6,12 @@ use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 
 fn ring(vars: &[&str], order: MonomialOrder) -> Ring<RationalField> {
-    Ring::new(RationalField, vars.iter().map(|s| s.to_string()).collect(), order).unwrap()
+    Ring::new(
+        RationalField,
+        vars.iter().map(|s| s.to_string()).collect(),
+        order,
+    )
+    .unwrap()
 }
 
 fn polys(r: &Ring<RationalField>, texts: &[&str]) -> Vec<Poly<RationalField>> {
@@ -14,14 +19,19 @@ fn polys(r: &Ring<RationalField>, texts: &[&str]) -> Vec<Poly<RationalField>> {
 }
 
 fn basis(r: &Ring<RationalField>, gens: &[&str]) -> Vec<Poly<RationalField>> {
-    groebner_basis(r, &polys(r, gens), Engine::Buchberger, &Control::new()).unwrap().polys
+    groebner_basis(r, &polys(r, gens), Engine::Buchberger, &Control::new())
+        .unwrap()
+        .polys
 }
 
 #[test]
 fn textbook_bases_over_the_rationals() {
     // Cox, Little, O'Shea, Ideals, Varieties, and Algorithms, §2.7 and §3.1 (from memory).
     let r = ring(&["x", "y"], MonomialOrder::Grlex);
-    assert_eq!(basis(&r, &["x^3 - 2*x*y", "x^2*y - 2*y^2 + x"]), polys(&r, &["x^2", "x*y", "y^2 - 1/2*x"]));
+    assert_eq!(
+        basis(&r, &["x^3 - 2*x*y", "x^2*y - 2*y^2 + x"]),
+        polys(&r, &["x^2", "x*y", "y^2 - 1/2*x"])
+    );
     let r = ring(&["x", "y", "z"], MonomialOrder::Lex);
     assert_eq!(
         basis(&r, &["x^2 + y^2 + z^2 - 1", "x^2 + z^2 - y", "x - z"]),
@@ -35,7 +45,10 @@ fn rational_reconstruction_recovers_small_fractions() {
     for (a, b) in [(3i64, 4i64), (-7, 13), (0, 1), (123456, 789), (-1, 99991)] {
         let b_inv = BigInt::from(b).modinv(&m).unwrap();
         let u = (BigInt::from(a) * b_inv).mod_floor(&m);
-        assert_eq!(rational_reconstruction(&u, &m), Some(BigRational::new(a.into(), b.into())));
+        assert_eq!(
+            rational_reconstruction(&u, &m),
+            Some(BigRational::new(a.into(), b.into()))
+        );
     }
     // Modulo 101 every answer obeys the bound sqrt(101/2) ≈ 7 and the congruence; some
     // residues have none.
@@ -43,8 +56,14 @@ fn rational_reconstruction_recovers_small_fractions() {
     let mut found = 0;
     for u in 0..101 {
         if let Some(q) = rational_reconstruction(&BigInt::from(u), &m) {
-            assert!(q.numer().abs() <= BigInt::from(7) && *q.denom() <= BigInt::from(7), "{u}: {q}");
-            assert_eq!((q.numer() - BigInt::from(u) * q.denom()).mod_floor(&m), BigInt::zero());
+            assert!(
+                q.numer().abs() <= BigInt::from(7) && *q.denom() <= BigInt::from(7),
+                "{u}: {q}"
+            );
+            assert_eq!(
+                (q.numer() - BigInt::from(u) * q.denom()).mod_floor(&m),
+                BigInt::zero()
+            );
             found += 1;
         }
     }
@@ -68,8 +87,15 @@ fn large_coefficients_need_several_primes() {
     let r = ring(&["x", "y"], MonomialOrder::Lex);
     let gens = polys(&r, &["3*x - 10^40", "y^2 - x*y + 7/11"]);
     let gb = groebner_basis(&r, &gens, Engine::Buchberger, &Control::new()).unwrap();
-    assert_eq!(gb.polys, polys(&r, &["x - 10^40/3", "y^2 - 10^40/3*y + 7/11"]));
-    assert!(gb.stats.engine.contains("multi-modular"), "{}", gb.stats.engine);
+    assert_eq!(
+        gb.polys,
+        polys(&r, &["x - 10^40/3", "y^2 - 10^40/3*y + 7/11"])
+    );
+    assert!(
+        gb.stats.engine.contains("multi-modular"),
+        "{}",
+        gb.stats.engine
+    );
 }
 
 #[test]
@@ -77,17 +103,42 @@ fn agrees_with_the_reference_engine_run_over_the_rationals() {
     // Small systems with rational coefficients: the direct Buchberger run over QQ (no
     // modular arithmetic) must give the same reduced basis.
     let systems: [(&[&str], &[&str], MonomialOrder); 4] = [
-        (&["x", "y", "z"], &["x^2 + 2/3*y*z - 1", "y^2 - 5/7*x*z + 2", "z^2 - x*y + 1/2"], MonomialOrder::Grevlex),
-        (&["x", "y", "z"], &["x*y - 3/2*z", "y*z - 1/5*x", "x*z - 7*y + 1"], MonomialOrder::Lex),
-        (&["x", "y"], &["x^3 - 1/3*y^2 + x", "x*y^2 - 4/9"], MonomialOrder::Grlex),
-        (&["x", "y", "z"], &["x + y + z", "x*y + y*z + z*x", "x*y*z - 1"], MonomialOrder::Lex),
+        (
+            &["x", "y", "z"],
+            &["x^2 + 2/3*y*z - 1", "y^2 - 5/7*x*z + 2", "z^2 - x*y + 1/2"],
+            MonomialOrder::Grevlex,
+        ),
+        (
+            &["x", "y", "z"],
+            &["x*y - 3/2*z", "y*z - 1/5*x", "x*z - 7*y + 1"],
+            MonomialOrder::Lex,
+        ),
+        (
+            &["x", "y"],
+            &["x^3 - 1/3*y^2 + x", "x*y^2 - 4/9"],
+            MonomialOrder::Grlex,
+        ),
+        (
+            &["x", "y", "z"],
+            &["x + y + z", "x*y + y*z + z*x", "x*y*z - 1"],
+            MonomialOrder::Lex,
+        ),
     ];
     for (vars, gens, order) in systems {
         let r = ring(vars, order);
         let gens = polys(&r, gens);
         let (direct, _) = buchberger::compute(&r, &gens, &Control::new()).unwrap();
         let modular = groebner_basis(&r, &gens, Engine::Buchberger, &Control::new()).unwrap();
-        assert_eq!(modular.polys, direct, "{:?}", modular.polys.iter().map(|g| r.format(g)).collect::<Vec<_>>());
+        assert_eq!(
+            modular.polys,
+            direct,
+            "{:?}",
+            modular
+                .polys
+                .iter()
+                .map(|g| r.format(g))
+                .collect::<Vec<_>>()
+        );
     }
 }
 
@@ -113,7 +164,9 @@ fn verification_rejects_wrong_lifts() {
     assert!(!verify::is_groebner_basis_containing(&r, &wrong_coefficient, &gens, &c).unwrap());
     // Not a Gröbner basis: y·(x^2 + y) − x·(x y) = y^2 has a leading term outside ⟨x^2, xy⟩.
     let not_gb = polys(&r, &["x^2 + y", "x*y"]);
-    assert!(!verify::is_groebner_basis_containing(&r, &not_gb, &polys(&r, &["x^2 + y"]), &c).unwrap());
+    assert!(
+        !verify::is_groebner_basis_containing(&r, &not_gb, &polys(&r, &["x^2 + y"]), &c).unwrap()
+    );
     // A Gröbner basis of a smaller ideal than the input's.
     let smaller = polys(&r, &["x^2"]);
     assert!(!verify::is_groebner_basis_containing(&r, &smaller, &gens, &c).unwrap());

@@ -25,7 +25,11 @@ type IntPoly = Vec<(Monomial, BigInt)>;
 fn primitive(ring: &Ring<RationalField>, f: &Poly<RationalField>) -> IntPoly {
     let coeffs: Vec<_> = f.terms().iter().map(|t| &t.1).collect();
     let scaled = ring.scale(f, &integer_scale(&coeffs));
-    scaled.terms().iter().map(|(m, c)| (m.clone(), c.numer().clone())).collect()
+    scaled
+        .terms()
+        .iter()
+        .map(|(m, c)| (m.clone(), c.numer().clone()))
+        .collect()
 }
 
 /// a·h − b·m·g over the tails (the leading terms cancel by the choice of a and b).
@@ -97,7 +101,9 @@ fn head_reduces_to_zero(
 ) -> Result<bool> {
     while let Some((lm, lc)) = h.first() {
         control.check()?;
-        let Some(g) = basis.iter().find(|g| g[0].0.divides(lm)) else { return Ok(false) };
+        let Some(g) = basis.iter().find(|g| g[0].0.divides(lm)) else {
+            return Ok(false);
+        };
         let d = lc.gcd(&g[0].1);
         let (a, b) = (&g[0].1 / &d, lc / &d);
         let m = lm.div(&g[0].0);
@@ -108,11 +114,19 @@ fn head_reduces_to_zero(
 }
 
 /// The S-polynomial of f and g with integer coefficients.
-fn s_polynomial(ring: &Ring<RationalField>, f: &IntPoly, g: &IntPoly, lcm: &Monomial) -> Result<IntPoly> {
+fn s_polynomial(
+    ring: &Ring<RationalField>,
+    f: &IntPoly,
+    g: &IntPoly,
+    lcm: &Monomial,
+) -> Result<IntPoly> {
     let d = f[0].1.gcd(&g[0].1);
     let (a, b) = (&g[0].1 / &d, &f[0].1 / &d);
     let mf = lcm.div(&f[0].0);
-    let f_shifted: IntPoly = f[1..].iter().map(|(m, c)| Ok((m.mul(&mf)?, c.clone()))).collect::<Result<_>>()?;
+    let f_shifted: IntPoly = f[1..]
+        .iter()
+        .map(|(m, c)| Ok((m.mul(&mf)?, c.clone())))
+        .collect::<Result<_>>()?;
     combine(ring, &f_shifted, &a, &b, &lcm.div(&g[0].0), &g[1..])
 }
 
@@ -146,4 +160,3 @@ pub fn is_groebner_basis_containing(
     }
     Ok(true)
 }
-
