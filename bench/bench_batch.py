@@ -6,7 +6,7 @@
    prime 4294967291 = 2^32 - 5), run by ``fibrewise batch`` with WORKERS worker processes; reports
    jobs per second (target: >= 300 on two cores) and how many jobs ended ok / error / timeout.
 2. Overhead: for tiny systems, the time of one Python-level call minus the time the core itself
-   reports (``GroebnerBasis.stats.seconds``): what parsing, conversion and the call machinery cost
+   reports (``ReducedBasis.stats.seconds``): what parsing, conversion and the call machinery cost
    (target: <= 50 microseconds).
 
 The systems are random but seeded, so runs are comparable.

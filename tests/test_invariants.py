@@ -110,7 +110,7 @@ def test_twisted_cubic():
 
 def test_segre_threefold():
     # Segre embedding of P^1 x P^2 in P^5 (2x2 minors of a generic 2x3 matrix): dimension 3,
-    # degree 3 = C(3, 1) (Harris, Algebraic Geometry, Lecture 2 and Example 18.15, from memory).
+    # degree 3 = C(3, 1) (Harris, Algebraic Geometry: A First Course, chapter 2 and Example 18.15, from memory).
     R = fw.PolynomialRing("GF(32003)", "a, b, c, d, e, f")
     I = R.ideal(["a*e - b*d", "a*f - c*d", "b*f - c*e"])
     assert (I.dimension(), I.degree()) == (4, 3)

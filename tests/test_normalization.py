@@ -100,7 +100,7 @@ def test_affine_twisted_cubic():
 
 def test_twisted_cubic_cone_has_rank_three():
     # The cone over the twisted cubic, 2x2 minors of [[x, y, z], [y, z, w]], has dimension 2 and
-    # degree 3 (Harris, Algebraic Geometry: A First Course, Example 1.10 and Lecture 18, from
+    # degree 3 (Harris, Algebraic Geometry: A First Course, Example 1.10 and chapter 18, from
     # memory); a finite linear projection has degree equal to the degree of the variety.
     I = ideal(32003, "x, y, z, w", ["x*z - y^2", "y*w - z^2", "x*w - y*z"])
     nn = I.noether_normalization()
@@ -170,7 +170,7 @@ def test_certificate_round_trips_through_json():
     saved = json.loads(json.dumps(nn.to_dict()))
     assert saved["variables"] == ["x", "y", "z"] and saved["field"] == "GF(32003)"
     assert check_certificate(saved, I) == []
-    again = fw.NoetherNormalization.from_dict(saved, I)
+    again = fw.FiniteProjection.from_dict(saved, I)
     assert again.verify() and again.to_dict() == nn.to_dict()
     assert I.noether_normalization(seed=5).to_dict() == nn.to_dict()
 
@@ -214,7 +214,7 @@ def test_tampered_certificates_fail_with_a_clear_message():
     assert "GF(7)" in check_certificate(tampered(nn, other_field), I)[0]
     assert "missing" in check_certificate({"dimension": 1}, I)[0]
 
-    bad = fw.NoetherNormalization.from_dict(tampered(nn, bump_coefficient), I)
+    bad = fw.FiniteProjection.from_dict(tampered(nn, bump_coefficient), I)
     with pytest.raises(CertificateError, match="does not lie in the ideal"):
         bad.verify()
 

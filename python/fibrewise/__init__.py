@@ -11,21 +11,21 @@ The algorithms live in a Rust core (``fibrewise._native``); this package is the 
 
 from ._native import ResourceLimit
 from .fields import Field, field
-from .ideals import GroebnerBasis, GroebnerStats, Ideal
+from .ideals import ReducedBasis, GroebnerStats, Ideal
 from .invariants import HilbertSeries
-from .normalization import IntegralEquation, NoetherNormalization
+from .normalization import IntegralEquation, FiniteProjection
 from .orders import BlockOrder, WeightOrder
 from .rings import Polynomial, PolynomialRing
 
 __all__ = [
     "BlockOrder",
     "Field",
-    "GroebnerBasis",
+    "ReducedBasis",
     "GroebnerStats",
     "HilbertSeries",
     "Ideal",
     "IntegralEquation",
-    "NoetherNormalization",
+    "FiniteProjection",
     "Polynomial",
     "PolynomialRing",
     "ResourceLimit",

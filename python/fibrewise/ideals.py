@@ -11,7 +11,7 @@ from .rings import Coercible, Polynomial, PolynomialRing
 
 if TYPE_CHECKING:
     import numpy
-    from .normalization import IntegralEquation, NoetherNormalization
+    from .normalization import IntegralEquation, FiniteProjection
 
 
 @dataclass(frozen=True)
@@ -53,7 +53,7 @@ class GroebnerStats:
         }
 
 
-class GroebnerBasis(Sequence[Polynomial]):
+class ReducedBasis(Sequence[Polynomial]):
     """The reduced Gröbner basis of an ideal: monic, sorted by decreasing leading monomial.
 
     The unit ideal has basis ``[1]``, the zero ideal the empty basis.
@@ -93,7 +93,7 @@ class GroebnerBasis(Sequence[Polynomial]):
         return "[" + ", ".join(str(g) for g in self.polys) + "]"
 
     def __repr__(self) -> str:
-        return f"GroebnerBasis({[str(g) for g in self.polys]!r}, order={self.order!r})"
+        return f"ReducedBasis({[str(g) for g in self.polys]!r}, order={self.order!r})"
 
 
 def _split_generators(text: str) -> list[str]:
@@ -121,7 +121,7 @@ class Ideal:
         if isinstance(generators, str):
             generators = _split_generators(generators)
         self.generators: tuple[Polynomial, ...] = tuple(ring(g) for g in generators)
-        self._bases: dict[str, GroebnerBasis] = {}
+        self._bases: dict[str, ReducedBasis] = {}
 
     def groebner_basis(
         self,
@@ -131,7 +131,7 @@ class Ideal:
         max_degree: int | None = None,
         max_matrix: int | None = None,
         threads: int | None = None,
-    ) -> GroebnerBasis:
+    ) -> ReducedBasis:
         """The reduced Gröbner basis for ``order`` (default: the ring's order).
 
         ``max_degree`` and ``max_matrix`` (rows × columns) bound the work: going over raises
@@ -150,7 +150,7 @@ class Ideal:
             max_matrix=max_matrix,
             threads=threads,
         )
-        gb = GroebnerBasis(ring, [Polynomial(ring, p) for p in polys], GroebnerStats.from_native(stats))
+        gb = ReducedBasis(ring, [Polynomial(ring, p) for p in polys], GroebnerStats.from_native(stats))
         if not limited:
             self._bases[key] = gb
         return gb
@@ -222,7 +222,7 @@ class Ideal:
         """Points of V(I) with coordinates in the finite field (affine, or projective)."""
         return invariants.count_points(self, projective)
 
-    def noether_normalization(self, strategy: str = "auto", seed: int | None = None) -> "NoetherNormalization":
+    def noether_normalization(self, strategy: str = "auto", seed: int | None = None) -> "FiniteProjection":
         """Noether normalization with a checkable certificate (see ``fibrewise.normalization``)."""
         from .normalization import noether_normalization
 

@@ -1,6 +1,6 @@
 """Noether normalization with a checkable certificate, and integrality over subalgebras.
 
-``Ideal.noether_normalization()`` returns a :class:`NoetherNormalization`: parameters
+``Ideal.noether_normalization()`` returns a :class:`FiniteProjection`: parameters
 p1..pd (d = dim R/I) such that k[p1..pd] -> R/I is injective and R/I is a finite module over it,
 with a monic equation over k[p] for every variable. ``verify()`` re-checks the certificate from
 the ideal alone; ``to_dict()`` / :func:`check_certificate` save and re-check it.
@@ -19,7 +19,7 @@ if TYPE_CHECKING:
 
 _IDENTIFIER = re.compile(r"[A-Za-z_][A-Za-z0-9_]*")
 
-#: Keys of ``NoetherNormalization.to_dict()`` (besides ``field`` and ``variables``).
+#: Keys of ``FiniteProjection.to_dict()`` (besides ``field`` and ``variables``).
 CERTIFICATE_KEYS = (
     "dimension",
     "parameters",
@@ -54,7 +54,7 @@ def _monic_text(variable: str, coefficients: Sequence[str]) -> str:
     return " + ".join(f"({c})*({variable})^{m - k}" for k, c in enumerate(coefficients))
 
 
-class NoetherNormalization:
+class FiniteProjection:
     """A Noether normalization of an ideal and its certificate.
 
     Attributes (also the keys of :meth:`to_dict`): ``dimension``, ``parameters`` (polynomials in
@@ -83,7 +83,7 @@ class NoetherNormalization:
         self.homogeneous: bool = certificate["homogeneous"]
 
     @classmethod
-    def from_dict(cls, certificate: dict, ideal: "Ideal") -> "NoetherNormalization":
+    def from_dict(cls, certificate: dict, ideal: "Ideal") -> "FiniteProjection":
         """A saved certificate (from :meth:`to_dict`) for ``ideal``; raises ``ValueError`` when an
         entry is missing or unreadable. Use :meth:`verify` to check it."""
         missing = [k for k in CERTIFICATE_KEYS if k not in certificate]
@@ -132,10 +132,10 @@ class NoetherNormalization:
 
     def __repr__(self) -> str:
         params = ", ".join(str(p) for p in self.parameters)
-        return f"NoetherNormalization(dimension={self.dimension}, parameters=[{params}], rank={self.rank}, strategy={self.strategy!r})"
+        return f"FiniteProjection(dimension={self.dimension}, parameters=[{params}], rank={self.rank}, strategy={self.strategy!r})"
 
 
-def noether_normalization(ideal: "Ideal", strategy: str = "auto", seed: Optional[int] = None) -> NoetherNormalization:
+def noether_normalization(ideal: "Ideal", strategy: str = "auto", seed: Optional[int] = None) -> FiniteProjection:
     """Noether normalization of ``ideal``: the simplest kind of change that works (``strategy``
     "auto"), or only "variables", "linear" or "nonlinear". ``seed`` fixes every random choice.
     The unit ideal raises ``ValueError`` (no solutions over the algebraic closure)."""
@@ -145,7 +145,7 @@ def noether_normalization(ideal: "Ideal", strategy: str = "auto", seed: Optional
     certificate = _native.noether_normalization(
         ring._native, [g._native for g in ideal.generators], strategy=strategy, seed=(seed or 0) % 2**64
     )
-    return NoetherNormalization(ideal, certificate)
+    return FiniteProjection(ideal, certificate)
 
 
 def check_certificate(certificate: dict, ideal: "Ideal") -> list[str]:
@@ -240,7 +240,7 @@ def is_finite_over(ideal: "Ideal", over: Sequence[Coercible]) -> bool:
 __all__ = [
     "CertificateError",
     "IntegralEquation",
-    "NoetherNormalization",
+    "FiniteProjection",
     "check_certificate",
     "integral_equation",
     "is_finite_over",

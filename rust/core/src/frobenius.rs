@@ -5,12 +5,12 @@
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::Field;
-use crate::groebner::GroebnerBasis;
+use crate::groebner::ReducedBasis;
 use crate::poly::Poly;
 
 /// The normal form of f^e modulo the basis, e given as little-endian 64-bit limbs.
 pub fn power_modulo<F: Field>(
-    gb: &GroebnerBasis<F>,
+    gb: &ReducedBasis<F>,
     f: &Poly<F>,
     exponent: &[u64],
     control: &Control,

@@ -19,7 +19,7 @@
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::Field;
-use crate::groebner::{groebner_basis, Engine, GroebnerBasis};
+use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
@@ -334,7 +334,7 @@ pub fn monomial_ideal_series(
 /// Hilbert series of R/I from a Gröbner basis of I. Homogeneous I: any order. Otherwise the
 /// order must be degree-compatible and the result is the affine series.
 pub fn series_of_basis<F: Field>(
-    gb: &GroebnerBasis<F>,
+    gb: &ReducedBasis<F>,
     control: &Control,
 ) -> Result<HilbertSeries> {
     let homogeneous = gb.polys.iter().all(Poly::is_homogeneous);

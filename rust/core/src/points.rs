@@ -18,7 +18,7 @@ use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::frobenius::{field_order_limbs, power_modulo};
-use crate::groebner::GroebnerBasis;
+use crate::groebner::ReducedBasis;
 use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
@@ -63,7 +63,7 @@ pub fn count_affine_points<F: Field>(
 /// The variable whose field equation comes next: one in a maximal independent set, of least
 /// degree in the basis (fixing it tends to leave the others bounded by equations of higher
 /// degree in them, which makes a smaller basis), the last such on ties.
-fn next_variable<F: Field>(gb: &GroebnerBasis<F>, has_equation: &[bool]) -> Option<usize> {
+fn next_variable<F: Field>(gb: &ReducedBasis<F>, has_equation: &[bool]) -> Option<usize> {
     let n = has_equation.len();
     let degree_in = |i: usize| {
         gb.polys
@@ -87,7 +87,7 @@ fn next_variable<F: Field>(gb: &GroebnerBasis<F>, has_equation: &[bool]) -> Opti
 /// of a second basis. The ideal (x_i^q − x_i)A is spanned by the products (x_i^q − x_i)·b over
 /// the standard monomials b.
 fn rational_points_of_finite_set<F: Field>(
-    gb: GroebnerBasis<F>,
+    gb: ReducedBasis<F>,
     control: &Control,
 ) -> Result<u128> {
     let quotient = Quotient::new(gb, control)?;

@@ -10,7 +10,7 @@ use crate::ideal::{engine_by_name, polys_in};
 use crate::long_run;
 use crate::ring::{NativePoly, NativeRing};
 use fibrewise_core::control::Limits;
-use fibrewise_core::groebner::{GroebnerBasis, Stats};
+use fibrewise_core::groebner::{ReducedBasis, Stats};
 use fibrewise_core::hilbert::{series_of_basis, HilbertSeries};
 use fibrewise_core::zerodim::{maximal, radical, vector_space_dimension as core_vs_dimension, Quotient};
 use fibrewise_core::{dimension, points, Ring};
@@ -33,8 +33,8 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     Ok(())
 }
 
-fn basis_of<F: Kind>(ring: &NativeRing, r: &Ring<F>, basis: &[PyRef<'_, NativePoly>]) -> PyResult<GroebnerBasis<F>> {
-    Ok(GroebnerBasis { ring: r.clone(), polys: polys_in(ring, r, basis)?, stats: Stats::default() })
+fn basis_of<F: Kind>(ring: &NativeRing, r: &Ring<F>, basis: &[PyRef<'_, NativePoly>]) -> PyResult<ReducedBasis<F>> {
+    Ok(ReducedBasis { ring: r.clone(), polys: polys_in(ring, r, basis)?, stats: Stats::default() })
 }
 
 fn leading_monomials<F: Kind>(ring: &NativeRing, r: &Ring<F>, basis: &[PyRef<'_, NativePoly>]) -> PyResult<Vec<fibrewise_core::Monomial>> {

@@ -42,7 +42,7 @@ impl Engine {
 /// A reduced Gröbner basis of an ideal for the order of `ring`: monic, sorted by decreasing
 /// leading monomial. The unit ideal has basis `[1]`, the zero ideal the empty basis.
 #[derive(Clone, Debug)]
-pub struct GroebnerBasis<F: Field> {
+pub struct ReducedBasis<F: Field> {
     pub ring: Ring<F>,
     pub polys: Vec<Poly<F>>,
     pub stats: Stats,
@@ -54,7 +54,7 @@ pub fn groebner_basis<F: Field>(
     gens: &[Poly<F>],
     engine: Engine,
     control: &Control,
-) -> Result<GroebnerBasis<F>> {
+) -> Result<ReducedBasis<F>> {
     if let Some(result) = modular::route(ring, gens, engine, control) {
         return result;
     }
@@ -65,14 +65,14 @@ pub fn groebner_basis<F: Field>(
     };
     stats.engine = engine.name().to_string();
     stats.seconds = start.elapsed().as_secs_f64();
-    Ok(GroebnerBasis {
+    Ok(ReducedBasis {
         ring: ring.clone(),
         polys,
         stats,
     })
 }
 
-impl<F: Field> GroebnerBasis<F> {
+impl<F: Field> ReducedBasis<F> {
     /// Normal form of `f` (fully reduced: no term divisible by a leading monomial of the basis).
     pub fn reduce(&self, f: &Poly<F>) -> Result<Poly<F>> {
         reduce::normal_form(&self.ring, f, &self.polys)

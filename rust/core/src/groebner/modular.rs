@@ -17,7 +17,7 @@
 //!   does. For homogeneous I the equality is proved outright: I ⊆ ⟨G⟩ and the Hilbert function
 //!   of I mod p is at most that of I (Arnold 2003, Thm 5.13).
 
-use super::{groebner_basis, Engine, GroebnerBasis, Stats};
+use super::{groebner_basis, Engine, ReducedBasis, Stats};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::{integer_scale, primality, Field, PrimeField, RationalField};
@@ -37,7 +37,7 @@ pub(crate) fn route<F: Field>(
     gens: &[Poly<F>],
     engine: Engine,
     control: &Control,
-) -> Option<Result<GroebnerBasis<F>>> {
+) -> Option<Result<ReducedBasis<F>>> {
     let ring_q = (ring as &dyn Any).downcast_ref::<Ring<RationalField>>()?;
     let gens_q: Vec<Poly<RationalField>> = gens
         .iter()
@@ -49,7 +49,7 @@ pub(crate) fn route<F: Field>(
         .collect::<Option<_>>()?;
     let result = rational_groebner_basis(ring_q, &gens_q, engine, control).map(|gb| {
         *(Box::new(gb) as Box<dyn Any>)
-            .downcast::<GroebnerBasis<F>>()
+            .downcast::<ReducedBasis<F>>()
             .expect("F is QQ")
     });
     Some(result)
@@ -61,7 +61,7 @@ pub fn rational_groebner_basis(
     gens: &[Poly<RationalField>],
     engine: Engine,
     control: &Control,
-) -> Result<GroebnerBasis<RationalField>> {
+) -> Result<ReducedBasis<RationalField>> {
     let gens: Vec<Poly<RationalField>> = gens
         .iter()
         .filter(|g| !g.is_zero())
@@ -105,7 +105,7 @@ pub fn rational_groebner_basis(
             if stable && verify::is_groebner_basis_containing(ring, &candidate, &gens, control)? {
                 stats.engine = format!("{} (multi-modular, {} primes)", engine.name(), primes.used);
                 stats.seconds = start.elapsed().as_secs_f64();
-                return Ok(GroebnerBasis {
+                return Ok(ReducedBasis {
                     ring: ring.clone(),
                     polys: candidate,
                     stats,

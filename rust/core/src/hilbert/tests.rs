@@ -125,13 +125,13 @@ fn twisted_cubic() {
 #[test]
 fn segre_embedding_of_p1_times_p1() {
     // The quadric surface xw - yz in P^3 (Segre image of P^1 x P^1): degree 2, dimension 2 in
-    // P^3, Hilbert polynomial (s + 1)^2 (Harris, Algebraic Geometry, Lecture 2 and 13, from memory).
+    // P^3, Hilbert polynomial (s + 1)^2 (Harris, Algebraic Geometry: A First Course, chapters 2 and 13, from memory).
     let r = ring(&["x", "y", "z", "w"]);
     let s = series_of(&r, &["x*w - y*z"]);
     assert_eq!((s.degree().unwrap(), s.dimension()), (2, 3));
     assert_eq!(s.polynomial().unwrap(), vec![(1, 1), (2, 1), (1, 1)]);
     // Segre P^1 x P^2 in P^5: the 2x2 minors of a generic 2x3 matrix of variables, degree 3,
-    // dimension 3 (projective), Hilbert polynomial (s + 1)(s + 2)(s + 1)/2 (Harris, Lecture 2).
+    // dimension 3 (projective), Hilbert polynomial (s + 1)(s + 2)(s + 1)/2 (Harris, Algebraic Geometry: A First Course, chapter 2).
     let r = ring(&["a", "b", "c", "d", "e", "f"]);
     let s = series_of(&r, &["a*e - b*d", "a*f - c*d", "b*f - c*e"]);
     assert_eq!((s.degree().unwrap(), s.dimension()), (3, 4));

@@ -28,7 +28,7 @@ use crate::control::Control;
 use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
 use crate::field::Field;
-use crate::groebner::{groebner_basis, Engine, GroebnerBasis};
+use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
 use changes::{complement, dense_linear, field_size, sparse_linear, Change, Rng};
@@ -96,7 +96,7 @@ pub struct Options {
 
 /// A Noether normalization and its certificate (keys of the public interface).
 #[derive(Clone, Debug)]
-pub struct NoetherNormalization<F: Field> {
+pub struct FiniteProjection<F: Field> {
     /// The ring of the ideal (original variables and order).
     pub ring: Ring<F>,
     pub dimension: usize,
@@ -139,7 +139,7 @@ pub fn noether_normalization<F: Field>(
     gens: &[Poly<F>],
     options: &Options,
     control: &Control,
-) -> Result<NoetherNormalization<F>> {
+) -> Result<FiniteProjection<F>> {
     let mut search = Search::new(ring, gens, options, control)?;
     let (change, proof, strategy) = search.run()?;
     let homogeneous = search.homogeneous && change.is_linear();
@@ -152,7 +152,7 @@ struct Search<'a, F: Field> {
     gens: &'a [Poly<F>],
     options: &'a Options,
     control: &'a Control,
-    grevlex: GroebnerBasis<F>,
+    grevlex: ReducedBasis<F>,
     dimension: usize,
     homogeneous: bool,
     rng: Rng,

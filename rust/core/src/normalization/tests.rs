@@ -16,11 +16,11 @@ fn polys(r: &Ring<PrimeField>, texts: &[&str]) -> Vec<P> {
     texts.iter().map(|t| parse_poly(r, t).unwrap()).collect()
 }
 
-fn normalize(r: &Ring<PrimeField>, gens: &[P]) -> NoetherNormalization<PrimeField> {
+fn normalize(r: &Ring<PrimeField>, gens: &[P]) -> FiniteProjection<PrimeField> {
     noether_normalization(r, gens, &Options::default(), &Control::new()).unwrap()
 }
 
-fn assert_verifies(nn: &NoetherNormalization<PrimeField>, gens: &[P]) {
+fn assert_verifies(nn: &FiniteProjection<PrimeField>, gens: &[P]) {
     let problems = nn.verify(gens, &Control::new()).unwrap();
     assert!(problems.is_empty(), "{problems:?} for {:?}", nn.to_text());
 }

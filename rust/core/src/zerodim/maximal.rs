@@ -17,7 +17,7 @@ use crate::dimension::krull_dimension;
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::frobenius::field_order_limbs;
-use crate::groebner::GroebnerBasis;
+use crate::groebner::ReducedBasis;
 
 /// The coordinates of x_i^q in R/I for each variable, q the field order.
 pub fn frobenius_coordinates<F: Field>(
@@ -56,7 +56,7 @@ fn frobenius_matrix<F: Field>(
 }
 
 /// Whether the ideal with basis `gb` is maximal. Positive-dimensional and unit ideals are not.
-pub fn is_maximal<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<bool> {
+pub fn is_maximal<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<bool> {
     field_order_limbs(&gb.ring.field, "is_maximal")?;
     if krull_dimension(gb.ring.nvars(), &gb.leading_monomials()) != 0 {
         return Ok(false);
@@ -84,7 +84,7 @@ pub fn is_maximal<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<
 }
 
 /// [R/I : k] for a maximal ideal I; an error naming the problem otherwise.
-pub fn residue_field_degree<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<u128> {
+pub fn residue_field_degree<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<u128> {
     if !is_maximal(gb, control)? {
         return Err(Error::invalid(
             "residue_field_degree needs a maximal ideal; this ideal is not maximal",

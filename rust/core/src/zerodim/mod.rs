@@ -18,7 +18,7 @@ use crate::control::Control;
 use crate::dimension::krull_dimension;
 use crate::error::{Error, Result};
 use crate::field::Field;
-use crate::groebner::GroebnerBasis;
+use crate::groebner::ReducedBasis;
 use crate::hilbert::monomial_ideal_series;
 use crate::monomial::Monomial;
 use crate::poly::Poly;
@@ -28,7 +28,7 @@ use std::sync::OnceLock;
 use univariate::Univariate;
 
 /// An error unless the basis describes a zero-dimensional (or the unit) ideal.
-pub fn require_zero_dimensional<F: Field>(gb: &GroebnerBasis<F>, what: &str) -> Result<()> {
+pub fn require_zero_dimensional<F: Field>(gb: &ReducedBasis<F>, what: &str) -> Result<()> {
     let d = krull_dimension(gb.ring.nvars(), &gb.leading_monomials());
     if d > 0 {
         return Err(Error::invalid(format!(
@@ -40,7 +40,7 @@ pub fn require_zero_dimensional<F: Field>(gb: &GroebnerBasis<F>, what: &str) -> 
 
 /// dim_k R/I for zero-dimensional I (0 for the unit ideal), counted through the Hilbert series of
 /// the leading ideal, so that the standard monomials are never listed.
-pub fn vector_space_dimension<F: Field>(gb: &GroebnerBasis<F>, control: &Control) -> Result<u128> {
+pub fn vector_space_dimension<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<u128> {
     require_zero_dimensional(gb, "vector_space_dimension")?;
     let series = monomial_ideal_series(gb.ring.nvars(), &gb.leading_monomials(), false, control)?;
     Ok(series.degree()? as u128)
@@ -53,7 +53,7 @@ type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
 /// products are computed from the (sparse) matrices of multiplication by the variables, built
 /// on first use from the normal forms of the border monomials x_i·b.
 pub struct Quotient<F: Field> {
-    pub basis: GroebnerBasis<F>,
+    pub basis: ReducedBasis<F>,
     monomials: Vec<Monomial>,
     index: HashMap<Monomial, usize>,
     /// For b_j ≠ 1: (i, k) with b_j = x_i · b_k (k < j, as the list is increasing).
@@ -63,7 +63,7 @@ pub struct Quotient<F: Field> {
 
 impl<F: Field> Quotient<F> {
     /// Lists the standard monomials by a search upward from 1 (they form an order ideal).
-    pub fn new(basis: GroebnerBasis<F>, control: &Control) -> Result<Self> {
+    pub fn new(basis: ReducedBasis<F>, control: &Control) -> Result<Self> {
         require_zero_dimensional(&basis, "the quotient R/I")?;
         let n = basis.ring.nvars();
         let leads = basis.leading_monomials();

@@ -11,7 +11,7 @@ use super::{vector_space_dimension, Quotient};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
-use crate::groebner::{groebner_basis, Engine, GroebnerBasis};
+use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::monomial::Monomial;
 use crate::poly::{Poly, Ring};
 
@@ -42,10 +42,10 @@ pub fn variable_minimal_polynomials<F: Field>(
 
 /// A Gröbner basis (same order) of the radical of the zero-dimensional ideal with basis `gb`.
 pub fn zero_dimensional_radical<F: Field>(
-    gb: &GroebnerBasis<F>,
+    gb: &ReducedBasis<F>,
     engine: Engine,
     control: &Control,
-) -> Result<GroebnerBasis<F>> {
+) -> Result<ReducedBasis<F>> {
     if gb.is_unit_ideal() {
         return Ok(gb.clone());
     }
@@ -70,7 +70,7 @@ pub fn zero_dimensional_radical<F: Field>(
 
 /// Number of distinct points of V(I) over the algebraic closure, for zero-dimensional I.
 pub fn count_solutions<F: Field>(
-    gb: &GroebnerBasis<F>,
+    gb: &ReducedBasis<F>,
     engine: Engine,
     control: &Control,
 ) -> Result<u128> {

@@ -10,7 +10,7 @@ use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::Ring;
 
-fn basis(p: u64, vars: &[&str], gens: &[&str]) -> GroebnerBasis<PrimeField> {
+fn basis(p: u64, vars: &[&str], gens: &[&str]) -> ReducedBasis<PrimeField> {
     let names = vars.iter().map(|s| s.to_string()).collect();
     let r = Ring::new(PrimeField::new(p).unwrap(), names, MonomialOrder::Grevlex).unwrap();
     let gens: Vec<_> = gens.iter().map(|g| parse_poly(&r, g).unwrap()).collect();
