@@ -9,6 +9,7 @@ import threading
 import pytest
 
 import fibrewise as fw
+from systems import cyclic
 
 
 @pytest.fixture
@@ -172,16 +173,6 @@ def test_resource_limit():
     I = R.ideal(["x^2*y + z", "x*y^2 + 1", "z^3 - x"])
     with pytest.raises(fw.ResourceLimit, match="degree limit 3"):
         I.groebner_basis(max_degree=3)
-
-
-def cyclic(n):
-    """cyclic-n (definition: /work/shared REFERENCE-VALUES, standard benchmark family)."""
-    names = [f"x{i}" for i in range(n)]
-    polys = []
-    for k in range(1, n):
-        polys.append(" + ".join("*".join(names[(i + j) % n] for j in range(k)) for i in range(n)))
-    polys.append("*".join(names) + " - 1")
-    return names, polys
 
 
 def test_ctrl_c_interrupts_a_long_computation():
