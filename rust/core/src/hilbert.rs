@@ -333,10 +333,7 @@ pub fn monomial_ideal_series(
 
 /// Hilbert series of R/I from a Gröbner basis of I. Homogeneous I: any order. Otherwise the
 /// order must be degree-compatible and the result is the affine series.
-pub fn series_of_basis<F: Field>(
-    gb: &ReducedBasis<F>,
-    control: &Control,
-) -> Result<HilbertSeries> {
+pub fn series_of_basis<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<HilbertSeries> {
     let homogeneous = gb.polys.iter().all(Poly::is_homogeneous);
     if !homogeneous && !gb.ring.order.is_degree_compatible() {
         return Err(Error::invalid(

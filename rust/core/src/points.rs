@@ -86,10 +86,7 @@ fn next_variable<F: Field>(gb: &ReducedBasis<F>, has_equation: &[bool]) -> Optio
 /// For zero-dimensional I: dim_k A/(x_i^q − x_i)A with A = R/I, by linear algebra in A instead
 /// of a second basis. The ideal (x_i^q − x_i)A is spanned by the products (x_i^q − x_i)·b over
 /// the standard monomials b.
-fn rational_points_of_finite_set<F: Field>(
-    gb: ReducedBasis<F>,
-    control: &Control,
-) -> Result<u128> {
+fn rational_points_of_finite_set<F: Field>(gb: ReducedBasis<F>, control: &Control) -> Result<u128> {
     let quotient = Quotient::new(gb, control)?;
     let ring = &quotient.basis.ring;
     let field = &ring.field;

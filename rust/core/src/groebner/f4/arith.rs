@@ -164,8 +164,26 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
             cols.last().is_none_or(|&c| (c as usize) < acc.len()) && coeffs.len() >= cols.len()
         );
         if self.lazy {
-            for (&c, &x) in cols.iter().zip(coeffs) {
+            // Four independent updates per round let the core overlap their loads and stores.
+            let mut col_chunks = cols.chunks_exact(4);
+            let mut coeff_chunks = coeffs[..cols.len()].chunks_exact(4);
+            for (c4, x4) in (&mut col_chunks).zip(&mut coeff_chunks) {
                 // SAFETY: columns increase and the last is below acc.len() (checked above).
+                unsafe {
+                    let (a, b, c, d) = (
+                        m * x4[0].get(),
+                        m * x4[1].get(),
+                        m * x4[2].get(),
+                        m * x4[3].get(),
+                    );
+                    *acc.get_unchecked_mut(c4[0] as usize) += a;
+                    *acc.get_unchecked_mut(c4[1] as usize) += b;
+                    *acc.get_unchecked_mut(c4[2] as usize) += c;
+                    *acc.get_unchecked_mut(c4[3] as usize) += d;
+                }
+            }
+            for (&c, &x) in col_chunks.remainder().iter().zip(coeff_chunks.remainder()) {
+                // SAFETY: as above.
                 unsafe { *acc.get_unchecked_mut(c as usize) += m * x.get() };
             }
         } else {

@@ -16,10 +16,14 @@ pub struct MonomialTable {
     nvars: usize,
     order: MonomialOrder,
     monos: Vec<Monomial>,
+    /// The exponents of every monomial again, contiguous (`nvars` per monomial): products and
+    /// look-ups read them without following a pointer per monomial.
+    exps: Vec<u32>,
     hashes: Vec<u64>,
     masks: Vec<u64>,
-    /// Open addressing: slot holds index + 1, 0 when empty. Length is a power of two.
-    slots: Vec<u32>,
+    /// Open addressing: a slot holds the upper half of the hash above index + 1 (0 when empty),
+    /// so most mismatches are rejected without reading the monomial. Length is a power of two.
+    slots: Vec<u64>,
     weights: Vec<u64>,
     /// Bit layout of the masks: (variable, threshold) per bit.
     mask_bits: Vec<(usize, u32)>,
@@ -35,6 +39,7 @@ impl MonomialTable {
             nvars,
             order,
             monos: Vec::new(),
+            exps: Vec::new(),
             hashes: Vec::new(),
             masks: Vec::new(),
             slots: vec![0; 1 << 12],
@@ -75,8 +80,12 @@ impl MonomialTable {
     /// Whether monomial `a` divides monomial `b` (mask first, exponents only when needed).
     #[inline]
     pub fn divides(&self, a: u32, b: u32) -> bool {
-        let (a, b) = (a as usize, b as usize);
-        self.masks[a] & !self.masks[b] == 0 && self.monos[a].divides(&self.monos[b])
+        self.masks[a as usize] & !self.masks[b as usize] == 0
+            && self
+                .exps_of(a)
+                .iter()
+                .zip(self.exps_of(b))
+                .all(|(x, y)| x <= y)
     }
 
     /// Whether a monomial with mask `mask_a` can divide monomial `b` (a fast necessary test).
@@ -98,14 +107,26 @@ impl MonomialTable {
             .expect("a stored monomial's degree fits")
     }
 
+    /// The exponents of stored monomial `i`.
+    #[inline]
+    fn exps_of(&self, i: u32) -> &[u32] {
+        let start = i as usize * self.nvars;
+        &self.exps[start..start + self.nvars]
+    }
+
     /// Index of the product a·b; `Overflow` when an exponent or the degree exceeds u32.
     pub fn mul(&mut self, a: u32, b: u32) -> Result<u32> {
-        let (ea, eb) = (
-            self.monos[a as usize].exponents(),
-            self.monos[b as usize].exponents(),
-        );
-        for k in 0..self.nvars {
-            self.scratch[k] = ea[k].checked_add(eb[k]).ok_or_else(overflow)?;
+        let n = self.nvars;
+        let (sa, sb) = (a as usize * n, b as usize * n);
+        let (ea, eb) = (&self.exps[sa..sa + n], &self.exps[sb..sb + n]);
+        let mut carry = false;
+        for ((s, &x), &y) in self.scratch.iter_mut().zip(ea).zip(eb) {
+            let (v, o) = x.overflowing_add(y);
+            *s = v;
+            carry |= o;
+        }
+        if carry {
+            return Err(overflow());
         }
         let h = self.hashes[a as usize].wrapping_add(self.hashes[b as usize]);
         self.lookup_scratch(h)
@@ -113,12 +134,11 @@ impl MonomialTable {
 
     /// Index of the quotient a / b, for b dividing a.
     pub fn div(&mut self, a: u32, b: u32) -> u32 {
-        let (ea, eb) = (
-            self.monos[a as usize].exponents(),
-            self.monos[b as usize].exponents(),
-        );
-        for k in 0..self.nvars {
-            self.scratch[k] = ea[k] - eb[k];
+        let n = self.nvars;
+        let (sa, sb) = (a as usize * n, b as usize * n);
+        let (ea, eb) = (&self.exps[sa..sa + n], &self.exps[sb..sb + n]);
+        for ((s, &x), &y) in self.scratch.iter_mut().zip(ea).zip(eb) {
+            *s = x - y;
         }
         let h = self.hashes[a as usize].wrapping_sub(self.hashes[b as usize]);
         self.lookup_scratch(h).expect("a quotient's degree fits")
@@ -138,28 +158,66 @@ impl MonomialTable {
         (h.wrapping_mul(0x9E37_79B9_7F4A_7C15) >> (64 - size.trailing_zeros())) as usize
     }
 
-    /// Finds or inserts the monomial in `scratch` whose hash is `h`.
-    fn lookup_scratch(&mut self, h: u64) -> Result<u32> {
+    /// Index of the product a·b if the table holds it already. Reads only, so threads may
+    /// share the table; `buf` is the caller's scratch.
+    pub fn find_product(&self, a: u32, b: u32, buf: &mut Vec<u32>) -> Option<u32> {
+        buf.clear();
+        let (ea, eb) = (self.exps_of(a), self.exps_of(b));
+        for (&x, &y) in ea.iter().zip(eb) {
+            buf.push(x.checked_add(y)?);
+        }
+        let h = self.hashes[a as usize].wrapping_add(self.hashes[b as usize]);
+        self.probe(buf, h).ok()
+    }
+
+    /// Index of the quotient a / b (b dividing a) if the table holds it already; reads only.
+    pub fn find_quotient(&self, a: u32, b: u32, buf: &mut Vec<u32>) -> Option<u32> {
+        buf.clear();
+        let (ea, eb) = (self.exps_of(a), self.exps_of(b));
+        buf.extend(ea.iter().zip(eb).map(|(&x, &y)| x - y));
+        let h = self.hashes[a as usize].wrapping_sub(self.hashes[b as usize]);
+        self.probe(buf, h).ok()
+    }
+
+    /// The index of the monomial with exponents `exps` and hash `h`, or the empty slot where it
+    /// would go.
+    #[inline]
+    fn probe(&self, exps: &[u32], h: u64) -> std::result::Result<u32, usize> {
         let mask = self.slots.len() - 1;
         let mut pos = Self::home_slot(h, self.slots.len());
+        let tag = h & TAG_MASK;
         loop {
             let slot = self.slots[pos];
             if slot == 0 {
-                break;
+                return Err(pos);
             }
-            let i = (slot - 1) as usize;
-            if self.hashes[i] == h && self.monos[i].exponents() == &self.scratch[..] {
-                return Ok(i as u32);
+            if slot & TAG_MASK == tag {
+                let i = (slot as u32) - 1;
+                if self.exps_of(i).iter().zip(exps).all(|(a, b)| a == b) {
+                    return Ok(i);
+                }
             }
             pos = (pos + 1) & mask;
         }
+    }
+
+    /// Finds or inserts the monomial in `scratch` whose hash is `h`.
+    fn lookup_scratch(&mut self, h: u64) -> Result<u32> {
+        let pos = match self.probe(&self.scratch, h) {
+            Ok(i) => return Ok(i),
+            Err(pos) => pos,
+        };
         let m = Monomial::from_exponents(self.scratch.clone())?;
+        // u32::MAX itself is kept free as a marker for callers.
         let index = u32::try_from(self.monos.len())
-            .map_err(|_| Error::ResourceLimit("more than 2^32 distinct monomials".into()))?;
+            .ok()
+            .filter(|&i| i < u32::MAX)
+            .ok_or_else(|| Error::ResourceLimit("more than 2^32 - 1 distinct monomials".into()))?;
         self.masks.push(self.mask_of(m.exponents()));
+        self.exps.extend_from_slice(&self.scratch);
         self.monos.push(m);
         self.hashes.push(h);
-        self.slots[pos] = index + 1;
+        self.slots[pos] = (h & TAG_MASK) | (index as u64 + 1);
         if 2 * self.monos.len() > self.slots.len() {
             self.grow();
         }
@@ -168,13 +226,13 @@ impl MonomialTable {
 
     fn grow(&mut self) {
         let size = self.slots.len() * 2;
-        let mut slots = vec![0u32; size];
+        let mut slots = vec![0u64; size];
         for (i, &h) in self.hashes.iter().enumerate() {
             let mut pos = Self::home_slot(h, size);
             while slots[pos] != 0 {
                 pos = (pos + 1) & (size - 1);
             }
-            slots[pos] = i as u32 + 1;
+            slots[pos] = (h & TAG_MASK) | (i as u64 + 1);
         }
         self.slots = slots;
     }
@@ -187,6 +245,9 @@ impl MonomialTable {
             .fold(0u64, |m, (bit, _)| m | (1 << bit))
     }
 }
+
+/// The bits of a slot that hold the hash tag (the index + 1 takes the lower 32).
+const TAG_MASK: u64 = !0u64 << 32;
 
 fn overflow() -> Error {
     Error::Overflow("exponent overflow: a degree exceeds 2^32 - 1".into())

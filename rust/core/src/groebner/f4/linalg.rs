@@ -10,11 +10,11 @@
 //! the leading monomials of the row space that are not leading monomials of the known pivots.
 
 use super::arith::Arith;
+use super::parallel::map_items;
 use super::symbolic::{Row, SymbolicMatrix};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
-use rayon::prelude::*;
 use std::marker::PhantomData;
 use std::sync::atomic::{AtomicU64, Ordering};
 use std::sync::{Arc, OnceLock};
@@ -26,6 +26,14 @@ pub struct Echelon<C> {
     /// New rows that reduced to zero.
     pub zero_rows: usize,
     pub multiply_adds: u64,
+}
+
+/// What a column of an accumulator holds after `Dense::eliminate`.
+#[derive(PartialEq, Eq)]
+enum Entry {
+    Zero,
+    /// A nonzero entry in a column without pivot.
+    Free,
 }
 
 /// A sparse row under construction: columns and coefficients.
@@ -71,39 +79,52 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
     where
         A::C: 'r,
     {
-        let arith = self.arith;
         for k in from..self.acc.len() {
-            if arith.acc_is_zero(&self.acc[k]) {
-                continue;
-            }
-            let c = arith.settle(&self.acc[k]);
-            if arith.is_zero(&c) {
-                self.acc[k] = arith.acc_zero();
-                continue;
-            }
-            let Some(pivot) = pivot_of(k) else {
-                self.acc[k] = arith.load(&c);
-                if stop_at_free {
-                    return Some(k);
-                }
-                continue;
-            };
-            // Pivots are monic: adding -c times the pivot's tail clears column k.
-            arith.axpy(
-                &mut self.acc,
-                &pivot.cols[1..],
-                &pivot.coeffs[1..],
-                &arith.neg(&c),
-            );
-            self.acc[k] = arith.acc_zero();
-            self.multiply_adds += (pivot.cols.len() - 1) as u64;
-            self.budget -= 1;
-            if self.budget == 0 {
-                arith.normalize(&mut self.acc[k + 1..]);
-                self.budget = arith.headroom();
+            if self.eliminate(k, pivot_of) == Entry::Free && stop_at_free {
+                return Some(k);
             }
         }
         None
+    }
+
+    /// Clears column `k` with its pivot if it has one; says what the column holds afterwards.
+    #[inline(always)]
+    fn eliminate<'r>(
+        &mut self,
+        k: usize,
+        pivot_of: &impl Fn(usize) -> Option<&'r Row<A::C>>,
+    ) -> Entry
+    where
+        A::C: 'r,
+    {
+        let arith = self.arith;
+        if arith.acc_is_zero(&self.acc[k]) {
+            return Entry::Zero;
+        }
+        let c = arith.settle(&self.acc[k]);
+        if arith.is_zero(&c) {
+            self.acc[k] = arith.acc_zero();
+            return Entry::Zero;
+        }
+        let Some(pivot) = pivot_of(k) else {
+            self.acc[k] = arith.load(&c);
+            return Entry::Free;
+        };
+        // Pivots are monic: adding -c times the pivot's tail clears column k.
+        arith.axpy(
+            &mut self.acc,
+            &pivot.cols[1..],
+            &pivot.coeffs[1..],
+            &arith.neg(&c),
+        );
+        self.acc[k] = arith.acc_zero();
+        self.multiply_adds += (pivot.cols.len() - 1) as u64;
+        self.budget -= 1;
+        if self.budget == 0 {
+            arith.normalize(&mut self.acc[k + 1..]);
+            self.budget = arith.headroom();
+        }
+        Entry::Zero
     }
 
     /// The nonzero entries from column `from` on, times `scale`; clears them when `clear`.
@@ -130,6 +151,11 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
     }
 }
 
+/// Rows reduced together by the known pivots: each pivot row is then read once per block rather
+/// than once per row, so it comes from cache for all but the first (the pivot rows of a large
+/// matrix are many megabytes, far more than a core's cache, while a block of accumulators fits).
+const BLOCK_ROWS: usize = 8;
+
 /// Reduces each row by the known pivots (starting after the row's leading entry when
 /// `skip_lead`); returns what is left of each row, sparse.
 fn reduce_by_known<F: Field, A: Arith<F>>(
@@ -142,49 +168,50 @@ fn reduce_by_known<F: Field, A: Arith<F>>(
     multiply_adds: &AtomicU64,
 ) -> Result<Vec<Entries<A::C>>> {
     let pivot_of = |k: usize| pivots[k];
-    map_rows(
-        rows,
+    let skip = usize::from(skip_lead);
+    let blocks: Vec<&[&Row<A::C>]> = rows.chunks(BLOCK_ROWS).collect();
+    let reduced = map_items(
+        &blocks,
+        PARALLEL_MIN_ROWS / BLOCK_ROWS,
         control,
-        || Dense::new(arith, width),
-        |dense, row| {
+        || Vec::<Dense<F, A>>::new(),
+        |dense, block| {
             control.check()?;
-            let skip = usize::from(skip_lead);
-            if row.cols.len() <= skip {
-                return Ok((vec![], vec![]));
+            while dense.len() < block.len() {
+                dense.push(Dense::new(arith, width));
             }
-            dense.load(&row.cols[skip..], &row.coeffs[skip..]);
-            let before = dense.multiply_adds;
-            let start = row.cols[skip] as usize;
-            dense.sweep(start, &pivot_of, false);
-            multiply_adds.fetch_add(dense.multiply_adds - before, Ordering::Relaxed);
-            Ok(dense.extract(start, None, true))
+            let mut start = width;
+            for (d, row) in dense.iter_mut().zip(block.iter()) {
+                if row.cols.len() > skip {
+                    d.load(&row.cols[skip..], &row.coeffs[skip..]);
+                    start = start.min(row.cols[skip] as usize);
+                }
+            }
+            let block_dense = &mut dense[..block.len()];
+            let before: u64 = block_dense.iter().map(|d| d.multiply_adds).sum();
+            for k in start..width {
+                for d in block_dense.iter_mut() {
+                    d.eliminate(k, &pivot_of);
+                }
+            }
+            let after: u64 = block_dense.iter().map(|d| d.multiply_adds).sum();
+            multiply_adds.fetch_add(after - before, Ordering::Relaxed);
+            Ok(block_dense
+                .iter_mut()
+                .map(|d| d.extract(start, None, true))
+                .collect::<Vec<_>>())
         },
-    )
-    .into_iter()
-    .collect()
+    );
+    let mut out = Vec::with_capacity(rows.len());
+    for block in reduced {
+        out.extend(block?);
+    }
+    Ok(out)
 }
 
 /// Rows below which a matrix is reduced on the calling thread: waking the worker pool costs
 /// more than it saves on small matrices, which is most of them for small systems.
 const PARALLEL_MIN_ROWS: usize = 64;
-
-/// `work` on every row with a per-thread scratch from `init`: in parallel for large matrices
-/// unless the caller asked for one thread, sequentially otherwise.
-fn map_rows<T: Sync, D, R: Send>(
-    rows: &[T],
-    control: &Control,
-    init: impl Fn() -> D + Sync + Send,
-    work: impl Fn(&mut D, &T) -> R + Sync + Send,
-) -> Vec<R> {
-    if rows.len() >= PARALLEL_MIN_ROWS && control.limits.threads != Some(1) {
-        rows.par_iter()
-            .map_init(&init, |scratch, row| work(scratch, row))
-            .collect()
-    } else {
-        let mut scratch = init();
-        rows.iter().map(|row| work(&mut scratch, row)).collect()
-    }
-}
 
 /// Echelonizes `rows` (over `width` columns, no pivots known); returns the installed pivots and
 /// the number of rows that reduced to zero.
@@ -197,8 +224,9 @@ fn echelonize<F: Field, A: Arith<F>>(
 ) -> Result<(Vec<Row<A::C>>, usize)> {
     let pivots: Vec<OnceLock<Row<A::C>>> = (0..width).map(|_| OnceLock::new()).collect();
     let pivot_of = |k: usize| pivots[k].get();
-    let zero: Vec<bool> = map_rows(
+    let zero: Vec<bool> = map_items(
         rows,
+        PARALLEL_MIN_ROWS,
         control,
         || Dense::new(arith, width),
         |dense, row| {

@@ -11,6 +11,7 @@
 pub mod arith;
 pub mod hash;
 pub mod linalg;
+pub mod parallel;
 pub mod symbolic;
 
 #[cfg(test)]

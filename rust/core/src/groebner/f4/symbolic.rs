@@ -5,6 +5,7 @@
 //! known-pivot rows (distinct leading columns) and the new rows to be reduced by them.
 
 use super::hash::MonomialTable;
+use super::parallel::map_items;
 use crate::control::Control;
 use crate::error::Result;
 use std::sync::Arc;
@@ -116,20 +117,80 @@ impl<C> Closure<'_, C> {
         }
     }
 
-    /// A reducer for `m`: the first basis element (oldest first) whose leading monomial divides
-    /// `m`. (Preferring the sparsest, the newest or the one of largest leading degree all gave
-    /// larger matrices on katsura-9 and cyclic-7.)
-    fn find_divisor(&self, m: u32, divisors: &[Divisor]) -> Option<Divisor> {
-        divisors
-            .iter()
-            .copied()
-            .find(|d| self.table.may_divide(d.mask, m) && self.table.divides(d.lead, m))
+    /// The reducer row for `m` from what the parallel look-up found, adding the monomials it
+    /// could not find to the table.
+    fn complete(&mut self, m: u32, found: Found) -> Result<(Multiple, Vec<u32>)> {
+        let mult = match found.mult {
+            Some(mult) => mult,
+            None => self.table.div(m, found.lead),
+        };
+        let multiple = Multiple {
+            mult,
+            element: found.element,
+        };
+        if found.monos.is_empty() {
+            return Ok((multiple, self.expand(multiple)?));
+        }
+        let mut monos = found.monos;
+        let element = &self.basis[found.element].monos;
+        for (slot, &t) in monos.iter_mut().zip(element) {
+            if *slot == MISSING {
+                *slot = self.table.mul(mult, t)?;
+            }
+        }
+        Ok((multiple, monos))
     }
+}
+
+/// Monomials per round below which the look-ups stay on the calling thread.
+const PARALLEL_MIN_MONOMIALS: usize = 32;
+
+/// Marks a product not yet in the monomial table.
+const MISSING: u32 = u32::MAX;
+
+/// What the read-only look-up learnt about the reducer of one monomial: the divisor's element
+/// and leading monomial, the multiplier if already stored, and the row's monomials (`MISSING`
+/// where not stored; empty when the multiplier is unknown).
+struct Found {
+    element: usize,
+    lead: u32,
+    mult: Option<u32>,
+    monos: Vec<u32>,
+}
+
+/// The reducer of `m`: the first basis element (oldest first) whose leading monomial divides `m`.
+/// (Preferring the sparsest, the newest or the one of largest leading degree all gave larger
+/// matrices and more multiply-adds on katsura-9, katsura-10 and cyclic-7.)
+fn find_reducer<C>(
+    table: &MonomialTable,
+    basis: &[Element<C>],
+    divisors: &[Divisor],
+    m: u32,
+    buf: &mut Vec<u32>,
+) -> Option<Found> {
+    let d = divisors
+        .iter()
+        .find(|d| table.may_divide(d.mask, m) && table.divides(d.lead, m))?;
+    let mult = table.find_quotient(m, d.lead, buf);
+    let monos = match mult {
+        Some(mult) => basis[d.element]
+            .monos
+            .iter()
+            .map(|&t| table.find_product(mult, t, buf).unwrap_or(MISSING))
+            .collect(),
+        None => Vec::new(),
+    };
+    Some(Found {
+        element: d.element,
+        lead: d.lead,
+        mult,
+        monos,
+    })
 }
 
 /// Builds the matrix for the `known` rows (distinct leading monomials: they become pivots) and
 /// the `new` rows, adding reducers from `divisors` for every reducible monomial.
-pub fn preprocess<C>(
+pub fn preprocess<C: Send + Sync>(
     control: &Control,
     table: &mut MonomialTable,
     basis: &[Element<C>],
@@ -160,24 +221,32 @@ pub fn preprocess<C>(
     for (_, monos) in reducers.iter().chain(&new_rows) {
         closure.visit_tail(monos);
     }
-    while let Some(m) = closure.todo.pop() {
-        if closure.seen.len() % 1024 == 0 {
-            control.check()?;
+    // In rounds: the reducers of a whole round are looked up in parallel in the (then read-only)
+    // monomial table; monomials new to the table are added afterwards, in order. The closure does
+    // not depend on the order in which monomials are handled, so neither does the matrix.
+    while !closure.todo.is_empty() {
+        control.check()?;
+        let round = std::mem::take(&mut closure.todo);
+        let table: &MonomialTable = closure.table;
+        let found = map_items(
+            &round,
+            PARALLEL_MIN_MONOMIALS,
+            control,
+            Vec::new,
+            |buf, &m| find_reducer(table, basis, divisors, m, buf),
+        );
+        for (m, reducer) in round.into_iter().zip(found) {
+            let Some(reducer) = reducer else {
+                continue;
+            };
+            if closure.state_of(m) == PIVOT {
+                continue;
+            }
+            let (mult, monos) = closure.complete(m, reducer)?;
+            closure.mark(m, PIVOT);
+            closure.visit_tail(&monos);
+            reducers.push((mult, monos));
         }
-        if closure.state_of(m) == PIVOT {
-            continue;
-        }
-        let Some(d) = closure.find_divisor(m, divisors) else {
-            continue;
-        };
-        let mult = Multiple {
-            mult: closure.table.div(m, d.lead),
-            element: d.element,
-        };
-        let monos = closure.expand(mult)?;
-        closure.mark(m, PIVOT);
-        closure.visit_tail(&monos);
-        reducers.push((mult, monos));
     }
     let Closure {
         table, mut seen, ..
