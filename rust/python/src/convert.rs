@@ -20,7 +20,9 @@ fn parse_order(spec: &Bound<'_, PyAny>) -> PyResult<MonomialOrder> {
         return MonomialOrder::by_name(name.to_str()?).map_err(crate::errors::to_py);
     }
     let tuple = spec.downcast::<PyTuple>().map_err(|_| {
-        PyValueError::new_err("a monomial order must be 'lex', 'grlex', 'grevlex', a BlockOrder or a WeightOrder")
+        PyValueError::new_err(
+            "a monomial order must be 'lex', 'grlex', 'grevlex', a BlockOrder or a WeightOrder",
+        )
     })?;
     let kind: String = tuple.get_item(0)?.extract()?;
     match kind.as_str() {
@@ -29,23 +31,39 @@ fn parse_order(spec: &Bound<'_, PyAny>) -> PyResult<MonomialOrder> {
                 PyValueError::new_err("weight order: weights must be non-negative integers")
             })?;
             let tie = parse_order(&tuple.get_item(2)?)?;
-            Ok(MonomialOrder::Weight { weights, tie: Box::new(tie) })
+            Ok(MonomialOrder::Weight {
+                weights,
+                tie: Box::new(tie),
+            })
         }
         "block" => {
             let mut blocks = Vec::new();
             for item in tuple.get_item(1)?.try_iter()? {
                 let (order, vars): (Bound<'_, PyAny>, Vec<usize>) = item?.extract()?;
-                blocks.push(Block { order: parse_order(&order)?, vars });
+                blocks.push(Block {
+                    order: parse_order(&order)?,
+                    vars,
+                });
             }
             Ok(MonomialOrder::Block(blocks))
         }
-        other => Err(PyValueError::new_err(format!("unknown monomial order kind '{other}'"))),
+        other => Err(PyValueError::new_err(format!(
+            "unknown monomial order kind '{other}'"
+        ))),
     }
 }
 
-pub fn limits(max_degree: Option<u32>, max_matrix: Option<u64>, threads: Option<usize>) -> PyResult<Limits> {
+pub fn limits(
+    max_degree: Option<u32>,
+    max_matrix: Option<u64>,
+    threads: Option<usize>,
+) -> PyResult<Limits> {
     if threads == Some(0) {
         return Err(PyValueError::new_err("threads must be at least 1"));
     }
-    Ok(Limits { max_degree, max_matrix_entries: max_matrix, threads })
+    Ok(Limits {
+        max_degree,
+        max_matrix_entries: max_matrix,
+        threads,
+    })
 }

@@ -2,7 +2,9 @@
 //!
 //! Adding a field kind: one variant in each enum, one `Kind` impl, one arm in each macro.
 
-use fibrewise_core::field::{BigPrimeField, BinaryField, ExtensionField, RationalField, TableField};
+use fibrewise_core::field::{
+    BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
+};
 use fibrewise_core::{Field, Poly, PrimeField, Ring};
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;

@@ -5,8 +5,12 @@ use fibrewise_core::Error;
 use pyo3::exceptions::{PyKeyboardInterrupt, PyRuntimeError, PyValueError};
 use pyo3::prelude::*;
 
-pyo3::create_exception!(fibrewise, ResourceLimit, pyo3::exceptions::PyRuntimeError,
-    "A computation went over a limit set by the caller (degree, matrix size).");
+pyo3::create_exception!(
+    fibrewise,
+    ResourceLimit,
+    pyo3::exceptions::PyRuntimeError,
+    "A computation went over a limit set by the caller (degree, matrix size)."
+);
 
 pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add("ResourceLimit", m.py().get_type::<ResourceLimit>())
@@ -14,7 +18,9 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
 
 pub fn to_py(e: Error) -> PyErr {
     match e {
-        Error::Parse { .. } | Error::InvalidInput(_) | Error::Overflow(_) => PyValueError::new_err(e.to_string()),
+        Error::Parse { .. } | Error::InvalidInput(_) | Error::Overflow(_) => {
+            PyValueError::new_err(e.to_string())
+        }
         Error::ResourceLimit(m) => ResourceLimit::new_err(m),
         Error::Interrupted => PyKeyboardInterrupt::new_err("interrupted"),
     }

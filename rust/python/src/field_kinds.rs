@@ -8,7 +8,9 @@
 
 use crate::dispatch::{AnyField, AnyPoly, AnyRing, Kind};
 use crate::ring::{IntoAny, NativeField};
-use fibrewise_core::field::{BigPrimeField, BinaryField, ExtensionField, Modulus, RationalField, TableField};
+use fibrewise_core::field::{
+    BigPrimeField, BinaryField, ExtensionField, Modulus, RationalField, TableField,
+};
 use fibrewise_core::{Field, Poly, Ring};
 use num_bigint::{BigInt, BigUint};
 use num_rational::BigRational;
@@ -28,7 +30,10 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
 /// another library comes in.
 #[pyfunction]
 fn field_from_modulus(p: BigUint, coefficients: Vec<BigUint>) -> PyResult<NativeField> {
-    let reduced: Vec<u64> = coefficients.iter().map(|c| (c % &p).to_u64().unwrap_or(0)).collect();
+    let reduced: Vec<u64> = coefficients
+        .iter()
+        .map(|c| (c % &p).to_u64().unwrap_or(0))
+        .collect();
     let field = AnyField::from_modulus(&p, reduced).map_err(crate::errors::to_py)?;
     Ok(NativeField { field })
 }
@@ -44,8 +49,14 @@ fn is_int(v: &Bound<'_, PyAny>) -> bool {
 }
 
 fn not_a_coefficient(spec: &str, v: &Bound<'_, PyAny>, expected: &str) -> PyErr {
-    let ty = v.get_type().name().map(|n| n.to_string()).unwrap_or_default();
-    PyValueError::new_err(format!("a coefficient of {spec} must be {expected}, not {ty}"))
+    let ty = v
+        .get_type()
+        .name()
+        .map(|n| n.to_string())
+        .unwrap_or_default();
+    PyValueError::new_err(format!(
+        "a coefficient of {spec} must be {expected}, not {ty}"
+    ))
 }
 
 /// The residue of a Python int modulo p, as Python computes it (any size, sign).
@@ -99,7 +110,9 @@ impl Kind for RationalField {
     enum_wrapping!(Rational);
     fn coefficient_to_py(&self, py: Python<'_>, c: &BigRational) -> PyResult<PyObject> {
         let fraction = py.import("fractions")?.getattr("Fraction")?;
-        Ok(fraction.call1((c.numer().clone(), c.denom().clone()))?.unbind())
+        Ok(fraction
+            .call1((c.numer().clone(), c.denom().clone()))?
+            .unbind())
     }
     fn coefficient_from_py(&self, v: &Bound<'_, PyAny>) -> PyResult<BigRational> {
         if is_int(v) {
@@ -109,7 +122,10 @@ impl Kind for RationalField {
         if !v.is_instance(&fraction)? {
             return Err(not_a_coefficient("QQ", v, "an int or a fractions.Fraction"));
         }
-        let (num, den): (BigInt, BigInt) = (v.getattr("numerator")?.extract()?, v.getattr("denominator")?.extract()?);
+        let (num, den): (BigInt, BigInt) = (
+            v.getattr("numerator")?.extract()?,
+            v.getattr("denominator")?.extract()?,
+        );
         Ok(BigRational::new(num, den))
     }
 }
@@ -121,7 +137,10 @@ impl IntoAny for RationalField {
 
 /// Σ c_i p^i.
 fn integer_representation(p: u64, coefficients: &[u64]) -> BigUint {
-    coefficients.iter().rev().fold(BigUint::zero(), |acc, &c| acc * p + c)
+    coefficients
+        .iter()
+        .rev()
+        .fold(BigUint::zero(), |acc, &c| acc * p + c)
 }
 
 /// Coefficients c_0..c_(k-1) of the element given by its integer representation (an int or
@@ -131,7 +150,12 @@ fn coefficients_of(spec: &str, m: &Modulus, v: &Bound<'_, PyAny>) -> PyResult<Ve
     if let Ok(ty) = v.get_type().getattr("irreducible_poly") {
         // A galois element: its field must be this one, or its integer representation means
         // another element.
-        let theirs: BigUint = v.py().import("builtins")?.getattr("int")?.call1((ty,))?.extract()?;
+        let theirs: BigUint = v
+            .py()
+            .import("builtins")?
+            .getattr("int")?
+            .call1((ty,))?
+            .extract()?;
         if theirs != integer_representation(p, m.coefficients()) {
             return Err(PyValueError::new_err(format!(
                 "the element {} belongs to a field with another modulus than {spec}",
@@ -140,14 +164,20 @@ fn coefficients_of(spec: &str, m: &Modulus, v: &Bound<'_, PyAny>) -> PyResult<Ve
         }
     }
     if v.is_instance_of::<PyBool>() {
-        return Err(not_a_coefficient(spec, v, "an int or a galois element of the same field"));
+        return Err(not_a_coefficient(
+            spec,
+            v,
+            "an int or a galois element of the same field",
+        ));
     }
     let index = v.py().import("operator")?.getattr("index")?;
     let mut code: BigUint = index
         .call1((v,))
         .map_err(|_| not_a_coefficient(spec, v, "an int or a galois element of the same field"))?
         .extract()
-        .map_err(|_| PyValueError::new_err(format!("a coefficient of {spec} cannot be negative")))?;
+        .map_err(|_| {
+            PyValueError::new_err(format!("a coefficient of {spec} cannot be negative"))
+        })?;
     if code >= m.order() {
         return Err(PyValueError::new_err(format!(
             "{code} is not the integer representation of an element of {spec} (at most {})",

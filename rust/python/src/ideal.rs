@@ -21,12 +21,18 @@ pub fn engine_by_name(name: &str) -> PyResult<Engine> {
         "buchberger" => Ok(Engine::Buchberger),
         "f4" => Ok(Engine::F4),
         "auto" => Ok(Engine::default()),
-        other => Err(PyValueError::new_err(format!("unknown engine '{other}': expected auto, f4 or buchberger"))),
+        other => Err(PyValueError::new_err(format!(
+            "unknown engine '{other}': expected auto, f4 or buchberger"
+        ))),
     }
 }
 
 /// The polynomials as elements of `ring` (sorted for its order).
-pub fn polys_in<F: Kind>(ring: &NativeRing, r: &Ring<F>, polys: &[PyRef<'_, NativePoly>]) -> PyResult<Vec<Poly<F>>> {
+pub fn polys_in<F: Kind>(
+    ring: &NativeRing,
+    r: &Ring<F>,
+    polys: &[PyRef<'_, NativePoly>],
+) -> PyResult<Vec<Poly<F>>> {
     let _ = ring;
     polys.iter().map(|p| p.other_in(r, p)).collect()
 }

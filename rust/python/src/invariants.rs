@@ -12,7 +12,9 @@ use crate::ring::{NativePoly, NativeRing};
 use fibrewise_core::control::Limits;
 use fibrewise_core::groebner::{ReducedBasis, Stats};
 use fibrewise_core::hilbert::{series_of_basis, HilbertSeries};
-use fibrewise_core::zerodim::{maximal, radical, vector_space_dimension as core_vs_dimension, Quotient};
+use fibrewise_core::zerodim::{
+    maximal, radical, vector_space_dimension as core_vs_dimension, Quotient,
+};
 use fibrewise_core::{dimension, points, Ring};
 use pyo3::prelude::*;
 
@@ -33,11 +35,23 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     Ok(())
 }
 
-fn basis_of<F: Kind>(ring: &NativeRing, r: &Ring<F>, basis: &[PyRef<'_, NativePoly>]) -> PyResult<ReducedBasis<F>> {
-    Ok(ReducedBasis { ring: r.clone(), polys: polys_in(ring, r, basis)?, stats: Stats::default() })
+fn basis_of<F: Kind>(
+    ring: &NativeRing,
+    r: &Ring<F>,
+    basis: &[PyRef<'_, NativePoly>],
+) -> PyResult<ReducedBasis<F>> {
+    Ok(ReducedBasis {
+        ring: r.clone(),
+        polys: polys_in(ring, r, basis)?,
+        stats: Stats::default(),
+    })
 }
 
-fn leading_monomials<F: Kind>(ring: &NativeRing, r: &Ring<F>, basis: &[PyRef<'_, NativePoly>]) -> PyResult<Vec<fibrewise_core::Monomial>> {
+fn leading_monomials<F: Kind>(
+    ring: &NativeRing,
+    r: &Ring<F>,
+    basis: &[PyRef<'_, NativePoly>],
+) -> PyResult<Vec<fibrewise_core::Monomial>> {
     Ok(basis_of(ring, r, basis)?.leading_monomials())
 }
 
@@ -49,7 +63,10 @@ fn krull_dimension(ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyRe
 
 /// Names of a maximal independent set of variables; `None` for the unit ideal.
 #[pyfunction]
-fn independent_variables(ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<Option<Vec<String>>> {
+fn independent_variables(
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+) -> PyResult<Option<Vec<String>>> {
     with_ring!(&ring.ring, r => {
         let set = dimension::independent_variables(r.nvars(), &leading_monomials(ring, r, &basis)?);
         Ok(set.map(|s| s.into_iter().map(|i| r.names()[i].clone()).collect()))
@@ -64,7 +81,11 @@ fn is_degree_compatible(ring: &NativeRing) -> bool {
 
 /// (numerator, denominator exponent, affine) of the Hilbert series of R/I.
 #[pyfunction]
-fn hilbert_series(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<(Vec<i128>, u32, bool)> {
+fn hilbert_series(
+    py: Python<'_>,
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+) -> PyResult<(Vec<i128>, u32, bool)> {
     with_ring!(&ring.ring, r => {
         let gb = basis_of(ring, r, &basis)?;
         let s = long_run::run(py, Limits::default(), |control| series_of_basis(&gb, control))?;
@@ -73,23 +94,38 @@ fn hilbert_series(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, Native
 }
 
 fn series(numerator: Vec<i128>, denominator_exponent: u32) -> HilbertSeries {
-    HilbertSeries { numerator, denominator_exponent, affine: false }
+    HilbertSeries {
+        numerator,
+        denominator_exponent,
+        affine: false,
+    }
 }
 
 /// Hilbert polynomial coefficients (numerator, denominator), constant term first.
 #[pyfunction]
-fn hilbert_polynomial(numerator: Vec<i128>, denominator_exponent: u32) -> PyResult<Vec<(i128, i128)>> {
-    series(numerator, denominator_exponent).polynomial().py_err()
+fn hilbert_polynomial(
+    numerator: Vec<i128>,
+    denominator_exponent: u32,
+) -> PyResult<Vec<(i128, i128)>> {
+    series(numerator, denominator_exponent)
+        .polynomial()
+        .py_err()
 }
 
 /// Least s0 from which the Hilbert function equals the Hilbert polynomial.
 #[pyfunction]
 fn regularity_index(numerator: Vec<i128>, denominator_exponent: u32) -> PyResult<u64> {
-    series(numerator, denominator_exponent).regularity_index().py_err()
+    series(numerator, denominator_exponent)
+        .regularity_index()
+        .py_err()
 }
 
 #[pyfunction]
-fn vector_space_dimension(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<u128> {
+fn vector_space_dimension(
+    py: Python<'_>,
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+) -> PyResult<u128> {
     with_ring!(&ring.ring, r => {
         let gb = basis_of(ring, r, &basis)?;
         long_run::run(py, Limits::default(), |control| core_vs_dimension(&gb, control))
@@ -98,7 +134,11 @@ fn vector_space_dimension(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_
 
 /// Exponent vectors of the standard monomials, increasing in the ring's order.
 #[pyfunction]
-fn standard_monomials(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<Vec<Vec<u32>>> {
+fn standard_monomials(
+    py: Python<'_>,
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+) -> PyResult<Vec<Vec<u32>>> {
     with_ring!(&ring.ring, r => {
         let gb = basis_of(ring, r, &basis)?;
         let q = long_run::run(py, Limits::default(), |control| Quotient::new(gb, control))?;
@@ -130,7 +170,12 @@ fn multiplication_matrix(
 /// Number of distinct solutions over the algebraic closure (zero-dimensional ideals).
 #[pyfunction]
 #[pyo3(signature = (ring, basis, engine="auto"))]
-fn count_solutions(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>, engine: &str) -> PyResult<u128> {
+fn count_solutions(
+    py: Python<'_>,
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+    engine: &str,
+) -> PyResult<u128> {
     let engine = engine_by_name(engine)?;
     with_ring!(&ring.ring, r => {
         let gb = basis_of(ring, r, &basis)?;
@@ -139,7 +184,11 @@ fn count_solutions(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, Nativ
 }
 
 #[pyfunction]
-fn is_maximal(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<bool> {
+fn is_maximal(
+    py: Python<'_>,
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+) -> PyResult<bool> {
     with_ring!(&ring.ring, r => {
         let gb = basis_of(ring, r, &basis)?;
         long_run::run(py, Limits::default(), |control| maximal::is_maximal(&gb, control))
@@ -147,7 +196,11 @@ fn is_maximal(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly
 }
 
 #[pyfunction]
-fn residue_field_degree(py: Python<'_>, ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<u128> {
+fn residue_field_degree(
+    py: Python<'_>,
+    ring: &NativeRing,
+    basis: Vec<PyRef<'_, NativePoly>>,
+) -> PyResult<u128> {
     with_ring!(&ring.ring, r => {
         let gb = basis_of(ring, r, &basis)?;
         long_run::run(py, Limits::default(), |control| maximal::residue_field_degree(&gb, control))

@@ -12,7 +12,11 @@ use pyo3::prelude::*;
 use std::sync::{Condvar, Mutex};
 use std::time::Duration;
 
-pub fn run<T: Send>(py: Python<'_>, limits: Limits, work: impl FnOnce(&Control) -> Result<T> + Send) -> PyResult<T> {
+pub fn run<T: Send>(
+    py: Python<'_>,
+    limits: Limits,
+    work: impl FnOnce(&Control) -> Result<T> + Send,
+) -> PyResult<T> {
     let control = Control::new().with_limits(limits);
     let done = (Mutex::new(false), Condvar::new());
     let outcome = std::thread::scope(|scope| {

@@ -37,10 +37,17 @@ fn text_to_py<'py>(py: Python<'py>, t: &CertificateText) -> PyResult<Bound<'py, 
 }
 
 /// One entry of a certificate dict, with a message naming the key when it is missing or wrong.
-fn entry<'py, T: FromPyObject<'py>>(d: &Bound<'py, PyDict>, key: &str, default: Option<T>) -> PyResult<T> {
+fn entry<'py, T: FromPyObject<'py>>(
+    d: &Bound<'py, PyDict>,
+    key: &str,
+    default: Option<T>,
+) -> PyResult<T> {
     match d.get_item(key)? {
-        Some(v) => v.extract().map_err(|_| PyValueError::new_err(format!("certificate entry '{key}' has the wrong type"))),
-        None => default.ok_or_else(|| PyValueError::new_err(format!("certificate entry '{key}' is missing"))),
+        Some(v) => v.extract().map_err(|_| {
+            PyValueError::new_err(format!("certificate entry '{key}' has the wrong type"))
+        }),
+        None => default
+            .ok_or_else(|| PyValueError::new_err(format!("certificate entry '{key}' is missing"))),
     }
 }
 

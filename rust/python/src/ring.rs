@@ -2,7 +2,10 @@
 //! `Polynomial` wrap these.
 
 use crate::convert::order_from_py;
-use crate::dispatch::{parse_field_spec, same_variables_and_field, with_field, with_ring, AnyField, AnyPoly, AnyRing, Kind};
+use crate::dispatch::{
+    parse_field_spec, same_variables_and_field, with_field, with_ring, AnyField, AnyPoly, AnyRing,
+    Kind,
+};
 use crate::errors::{internal, IntoPy};
 use fibrewise_core::parse::parse_poly;
 use fibrewise_core::{Field, Monomial, Poly, Ring};
@@ -19,7 +22,9 @@ pub struct NativeField {
 impl NativeField {
     #[new]
     fn new(spec: &str) -> PyResult<Self> {
-        Ok(NativeField { field: parse_field_spec(spec)? })
+        Ok(NativeField {
+            field: parse_field_spec(spec)?,
+        })
     }
     #[getter]
     fn characteristic(&self) -> String {
@@ -49,12 +54,17 @@ pub struct NativeRing {
 
 fn new_ring<F: Kind>(field: &F, names: Vec<String>, order: &Bound<'_, PyAny>) -> PyResult<AnyRing> {
     let order = order_from_py(order, names.len())?;
-    Ok(F::wrap_ring(Arc::new(Ring::new(field.clone(), names, order).py_err()?)))
+    Ok(F::wrap_ring(Arc::new(
+        Ring::new(field.clone(), names, order).py_err()?,
+    )))
 }
 
 impl NativeRing {
     pub fn poly<F: Kind>(&self, p: Poly<F>) -> NativePoly {
-        NativePoly { ring: self.ring.clone(), poly: F::wrap_poly(p) }
+        NativePoly {
+            ring: self.ring.clone(),
+            poly: F::wrap_poly(p),
+        }
     }
 }
 
@@ -133,15 +143,24 @@ impl NativePoly {
         F::unwrap_poly(&self.poly).ok_or_else(|| internal("polynomial does not match its ring"))
     }
     fn wrap<F: Kind>(&self, p: Poly<F>) -> NativePoly {
-        NativePoly { ring: self.ring.clone(), poly: F::wrap_poly(p) }
+        NativePoly {
+            ring: self.ring.clone(),
+            poly: F::wrap_poly(p),
+        }
     }
     /// `other` as a polynomial of this ring (same field and variables; sorted for this order).
     pub fn other_in<F: Kind>(&self, ring: &Ring<F>, other: &NativePoly) -> PyResult<Poly<F>> {
         if !same_variables_and_field(&self.ring, &other.ring) {
-            return Err(PyValueError::new_err("the polynomials belong to different rings"));
+            return Err(PyValueError::new_err(
+                "the polynomials belong to different rings",
+            ));
         }
         let p = other.inner::<F>()?.clone();
-        Ok(if with_ring!(&other.ring, o => o.order == ring.order) { p } else { ring.adopt(p) })
+        Ok(if with_ring!(&other.ring, o => o.order == ring.order) {
+            p
+        } else {
+            ring.adopt(p)
+        })
     }
 }
 

@@ -8,6 +8,7 @@ use super::hash::MonomialTable;
 use super::parallel::map_items;
 use crate::control::Control;
 use crate::error::Result;
+use rayon::slice::ParallelSliceMut;
 use std::sync::Arc;
 
 /// A basis element: monomial indices in decreasing order and their coefficients (monic: the first
@@ -145,6 +146,9 @@ impl<C> Closure<'_, C> {
 /// Monomials per round below which the look-ups stay on the calling thread.
 const PARALLEL_MIN_MONOMIALS: usize = 32;
 
+/// Columns below which they are sorted on the calling thread.
+const PARALLEL_MIN_SORT: usize = 4096;
+
 /// Marks a product not yet in the monomial table.
 const MISSING: u32 = u32::MAX;
 
@@ -251,18 +255,22 @@ pub fn preprocess<C: Send + Sync>(
     let Closure {
         table, mut seen, ..
     } = closure;
-    seen.sort_unstable_by(|&a, &b| table.cmp(b, a));
+    if seen.len() >= PARALLEL_MIN_SORT && control.limits.threads != Some(1) {
+        seen.par_sort_unstable_by(|&a, &b| table.cmp(b, a));
+    } else {
+        seen.sort_unstable_by(|&a, &b| table.cmp(b, a));
+    }
     let mut col_of = vec![u32::MAX; table.len()];
     for (c, &m) in seen.iter().enumerate() {
         col_of[m as usize] = c as u32;
     }
-    let to_row = |(mult, monos): (Multiple, Vec<u32>)| Row {
+    let to_row = |_: &mut (), (mult, monos): &(Multiple, Vec<u32>)| Row {
         cols: monos.iter().map(|&m| col_of[m as usize]).collect(),
         coeffs: basis[mult.element].coeffs.clone(),
     };
     Ok(SymbolicMatrix {
-        reducers: reducers.into_iter().map(to_row).collect(),
-        new_rows: new_rows.into_iter().map(to_row).collect(),
+        reducers: map_items(&reducers, PARALLEL_MIN_MONOMIALS, control, || (), to_row),
+        new_rows: map_items(&new_rows, PARALLEL_MIN_MONOMIALS, control, || (), to_row),
         columns: seen,
     })
 }
