@@ -228,19 +228,10 @@ pub fn is_integral<F: Field>(
 mod tests {
     use super::*;
     use crate::field::PrimeField;
-    use crate::parse::parse_poly;
+    use crate::test_support::{polys as ps, ring_32003};
 
     fn setup(vars: &[&str]) -> Ring<PrimeField> {
-        let names = vars.iter().map(|s| s.to_string()).collect();
-        Ring::new(
-            PrimeField::new(32003).unwrap(),
-            names,
-            MonomialOrder::Grevlex,
-        )
-        .unwrap()
-    }
-    fn ps(r: &Ring<PrimeField>, texts: &[&str]) -> Vec<Poly<PrimeField>> {
-        texts.iter().map(|t| parse_poly(r, t).unwrap()).collect()
+        ring_32003(vars, MonomialOrder::Grevlex)
     }
 
     #[test]

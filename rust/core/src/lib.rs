@@ -32,6 +32,9 @@ pub mod poly;
 pub mod systems;
 pub mod zerodim;
 
+#[cfg(test)]
+mod test_support;
+
 pub use control::Control;
 pub use error::{Error, Result};
 pub use field::{Field, PrimeField};

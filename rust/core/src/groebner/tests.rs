@@ -5,10 +5,7 @@ use crate::field::PrimeField;
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 
-fn ring(vars: &[&str], order: MonomialOrder) -> Ring<PrimeField> {
-    let names = vars.iter().map(|s| s.to_string()).collect();
-    Ring::new(PrimeField::new(32003).unwrap(), names, order).unwrap()
-}
+use crate::test_support::ring_32003 as ring;
 
 fn basis_text(r: &Ring<PrimeField>, gens: &[&str]) -> Vec<String> {
     let gens: Vec<_> = gens.iter().map(|g| parse_poly(r, g).unwrap()).collect();

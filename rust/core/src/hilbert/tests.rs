@@ -4,15 +4,10 @@
 use super::*;
 use crate::field::PrimeField;
 use crate::parse::parse_poly;
+use crate::test_support::{numbered_ring_32003, ring_32003};
 
 fn ring(vars: &[&str]) -> Ring<PrimeField> {
-    let names = vars.iter().map(|s| s.to_string()).collect();
-    Ring::new(
-        PrimeField::new(32003).unwrap(),
-        names,
-        MonomialOrder::Grevlex,
-    )
-    .unwrap()
+    ring_32003(vars, MonomialOrder::Grevlex)
 }
 
 fn series_of(r: &Ring<PrimeField>, gens: &[&str]) -> HilbertSeries {
@@ -153,13 +148,7 @@ fn bezout_complete_intersections() {
         (3, vec![2, 2, 3]),
         (4, vec![3, 2]),
     ] {
-        let names: Vec<String> = (0..n).map(|i| format!("x{i}")).collect();
-        let r = Ring::new(
-            PrimeField::new(32003).unwrap(),
-            names,
-            MonomialOrder::Grevlex,
-        )
-        .unwrap();
+        let r = numbered_ring_32003(n);
         let gens: Vec<_> = degrees
             .iter()
             .map(|&d| random_form(&r, d, &mut rng))
@@ -206,13 +195,7 @@ fn semi_regular_quadratic_systems() {
     assert_eq!(semi_regular_series(5, 6, 12), vec![1, 5, 9, 5]);
     let mut rng = Lcg(2004);
     for (n, m) in [(3usize, 3usize), (3, 4), (4, 5), (4, 6), (5, 6), (5, 3)] {
-        let names: Vec<String> = (0..n).map(|i| format!("x{i}")).collect();
-        let r = Ring::new(
-            PrimeField::new(32003).unwrap(),
-            names,
-            MonomialOrder::Grevlex,
-        )
-        .unwrap();
+        let r = numbered_ring_32003(n);
         let gens: Vec<_> = (0..m).map(|_| random_form(&r, 2, &mut rng)).collect();
         let s = hilbert_series(&r, &gens, Engine::default(), &Control::new()).unwrap();
         let values = s.coefficients(12).unwrap();
