@@ -6,8 +6,10 @@
 //! it stays free to do so even while the work runs parallel loops of its own. A
 //! `KeyboardInterrupt` there asks the core to stop (through `Control`), and the work returns at
 //! its next check. Handing a job to a parked pool thread costs a few microseconds where starting
-//! a thread per call cost tens, which dominated calls on tiny systems. A panic in the work
-//! becomes a Python exception instead of bringing down the interpreter.
+//! a thread per call cost tens, which dominated calls on tiny systems. Calls from several Python
+//! threads share the pool: as many run at once as it has threads, the others wait their turn
+//! (a Ctrl-C meanwhile stops them as soon as they start). A panic in the work becomes a Python
+//! exception instead of bringing down the interpreter.
 
 use crate::errors::{internal, to_py};
 use fibrewise_core::control::{Control, Limits};
