@@ -1,5 +1,5 @@
-"""Benchmark systems as polynomial text, from their standard definitions (REFERENCE-VALUES.md).
-Shared by tests/test_invariants.py and bench/bench_invariants.py."""
+"""Benchmark systems as polynomial text, from their standard definitions (REFERENCE-VALUES.md),
+and random small systems. Shared by the tests and bench/bench_invariants.py."""
 
 import itertools
 
@@ -32,4 +32,17 @@ def random_form(rng, names, degree, p):
         if sum(exps) == degree:
             mono = "*".join(f"{n}^{e}" for n, e in zip(names, exps) if e)
             terms.append(f"{rng.randrange(p)}*{mono}")
+    return " + ".join(terms)
+
+
+def random_poly(rng, names, p):
+    """A sparse random polynomial over GF(p): 1-4 terms of degree at most 3 in ``names``, nonzero
+    coefficients (always 1 over GF(2), where no draw is needed)."""
+    terms = []
+    for _ in range(rng.randint(1, 4)):
+        exps = [0] * len(names)
+        for _ in range(rng.randint(0, 3)):
+            exps[rng.randrange(len(names))] += 1
+        mono = "*".join(f"{names[i]}^{e}" for i, e in enumerate(exps) if e) or "1"
+        terms.append(f"{rng.randint(1, p - 1) if p > 2 else 1}*{mono}")
     return " + ".join(terms)

@@ -20,6 +20,7 @@ from pathlib import Path
 import pytest
 import sympy
 
+import fibrewise.batch
 from fibrewise.batch import BatchInputError, finished_ids, read_jobs
 from fibrewise.cli import main
 
@@ -314,3 +315,37 @@ def test_dask_cluster_gives_the_same_lines_and_resumes(tmp_path):
     for job in jobs[:3]:
         basis = essence(remote)[job["id"]][1]["basis"]
         assert standard_monomial_count([leading_exponents(g, names) for g in basis], len(names)) == 16
+
+
+_run_in_sandbox = fibrewise.batch.run_in_sandbox
+
+
+def lose_the_victim(job: dict, timeout, memory_bytes) -> dict:
+    """What the Dask workers run in the test below: the job "victim" fails outside the job itself,
+    as when the cluster loses it (a worker machine gone); every other job runs as usual."""
+    if job["id"] == "victim":
+        raise ConnectionError("worker lost")
+    return _run_in_sandbox(job, timeout, memory_bytes)
+
+
+def test_dask_job_lost_by_the_cluster_gets_no_line_and_runs_on_resume(tmp_path, monkeypatch, capsys):
+    pytest.importorskip("distributed")
+    from distributed import LocalCluster
+
+    names, eqs = katsura(3)
+    jobs = [{"id": job_id, "field": "GF(32003)", "variables": names, "polynomials": eqs, "tasks": ["dimension"]}
+            for job_id in ("before", "victim", "after")]
+    source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
+    with LocalCluster(n_workers=2, threads_per_worker=1, processes=False, protocol="tcp://",
+                      host="127.0.0.1", dashboard_address=None) as cluster:
+        args = ["batch", str(source), "-o", str(out), "--scheduler", cluster.scheduler_address, "--quiet"]
+        monkeypatch.setattr(fibrewise.batch, "run_in_sandbox", lose_the_victim)
+        assert main(args) == 1  # a job was lost: exit status 1, as the README says
+        assert 'job "victim" lost by the cluster (ConnectionError: worker lost)' in capsys.readouterr().err
+        assert sorted(r["id"] for r in read_records(out)) == ["after", "before"]  # the batch went on
+        monkeypatch.undo()
+        assert main(args) == 0  # the resume runs the lost job, and only it
+    records = read_records(out)
+    assert sorted(r["id"] for r in records) == ["after", "before", "victim"]
+    # katsura-3 has 2^3 = 8 solutions, so dimension 0 (from memory).
+    assert all(r["status"] == "ok" and r["result"] == {"dimension": 0} for r in records)

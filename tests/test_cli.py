@@ -223,17 +223,6 @@ def klein_quartic_points_by_galois() -> int:
     return count
 
 
-def test_missing_capability_is_a_clear_error(monkeypatch, capsys):
-    # Whatever this build lacks, the command says so plainly (status 2, JSON "error").
-    from fibrewise.cli import main
-
-    monkeypatch.delattr(fw.Ideal, "count_points", raising=False)
-    status = main(["points", str(EXAMPLES / "curve_code_gf7.txt"), "--json"])
-    assert status == 2
-    out = json.loads(capsys.readouterr().out)
-    assert out["error"] == "count_points() is not available in this build"
-
-
 # Bad input -------------------------------------------------------------------------------------
 
 def test_bad_field_names_file_line_and_column(tmp_path):

@@ -16,6 +16,7 @@ import sympy
 
 import fibrewise as fw
 from fibrewise.normalization import CertificateError, check_certificate
+from systems import random_poly
 
 NAMES = ["x", "y", "z", "w"]
 
@@ -237,17 +238,6 @@ def test_bad_arguments():
 # --- random ideals against sympy -------------------------------------------------------------
 
 
-def random_poly(rng, nvars, p):
-    terms = []
-    for _ in range(rng.randint(1, 4)):
-        exps = [0] * nvars
-        for _ in range(rng.randint(0, 3)):
-            exps[rng.randrange(nvars)] += 1
-        mono = "*".join(f"{NAMES[i]}^{e}" for i, e in enumerate(exps) if e) or "1"
-        terms.append(f"{rng.randint(1, p - 1)}*{mono}")
-    return " + ".join(terms)
-
-
 def sympy_dimension(basis, gens):
     """Krull dimension from sympy's basis: the largest set of variables containing the support of
     no leading monomial (brute force over subsets); -1 for the unit ideal."""
@@ -269,7 +259,7 @@ CASES = [(seed, PRIMES[seed % len(PRIMES)], 2 + seed % 2) for seed in range(240)
 @pytest.mark.parametrize("seed,p,nvars", CASES)
 def test_random_ideals_against_sympy(seed, p, nvars):
     rng = random.Random(seed)
-    texts = [random_poly(rng, nvars, p) for _ in range(rng.randint(1, nvars))]
+    texts = [random_poly(rng, NAMES[:nvars], p) for _ in range(rng.randint(1, nvars))]
     names = NAMES[:nvars]
     I = ideal(p, names, texts)
     gens = sympy.symbols(names)

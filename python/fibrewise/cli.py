@@ -2,9 +2,8 @@
 
 ``fibrewise SUBCOMMAND FILE [options]``; ``--json`` prints one JSON object. Each subcommand computes
 a JSON-ready dict; ``report`` turns it into the short human report. Bad input exits with status 2
-and one message naming the file, line and column; a capability missing from this build also exits
-with status 2 and says so. Heavy packages (galois, numba, matplotlib, dask) are imported only by
-the commands that need them, so start-up stays fast.
+and one message naming the file, line and column. Heavy packages (galois, numba, matplotlib, dask)
+are imported only by the commands that need them, so start-up stays fast.
 """
 
 from __future__ import annotations
@@ -57,23 +56,16 @@ def _basis(args: argparse.Namespace, activity) -> dict:
 
 
 def _analyze(args: argparse.Namespace, activity) -> dict:
-    from .jobs import NotAvailable, capability
-
     system = _system(args)
     ideal = system.ideal
     result: dict[str, Any] = _header(system)
-    unavailable: list[str] = []
-
     failed: dict[str, str] = {}
 
     def part(name: str, step: str, call: Callable[[], Any]) -> Any:
-        """One piece of the analysis; a piece that is missing or fails is noted, the rest goes on."""
+        """One piece of the analysis; a piece that fails is noted, the rest goes on."""
         activity.set_step(step)
         try:
             value, result[f"seconds_{name}"] = _timed(call)
-        except NotAvailable as e:
-            unavailable.append(str(e))
-            return None
         except (ValueError, RuntimeError) as e:  # RuntimeError: fibrewise.ResourceLimit
             failed[step] = f"{type(e).__name__}: {e}" if not isinstance(e, ValueError) else str(e)
             return None
@@ -83,20 +75,18 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
     activity.set_step("Groebner basis")
     gb, result["seconds_basis"] = _timed(ideal.groebner_basis)
     result["basis"] = {"size": len(gb), "max_degree": gb.stats.max_degree, "engine": gb.stats.engine}
-    dim = part("dimension", "dimension", lambda: capability("dimension", lambda: ideal.dimension()))
+    dim = part("dimension", "dimension", ideal.dimension)
     if dim is not None and dim >= 0:
         part("independent_variables", "independent variables",
-             lambda: [str(v) for v in capability("independent_variables", lambda: ideal.independent_variables())])
-        part("degree", "degree", lambda: capability("degree", lambda: ideal.degree()))
+             lambda: [str(v) for v in ideal.independent_variables()])
+        part("degree", "degree", ideal.degree)
         part("hilbert_series", "Hilbert series", lambda: _hilbert(ideal))
         if dim == 0:
-            part("vector_space_dimension", "dim_k R/I",
-                 lambda: capability("vector_space_dimension", lambda: ideal.vector_space_dimension()))
+            part("vector_space_dimension", "dim_k R/I", ideal.vector_space_dimension)
         part("normalization", "Noether normalization", lambda: _normalization_summary(ideal))
         points = _cheap_points(system, args, result)
         if points is not None:
             part("points", "points", points)
-    result["unavailable"] = unavailable
     result["failed"] = failed
     result["summary"] = _summary(result)
     result["stats"] = gb.stats.to_dict()
@@ -110,9 +100,7 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
 
 
 def _hilbert(ideal) -> dict:
-    from .jobs import capability
-
-    series = capability("hilbert_series", lambda: ideal.hilbert_series())
+    series = ideal.hilbert_series()
     return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent,
             "polynomial": [_json_number(c) for c in series.polynomial()],
             "regularity_index": series.regularity_index()}
@@ -124,17 +112,13 @@ def _json_number(c) -> int | str:
 
 
 def _normalization_summary(ideal) -> dict:
-    from .jobs import capability
-
-    cert = capability("noether_normalization", lambda: ideal.noether_normalization()).to_dict()
+    cert = ideal.noether_normalization().to_dict()
     return {key: cert[key] for key in ("dimension", "parameters", "rank", "strategy")}
 
 
 def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
     """The point count when it is cheap (the count bounds the size of the work), else None with
     the reason in ``result["points_skipped"]``."""
-    from .jobs import capability
-
     q = system.ring.field.order
     if q is None:
         result["points_skipped"] = "the field is infinite"
@@ -152,9 +136,9 @@ def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
         return None
 
     def count() -> dict:
-        counts = {"affine": capability("count_points", lambda: system.ideal.count_points())}
+        counts = {"affine": system.ideal.count_points()}
         if homogeneous and dim is not None and dim > 0:
-            counts["projective"] = capability("count_points", lambda: system.ideal.count_points(projective=True))
+            counts["projective"] = system.ideal.count_points(projective=True)
         return counts
 
     return count
@@ -185,12 +169,9 @@ def _summary(result: dict) -> str:
 
 
 def _normalize(args: argparse.Namespace, activity) -> dict:
-    from .jobs import capability
-
     system = _system(args)
     activity.set_step("Noether normalization")
-    nn, seconds = _timed(lambda: capability("noether_normalization", lambda: system.ideal.noether_normalization(
-        strategy=args.strategy, seed=args.seed)))
+    nn, seconds = _timed(lambda: system.ideal.noether_normalization(strategy=args.strategy, seed=args.seed))
     result = {**_header(system), "certificate": nn.to_dict(), "seconds": seconds}
     if not args.no_verify:
         activity.set_step("verifying the certificate")
@@ -210,14 +191,12 @@ def _normalize(args: argparse.Namespace, activity) -> dict:
 
 
 def _integral(args: argparse.Namespace, activity) -> dict:
-    from .jobs import capability
-
     system = _system(args)
     ideal, ring = system.ideal, system.ring
     element = _polynomial(ring, args.element, "--element")
     over = [_polynomial(ring, g, "--over") for g in args.over]
     activity.set_step("integral equation")
-    equation, seconds = _timed(lambda: capability("integral_equation", lambda: ideal.integral_equation(element, over=over)))
+    equation, seconds = _timed(lambda: ideal.integral_equation(element, over=over))
     result = {**_header(system), "element": str(element), "over": [str(g) for g in over],
               "integral": equation is not None, "seconds": seconds}
     if equation is not None:
@@ -233,14 +212,11 @@ def _polynomial(ring, text: str, option: str):
 
 
 def _points(args: argparse.Namespace, activity) -> dict:
-    from .jobs import capability
-
     system = _system(args)
     if system.ring.field.order is None:
         raise ValueError(f"{system.path}: points are counted over a finite field, not {system.ring.field}")
     activity.set_step("counting points")
-    count, seconds = _timed(lambda: capability(
-        "count_points", lambda: system.ideal.count_points(projective=args.projective)))
+    count, seconds = _timed(lambda: system.ideal.count_points(projective=args.projective))
     return {**_header(system), "points": count, "projective": args.projective, "seconds": seconds}
 
 
@@ -250,7 +226,8 @@ def _check(args: argparse.Namespace, activity) -> dict:
     if not isinstance(saved, dict):
         raise ValueError(f"{args.certificate}: a certificate is a JSON object, not {type(saved).__name__}")
     certificate = {key: value for key, value in saved.items() if key != "system"}  # "system": where it came from
-    check_certificate = _certificate_checker()
+    from .normalization import check_certificate
+
     activity.set_step("checking the certificate")
     try:
         outcome, seconds = _timed(lambda: check_certificate(certificate, system.ideal))
@@ -259,18 +236,6 @@ def _check(args: argparse.Namespace, activity) -> dict:
         valid, problems, seconds = False, [str(e)], None
     return {**_header(system), "certificate": args.certificate, "valid": valid, "problems": problems,
             "seconds": seconds}
-
-
-def _certificate_checker() -> Callable:
-    """The normalization module's ``check_certificate(certificate_dict, ideal)``."""
-    from .jobs import NotAvailable
-
-    try:
-        from .normalization import check_certificate  # type: ignore[import-not-found]
-    except ImportError:
-        raise NotAvailable("checking a saved certificate (fibrewise.normalization.check_certificate) "
-                           "is not available in this build") from None
-    return check_certificate
 
 
 def verdict(outcome: Any) -> tuple[bool, list[str]]:
@@ -395,14 +360,13 @@ def _parser() -> argparse.ArgumentParser:
 
 def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
-    from .jobs import NotAvailable
     from .progress import Activity
 
     try:
         # a batch draws its own progress (jobs done / total); the others show what they compute
         with Activity(f"fibrewise {args.command}", quiet=args.quiet or args.command == "batch") as activity:
             result = SUBCOMMANDS[args.command][2](args, activity)
-    except (ValueError, NotAvailable) as e:
+    except ValueError as e:
         return _fail(args, str(e), EXIT_BAD_INPUT)
     except OSError as e:
         where = f"{e.filename}: " if e.filename else ""

@@ -21,10 +21,6 @@ class JobError(ValueError):
     """A job description that is not well-formed (reported before any work starts)."""
 
 
-class NotAvailable(RuntimeError):
-    """A capability the interface promises but this build does not have yet."""
-
-
 def job_id(obj: dict) -> str | int:
     value = obj.get("id")
     if isinstance(value, bool) or not isinstance(value, (str, int)):
@@ -63,24 +59,13 @@ def check_job(obj: Any) -> dict:
             "tasks": tasks, "order": order}
 
 
-def capability(method: str, call: Callable[[], Any]) -> Any:
-    """Calls an interface method; a method missing from this build becomes ``NotAvailable``."""
-    try:
-        return call()
-    except AttributeError as e:
-        owner = type(getattr(e, "obj", None)).__module__
-        if getattr(e, "name", None) == method and owner.startswith("fibrewise"):
-            raise NotAvailable(f"{method}() is not available in this build") from None
-        raise
-
-
 def _hilbert(ideal) -> dict:
-    series = capability("hilbert_series", lambda: ideal.hilbert_series())
+    series = ideal.hilbert_series()
     return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent}
 
 
 def _points(ideal) -> int:
-    return capability("count_points", lambda: ideal.count_points())
+    return ideal.count_points()
 
 
 def _normalize(ideal) -> dict | None:
@@ -89,13 +74,13 @@ def _normalize(ideal) -> dict | None:
     basis = ideal.groebner_basis()
     if len(basis) == 1 and basis[0].degree() == 0:
         return None
-    return capability("noether_normalization", lambda: ideal.noether_normalization()).to_dict()
+    return ideal.noether_normalization().to_dict()
 
 
 TASKS: dict[str, Callable[[Any], Any]] = {
-    "dimension": lambda I: capability("dimension", lambda: I.dimension()),
-    "independent_variables": lambda I: [str(v) for v in capability("independent_variables", lambda: I.independent_variables())],
-    "degree": lambda I: capability("degree", lambda: I.degree()),
+    "dimension": lambda I: I.dimension(),
+    "independent_variables": lambda I: [str(v) for v in I.independent_variables()],
+    "degree": lambda I: I.degree(),
     "hilbert": _hilbert,
     "normalize": _normalize,
     "points": _points,
@@ -137,6 +122,6 @@ def run_job(job: dict) -> dict:
 
 
 def _describe(e: Exception) -> str:
-    if isinstance(e, (ValueError, NotAvailable)):
+    if isinstance(e, ValueError):
         return str(e)
     return f"{type(e).__name__}: {e}"

@@ -84,9 +84,8 @@ def _header_rows(result: dict) -> list[tuple[str, Any]]:
             ("polynomials", result["polynomials"])]
 
 
-def _not_available(result: dict) -> list[tuple[str, Any]]:
-    missing = result.get("unavailable") or []
-    rows = [("not available", "\n".join(missing))] if missing else []
+def _failed_parts(result: dict) -> list[tuple[str, Any]]:
+    rows = []
     failed = result.get("failed") or {}
     if failed:
         rows.append(("failed", "\n".join(f"{step}: {message}" for step, message in failed.items())))
@@ -115,7 +114,7 @@ def render_analyze(result: dict) -> str:
     basis = result["basis"]
     rows.append(("Groebner basis", f"{plural(basis['size'], 'polynomial')}, highest degree reached "
                                    f"{basis['max_degree']}, {seconds(result.get('seconds_basis'))}"))
-    rows += _not_available(result)
+    rows += _failed_parts(result)
     if result.get("plot"):
         rows.append(("plot", result["plot"]))
     return f"{result['file']}: {result['summary']}\n{aligned(rows)}"

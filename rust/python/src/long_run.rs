@@ -1,16 +1,28 @@
 //! Running long core computations without the GIL, interruptible by Ctrl-C.
 //!
-//! The work runs on a scoped worker thread while the calling thread waits without the GIL and,
-//! every few milliseconds, lets Python handle pending signals. A `KeyboardInterrupt` there asks
-//! the core to stop (through `Control`), and the worker returns at its next check. A panic in the
-//! worker becomes a Python exception instead of bringing down the interpreter.
+//! The work runs as a job on the thread pool that the core's parallel loops use (rayon's global
+//! pool, whose threads are started once and then parked), while the calling thread waits without
+//! the GIL and, every 20 ms, lets Python handle pending signals: only the calling thread can, and
+//! it stays free to do so even while the work runs parallel loops of its own. A
+//! `KeyboardInterrupt` there asks the core to stop (through `Control`), and the work returns at
+//! its next check. Handing a job to a parked pool thread costs a few microseconds where starting
+//! a thread per call cost tens, which dominated calls on tiny systems. Calls from several Python
+//! threads share the pool: as many run at once as it has threads, the others wait their turn
+//! (a Ctrl-C meanwhile stops them as soon as they start). A panic in the work becomes a Python
+//! exception instead of bringing down the interpreter.
 
 use crate::errors::{internal, to_py};
 use fibrewise_core::control::{Control, Limits};
 use fibrewise_core::Result;
 use pyo3::prelude::*;
+use std::panic::{catch_unwind, AssertUnwindSafe};
 use std::sync::{Condvar, Mutex};
 use std::time::Duration;
+
+/// How often the waiting thread lets Python look at pending signals.
+const SIGNAL_POLL: Duration = Duration::from_millis(20);
+
+type Outcome<T> = std::thread::Result<Result<T>>;
 
 pub fn run<T: Send>(
     py: Python<'_>,
@@ -18,52 +30,47 @@ pub fn run<T: Send>(
     work: impl FnOnce(&Control) -> Result<T> + Send,
 ) -> PyResult<T> {
     let control = Control::new().with_limits(limits);
-    let done = (Mutex::new(false), Condvar::new());
-    let outcome = std::thread::scope(|scope| {
-        let (control, done_ref) = (&control, &done);
-        let worker = scope.spawn(move || {
-            // Signal completion even when `work` panics, so the waiting loop ends.
-            struct Finish<'a>(&'a (Mutex<bool>, Condvar));
-            impl Drop for Finish<'_> {
-                fn drop(&mut self) {
-                    *self.0 .0.lock().unwrap_or_else(|e| e.into_inner()) = true;
-                    self.0 .1.notify_all();
-                }
-            }
-            let _finish = Finish(done_ref);
-            work(control)
+    let done: (Mutex<Option<Outcome<T>>>, Condvar) = (Mutex::new(None), Condvar::new());
+    let mut interrupted = None;
+    rayon::in_place_scope(|scope| {
+        let (control, done) = (&control, &done);
+        scope.spawn(move |_| {
+            let outcome = catch_unwind(AssertUnwindSafe(|| work(control)));
+            *done.0.lock().unwrap_or_else(|e| e.into_inner()) = Some(outcome);
+            done.1.notify_all();
         });
-        let mut interrupted = None;
-        loop {
-            let finished = py.allow_threads(|| {
-                let guard = done.0.lock().unwrap_or_else(|e| e.into_inner());
-                let (guard, _) = done
-                    .1
-                    .wait_timeout_while(guard, Duration::from_millis(20), |d| !*d)
-                    .unwrap_or_else(|e| e.into_inner());
-                *guard
-            });
-            if finished {
-                break;
-            }
+        while !py.allow_threads(|| wait_for(done)) {
             if let Err(e) = py.check_signals() {
                 control.request_stop();
                 interrupted = Some(e);
             }
         }
-        let joined = py.allow_threads(|| worker.join());
-        (joined, interrupted)
     });
-    match outcome {
+    let outcome = done.0.into_inner().unwrap_or_else(|e| e.into_inner());
+    match (outcome, interrupted) {
         (_, Some(signal)) => Err(signal),
-        (Ok(result), None) => result.map_err(to_py),
-        (Err(panic), None) => {
-            let msg = panic
-                .downcast_ref::<String>()
-                .cloned()
-                .or_else(|| panic.downcast_ref::<&str>().map(|s| s.to_string()))
-                .unwrap_or_else(|| "panic".into());
-            Err(internal(msg))
-        }
+        (Some(Ok(result)), None) => result.map_err(to_py),
+        (Some(Err(panic)), None) => Err(internal(panic_message(panic))),
+        (None, None) => Err(internal(
+            "the computation ended without a result".to_string(),
+        )),
     }
+}
+
+/// Waits up to one signal-poll period for the outcome; true once it is there.
+fn wait_for<T>(done: &(Mutex<Option<Outcome<T>>>, Condvar)) -> bool {
+    let guard = done.0.lock().unwrap_or_else(|e| e.into_inner());
+    let (guard, _) = done
+        .1
+        .wait_timeout_while(guard, SIGNAL_POLL, |outcome| outcome.is_none())
+        .unwrap_or_else(|e| e.into_inner());
+    guard.is_some()
+}
+
+fn panic_message(panic: Box<dyn std::any::Any + Send>) -> String {
+    panic
+        .downcast_ref::<String>()
+        .cloned()
+        .or_else(|| panic.downcast_ref::<&str>().map(|s| s.to_string()))
+        .unwrap_or_else(|| "panic".into())
 }

@@ -20,6 +20,7 @@ use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::{Poly, Ring};
+use std::cell::RefCell;
 use std::collections::HashMap;
 
 /// Names `{prefix}1..{prefix}count` for the first prefix that clashes with no name in `taken`.
@@ -121,6 +122,9 @@ struct Module<'a, F: Field> {
     params: &'a Ring<F>,
     standard: Vec<Monomial>,
     index: HashMap<Monomial, usize>,
+    /// Normal forms of the monomials met so far: the products e·b of different elements e share
+    /// most of their monomials (x·(yb) = y·(xb)), and a normal form is linear in its argument.
+    normal_forms: RefCell<HashMap<Monomial, Poly<F>>>,
 }
 
 impl<'a, F: Field> Module<'a, F> {
@@ -135,6 +139,7 @@ impl<'a, F: Field> Module<'a, F> {
             params,
             standard,
             index,
+            normal_forms: RefCell::new(HashMap::new()),
         }
     }
 
@@ -187,7 +192,7 @@ impl<'a, F: Field> Module<'a, F> {
         for b in &self.standard {
             control.check()?;
             let product = ring.mul_term(e, &ring.field.one(), b)?;
-            let nf = normal_form(ring, &product, &self.proof.basis)?;
+            let nf = self.normal_form(&product)?;
             let mut row: Vec<Vec<(Monomial, F::Elem)>> = vec![Vec::new(); r];
             for (m, c) in nf.terms() {
                 let (x, t) = self.split(m)?;
@@ -202,6 +207,21 @@ impl<'a, F: Field> Module<'a, F> {
             );
         }
         Ok(matrix)
+    }
+
+    /// The normal form of `f` modulo the proof's basis, term by term from the cache.
+    fn normal_form(&self, f: &Poly<F>) -> Result<Poly<F>> {
+        let ring = &self.proof.ring;
+        let mut cache = self.normal_forms.borrow_mut();
+        let mut sum = Poly::zero();
+        for (m, c) in f.terms() {
+            if !cache.contains_key(m) {
+                let term = ring.term(m.clone(), ring.field.one());
+                cache.insert(m.clone(), normal_form(ring, &term, &self.proof.basis)?);
+            }
+            sum = ring.add(&sum, &ring.scale(&cache[m], c));
+        }
+        Ok(sum)
     }
 
     /// A basis element in k[T][x] monic in x, when `e` is the non-parameter variable x: it is an

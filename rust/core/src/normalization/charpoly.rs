@@ -4,11 +4,11 @@
 //! t_i, by evaluation and interpolation: the coefficient of x^k is a polynomial in T whose degree
 //! in t_i is at most the sum over rows of the largest t_i-degree in the row (each term of the
 //! determinant takes one entry per row); evaluate A on a grid of that size, take the
-//! characteristic polynomial of each scalar matrix by reduction to Hessenberg form (Cohen, *A
-//! Course in Computational Algebraic Number Theory*, 1993, Algorithm 2.2.9), and interpolate one
-//! variable at a time (Newton's divided differences). Otherwise, by Berkowitz's division-free
-//! algorithm (Berkowitz 1984) directly over k[T], which works in every characteristic, GF(2)
-//! included.
+//! characteristic polynomial of each scalar matrix from a Krylov sequence when it spans, else by
+//! reduction to Hessenberg form (Cohen, *A Course in Computational Algebraic Number Theory*,
+//! 1993, Algorithm 2.2.9), and interpolate one variable at a time (Newton's divided differences).
+//! Otherwise, by Berkowitz's division-free algorithm (Berkowitz 1984) directly over k[T], which
+//! works in every characteristic, GF(2) included.
 
 use crate::control::Control;
 use crate::error::Result;
@@ -130,9 +130,12 @@ fn by_interpolation<F: Field>(
     let r = a.len();
     let d = ring.nvars();
     let longest = set.exponents.iter().flatten().copied().max().unwrap_or(0);
-    let nodes: Vec<F::Elem> = (0..=u64::from(longest))
-        .map(|j| field.element_from_index(j))
-        .collect();
+    let nodes = Nodes::new(
+        field,
+        (0..=u64::from(longest))
+            .map(|j| field.element_from_index(j))
+            .collect(),
+    );
     let max_exponents: Vec<u32> = (0..d)
         .map(|i| {
             a.iter()
@@ -146,13 +149,16 @@ fn by_interpolation<F: Field>(
     let mut values = vec![vec![field.zero(); set.exponents.len()]; r + 1];
     for (g, alpha) in set.exponents.iter().enumerate() {
         control.check()?;
-        let point: Vec<F::Elem> = alpha.iter().map(|&j| nodes[j as usize].clone()).collect();
+        let point: Vec<F::Elem> = alpha
+            .iter()
+            .map(|&j| nodes.points[j as usize].clone())
+            .collect();
         let powers = PowerTable::new(field, &point, &max_exponents);
         let scalar: Vec<Vec<F::Elem>> = a
             .iter()
             .map(|row| row.iter().map(|p| powers.evaluate(field, p)).collect())
             .collect();
-        for (k, c) in hessenberg_charpoly(field, scalar).into_iter().enumerate() {
+        for (k, c) in scalar_charpoly(field, scalar).into_iter().enumerate() {
             values[k][g] = c;
         }
     }
@@ -229,7 +235,7 @@ impl LowerSet {
     fn interpolate<F: Field>(
         &self,
         field: &F,
-        nodes: &[F::Elem],
+        nodes: &Nodes<F>,
         mut values: Vec<F::Elem>,
     ) -> Vec<F::Elem> {
         let d = self.exponents.first().map_or(0, |e| e.len());
@@ -238,11 +244,10 @@ impl LowerSet {
                 for start in self.exponents.iter().filter(|e| e[i] == 0) {
                     let line = self.line(start, i);
                     let ys: Vec<F::Elem> = line.iter().map(|&g| values[g].clone()).collect();
-                    let xs = &nodes[..line.len()];
                     let out = if pass == 0 {
-                        divided_differences(field, xs, &ys)
+                        divided_differences(field, nodes, &ys)
                     } else {
-                        newton_to_monomial(field, xs, &ys)
+                        newton_to_monomial(field, &nodes.points[..line.len()], &ys)
                     };
                     for (&g, c) in line.iter().zip(out) {
                         values[g] = c;
@@ -291,16 +296,45 @@ impl<F: Field> PowerTable<F> {
     }
 }
 
-/// Newton coefficients of the polynomial of degree < len taking values `ys` at the distinct
-/// points `xs` (divided differences).
-fn divided_differences<F: Field>(field: &F, xs: &[F::Elem], ys: &[F::Elem]) -> Vec<F::Elem> {
-    let n = xs.len();
+/// The interpolation nodes s_0, s_1, ... and the inverses 1/(s_i - s_{i-level}) that divided
+/// differences divide by, computed once for all the lines and coefficients they serve.
+struct Nodes<F: Field> {
+    points: Vec<F::Elem>,
+    /// inverse_gaps[level][i] = 1/(s_i - s_{i-level}) for i >= level >= 1.
+    inverse_gaps: Vec<Vec<F::Elem>>,
+}
+
+impl<F: Field> Nodes<F> {
+    fn new(field: &F, points: Vec<F::Elem>) -> Self {
+        let n = points.len();
+        let inverse_gaps = (0..n)
+            .map(|level| {
+                (0..n)
+                    .map(|i| match i.checked_sub(level) {
+                        Some(j) if level > 0 => field
+                            .inv(&field.sub(&points[i], &points[j]))
+                            .expect("nodes are distinct"),
+                        _ => field.zero(),
+                    })
+                    .collect()
+            })
+            .collect();
+        Nodes {
+            points,
+            inverse_gaps,
+        }
+    }
+}
+
+/// Newton coefficients of the polynomial of degree < len taking values `ys` at the first
+/// len nodes (divided differences).
+fn divided_differences<F: Field>(field: &F, nodes: &Nodes<F>, ys: &[F::Elem]) -> Vec<F::Elem> {
+    let n = ys.len();
     let mut dd = ys.to_vec();
     for level in 1..n {
         for i in (level..n).rev() {
             let num = field.sub(&dd[i], &dd[i - 1]);
-            let den = field.sub(&xs[i], &xs[i - level]);
-            dd[i] = field.div(&num, &den).expect("nodes are distinct");
+            dd[i] = field.mul(&num, &nodes.inverse_gaps[level][i]);
         }
     }
     dd
@@ -323,6 +357,97 @@ fn newton_to_monomial<F: Field>(field: &F, xs: &[F::Elem], dd: &[F::Elem]) -> Ve
         coeffs[0] = field.add(&coeffs[0], &dd[i]);
     }
     coeffs
+}
+
+/// det(x·Id - A) of a scalar matrix, coefficients low to high. First from the Krylov sequence
+/// of the first unit vector; a matrix of multiplication by an element on standard monomials is
+/// mostly unit rows (x·b is often standard again), so the sequence costs far less than a
+/// Hessenberg reduction. When the sequence does not span (the matrix is not cyclic for that
+/// vector), by Hessenberg reduction, which always works.
+fn scalar_charpoly<F: Field>(field: &F, a: Vec<Vec<F::Elem>>) -> Vec<F::Elem> {
+    krylov_charpoly(field, &a).unwrap_or_else(|| hessenberg_charpoly(field, a))
+}
+
+/// If w_k = (A^T)^k e_1, k < r, are linearly independent, the minimal polynomial of e_1 has
+/// degree r and so is det(x·Id - A): solve w_r + Σ c_k w_k = 0 for the coefficients c_k
+/// (Krylov 1931; Householder, *The Theory of Matrices in Numerical Analysis*, 1964, §6.1).
+/// `None` when they are dependent.
+fn krylov_charpoly<F: Field>(field: &F, a: &[Vec<F::Elem>]) -> Option<Vec<F::Elem>> {
+    let r = a.len();
+    if r == 0 {
+        return Some(vec![field.one()]);
+    }
+    let sparse_rows: Vec<Vec<(usize, &F::Elem)>> = a
+        .iter()
+        .map(|row| {
+            row.iter()
+                .enumerate()
+                .filter(|(_, c)| !field.is_zero(c))
+                .collect()
+        })
+        .collect();
+    // system[i] = [w_0[i], ..., w_{r-1}[i], -w_r[i]]: the unknowns c_k are the columns.
+    let mut system = vec![vec![field.zero(); r + 1]; r];
+    let mut w = vec![field.zero(); r];
+    w[0] = field.one();
+    for k in 0..=r {
+        for (i, row) in system.iter_mut().enumerate() {
+            row[k] = if k < r {
+                w[i].clone()
+            } else {
+                field.neg(&w[i])
+            };
+        }
+        if k < r {
+            let mut next = vec![field.zero(); r];
+            for (wj, row) in w.iter().zip(&sparse_rows) {
+                if field.is_zero(wj) {
+                    continue;
+                }
+                for &(col, c) in row {
+                    next[col] = field.add(&next[col], &field.mul(wj, c));
+                }
+            }
+            w = next;
+        }
+    }
+    let mut coefficients = solve_square(field, system)?;
+    coefficients.push(field.one());
+    Some(coefficients)
+}
+
+/// The solution of the square system given as rows [M | b], by Gaussian elimination; `None`
+/// when M is singular.
+fn solve_square<F: Field>(field: &F, mut rows: Vec<Vec<F::Elem>>) -> Option<Vec<F::Elem>> {
+    let r = rows.len();
+    for col in 0..r {
+        let pivot = (col..r).find(|&i| !field.is_zero(&rows[i][col]))?;
+        rows.swap(col, pivot);
+        let inv = field.inv(&rows[col][col])?;
+        let (done, rest) = rows.split_at_mut(col + 1);
+        let pivot_row = &mut done[col];
+        for c in pivot_row.iter_mut().skip(col) {
+            *c = field.mul(c, &inv);
+        }
+        for row in rest {
+            let u = row[col].clone();
+            if field.is_zero(&u) {
+                continue;
+            }
+            for (target, source) in row.iter_mut().zip(pivot_row.iter()).skip(col) {
+                *target = field.sub(target, &field.mul(&u, source));
+            }
+        }
+    }
+    let mut x = vec![field.zero(); r];
+    for col in (0..r).rev() {
+        let mut value = rows[col][r].clone();
+        for k in col + 1..r {
+            value = field.sub(&value, &field.mul(&rows[col][k], &x[k]));
+        }
+        x[col] = value;
+    }
+    Some(x)
 }
 
 /// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
@@ -480,6 +605,48 @@ mod tests {
                 "{nvars} variables, size {size}"
             );
         }
+    }
+
+    /// The Krylov shortcut agrees with Hessenberg reduction where it applies, and declines the
+    /// matrices that are not cyclic for the first unit vector (a scalar matrix, a direct sum).
+    #[test]
+    fn krylov_agrees_with_hessenberg() {
+        let field = PrimeField::new(101).unwrap();
+        let mut rng = crate::normalization::changes::Rng::new(4);
+        let mut used = 0;
+        for size in 1..9 {
+            for sparse in [false, true] {
+                let a: Vec<Vec<u64>> = (0..size)
+                    .map(|_| {
+                        (0..size)
+                            .map(|_| {
+                                if sparse && rng.next_u64() % 3 != 0 {
+                                    0
+                                } else {
+                                    rng.next_u64() % 101
+                                }
+                            })
+                            .collect()
+                    })
+                    .collect();
+                if let Some(k) = krylov_charpoly(&field, &a) {
+                    assert_eq!(k, hessenberg_charpoly(&field, a.clone()), "{a:?}");
+                    used += 1;
+                }
+                assert_eq!(
+                    scalar_charpoly(&field, a.clone()),
+                    hessenberg_charpoly(&field, a)
+                );
+            }
+        }
+        assert!(
+            used > 8,
+            "the shortcut should apply to most random matrices"
+        );
+        let scalar = vec![vec![3, 0], vec![0, 3]];
+        assert_eq!(krylov_charpoly(&field, &scalar), None);
+        // (x - 3)^2 = x^2 - 6x + 9 over GF(101).
+        assert_eq!(scalar_charpoly(&field, scalar), vec![9, 95, 1]);
     }
 
     #[test]

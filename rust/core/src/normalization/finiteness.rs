@@ -54,48 +54,45 @@ pub fn missing_pure_powers(leads: &[Monomial], vars: &[usize]) -> Vec<usize> {
         .collect()
 }
 
-/// How a candidate change is tested.
+/// Which basis tests a candidate change.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub struct TestPlan {
-    /// Grevlex with the parameters last decides alone (homogeneous input, linear parameters).
-    pub grevlex_decides: bool,
-    /// The grevlex basis is already known to lack pure powers (skip it).
-    pub skip_grevlex: bool,
+pub enum Test {
+    /// Grevlex with the parameters last: one basis about as cheap as the user's own. Pure powers
+    /// prove finiteness; for homogeneous input and linear parameters their absence disproves it.
+    Grevlex,
+    /// The elimination order N >> T: exact for every input, but often far costlier than grevlex.
+    Elimination,
 }
 
-/// Tests a change with at most two bases: grevlex with the parameters last (a proof when pure
-/// powers appear), then, unless grevlex decides, the elimination order (exact). `None`: not finite.
+/// Tests a change with one basis of the kind `test`: `Some(proof)` when every non-parameter has
+/// a pure power among its leading monomials, `None` otherwise (not finite when `test` is
+/// exact for this input).
 pub fn test_change<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
     change: &Change<F>,
-    plan: TestPlan,
+    test: Test,
     control: &Control,
 ) -> Result<Option<Proof<F>>> {
     let coords = Coordinates::new(ring, change)?;
     let nonparams: Vec<usize> = (0..coords.n_nonparams).collect();
-    let mut rings = Vec::new();
-    if !plan.skip_grevlex {
-        rings.push(coords.ring.clone());
+    let target = match test {
+        Test::Grevlex => coords.ring.clone(),
+        Test::Elimination => coords.elimination_ring()?,
+    };
+    let transformed = coords.transform(ring, gens, &target)?;
+    let gb = groebner_basis(&target, &transformed, Engine::default(), control)?;
+    if !missing_pure_powers(&gb.leading_monomials(), &nonparams).is_empty() {
+        return Ok(None);
     }
-    if !plan.grevlex_decides {
-        rings.push(coords.elimination_ring()?);
-    }
-    for target in rings {
-        let transformed = coords.transform(ring, gens, &target)?;
-        let gb = groebner_basis(&target, &transformed, Engine::default(), control)?;
-        if missing_pure_powers(&gb.leading_monomials(), &nonparams).is_empty() {
-            let images = coords.transform(ring, &ring_vars(ring), &target)?;
-            return Ok(Some(Proof {
-                ring: target,
-                basis: gb.polys,
-                nonparam_pos: nonparams,
-                param_pos: (coords.n_nonparams..ring.nvars()).collect(),
-                images,
-            }));
-        }
-    }
-    Ok(None)
+    let images = coords.transform(ring, &ring_vars(ring), &target)?;
+    Ok(Some(Proof {
+        ring: target,
+        basis: gb.polys,
+        nonparam_pos: nonparams,
+        param_pos: (coords.n_nonparams..ring.nvars()).collect(),
+        images,
+    }))
 }
 
 fn ring_vars<F: Field>(ring: &Ring<F>) -> Vec<Poly<F>> {

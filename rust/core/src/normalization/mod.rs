@@ -12,8 +12,12 @@
 //! 3. *nonlinear*: Nagata's substitutions with the smallest exponents that work ([`nagata`]),
 //!    which always succeed.
 //!
-//! Every candidate costs one or two bases ([`finiteness::test_change`]); the certificate then
-//! comes from the basis that proved finiteness, by the determinant trick ([`certificate`]).
+//! Every candidate of steps 1 and 2 is first tested in grevlex with the parameters last, one
+//! basis about as cheap as the user's own, which proves finiteness whenever pure powers appear
+//! and, for a random linear change over a large field, almost always does. Only when every
+//! candidate fails there are they tested again in the elimination order, which is exact but
+//! can cost a thousand times more ([`finiteness::test_change`]). The certificate then comes from
+//! the basis that proved finiteness, by the determinant trick ([`certificate`]).
 
 pub mod certificate;
 pub mod changes;
@@ -32,7 +36,7 @@ use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
 use changes::{complement, dense_linear, field_size, sparse_linear, Change, Rng};
-use finiteness::{missing_pure_powers, proof_from_basis, test_change, Proof, TestPlan};
+use finiteness::{missing_pure_powers, proof_from_basis, test_change, Proof, Test};
 
 pub use certificate::{check_certificate, CertificateText};
 
@@ -189,16 +193,34 @@ impl<'a, F: Field> Search<'a, F> {
 
     fn run(&mut self) -> Result<(Change<F>, Proof<F>, Strategy)> {
         let request = self.options.request;
-        // With d = 0 or d = n the variables are the only sensible answer, whatever was asked.
+        // With d = 0 or d = n the variables are the only sensible answer, whatever was asked,
+        // and the free test always finds them.
         let trivial = self.dimension == 0 || self.dimension == self.ring.nvars();
         if request.allows(Strategy::Variables) || trivial {
-            if let Some((change, proof)) = self.by_variables()? {
+            if let Some((change, proof)) = self.free_variables() {
                 return Ok((change, proof, Strategy::Variables));
             }
         }
-        if request.allows(Strategy::Linear) {
-            if let Some((change, proof)) = self.by_linear_change()? {
-                return Ok((change, proof, Strategy::Linear));
+        let candidates = self.candidates();
+        let gens = self.gens_grevlex();
+        let ring = self.grevlex.ring.clone();
+        // Every candidate first in grevlex, where a proof costs one cheap basis; the
+        // elimination order, exact but often a thousand times dearer, only when all fail.
+        for (change, strategy) in &candidates {
+            if self.is_basis_at_hand(change) {
+                continue;
+            }
+            if let Some(proof) = test_change(&ring, &gens, change, Test::Grevlex, self.control)? {
+                return Ok((change.clone(), proof, *strategy));
+            }
+        }
+        for (change, strategy) in &candidates {
+            if self.grevlex_decides(change) {
+                continue;
+            }
+            let test = Test::Elimination;
+            if let Some(proof) = test_change(&ring, &gens, change, test, self.control)? {
+                return Ok((change.clone(), proof, *strategy));
             }
         }
         if request.allows(Strategy::Nonlinear) {
@@ -234,76 +256,72 @@ impl<'a, F: Field> Search<'a, F> {
             .collect()
     }
 
-    /// A subset of the variables: free when the grevlex basis has the pure powers, else an
-    /// elimination basis for the first few independent sets.
-    fn by_variables(&mut self) -> Result<Option<(Change<F>, Proof<F>)>> {
+    /// Variables as parameters, proved by the grevlex basis at hand: some maximal independent
+    /// set leaves every other variable with a pure power in its leading ideal.
+    fn free_variables(&self) -> Option<(Change<F>, Proof<F>)> {
         let n = self.ring.nvars();
         let leads = self.leads();
-        let sets = self.independent_sets();
-        for set in &sets {
-            if missing_pure_powers(&leads, &complement(set, n)).is_empty() {
-                let proof = proof_from_basis(&self.grevlex.ring, &self.grevlex.polys, set);
-                return Ok(Some((Change::variables(set, n), proof)));
-            }
-        }
-        let gens = self.gens_grevlex();
-        for set in sets.iter().take(VARIABLE_SET_TRIES) {
-            let change = Change::variables(set, n);
-            // When the parameters are already the last variables, the grevlex basis in the new
-            // coordinates is the one at hand, known to lack pure powers.
-            let last = set.iter().enumerate().all(|(j, &s)| s == n - set.len() + j);
-            let plan = TestPlan {
-                grevlex_decides: self.homogeneous,
-                skip_grevlex: last,
-            };
-            if last && self.homogeneous {
-                continue;
-            }
-            if let Some(proof) =
-                test_change(&self.grevlex.ring, &gens, &change, plan, self.control)?
-            {
-                return Ok(Some((change, proof)));
-            }
-        }
-        Ok(None)
+        let set = self
+            .independent_sets()
+            .into_iter()
+            .find(|set| missing_pure_powers(&leads, &complement(set, n)).is_empty())?;
+        let proof = proof_from_basis(&self.grevlex.ring, &self.grevlex.polys, &set);
+        Some((Change::variables(&set, n), proof))
     }
 
-    /// Sparse then dense linear changes around the best independent set.
-    fn by_linear_change(&mut self) -> Result<Option<(Change<F>, Proof<F>)>> {
-        let n = self.ring.nvars();
-        let d = self.dimension;
-        if d == 0 || d == n {
-            return Ok(None);
+    /// The changes the request allows, simplest first: the variables of the first independent
+    /// sets, then sparse linear shifts, then dense random linear forms.
+    fn candidates(&mut self) -> Vec<(Change<F>, Strategy)> {
+        let request = self.options.request;
+        let (n, d) = (self.ring.nvars(), self.dimension);
+        let mut list = Vec::new();
+        let sets = self.independent_sets();
+        if request.allows(Strategy::Variables) {
+            for set in sets.iter().take(VARIABLE_SET_TRIES) {
+                list.push((Change::variables(set, n), Strategy::Variables));
+            }
         }
-        let params = self
-            .independent_sets()
+        if !request.allows(Strategy::Linear) || d == 0 || d == n {
+            return list;
+        }
+        let params = sets
             .into_iter()
             .next()
             .unwrap_or_else(|| ((n - d)..n).collect());
         let nonparams = complement(&params, n);
         let mut targets = missing_pure_powers(&self.leads(), &nonparams);
         if targets.is_empty() {
-            targets = nonparams.clone();
+            targets = nonparams;
         }
-        let gens = self.gens_grevlex();
-        let ring = self.grevlex.ring.clone();
-        let plan = TestPlan {
-            grevlex_decides: self.homogeneous,
-            skip_grevlex: false,
-        };
+        let ring = &self.grevlex.ring;
         for round in 0..SPARSE_TRIES.min(targets.len().max(1) + 1) {
-            let change = sparse_linear(&ring, &params, &targets, round, &mut self.rng);
-            if let Some(proof) = test_change(&ring, &gens, &change, plan, self.control)? {
-                return Ok(Some((change, proof)));
-            }
+            let change = sparse_linear(ring, &params, &targets, round, &mut self.rng);
+            list.push((change, Strategy::Linear));
         }
         for _ in 0..self.dense_tries() {
-            let change = dense_linear(&ring, &params, &mut self.rng);
-            if let Some(proof) = test_change(&ring, &gens, &change, plan, self.control)? {
-                return Ok(Some((change, proof)));
-            }
+            let change = dense_linear(ring, &params, &mut self.rng);
+            list.push((change, Strategy::Linear));
         }
-        Ok(None)
+        list
+    }
+
+    /// The grevlex basis in the coordinates of `change` is the one at hand (the parameters are
+    /// already the last variables), which the free test found lacking pure powers.
+    fn is_basis_at_hand(&self, change: &Change<F>) -> bool {
+        let n = self.ring.nvars();
+        let d = change.params.len();
+        change.is_identity()
+            && change
+                .params
+                .iter()
+                .enumerate()
+                .all(|(j, &s)| s == n - d + j)
+    }
+
+    /// Homogeneous input with linear parameters: the grevlex test was exact (Bayer and
+    /// Stillman 1987), so the elimination order cannot succeed where it failed.
+    fn grevlex_decides(&self, change: &Change<F>) -> bool {
+        self.homogeneous && change.is_linear()
     }
 
     /// How many dense random linear changes are worth drawing. A random change fails only on
@@ -332,21 +350,19 @@ impl<'a, F: Field> Search<'a, F> {
         }
     }
 
-    /// Nagata's substitutions, then the one elimination basis of the certificate.
+    /// Nagata's substitutions, proved in grevlex when it can, else in the elimination order.
     fn by_nagata(&mut self) -> Result<(Change<F>, Proof<F>)> {
         let ring = self.grevlex.ring.clone();
         let gens = self.gens_grevlex();
         let change =
             nagata::nagata_change(&ring, &gens, self.dimension, &mut self.rng, self.control)?;
-        let plan = TestPlan {
-            grevlex_decides: false,
-            skip_grevlex: false,
-        };
-        let proof = test_change(&ring, &gens, &change, plan, self.control)?.ok_or_else(|| {
-            Error::invalid(
-                "Noether normalization: Nagata's substitution did not give a finite projection",
-            )
-        })?;
-        Ok((change, proof))
+        for test in [Test::Grevlex, Test::Elimination] {
+            if let Some(proof) = test_change(&ring, &gens, &change, test, self.control)? {
+                return Ok((change, proof));
+            }
+        }
+        Err(Error::invalid(
+            "Noether normalization: Nagata's substitution did not give a finite projection",
+        ))
     }
 }

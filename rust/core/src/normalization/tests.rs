@@ -70,11 +70,8 @@ fn cusp_is_finite_over_one_variable() {
     assert_verifies(&nn, &gens);
     // Over k[x]: the eliminating candidate with parameter x has rank 2.
     let change = changes::Change::variables(&[0], 2);
-    let plan = finiteness::TestPlan {
-        grevlex_decides: false,
-        skip_grevlex: false,
-    };
-    let proof = finiteness::test_change(&r, &gens, &change, plan, &Control::new())
+    let test = finiteness::Test::Elimination;
+    let proof = finiteness::test_change(&r, &gens, &change, test, &Control::new())
         .unwrap()
         .unwrap();
     let over_x = certificate::build(
@@ -99,11 +96,8 @@ fn affine_twisted_cubic_has_rank_one() {
     assert_eq!(nn.dimension, 1);
     assert_verifies(&nn, &gens);
     let change = changes::Change::variables(&[0], 3);
-    let plan = finiteness::TestPlan {
-        grevlex_decides: false,
-        skip_grevlex: false,
-    };
-    let proof = finiteness::test_change(&r, &gens, &change, plan, &Control::new())
+    let test = finiteness::Test::Elimination;
+    let proof = finiteness::test_change(&r, &gens, &change, test, &Control::new())
         .unwrap()
         .unwrap();
     let over_x = certificate::build(
