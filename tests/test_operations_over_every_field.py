@@ -46,3 +46,31 @@ def test_union_of_rational_lines_needs_a_nonlinear_change(spec, q):
     assert nn.strategy == "nonlinear" and nn.dimension == 1 and nn.verify()
     with pytest.raises(ValueError):
         I.noether_normalization(strategy="linear", seed=1)
+
+
+# x^2 + x + 1 (the third cyclotomic polynomial) splits over GF(q) iff q ≡ 1 mod 3 (GF(q)* is
+# cyclic of order q - 1; any finite fields text), is (x - 1)^2 in characteristic 3 and is
+# irreducible over QQ (cyclotomic polynomials are). 65521 ≡ 1 and 2^255 - 19 ≡ 1 mod 3;
+# GF(4) ≡ 1, GF(8) ≡ 2. Entries: (distinct solutions, maximal).
+CYCLOTOMIC_THREE = {
+    "GF(65521)": (2, False),
+    f"GF({P255})": (2, False),
+    "GF(4)": (2, False),
+    "GF(8)": (2, True),
+    "GF(3^2)": (1, False),
+    "QQ": (2, True),
+}
+
+
+@pytest.mark.parametrize("spec", FIELDS)
+def test_maximality_of_the_cube_roots_of_unity_over_each_field(spec):
+    I = fw.PolynomialRing(spec, "x, y").ideal(["x^2 + x + 1", "y - x^2"])
+    solutions, maximal = CYCLOTOMIC_THREE[spec]
+    assert I.vector_space_dimension() == 2
+    assert I.count_solutions() == solutions
+    assert I.is_maximal() == maximal
+    if maximal:
+        assert I.residue_field_degree() == 2
+    else:
+        with pytest.raises(ValueError, match="not maximal"):
+            I.residue_field_degree()

@@ -140,7 +140,8 @@ def count_solutions(ideal: "Ideal") -> int:
 
 
 def is_maximal(ideal: "Ideal") -> bool:
-    """Whether R/I is a field (finite fields only)."""
+    """Whether R/I is a field: over GF(q) by the Frobenius fixed space, over QQ by a primitive
+    element whose minimal polynomial is tested for irreducibility exactly."""
     return _native.is_maximal(*_basis(ideal))
 
 

@@ -101,3 +101,45 @@ pub fn rank<F: Field>(field: &F, rows: Vec<Vec<F::Elem>>) -> usize {
     }
     echelon.rank()
 }
+
+/// A basis of the kernel {v : M·v = 0} of the matrix with rows `rows` and `columns` columns,
+/// from the reduced row echelon form: one vector per non-pivot column.
+pub fn kernel<F: Field>(
+    field: &F,
+    mut rows: Vec<Vec<F::Elem>>,
+    columns: usize,
+) -> Vec<Vec<F::Elem>> {
+    let mut pivots: Vec<usize> = Vec::new();
+    let mut top = 0;
+    for col in 0..columns {
+        let Some(found) = (top..rows.len()).find(|&r| !field.is_zero(&rows[r][col])) else {
+            continue;
+        };
+        rows.swap(top, found);
+        let inv = field.inv(&rows[top][col]).expect("nonzero");
+        let pivot_row: Vec<F::Elem> = rows[top].iter().map(|x| field.mul(x, &inv)).collect();
+        for (r, row) in rows.iter_mut().enumerate() {
+            let factor = row[col].clone();
+            if r == top || field.is_zero(&factor) {
+                continue;
+            }
+            for (x, y) in row.iter_mut().zip(&pivot_row) {
+                *x = field.sub(x, &field.mul(&factor, y));
+            }
+        }
+        rows[top] = pivot_row;
+        pivots.push(col);
+        top += 1;
+    }
+    (0..columns)
+        .filter(|c| !pivots.contains(c))
+        .map(|free| {
+            let mut v = vec![field.zero(); columns];
+            v[free] = field.one();
+            for (r, &p) in pivots.iter().enumerate() {
+                v[p] = field.neg(&rows[r][free]);
+            }
+            v
+        })
+        .collect()
+}

@@ -1,5 +1,5 @@
 //! Whether a zero-dimensional ideal I over GF(q) is maximal, i.e. R/I is a field, and then its
-//! degree [R/I : k].
+//! degree [R/I : k]. (Over QQ, [`is_maximal`] hands over to [`super::maximal_rational`].)
 //!
 //! A finite-dimensional reduced GF(q)-algebra is a product of fields GF(q^{m_j}), and the
 //! elements fixed by Frobenius a ↦ a^q form the subalgebra ∏ GF(q), of dimension the number of
@@ -55,19 +55,32 @@ fn frobenius_matrix<F: Field>(
     Ok(image_of)
 }
 
-/// Whether the ideal with basis `gb` is maximal. Positive-dimensional and unit ideals are not.
-pub fn is_maximal<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<bool> {
-    field_order_limbs(&gb.ring.field, "is_maximal")?;
+/// R/I when I is zero-dimensional and radical (every variable's minimal polynomial squarefree,
+/// Seidenberg 1974); `None` otherwise (such I is never maximal).
+pub(super) fn reduced_quotient<F: Field>(
+    gb: &ReducedBasis<F>,
+    control: &Control,
+) -> Result<Option<Quotient<F>>> {
     if krull_dimension(gb.ring.nvars(), &gb.leading_monomials()) != 0 {
-        return Ok(false);
+        return Ok(None);
     }
     let quotient = Quotient::new(gb.clone(), control)?;
     let reduced = variable_minimal_polynomials(&quotient, control)?
         .iter()
         .all(|(m, s)| degree::<F>(m) == degree::<F>(s));
-    if !reduced {
-        return Ok(false);
+    Ok(reduced.then_some(quotient))
+}
+
+/// Whether the ideal with basis `gb` is maximal. Positive-dimensional and unit ideals are not.
+/// Over QQ, see [`super::maximal_rational`].
+pub fn is_maximal<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<bool> {
+    if let Some(answer) = super::maximal_rational::route(gb, control) {
+        return answer;
     }
+    field_order_limbs(&gb.ring.field, "is_maximal")?;
+    let Some(quotient) = reduced_quotient(gb, control)? else {
+        return Ok(false);
+    };
     let field = &gb.ring.field;
     let columns = frobenius_matrix(&quotient, control)?;
     let d = quotient.dimension();

@@ -7,10 +7,16 @@
 //! elements come from the first linear dependence among their powers.
 //!
 //! - [`radical`]: the radical and the number of distinct solutions (Seidenberg 1974).
-//! - [`maximal`]: whether R/I is a field, and its degree over k.
+//! - [`maximal`]: whether R/I is a field, and its degree over k; over QQ by a primitive element
+//!   ([`maximal_rational`]) and an exact irreducibility test ([`irreducible`], with
+//!   [`berlekamp`] and [`hensel`]).
 
+pub mod berlekamp;
+pub mod hensel;
+pub mod irreducible;
 pub mod linear;
 pub mod maximal;
+pub mod maximal_rational;
 pub mod radical;
 pub mod univariate;
 

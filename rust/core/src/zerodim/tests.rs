@@ -191,3 +191,44 @@ fn multiplication_matrices_agree_with_the_division_algorithm() {
         }
     }
 }
+
+fn rational_basis(vars: &[&str], gens: &[&str]) -> ReducedBasis<crate::field::RationalField> {
+    let names = vars.iter().map(|s| s.to_string()).collect();
+    let r = Ring::new(crate::field::RationalField, names, MonomialOrder::Grevlex).unwrap();
+    let gens: Vec<_> = gens.iter().map(|g| parse_poly(&r, g).unwrap()).collect();
+    groebner_basis(&r, &gens, Engine::default(), &Control::new()).unwrap()
+}
+
+#[test]
+fn maximal_ideals_over_the_rationals() {
+    let c = Control::new();
+    let maximal =
+        |vars: &[&str], gens: &[&str]| is_maximal(&rational_basis(vars, gens), &c).unwrap();
+    // QQ(√2, √3) has degree 4 over QQ (handbook fact), so (x^2 - 2, y^2 - 3) is maximal; in
+    // (x^2 - 2, y^2 - 2), (y - x)(y + x) = 0, so it is not.
+    let sqrt23 = rational_basis(&["x", "y"], &["x^2 - 2", "y^2 - 3"]);
+    assert!(is_maximal(&sqrt23, &c).unwrap());
+    assert_eq!(residue_field_degree(&sqrt23, &c).unwrap(), 4);
+    assert!(!maximal(&["x", "y"], &["x^2 - 2", "y^2 - 2"]));
+    // x^2 + 1 is irreducible; x^4 + 4 = (x^2 + 2x + 2)(x^2 - 2x + 2) (Sophie Germain).
+    assert!(maximal(&["x"], &["x^2 + 1"]));
+    assert!(!maximal(&["x"], &["x^4 + 4"]));
+    // x^4 - 10x^2 + 1, the minimal polynomial of √2 + √3, is irreducible but reducible modulo
+    // every prime (Swinnerton-Dyer): degree patterns alone can never prove it.
+    let sd = rational_basis(&["x", "y"], &["x^4 - 10*x^2 + 1", "y - x^2"]);
+    assert!(is_maximal(&sd, &c).unwrap());
+    assert_eq!(residue_field_degree(&sd, &c).unwrap(), 4);
+    // The variable x alone is no primitive element of QQ(∛2, ω) = splitting field of x^3 - 2
+    // (degree 6): x^3 = 2, y^2 + x*y + x^2 = 0 (y = ωx). Maximal, found through a linear form.
+    let splitting = rational_basis(&["x", "y"], &["x^3 - 2", "y^2 + x*y + x^2"]);
+    assert!(is_maximal(&splitting, &c).unwrap());
+    assert_eq!(residue_field_degree(&splitting, &c).unwrap(), 6);
+    // Non-reduced, two points, positive-dimensional and unit ideals are not maximal.
+    assert!(!maximal(&["x", "y"], &["x^2", "y - 1/2"]));
+    assert!(!maximal(&["x", "y"], &["x^2 - 1", "y"]));
+    assert!(!maximal(&["x", "y"], &["x*y - 1"]));
+    assert!(!maximal(&["x", "y"], &["1"]));
+    assert!(maximal(&["x", "y"], &["x - 3/4", "y + 2"]));
+    let err = residue_field_degree(&rational_basis(&["x"], &["x^4 + 4"]), &c).unwrap_err();
+    assert!(err.to_string().contains("not maximal"), "{err}");
+}

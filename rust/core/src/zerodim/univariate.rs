@@ -6,7 +6,7 @@ use crate::field::Field;
 
 pub type Univariate<F> = Vec<<F as Field>::Elem>;
 
-fn trim<F: Field>(field: &F, p: &mut Univariate<F>) {
+pub fn trim<F: Field>(field: &F, p: &mut Univariate<F>) {
     while p.last().is_some_and(|c| field.is_zero(c)) {
         p.pop();
     }
@@ -17,7 +17,7 @@ pub fn degree<F: Field>(p: &Univariate<F>) -> Option<usize> {
     p.len().checked_sub(1)
 }
 
-fn monic<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
+pub fn monic<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
     match p.last() {
         Some(lc) => {
             let inv = field.inv(lc).expect("nonzero leading coefficient");
@@ -27,7 +27,7 @@ fn monic<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
     }
 }
 
-fn derivative<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
+pub fn derivative<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
     let mut d: Univariate<F> = p
         .iter()
         .enumerate()
@@ -39,7 +39,7 @@ fn derivative<F: Field>(field: &F, p: &Univariate<F>) -> Univariate<F> {
 }
 
 /// (quotient, remainder) of a by b ≠ 0.
-fn divide<F: Field>(
+pub fn divide<F: Field>(
     field: &F,
     a: &Univariate<F>,
     b: &Univariate<F>,
@@ -62,7 +62,7 @@ fn divide<F: Field>(
 }
 
 /// Monic greatest common divisor (Euclid).
-fn gcd<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> Univariate<F> {
+pub fn gcd<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> Univariate<F> {
     let (mut a, mut b) = (a.clone(), b.clone());
     while !b.is_empty() {
         let r = divide(field, &a, &b).1;
@@ -72,7 +72,7 @@ fn gcd<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> Univariate<
     monic(field, &a)
 }
 
-fn multiply<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> Univariate<F> {
+pub fn multiply<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> Univariate<F> {
     if a.is_empty() || b.is_empty() {
         return vec![];
     }
@@ -83,6 +83,71 @@ fn multiply<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> Univar
         }
     }
     out
+}
+
+/// a − b.
+pub fn subtract<F: Field>(field: &F, a: &Univariate<F>, b: &Univariate<F>) -> Univariate<F> {
+    let mut out: Univariate<F> = (0..a.len().max(b.len()))
+        .map(|i| match (a.get(i), b.get(i)) {
+            (Some(x), Some(y)) => field.sub(x, y),
+            (Some(x), None) => x.clone(),
+            (None, Some(y)) => field.neg(y),
+            (None, None) => unreachable!(),
+        })
+        .collect();
+    trim(field, &mut out);
+    out
+}
+
+/// (s, t) with s·a + t·b = gcd(a, b) monic, deg s < deg b and deg t < deg a (extended Euclid).
+pub fn bezout<F: Field>(
+    field: &F,
+    a: &Univariate<F>,
+    b: &Univariate<F>,
+) -> (Univariate<F>, Univariate<F>) {
+    let (mut r0, mut r1) = (a.clone(), b.clone());
+    let (mut s0, mut s1) = (vec![field.one()], vec![]);
+    let (mut t0, mut t1) = (vec![], vec![field.one()]);
+    while !r1.is_empty() {
+        let (q, r) = divide(field, &r0, &r1);
+        let s2 = subtract(field, &s0, &multiply(field, &q, &s1));
+        let t2 = subtract(field, &t0, &multiply(field, &q, &t1));
+        (r0, r1, s0, s1, t0, t1) = (r1, r, s1, s2, t1, t2);
+    }
+    let inv = field
+        .inv(r0.last().expect("not both zero"))
+        .expect("nonzero");
+    let scale = |p: Univariate<F>| p.iter().map(|c| field.mul(c, &inv)).collect();
+    (scale(s0), scale(t0))
+}
+
+/// a·b mod m.
+pub fn multiply_mod<F: Field>(
+    field: &F,
+    a: &Univariate<F>,
+    b: &Univariate<F>,
+    m: &Univariate<F>,
+) -> Univariate<F> {
+    divide(field, &multiply(field, a, b), m).1
+}
+
+/// a^e mod m, by square-and-multiply.
+pub fn power_mod<F: Field>(
+    field: &F,
+    a: &Univariate<F>,
+    mut e: u64,
+    m: &Univariate<F>,
+) -> Univariate<F> {
+    let mut base = divide(field, a, m).1;
+    let mut acc = divide(field, &vec![field.one()], m).1;
+    while e > 0 {
+        if e & 1 == 1 {
+            acc = multiply_mod(field, &acc, &base, m);
+        }
+        base = multiply_mod(field, &base, &base, m);
+        e >>= 1;
+    }
+    acc
 }
 
 /// The polynomial g with g^p = w, for w a p-th power in characteristic p.

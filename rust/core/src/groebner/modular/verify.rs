@@ -1,19 +1,21 @@
 //! The final check of a lifted basis over QQ, with integer coefficients throughout: a basis
 //! element or S-polynomial is made primitive over ZZ and reduced fraction-free (each step
 //! h ← a·h − b·m·g with a, b coprime integers cancels the leading term), so no rational gcd is
-//! taken per coefficient operation; contents are divided out after each step. Head reduction
+//! taken per coefficient operation; contents are divided out after each step with Lehmer's gcd
+//! ([`super::integer_gcd`]), and the reduced polynomial's terms are moved and scaled in place
+//! rather than copied (allocation and the binary gcd dominated before). Head reduction
 //! decides both questions asked: with G a Gröbner basis, f ∈ ⟨G⟩ iff head reduction of f
 //! ends at 0; and G is a Gröbner basis iff every S-polynomial left by the Gebauer–Möller
 //! criteria head-reduces to 0 (Buchberger 1965). Pairs are checked in parallel.
 
 use super::super::pairs::PairSet;
+use super::integer_gcd::gcd;
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::{integer_scale, RationalField};
 use crate::monomial::Monomial;
 use crate::poly::{Poly, Ring};
 use num_bigint::BigInt;
-use num_integer::Integer;
 use num_traits::{One, Zero};
 use rayon::prelude::*;
 use std::cmp::Ordering;
@@ -32,46 +34,41 @@ fn primitive(ring: &Ring<RationalField>, f: &Poly<RationalField>) -> IntPoly {
         .collect()
 }
 
-/// a·h − b·m·g over the tails (the leading terms cancel by the choice of a and b).
+/// a·h − b·m·g over the tails (the leading terms cancel by the choice of a and b). `h` is
+/// consumed: its terms are moved and scaled in place, so only the terms of m·g are allocated.
 fn combine(
     ring: &Ring<RationalField>,
-    h: &[(Monomial, BigInt)],
+    h: impl IntoIterator<Item = (Monomial, BigInt)>,
     a: &BigInt,
     b: &BigInt,
     m: &Monomial,
     g: &[(Monomial, BigInt)],
 ) -> Result<IntPoly> {
-    let mut out = Vec::with_capacity(h.len() + g.len());
-    let (mut i, mut j) = (0, 0);
-    let shifted = |t: &(Monomial, BigInt)| -> Result<Monomial> { t.0.mul(m) };
-    let mut next_g = g.first().map(shifted).transpose()?;
-    while i < h.len() || next_g.is_some() {
-        let ord = match (&next_g, h.get(i)) {
-            (None, _) => Ordering::Greater,
-            (Some(_), None) => Ordering::Less,
-            (Some(mg), Some(th)) => ring.cmp(&th.0, mg),
-        };
-        match ord {
-            Ordering::Greater => {
-                out.push((h[i].0.clone(), a * &h[i].1));
-                i += 1;
-            }
-            Ordering::Less => {
-                out.push((next_g.take().unwrap(), -(b * &g[j].1)));
-                j += 1;
-                next_g = g.get(j).map(shifted).transpose()?;
-            }
-            Ordering::Equal => {
-                let c = a * &h[i].1 - b * &g[j].1;
+    let mut h = h.into_iter().peekable();
+    let mut out = Vec::with_capacity(h.size_hint().0 + g.len());
+    let scale = |mut c: BigInt| {
+        if !a.is_one() {
+            c *= a;
+        }
+        c
+    };
+    for (gm, gc) in g {
+        let shifted = gm.mul(m)?;
+        while let Some(t) = h.next_if(|t| ring.cmp(&t.0, &shifted) == Ordering::Greater) {
+            out.push((t.0, scale(t.1)));
+        }
+        let product = if b.is_one() { gc.clone() } else { b * gc };
+        match h.next_if(|t| t.0 == shifted) {
+            Some((hm, hc)) => {
+                let c = scale(hc) - product;
                 if !c.is_zero() {
-                    out.push((h[i].0.clone(), c));
+                    out.push((hm, c));
                 }
-                i += 1;
-                j += 1;
-                next_g = g.get(j).map(shifted).transpose()?;
             }
+            None => out.push((shifted, -product)),
         }
     }
+    out.extend(h.map(|(hm, hc)| (hm, scale(hc))));
     Ok(out)
 }
 
@@ -80,7 +77,7 @@ fn combine(
 fn make_primitive(h: &mut IntPoly) {
     let mut content = BigInt::zero();
     for t in h.iter().rev() {
-        content = content.gcd(&t.1);
+        content = gcd(&content, &t.1);
         if content.is_one() {
             return;
         }
@@ -104,10 +101,10 @@ fn head_reduces_to_zero(
         let Some(g) = basis.iter().find(|g| g[0].0.divides(lm)) else {
             return Ok(false);
         };
-        let d = lc.gcd(&g[0].1);
+        let d = gcd(lc, &g[0].1);
         let (a, b) = (&g[0].1 / &d, lc / &d);
         let m = lm.div(&g[0].0);
-        h = combine(ring, &h[1..], &a, &b, &m, &g[1..])?;
+        h = combine(ring, h.into_iter().skip(1), &a, &b, &m, &g[1..])?;
         make_primitive(&mut h);
     }
     Ok(true)
@@ -120,14 +117,14 @@ fn s_polynomial(
     g: &IntPoly,
     lcm: &Monomial,
 ) -> Result<IntPoly> {
-    let d = f[0].1.gcd(&g[0].1);
+    let d = gcd(&f[0].1, &g[0].1);
     let (a, b) = (&g[0].1 / &d, &f[0].1 / &d);
     let mf = lcm.div(&f[0].0);
     let f_shifted: IntPoly = f[1..]
         .iter()
         .map(|(m, c)| Ok((m.mul(&mf)?, c.clone())))
         .collect::<Result<_>>()?;
-    combine(ring, &f_shifted, &a, &b, &lcm.div(&g[0].0), &g[1..])
+    combine(ring, f_shifted, &a, &b, &lcm.div(&g[0].0), &g[1..])
 }
 
 /// Whether `basis` (nonzero polynomials) is a Gröbner basis whose ideal contains every generator.
