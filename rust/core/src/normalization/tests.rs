@@ -26,6 +26,29 @@ fn assert_verifies(nn: &FiniteProjection<PrimeField>, gens: &[P]) {
 }
 
 /// dim_k of R/J for a zero-dimensional J, by counting standard monomials of its grevlex basis.
+/// The projection onto the given variables, proved by the elimination-order test (panics if
+/// the ring is not finite over them).
+fn over_variables(
+    r: &Ring<PrimeField>,
+    gens: &[P],
+    params: &[usize],
+) -> FiniteProjection<PrimeField> {
+    let change = changes::Change::variables(params, r.nvars());
+    let test = finiteness::Test::Elimination;
+    let proof = finiteness::test_change(r, gens, &change, test, &Control::new())
+        .unwrap()
+        .unwrap();
+    certificate::build(
+        r,
+        &change,
+        &proof,
+        Strategy::Variables,
+        false,
+        &Control::new(),
+    )
+    .unwrap()
+}
+
 fn vector_space_dimension(r: &Ring<PrimeField>, gens: &[P]) -> usize {
     let gb = groebner_basis(r, gens, Engine::default(), &Control::new()).unwrap();
     if gb.is_unit_ideal() {
@@ -69,20 +92,7 @@ fn cusp_is_finite_over_one_variable() {
     assert_eq!(nn.rank, 3);
     assert_verifies(&nn, &gens);
     // Over k[x]: the eliminating candidate with parameter x has rank 2.
-    let change = changes::Change::variables(&[0], 2);
-    let test = finiteness::Test::Elimination;
-    let proof = finiteness::test_change(&r, &gens, &change, test, &Control::new())
-        .unwrap()
-        .unwrap();
-    let over_x = certificate::build(
-        &r,
-        &change,
-        &proof,
-        Strategy::Variables,
-        false,
-        &Control::new(),
-    )
-    .unwrap();
+    let over_x = over_variables(&r, &gens, &[0]);
     assert_eq!(over_x.rank, 2);
     assert_verifies(&over_x, &gens);
 }
@@ -95,20 +105,7 @@ fn affine_twisted_cubic_has_rank_one() {
     let nn = normalize(&r, &gens);
     assert_eq!(nn.dimension, 1);
     assert_verifies(&nn, &gens);
-    let change = changes::Change::variables(&[0], 3);
-    let test = finiteness::Test::Elimination;
-    let proof = finiteness::test_change(&r, &gens, &change, test, &Control::new())
-        .unwrap()
-        .unwrap();
-    let over_x = certificate::build(
-        &r,
-        &change,
-        &proof,
-        Strategy::Variables,
-        false,
-        &Control::new(),
-    )
-    .unwrap();
+    let over_x = over_variables(&r, &gens, &[0]);
     assert_eq!(over_x.rank, 1);
     // y = x^2 and z = x^3 as equations of degree 1.
     let eq_text: Vec<Vec<String>> = over_x.to_text().equations;
