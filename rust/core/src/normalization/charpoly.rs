@@ -592,7 +592,8 @@ mod tests {
     use crate::order::MonomialOrder;
     use crate::parse::parse_poly;
 
-    /// Both methods on the same random matrices: interpolation over GF(101), Berkowitz forced.
+    /// Both methods on the same random matrices: interpolation over GF(101) (in words and in the
+    /// field's arithmetic), Berkowitz forced.
     #[test]
     fn interpolation_agrees_with_berkowitz() {
         let mut rng = crate::normalization::changes::Rng::new(9);
@@ -622,12 +623,14 @@ mod tests {
                 })
                 .collect();
             let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
-            assert!(interpolation_grid(&ring, &a).is_some());
-            assert_eq!(
-                fast,
-                berkowitz(&ring, &a, &Control::new()).unwrap(),
-                "{nvars} variables, size {size}"
-            );
+            let (bounds, total) = interpolation_grid(&ring, &a).unwrap();
+            let expected = berkowitz(&ring, &a, &Control::new()).unwrap();
+            assert_eq!(fast, expected, "{nvars} variables, size {size}");
+            // The same interpolation in the field's own arithmetic, the path of every field
+            // that is not a word-size prime field.
+            let set = LowerSet::new(&bounds, total);
+            let generic = interpolate_in(&Generic(&ring.field), &ring, &a, &set, &Control::new());
+            assert_eq!(generic.unwrap(), expected, "{nvars} variables, size {size}");
         }
     }
 
