@@ -144,7 +144,6 @@ fn interpolate_in<S: Scalars>(
 ) -> Result<Vec<Poly<S::Base>>> {
     let field = &ring.field;
     let r = a.len();
-    let d = ring.nvars();
     let longest = set.exponents.iter().flatten().copied().max().unwrap_or(0);
     let nodes = Nodes::new(
         s,
@@ -152,32 +151,13 @@ fn interpolate_in<S: Scalars>(
             .map(|j| s.import(&field.element_from_index(j)))
             .collect(),
     );
-    let max_exponents: Vec<u32> = (0..d)
-        .map(|i| {
-            a.iter()
-                .flatten()
-                .flat_map(|p| p.terms().iter().map(move |(m, _)| m.exponents()[i]))
-                .max()
-                .unwrap_or(0)
-        })
-        .collect();
+    let entries = EntryTerms::new(s, a);
     // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
     let mut values = vec![vec![s.zero(); set.exponents.len()]; r + 1];
     for (g, alpha) in set.exponents.iter().enumerate() {
         control.check()?;
-        let point: Vec<_> = alpha
-            .iter()
-            .map(|&j| s.export(&nodes.points[j as usize]))
-            .collect();
-        let powers = PowerTable::new(field, &point, &max_exponents);
-        let scalar: Vec<Vec<S::E>> = a
-            .iter()
-            .map(|row| {
-                row.iter()
-                    .map(|p| s.import(&powers.evaluate(field, p)))
-                    .collect()
-            })
-            .collect();
+        let point: Vec<&S::E> = alpha.iter().map(|&j| &nodes.points[j as usize]).collect();
+        let scalar = entries.evaluate(s, &point);
         for (k, c) in scalar_charpoly(s, scalar).into_iter().enumerate() {
             values[k][g] = c;
         }
@@ -287,40 +267,64 @@ impl LowerSet {
     }
 }
 
-/// Powers of the coordinates of one point, so that evaluating the many matrix entries costs one
-/// multiplication per variable occurrence instead of a power each time.
-struct PowerTable<F: Field> {
-    powers: Vec<Vec<F::Elem>>,
+/// The matrix entries as lists of terms (index of a distinct monomial t^β, coefficient), converted
+/// once: at a point each distinct monomial is evaluated once, and each entry costs one
+/// multiply-add per term and no allocation.
+struct EntryTerms<S: Scalars> {
+    monomials: Vec<Vec<u32>>,
+    rows: Vec<Vec<Vec<(usize, S::E)>>>,
 }
 
-impl<F: Field> PowerTable<F> {
-    fn new(field: &F, point: &[F::Elem], max_exponents: &[u32]) -> Self {
-        let powers = point
+impl<S: Scalars> EntryTerms<S> {
+    fn new(s: &S, a: &[Vec<Poly<S::Base>>]) -> Self {
+        let mut index: HashMap<Vec<u32>, usize> = HashMap::new();
+        let mut monomials = Vec::new();
+        let rows = a
             .iter()
-            .zip(max_exponents)
-            .map(|(x, &e)| {
-                let mut row = vec![field.one()];
-                for _ in 0..e {
-                    row.push(field.mul(row.last().unwrap(), x));
-                }
-                row
+            .map(|row| {
+                row.iter()
+                    .map(|p| {
+                        p.terms()
+                            .iter()
+                            .map(|(m, c)| {
+                                let next = monomials.len();
+                                let k = *index.entry(m.exponents().to_vec()).or_insert(next);
+                                if k == next {
+                                    monomials.push(m.exponents().to_vec());
+                                }
+                                (k, s.import(c))
+                            })
+                            .collect()
+                    })
+                    .collect()
             })
             .collect();
-        PowerTable { powers }
+        EntryTerms { monomials, rows }
     }
 
-    fn evaluate(&self, field: &F, p: &Poly<F>) -> F::Elem {
-        let mut acc = field.zero();
-        for (m, c) in p.terms() {
-            let mut t = c.clone();
-            for (row, &e) in self.powers.iter().zip(m.exponents()) {
-                if e > 0 {
-                    t = field.mul(&t, &row[e as usize]);
-                }
-            }
-            acc = field.add(&acc, &t);
-        }
-        acc
+    /// The scalar matrix at `point`.
+    fn evaluate(&self, s: &S, point: &[&S::E]) -> Vec<Vec<S::E>> {
+        let monomial_values: Vec<S::E> = self
+            .monomials
+            .iter()
+            .map(|beta| {
+                beta.iter().zip(point).fold(s.one(), |acc, (&e, x)| {
+                    (0..e).fold(acc, |acc, _| s.mul(&acc, x))
+                })
+            })
+            .collect();
+        self.rows
+            .iter()
+            .map(|row| {
+                row.iter()
+                    .map(|terms| {
+                        terms.iter().fold(s.zero(), |acc, (k, c)| {
+                            s.mul_add(&acc, c, &monomial_values[*k])
+                        })
+                    })
+                    .collect()
+            })
+            .collect()
     }
 }
 
