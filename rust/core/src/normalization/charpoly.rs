@@ -272,8 +272,11 @@ impl LowerSet {
 /// multiply-add per term and no allocation.
 struct EntryTerms<S: Scalars> {
     monomials: Vec<Vec<u32>>,
-    rows: Vec<Vec<Vec<(usize, S::E)>>>,
+    rows: Vec<Vec<EntryTerm<S>>>,
 }
+
+/// One entry: (index into the distinct monomials, coefficient) for each of its terms.
+type EntryTerm<S> = Vec<(usize, <S as Scalars>::E)>;
 
 impl<S: Scalars> EntryTerms<S> {
     fn new(s: &S, a: &[Vec<Poly<S::Base>>]) -> Self {
@@ -683,7 +686,7 @@ mod tests {
             .map(|_| {
                 (0..size)
                     .map(|_| {
-                        if sparse && rng.next_u64() % 3 != 0 {
+                        if sparse && !rng.next_u64().is_multiple_of(3) {
                             0
                         } else {
                             rng.next_u64() % p
