@@ -213,15 +213,21 @@ impl<'a, F: Field> Module<'a, F> {
     fn normal_form(&self, f: &Poly<F>) -> Result<Poly<F>> {
         let ring = &self.proof.ring;
         let mut cache = self.normal_forms.borrow_mut();
-        let mut sum = Poly::zero();
+        // Most products e·b have one term: then the sum is that term's scaled normal form, with
+        // no merge (a merge copies every monomial once more).
+        let mut sum: Option<Poly<F>> = None;
         for (m, c) in f.terms() {
             if !cache.contains_key(m) {
                 let term = ring.term(m.clone(), ring.field.one());
                 cache.insert(m.clone(), normal_form(ring, &term, &self.proof.basis)?);
             }
-            sum = ring.add(&sum, &ring.scale(&cache[m], c));
+            let scaled = ring.scale(&cache[m], c);
+            sum = Some(match sum {
+                None => scaled,
+                Some(s) => ring.add(&s, &scaled),
+            });
         }
-        Ok(sum)
+        Ok(sum.unwrap_or_else(Poly::zero))
     }
 
     /// A basis element in k[T][x] monic in x, when `e` is the non-parameter variable x: it is an

@@ -10,6 +10,7 @@
 //! Otherwise, by Berkowitz's division-free algorithm (Berkowitz 1984) directly over k[T], which
 //! works in every characteristic, GF(2) included.
 
+use super::scalars::{Generic, Scalars, Words};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
@@ -120,58 +121,62 @@ fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
     })
 }
 
+/// Interpolation in machine words when the field is a word-size prime field, else in the
+/// field's own arithmetic: the same loops either way.
 fn by_interpolation<F: Field>(
     ring: &Ring<F>,
     a: &[Vec<Poly<F>>],
     set: &LowerSet,
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
+    match Words::new(&ring.field) {
+        Some(words) => interpolate_in(&words, ring, a, set, control),
+        None => interpolate_in(&Generic(&ring.field), ring, a, set, control),
+    }
+}
+
+fn interpolate_in<S: Scalars>(
+    s: &S,
+    ring: &Ring<S::Base>,
+    a: &[Vec<Poly<S::Base>>],
+    set: &LowerSet,
+    control: &Control,
+) -> Result<Vec<Poly<S::Base>>> {
     let field = &ring.field;
     let r = a.len();
-    let d = ring.nvars();
     let longest = set.exponents.iter().flatten().copied().max().unwrap_or(0);
     let nodes = Nodes::new(
-        field,
+        s,
         (0..=u64::from(longest))
-            .map(|j| field.element_from_index(j))
+            .map(|j| s.import(&field.element_from_index(j)))
             .collect(),
     );
-    let max_exponents: Vec<u32> = (0..d)
-        .map(|i| {
-            a.iter()
-                .flatten()
-                .flat_map(|p| p.terms().iter().map(move |(m, _)| m.exponents()[i]))
-                .max()
-                .unwrap_or(0)
-        })
-        .collect();
+    let entries = EntryTerms::new(s, a);
     // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
-    let mut values = vec![vec![field.zero(); set.exponents.len()]; r + 1];
+    let mut values = vec![vec![s.zero(); set.exponents.len()]; r + 1];
     for (g, alpha) in set.exponents.iter().enumerate() {
         control.check()?;
-        let point: Vec<F::Elem> = alpha
-            .iter()
-            .map(|&j| nodes.points[j as usize].clone())
-            .collect();
-        let powers = PowerTable::new(field, &point, &max_exponents);
-        let scalar: Vec<Vec<F::Elem>> = a
-            .iter()
-            .map(|row| row.iter().map(|p| powers.evaluate(field, p)).collect())
-            .collect();
-        for (k, c) in scalar_charpoly(field, scalar).into_iter().enumerate() {
+        let point: Vec<&S::E> = alpha.iter().map(|&j| &nodes.points[j as usize]).collect();
+        let scalar = entries.evaluate(s, &point);
+        for (k, c) in scalar_charpoly(s, scalar).into_iter().enumerate() {
             values[k][g] = c;
         }
     }
     let mut out = Vec::with_capacity(r + 1);
     for k in (0..=r).rev() {
         control.check()?;
-        let coefficients = set.interpolate(field, &nodes, std::mem::take(&mut values[k]));
+        let coefficients = set.interpolate(s, &nodes, std::mem::take(&mut values[k]));
         let terms = set
             .exponents
             .iter()
             .zip(coefficients)
-            .filter(|(_, c)| !field.is_zero(c))
-            .map(|(alpha, c)| Ok((crate::Monomial::from_exponents(alpha.clone())?, c)))
+            .filter(|(_, c)| !s.is_zero(c))
+            .map(|(alpha, c)| {
+                Ok((
+                    crate::Monomial::from_exponents(alpha.clone())?,
+                    s.export(&c),
+                ))
+            })
             .collect::<Result<Vec<_>>>()?;
         out.push(ring.from_terms(terms));
     }
@@ -186,7 +191,8 @@ fn by_interpolation<F: Field>(
 /// exact (multivariate Newton interpolation on lower sets; Sauer 2006, Dyn and Floater 2014).
 struct LowerSet {
     exponents: Vec<Vec<u32>>,
-    index: HashMap<Vec<u32>, usize>,
+    /// lines[i]: the lines of the set along axis i, found once for all the coefficients.
+    lines: Vec<Vec<Vec<usize>>>,
 }
 
 impl LowerSet {
@@ -194,12 +200,21 @@ impl LowerSet {
         let mut exponents = Vec::new();
         let mut current = vec![0u32; bounds.len()];
         Self::enumerate(bounds, total, 0, &mut current, &mut exponents);
-        let index = exponents
+        let index: HashMap<Vec<u32>, usize> = exponents
             .iter()
             .enumerate()
             .map(|(g, e)| (e.clone(), g))
             .collect();
-        LowerSet { exponents, index }
+        let lines = (0..bounds.len())
+            .map(|i| {
+                exponents
+                    .iter()
+                    .filter(|e| e[i] == 0)
+                    .map(|start| Self::line(&index, start, i))
+                    .collect()
+            })
+            .collect();
+        LowerSet { exponents, lines }
     }
 
     fn enumerate(
@@ -221,10 +236,10 @@ impl LowerSet {
     }
 
     /// The points of the set on the line through `start` (whose i-th exponent is 0) along axis i.
-    fn line(&self, start: &[u32], i: usize) -> Vec<usize> {
+    fn line(index: &HashMap<Vec<u32>, usize>, start: &[u32], i: usize) -> Vec<usize> {
         let mut alpha = start.to_vec();
         let mut line = Vec::new();
-        while let Some(&g) = self.index.get(&alpha) {
+        while let Some(&g) = index.get(&alpha) {
             line.push(g);
             alpha[i] += 1;
         }
@@ -232,22 +247,15 @@ impl LowerSet {
     }
 
     /// Values at the node points -> coefficients of the monomials t^α.
-    fn interpolate<F: Field>(
-        &self,
-        field: &F,
-        nodes: &Nodes<F>,
-        mut values: Vec<F::Elem>,
-    ) -> Vec<F::Elem> {
-        let d = self.exponents.first().map_or(0, |e| e.len());
+    fn interpolate<S: Scalars>(&self, s: &S, nodes: &Nodes<S>, mut values: Vec<S::E>) -> Vec<S::E> {
         for pass in 0..2 {
-            for i in 0..d {
-                for start in self.exponents.iter().filter(|e| e[i] == 0) {
-                    let line = self.line(start, i);
-                    let ys: Vec<F::Elem> = line.iter().map(|&g| values[g].clone()).collect();
+            for lines in &self.lines {
+                for line in lines {
+                    let ys: Vec<S::E> = line.iter().map(|&g| values[g].clone()).collect();
                     let out = if pass == 0 {
-                        divided_differences(field, nodes, &ys)
+                        divided_differences(s, nodes, &ys)
                     } else {
-                        newton_to_monomial(field, &nodes.points[..line.len()], &ys)
+                        newton_to_monomial(s, &nodes.points[..line.len()], &ys)
                     };
                     for (&g, c) in line.iter().zip(out) {
                         values[g] = c;
@@ -259,62 +267,89 @@ impl LowerSet {
     }
 }
 
-/// Powers of the coordinates of one point, so that evaluating the many matrix entries costs one
-/// multiplication per variable occurrence instead of a power each time.
-struct PowerTable<F: Field> {
-    powers: Vec<Vec<F::Elem>>,
+/// The matrix entries as lists of terms (index of a distinct monomial t^β, coefficient), converted
+/// once: at a point each distinct monomial is evaluated once, and each entry costs one
+/// multiply-add per term and no allocation.
+struct EntryTerms<S: Scalars> {
+    monomials: Vec<Vec<u32>>,
+    rows: Vec<Vec<EntryTerm<S>>>,
 }
 
-impl<F: Field> PowerTable<F> {
-    fn new(field: &F, point: &[F::Elem], max_exponents: &[u32]) -> Self {
-        let powers = point
+/// One entry: (index into the distinct monomials, coefficient) for each of its terms.
+type EntryTerm<S> = Vec<(usize, <S as Scalars>::E)>;
+
+impl<S: Scalars> EntryTerms<S> {
+    fn new(s: &S, a: &[Vec<Poly<S::Base>>]) -> Self {
+        let mut index: HashMap<Vec<u32>, usize> = HashMap::new();
+        let mut monomials = Vec::new();
+        let rows = a
             .iter()
-            .zip(max_exponents)
-            .map(|(x, &e)| {
-                let mut row = vec![field.one()];
-                for _ in 0..e {
-                    row.push(field.mul(row.last().unwrap(), x));
-                }
-                row
+            .map(|row| {
+                row.iter()
+                    .map(|p| {
+                        p.terms()
+                            .iter()
+                            .map(|(m, c)| {
+                                let next = monomials.len();
+                                let k = *index.entry(m.exponents().to_vec()).or_insert(next);
+                                if k == next {
+                                    monomials.push(m.exponents().to_vec());
+                                }
+                                (k, s.import(c))
+                            })
+                            .collect()
+                    })
+                    .collect()
             })
             .collect();
-        PowerTable { powers }
+        EntryTerms { monomials, rows }
     }
 
-    fn evaluate(&self, field: &F, p: &Poly<F>) -> F::Elem {
-        let mut acc = field.zero();
-        for (m, c) in p.terms() {
-            let mut t = c.clone();
-            for (row, &e) in self.powers.iter().zip(m.exponents()) {
-                if e > 0 {
-                    t = field.mul(&t, &row[e as usize]);
-                }
-            }
-            acc = field.add(&acc, &t);
-        }
-        acc
+    /// The scalar matrix at `point`.
+    fn evaluate(&self, s: &S, point: &[&S::E]) -> Vec<Vec<S::E>> {
+        let monomial_values: Vec<S::E> = self
+            .monomials
+            .iter()
+            .map(|beta| {
+                beta.iter().zip(point).fold(s.one(), |acc, (&e, x)| {
+                    (0..e).fold(acc, |acc, _| s.mul(&acc, x))
+                })
+            })
+            .collect();
+        self.rows
+            .iter()
+            .map(|row| {
+                row.iter()
+                    .map(|terms| {
+                        terms.iter().fold(s.zero(), |acc, (k, c)| {
+                            s.mul_add(&acc, c, &monomial_values[*k])
+                        })
+                    })
+                    .collect()
+            })
+            .collect()
     }
 }
 
 /// The interpolation nodes s_0, s_1, ... and the inverses 1/(s_i - s_{i-level}) that divided
 /// differences divide by, computed once for all the lines and coefficients they serve.
-struct Nodes<F: Field> {
-    points: Vec<F::Elem>,
+struct Nodes<S: Scalars> {
+    points: Vec<S::E>,
     /// inverse_gaps[level][i] = 1/(s_i - s_{i-level}) for i >= level >= 1.
-    inverse_gaps: Vec<Vec<F::Elem>>,
+    inverse_gaps: Vec<Vec<S::E>>,
 }
 
-impl<F: Field> Nodes<F> {
-    fn new(field: &F, points: Vec<F::Elem>) -> Self {
+impl<S: Scalars> Nodes<S> {
+    fn new(s: &S, points: Vec<S::E>) -> Self {
         let n = points.len();
         let inverse_gaps = (0..n)
             .map(|level| {
                 (0..n)
                     .map(|i| match i.checked_sub(level) {
-                        Some(j) if level > 0 => field
-                            .inv(&field.sub(&points[i], &points[j]))
+                        Some(j) if level > 0 => s
+                            .inv(&s.sub(&points[i], &points[j]))
                             .expect("nodes are distinct"),
-                        _ => field.zero(),
+                        _ => s.zero(),
                     })
                     .collect()
             })
@@ -328,33 +363,33 @@ impl<F: Field> Nodes<F> {
 
 /// Newton coefficients of the polynomial of degree < len taking values `ys` at the first
 /// len nodes (divided differences).
-fn divided_differences<F: Field>(field: &F, nodes: &Nodes<F>, ys: &[F::Elem]) -> Vec<F::Elem> {
+fn divided_differences<S: Scalars>(s: &S, nodes: &Nodes<S>, ys: &[S::E]) -> Vec<S::E> {
     let n = ys.len();
     let mut dd = ys.to_vec();
     for level in 1..n {
         for i in (level..n).rev() {
-            let num = field.sub(&dd[i], &dd[i - 1]);
-            dd[i] = field.mul(&num, &nodes.inverse_gaps[level][i]);
+            let num = s.sub(&dd[i], &dd[i - 1]);
+            dd[i] = s.mul(&num, &nodes.inverse_gaps[level][i]);
         }
     }
     dd
 }
 
 /// Monomial coefficients (low to high) of Σ dd_i (x - x_0)...(x - x_{i-1}), by Horner's rule.
-fn newton_to_monomial<F: Field>(field: &F, xs: &[F::Elem], dd: &[F::Elem]) -> Vec<F::Elem> {
+fn newton_to_monomial<S: Scalars>(s: &S, xs: &[S::E], dd: &[S::E]) -> Vec<S::E> {
     let n = xs.len();
-    let mut coeffs = vec![field.zero(); n];
+    let mut coeffs = vec![s.zero(); n];
     for i in (0..n).rev() {
         // coeffs := coeffs·(x - x_i) + dd[i]; the degree stays below n.
         for j in (0..n).rev() {
             let shifted = if j > 0 {
                 coeffs[j - 1].clone()
             } else {
-                field.zero()
+                s.zero()
             };
-            coeffs[j] = field.sub(&shifted, &field.mul(&coeffs[j], &xs[i]));
+            coeffs[j] = s.mul_sub(&shifted, &coeffs[j], &xs[i]);
         }
-        coeffs[0] = field.add(&coeffs[0], &dd[i]);
+        coeffs[0] = s.add(&coeffs[0], &dd[i]);
     }
     coeffs
 }
@@ -364,86 +399,83 @@ fn newton_to_monomial<F: Field>(field: &F, xs: &[F::Elem], dd: &[F::Elem]) -> Ve
 /// mostly unit rows (x·b is often standard again), so the sequence costs far less than a
 /// Hessenberg reduction. When the sequence does not span (the matrix is not cyclic for that
 /// vector), by Hessenberg reduction, which always works.
-fn scalar_charpoly<F: Field>(field: &F, a: Vec<Vec<F::Elem>>) -> Vec<F::Elem> {
-    krylov_charpoly(field, &a).unwrap_or_else(|| hessenberg_charpoly(field, a))
+fn scalar_charpoly<S: Scalars>(s: &S, a: Vec<Vec<S::E>>) -> Vec<S::E> {
+    krylov_charpoly(s, &a).unwrap_or_else(|| hessenberg_charpoly(s, a))
 }
 
 /// If w_k = (A^T)^k e_1, k < r, are linearly independent, the minimal polynomial of e_1 has
 /// degree r and so is det(x·Id - A): solve w_r + Σ c_k w_k = 0 for the coefficients c_k
 /// (Krylov 1931; Householder, *The Theory of Matrices in Numerical Analysis*, 1964, §6.1).
 /// `None` when they are dependent.
-fn krylov_charpoly<F: Field>(field: &F, a: &[Vec<F::Elem>]) -> Option<Vec<F::Elem>> {
+fn krylov_charpoly<S: Scalars>(s: &S, a: &[Vec<S::E>]) -> Option<Vec<S::E>> {
     let r = a.len();
     if r == 0 {
-        return Some(vec![field.one()]);
+        return Some(vec![s.one()]);
     }
-    let sparse_rows: Vec<Vec<(usize, &F::Elem)>> = a
+    let sparse_rows: Vec<Vec<(usize, &S::E)>> = a
         .iter()
         .map(|row| {
             row.iter()
                 .enumerate()
-                .filter(|(_, c)| !field.is_zero(c))
+                .filter(|(_, c)| !s.is_zero(c))
                 .collect()
         })
         .collect();
     // system[i] = [w_0[i], ..., w_{r-1}[i], -w_r[i]]: the unknowns c_k are the columns.
-    let mut system = vec![vec![field.zero(); r + 1]; r];
-    let mut w = vec![field.zero(); r];
-    w[0] = field.one();
+    let mut system = vec![vec![s.zero(); r + 1]; r];
+    let mut w = vec![s.zero(); r];
+    let mut next = vec![s.zero(); r];
+    w[0] = s.one();
     for k in 0..=r {
         for (i, row) in system.iter_mut().enumerate() {
-            row[k] = if k < r {
-                w[i].clone()
-            } else {
-                field.neg(&w[i])
-            };
+            row[k] = if k < r { w[i].clone() } else { s.neg(&w[i]) };
         }
         if k < r {
-            let mut next = vec![field.zero(); r];
+            next.fill(s.zero());
             for (wj, row) in w.iter().zip(&sparse_rows) {
-                if field.is_zero(wj) {
+                if s.is_zero(wj) {
                     continue;
                 }
                 for &(col, c) in row {
-                    next[col] = field.add(&next[col], &field.mul(wj, c));
+                    next[col] = s.mul_add(&next[col], wj, c);
                 }
             }
-            w = next;
+            std::mem::swap(&mut w, &mut next);
         }
     }
-    let mut coefficients = solve_square(field, system)?;
-    coefficients.push(field.one());
+    let mut coefficients = solve_square(s, system)?;
+    coefficients.push(s.one());
     Some(coefficients)
 }
 
 /// The solution of the square system given as rows [M | b], by Gaussian elimination; `None`
 /// when M is singular.
-fn solve_square<F: Field>(field: &F, mut rows: Vec<Vec<F::Elem>>) -> Option<Vec<F::Elem>> {
+fn solve_square<S: Scalars>(s: &S, mut rows: Vec<Vec<S::E>>) -> Option<Vec<S::E>> {
     let r = rows.len();
     for col in 0..r {
-        let pivot = (col..r).find(|&i| !field.is_zero(&rows[i][col]))?;
+        let pivot = (col..r).find(|&i| !s.is_zero(&rows[i][col]))?;
         rows.swap(col, pivot);
-        let inv = field.inv(&rows[col][col])?;
+        let inv = s.inv(&rows[col][col])?;
         let (done, rest) = rows.split_at_mut(col + 1);
         let pivot_row = &mut done[col];
         for c in pivot_row.iter_mut().skip(col) {
-            *c = field.mul(c, &inv);
+            *c = s.mul(c, &inv);
         }
         for row in rest {
             let u = row[col].clone();
-            if field.is_zero(&u) {
+            if s.is_zero(&u) {
                 continue;
             }
             for (target, source) in row.iter_mut().zip(pivot_row.iter()).skip(col) {
-                *target = field.sub(target, &field.mul(&u, source));
+                *target = s.mul_sub(target, &u, source);
             }
         }
     }
-    let mut x = vec![field.zero(); r];
+    let mut x = vec![s.zero(); r];
     for col in (0..r).rev() {
         let mut value = rows[col][r].clone();
         for k in col + 1..r {
-            value = field.sub(&value, &field.mul(&rows[col][k], &x[k]));
+            value = s.mul_sub(&value, &rows[col][k], &x[k]);
         }
         x[col] = value;
     }
@@ -452,10 +484,10 @@ fn solve_square<F: Field>(field: &F, mut rows: Vec<Vec<F::Elem>>) -> Option<Vec<
 
 /// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
 /// and the recurrence on its leading minors (Cohen 1993, Algorithm 2.2.9).
-fn hessenberg_charpoly<F: Field>(field: &F, mut h: Vec<Vec<F::Elem>>) -> Vec<F::Elem> {
+fn hessenberg_charpoly<S: Scalars>(s: &S, mut h: Vec<Vec<S::E>>) -> Vec<S::E> {
     let n = h.len();
     for m in 1..n.saturating_sub(1) {
-        let Some(i) = (m..n).find(|&i| !field.is_zero(&h[i][m - 1])) else {
+        let Some(i) = (m..n).find(|&i| !s.is_zero(&h[i][m - 1])) else {
             continue;
         };
         if i != m {
@@ -464,40 +496,39 @@ fn hessenberg_charpoly<F: Field>(field: &F, mut h: Vec<Vec<F::Elem>>) -> Vec<F::
                 row.swap(i, m);
             }
         }
-        let pivot_inv = field.inv(&h[m][m - 1]).expect("nonzero pivot");
+        let pivot_inv = s.inv(&h[m][m - 1]).expect("nonzero pivot");
         for i in m + 1..n {
-            let u = field.mul(&h[i][m - 1], &pivot_inv);
-            if field.is_zero(&u) {
+            let u = s.mul(&h[i][m - 1], &pivot_inv);
+            if s.is_zero(&u) {
                 continue;
             }
-            let pivot_row = h[m].clone();
-            for (target, source) in h[i].iter_mut().zip(&pivot_row) {
-                *target = field.sub(target, &field.mul(&u, source));
+            let (upper, lower) = h.split_at_mut(i);
+            for (target, source) in lower[0].iter_mut().zip(&upper[m]) {
+                *target = s.mul_sub(target, &u, source);
             }
             for row in h.iter_mut() {
-                let t = field.mul(&u, &row[i]);
-                row[m] = field.add(&row[m], &t);
+                row[m] = s.mul_add(&row[m], &u, &row[i]);
             }
         }
     }
     // p_0 = 1; p_m = (x - h_mm) p_{m-1} - Σ_{i=1}^{m-1} (h_{m,m-1} ... h_{m-i+1,m-i}) h_{m-i,m} p_{m-i-1}
-    let mut p: Vec<Vec<F::Elem>> = vec![vec![field.one()]];
+    let mut p: Vec<Vec<S::E>> = vec![vec![s.one()]];
     for m in 1..=n {
         let prev = &p[m - 1];
-        let mut next = vec![field.zero(); m + 1];
+        let mut next = vec![s.zero(); m + 1];
         for (j, c) in prev.iter().enumerate() {
-            next[j + 1] = field.add(&next[j + 1], c);
-            next[j] = field.sub(&next[j], &field.mul(c, &h[m - 1][m - 1]));
+            next[j + 1] = s.add(&next[j + 1], c);
+            next[j] = s.mul_sub(&next[j], c, &h[m - 1][m - 1]);
         }
-        let mut t = field.one();
+        let mut t = s.one();
         for i in 1..m {
-            t = field.mul(&t, &h[m - i][m - i - 1]);
-            let factor = field.mul(&t, &h[m - i - 1][m - 1]);
-            if field.is_zero(&factor) {
+            t = s.mul(&t, &h[m - i][m - i - 1]);
+            let factor = s.mul(&t, &h[m - i - 1][m - 1]);
+            if s.is_zero(&factor) {
                 continue;
             }
             for (j, c) in p[m - i - 1].iter().enumerate() {
-                next[j] = field.sub(&next[j], &field.mul(&factor, c));
+                next[j] = s.mul_sub(&next[j], &factor, c);
             }
         }
         p.push(next);
@@ -568,7 +599,8 @@ mod tests {
     use crate::order::MonomialOrder;
     use crate::parse::parse_poly;
 
-    /// Both methods on the same random matrices: interpolation over GF(101), Berkowitz forced.
+    /// Both methods on the same random matrices: interpolation over GF(101) (in words and in the
+    /// field's arithmetic), Berkowitz forced.
     #[test]
     fn interpolation_agrees_with_berkowitz() {
         let mut rng = crate::normalization::changes::Rng::new(9);
@@ -598,45 +630,39 @@ mod tests {
                 })
                 .collect();
             let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
-            assert!(interpolation_grid(&ring, &a).is_some());
-            assert_eq!(
-                fast,
-                berkowitz(&ring, &a, &Control::new()).unwrap(),
-                "{nvars} variables, size {size}"
-            );
+            let (bounds, total) = interpolation_grid(&ring, &a).unwrap();
+            let expected = berkowitz(&ring, &a, &Control::new()).unwrap();
+            assert_eq!(fast, expected, "{nvars} variables, size {size}");
+            // The same interpolation in the field's own arithmetic, the path of every field
+            // that is not a word-size prime field.
+            let set = LowerSet::new(&bounds, total);
+            let generic = interpolate_in(&Generic(&ring.field), &ring, &a, &set, &Control::new());
+            assert_eq!(generic.unwrap(), expected, "{nvars} variables, size {size}");
         }
     }
 
     /// The Krylov shortcut agrees with Hessenberg reduction where it applies, and declines the
-    /// matrices that are not cyclic for the first unit vector (a scalar matrix, a direct sum).
+    /// matrices that are not cyclic for the first unit vector (a scalar matrix, a direct sum);
+    /// both in the field's arithmetic and in machine words.
     #[test]
     fn krylov_agrees_with_hessenberg() {
         let field = PrimeField::new(101).unwrap();
+        let generic = Generic(&field);
+        let words = Words::new(&field).unwrap();
         let mut rng = crate::normalization::changes::Rng::new(4);
         let mut used = 0;
         for size in 1..9 {
             for sparse in [false, true] {
-                let a: Vec<Vec<u64>> = (0..size)
-                    .map(|_| {
-                        (0..size)
-                            .map(|_| {
-                                if sparse && rng.next_u64() % 3 != 0 {
-                                    0
-                                } else {
-                                    rng.next_u64() % 101
-                                }
-                            })
-                            .collect()
-                    })
-                    .collect();
-                if let Some(k) = krylov_charpoly(&field, &a) {
-                    assert_eq!(k, hessenberg_charpoly(&field, a.clone()), "{a:?}");
+                let a = random_matrix(&mut rng, size, 101, sparse);
+                if let Some(k) = krylov_charpoly(&generic, &a) {
+                    assert_eq!(k, hessenberg_charpoly(&generic, a.clone()), "{a:?}");
+                    assert_eq!(Some(k), krylov_charpoly(&words, &a), "{a:?}");
                     used += 1;
                 }
-                assert_eq!(
-                    scalar_charpoly(&field, a.clone()),
-                    hessenberg_charpoly(&field, a)
-                );
+                let expected = hessenberg_charpoly(&generic, a.clone());
+                assert_eq!(hessenberg_charpoly(&words, a.clone()), expected);
+                assert_eq!(scalar_charpoly(&generic, a.clone()), expected);
+                assert_eq!(scalar_charpoly(&words, a), expected);
             }
         }
         assert!(
@@ -644,9 +670,65 @@ mod tests {
             "the shortcut should apply to most random matrices"
         );
         let scalar = vec![vec![3, 0], vec![0, 3]];
-        assert_eq!(krylov_charpoly(&field, &scalar), None);
+        assert_eq!(krylov_charpoly(&generic, &scalar), None);
         // (x - 3)^2 = x^2 - 6x + 9 over GF(101).
-        assert_eq!(scalar_charpoly(&field, scalar), vec![9, 95, 1]);
+        assert_eq!(scalar_charpoly(&words, scalar.clone()), vec![9, 95, 1]);
+        assert_eq!(scalar_charpoly(&generic, scalar), vec![9, 95, 1]);
+    }
+
+    fn random_matrix(
+        rng: &mut crate::normalization::changes::Rng,
+        size: usize,
+        p: u64,
+        sparse: bool,
+    ) -> Vec<Vec<u64>> {
+        (0..size)
+            .map(|_| {
+                (0..size)
+                    .map(|_| {
+                        if sparse && !rng.next_u64().is_multiple_of(3) {
+                            0
+                        } else {
+                            rng.next_u64() % p
+                        }
+                    })
+                    .collect()
+            })
+            .collect()
+    }
+
+    /// Word arithmetic over GF(4294967291) (2^32 - 5, the largest prime below 2^32) gives the
+    /// same characteristic polynomials as the field's own arithmetic on random 30 × 30 matrices,
+    /// the size of the batch benchmark's multiplication matrices.
+    #[test]
+    fn words_agree_with_the_field_near_two_to_the_32() {
+        let p = 4_294_967_291;
+        let field = PrimeField::new(p).unwrap();
+        let words = Words::new(&field).unwrap();
+        let mut rng = crate::normalization::changes::Rng::new(17);
+        for sparse in [false, true] {
+            let a = random_matrix(&mut rng, 30, p, sparse);
+            let expected = hessenberg_charpoly(&Generic(&field), a.clone());
+            assert_eq!(scalar_charpoly(&words, a.clone()), expected);
+            assert_eq!(hessenberg_charpoly(&words, a), expected);
+        }
+    }
+
+    /// A textbook example: [[2, 1], [1, 2]] has eigenvalues 1 and 3, so det(x·Id - A) =
+    /// x^2 - 4x + 3 (Strang, *Linear Algebra and Its Applications*, §5.1); over GF(4294967291)
+    /// that is [3, p - 4, 1]. And a triangular matrix has the product of (x - a_ii).
+    #[test]
+    fn textbook_characteristic_polynomials_in_words() {
+        let p = 4_294_967_291;
+        let field = PrimeField::new(p).unwrap();
+        let words = Words::new(&field).unwrap();
+        assert_eq!(
+            scalar_charpoly(&words, vec![vec![2, 1], vec![1, 2]]),
+            vec![3, p - 4, 1]
+        );
+        // (x - 1)(x - 2)(x - 5) = x^3 - 8x^2 + 17x - 10.
+        let upper = vec![vec![1, 7, 9], vec![0, 2, 4], vec![0, 0, 5]];
+        assert_eq!(scalar_charpoly(&words, upper), vec![p - 10, 17, p - 8, 1]);
     }
 
     #[test]

@@ -24,6 +24,7 @@ pub mod changes;
 pub mod charpoly;
 pub mod finiteness;
 pub mod nagata;
+pub mod scalars;
 
 #[cfg(test)]
 mod tests;

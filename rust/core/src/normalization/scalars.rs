@@ -1,0 +1,186 @@
+//! The arithmetic of the scalar loops of the characteristic polynomial (Krylov, Hessenberg,
+//! interpolation): either the generic [`Field`] interface, or residues modulo a prime p < 2^32
+//! held in machine words, where a product fits 64 bits and `acc ± a·b` needs one reduction
+//! instead of two (Barrett reduction: Barrett 1987; Menezes, van Oorschot and Vanstone,
+//! *Handbook of Applied Cryptography*, 1996, Algorithm 14.42). The loops are written once,
+//! generic over [`Scalars`]; values are converted once at the boundary.
+
+use crate::field::{Field, PrimeField};
+
+/// What the scalar loops compute with, and the conversions from and to the field `F`.
+pub trait Scalars {
+    type Base: Field;
+    type E: Clone + PartialEq + std::fmt::Debug;
+
+    fn zero(&self) -> Self::E;
+    fn one(&self) -> Self::E;
+    fn is_zero(&self, a: &Self::E) -> bool;
+    fn add(&self, a: &Self::E, b: &Self::E) -> Self::E;
+    fn sub(&self, a: &Self::E, b: &Self::E) -> Self::E;
+    fn neg(&self, a: &Self::E) -> Self::E;
+    fn mul(&self, a: &Self::E, b: &Self::E) -> Self::E;
+    /// The inverse, or `None` for zero.
+    fn inv(&self, a: &Self::E) -> Option<Self::E>;
+    /// acc + a·b.
+    fn mul_add(&self, acc: &Self::E, a: &Self::E, b: &Self::E) -> Self::E {
+        self.add(acc, &self.mul(a, b))
+    }
+    /// acc - a·b.
+    fn mul_sub(&self, acc: &Self::E, a: &Self::E, b: &Self::E) -> Self::E {
+        self.sub(acc, &self.mul(a, b))
+    }
+    fn import(&self, a: &<Self::Base as Field>::Elem) -> Self::E;
+    fn export(&self, a: &Self::E) -> <Self::Base as Field>::Elem;
+}
+
+/// The field's own arithmetic: works for every field.
+pub struct Generic<'a, F: Field>(pub &'a F);
+
+impl<F: Field> Scalars for Generic<'_, F> {
+    type Base = F;
+    type E = F::Elem;
+
+    fn zero(&self) -> F::Elem {
+        self.0.zero()
+    }
+    fn one(&self) -> F::Elem {
+        self.0.one()
+    }
+    fn is_zero(&self, a: &F::Elem) -> bool {
+        self.0.is_zero(a)
+    }
+    fn add(&self, a: &F::Elem, b: &F::Elem) -> F::Elem {
+        self.0.add(a, b)
+    }
+    fn sub(&self, a: &F::Elem, b: &F::Elem) -> F::Elem {
+        self.0.sub(a, b)
+    }
+    fn neg(&self, a: &F::Elem) -> F::Elem {
+        self.0.neg(a)
+    }
+    fn mul(&self, a: &F::Elem, b: &F::Elem) -> F::Elem {
+        self.0.mul(a, b)
+    }
+    fn inv(&self, a: &F::Elem) -> Option<F::Elem> {
+        self.0.inv(a)
+    }
+    fn import(&self, a: &F::Elem) -> F::Elem {
+        a.clone()
+    }
+    fn export(&self, a: &F::Elem) -> F::Elem {
+        a.clone()
+    }
+}
+
+/// Residues in [0, p) of a prime field GF(p) with p < 2^32, through the field's
+/// [`Field::to_word`] and [`Field::from_word`]; sums and inverses as in [`PrimeField`].
+pub struct Words<'a, F: Field> {
+    field: &'a F,
+    prime: PrimeField,
+    p: u64,
+    /// ⌊2^64 / p⌋, so that ⌊x·m / 2^64⌋ is ⌊x / p⌋ or one less for every x < 2^64.
+    m: u64,
+}
+
+impl<'a, F: Field> Words<'a, F> {
+    /// `Some` when the field is GF(p) with 2 < p < 2^32 held as words.
+    pub fn new(field: &'a F) -> Option<Self> {
+        let p = field.word_modulus().filter(|&p| p > 2 && p < 1 << 32)?;
+        Some(Words {
+            field,
+            prime: PrimeField::new(p).ok()?,
+            p,
+            m: u64::MAX / p,
+        })
+    }
+
+    /// x mod p for any x < 2^64.
+    #[inline]
+    fn reduce(&self, x: u64) -> u64 {
+        let q = ((u128::from(x) * u128::from(self.m)) >> 64) as u64;
+        let r = x - q * self.p;
+        if r >= self.p {
+            r - self.p
+        } else {
+            r
+        }
+    }
+}
+
+impl<F: Field> Scalars for Words<'_, F> {
+    type Base = F;
+    type E = u64;
+
+    fn zero(&self) -> u64 {
+        0
+    }
+    fn one(&self) -> u64 {
+        1
+    }
+    fn is_zero(&self, a: &u64) -> bool {
+        *a == 0
+    }
+    fn add(&self, a: &u64, b: &u64) -> u64 {
+        self.prime.add(a, b)
+    }
+    fn sub(&self, a: &u64, b: &u64) -> u64 {
+        self.prime.sub(a, b)
+    }
+    fn neg(&self, a: &u64) -> u64 {
+        self.prime.neg(a)
+    }
+    #[inline]
+    fn mul(&self, a: &u64, b: &u64) -> u64 {
+        self.reduce(a * b)
+    }
+    fn inv(&self, a: &u64) -> Option<u64> {
+        self.prime.inv(a)
+    }
+    /// acc + a·b < p + (p-1)^2 < 2^64: one reduction.
+    #[inline]
+    fn mul_add(&self, acc: &u64, a: &u64, b: &u64) -> u64 {
+        self.reduce(acc + a * b)
+    }
+    /// acc + a·(p - b) ≡ acc - a·b, and it stays below p + (p-1)·p < 2^64: one reduction.
+    #[inline]
+    fn mul_sub(&self, acc: &u64, a: &u64, b: &u64) -> u64 {
+        self.reduce(acc + a * (self.p - b))
+    }
+    fn import(&self, a: &F::Elem) -> u64 {
+        self.field.to_word(a)
+    }
+    fn export(&self, a: &u64) -> F::Elem {
+        self.field.from_word(*a)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::field::PrimeField;
+
+    /// Every operation on words agrees with the prime field's own on random residues of the
+    /// largest prime below 2^32, 4294967291 (a handbook fact: 2^32 - 5 is prime), and of 7.
+    #[test]
+    fn words_agree_with_the_field() {
+        let mut rng = crate::normalization::changes::Rng::new(11);
+        for p in [7u64, 4_294_967_291] {
+            let field = PrimeField::new(p).unwrap();
+            let words = Words::new(&field).unwrap();
+            let generic = Generic(&field);
+            let mut samples: Vec<u64> = (0..200).map(|_| rng.next_u64() % p).collect();
+            samples.extend([0, 1, p - 1, p - 2]);
+            for (i, a) in samples.iter().enumerate() {
+                let b = &samples[(i * 7 + 3) % samples.len()];
+                let c = &samples[(i * 13 + 5) % samples.len()];
+                assert_eq!(words.mul(a, b), generic.mul(a, b), "{a}·{b} mod {p}");
+                assert_eq!(words.mul_add(c, a, b), generic.mul_add(c, a, b));
+                assert_eq!(words.mul_sub(c, a, b), generic.mul_sub(c, a, b));
+                assert_eq!(words.sub(a, b), generic.sub(a, b));
+                assert_eq!(words.neg(a), generic.neg(a));
+                assert_eq!(words.inv(a), generic.inv(a));
+            }
+        }
+        assert!(Words::new(&PrimeField::new(2).unwrap()).is_none());
+    }
+}
