@@ -67,24 +67,18 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
         }
     }
 
-    /// Eliminates, left to right from column `from`, every entry whose column has a pivot.
-    /// With `stop_at_free`, stops at the first nonzero entry without a pivot and returns its
-    /// column; otherwise leaves such entries (settled) and returns `None`.
+    /// Eliminates, left to right from column `from`, every entry whose column has a pivot, up to
+    /// the first nonzero entry without a pivot; returns that entry's column (`None`: the row is
+    /// zero from `from` on).
     fn sweep<'r>(
         &mut self,
         from: usize,
         pivot_of: &impl Fn(usize) -> Option<&'r Row<A::C>>,
-        stop_at_free: bool,
     ) -> Option<usize>
     where
         A::C: 'r,
     {
-        for k in from..self.acc.len() {
-            if self.eliminate(k, pivot_of) == Entry::Free && stop_at_free {
-                return Some(k);
-            }
-        }
-        None
+        (from..self.acc.len()).find(|&k| self.eliminate(k, pivot_of) == Entry::Free)
     }
 
     /// Clears column `k` with its pivot if it has one; says what the column holds afterwards.
@@ -235,7 +229,7 @@ fn echelonize<F: Field, A: Arith<F>>(
             let before = dense.multiply_adds;
             let mut from = row.cols[0] as usize;
             let is_zero = loop {
-                let Some(k) = dense.sweep(from, &pivot_of, true) else {
+                let Some(k) = dense.sweep(from, &pivot_of) else {
                     break true;
                 };
                 let inv = arith.inv(&arith.settle(&dense.acc[k]));
