@@ -301,3 +301,14 @@ def test_check_outcomes_in_either_shape():
     assert verdict([]) == (True, [])
     assert verdict(False) == (False, ["the certificate does not hold"])
     assert verdict(["rank 4 claimed, 3 found"]) == (False, ["rank 4 claimed, 3 found"])
+
+
+def test_basis_engine_choice():
+    # The sampled engine returns the same reduced basis as the default one (the lex basis whose
+    # roots are the cipher keys, checked by brute force above); an unknown engine is a usage error.
+    default = fibrewise_json("basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex")
+    sampled = fibrewise_json("basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex", "--engine", "f4-sampled")
+    assert sampled["basis"] == default["basis"]
+    assert sampled["stats"]["engine"] == "f4-sampled" and default["stats"]["engine"] == "f4"
+    done = fibrewise("basis", EXAMPLES / "toy_cipher_gf101.txt", "--engine", "f5")
+    assert done.returncode == 2 and "f4-sampled" in done.stderr

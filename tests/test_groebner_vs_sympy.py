@@ -42,3 +42,35 @@ def test_same_reduced_basis_as_sympy(seed, p, order, nvars):
     ours = our_basis(texts, nvars, p, order)
     theirs = sympy_basis(texts, nvars, p, order)
     assert ours == theirs, f"{texts} over GF({p}), {order}"
+
+
+def test_sampled_engine_on_katsura_matches_sympy_and_the_published_count():
+    # katsura-4 (small enough for sympy; its matrices are so small that the sampled engine
+    # reduces them exactly) and katsura-7 (whose larger matrices it samples, so fewer rows end up
+    # reduced to zero): the sampled engine's basis equals sympy's and the exact engine's;
+    # katsura-n has 2^n solutions counted with multiplicity (Katsura 1990, from memory).
+    from systems import katsura
+
+    names, eqs = katsura(4)
+    R = fw.PolynomialRing(32003, names, order="grevlex")
+    gb = R.ideal(eqs).groebner_basis(engine="f4-sampled")
+    assert gb.stats.engine == "f4-sampled"
+    ours = {frozenset((tuple(e), c % 32003) for e, c in g.terms()) for g in gb}
+    gens = sympy.symbols(names)
+    theirs = sympy.groebner([sympy.sympify(t) for t in eqs], *gens, modulus=32003, order="grevlex")
+    assert ours == {frozenset((tuple(m), int(c) % 32003) for m, c in sympy.Poly(g, *gens, modulus=32003).terms())
+                    for g in theirs.exprs}
+
+    names, eqs = katsura(7)
+    ideal = fw.PolynomialRing(32003, names, order="grevlex").ideal(eqs)
+    sampled = ideal.groebner_basis(engine="f4-sampled")
+    exact = ideal.groebner_basis(engine="f4")
+    assert list(map(str, sampled)) == list(map(str, exact))
+    assert sampled.stats.zero_reductions < exact.stats.zero_reductions
+    assert ideal.degree() == 2**7
+
+
+def test_unknown_engine_is_refused_with_the_choices():
+    R = fw.PolynomialRing(7, "x, y")
+    with pytest.raises(ValueError, match="f4-sampled"):
+        R.ideal(["x*y - 1"]).groebner_basis(engine="f5")

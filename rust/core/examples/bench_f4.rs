@@ -70,7 +70,11 @@ fn peak_memory_mb() -> f64 {
 }
 
 /// Runs one system and prints one tab-separated result line.
-fn run_one(name: &str, threads: usize) -> Result<(), String> {
+fn run_one(label: &str, threads: usize) -> Result<(), String> {
+    let (name, sampled) = match label.strip_suffix("~s") {
+        Some(name) => (name, true),
+        None => (label, false),
+    };
     let sys = system(name).ok_or_else(|| format!("unknown system {name}"))?;
     let field = PrimeField::new(PRIME).map_err(|e| e.to_string())?;
     let ring =
@@ -79,7 +83,12 @@ fn run_one(name: &str, threads: usize) -> Result<(), String> {
     let mut control = Control::new();
     control.limits.threads = Some(threads);
     let clock = Instant::now();
-    let gb = groebner_basis(&ring, &gens, Engine::F4, &control).map_err(|e| e.to_string())?;
+    let engine = if sampled {
+        Engine::F4Sampled
+    } else {
+        Engine::F4
+    };
+    let gb = groebner_basis(&ring, &gens, engine, &control).map_err(|e| e.to_string())?;
     let seconds = clock.elapsed().as_secs_f64();
     let s = &gb.stats;
     if std::env::var_os("BENCH_VERBOSE").is_some() {
@@ -108,7 +117,7 @@ fn run_one(name: &str, threads: usize) -> Result<(), String> {
     let la: f64 = s.steps.iter().map(|st| st.seconds_linear_algebra).sum();
     let madds: u64 = s.steps.iter().map(|st| st.multiply_adds).sum();
     println!(
-        "{name}\t{threads}\t{seconds:.3}\t{:.0}\t{}\t{}\t{}x{}\t{}\t{:.0}%\t{:.2e}\t{}",
+        "{label}\t{threads}\t{seconds:.3}\t{:.0}\t{}\t{}\t{}x{}\t{}\t{:.0}%\t{:.2e}\t{}",
         peak_memory_mb(),
         s.steps.len(),
         s.max_degree(),

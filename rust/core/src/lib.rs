@@ -29,6 +29,7 @@ pub mod order;
 pub mod parse;
 pub mod points;
 pub mod poly;
+pub mod rng;
 pub mod systems;
 pub mod zerodim;
 

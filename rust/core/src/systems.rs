@@ -11,6 +11,7 @@ use crate::error::Result;
 use crate::field::Field;
 use crate::parse::parse_poly;
 use crate::poly::{Poly, Ring};
+use crate::rng::Rng;
 
 /// Variable names and equations (each polynomial = 0) of a system.
 #[derive(Clone, Debug, PartialEq, Eq)]
@@ -126,17 +127,11 @@ pub fn noon(n: usize) -> System {
 }
 
 /// m dense quadratic polynomials in n variables (every monomial of degree ≤ 2), coefficients
-/// pseudo-random integers in [0, 2^31) from `seed` (splitmix64), so generic over any large field.
+/// pseudo-random integers in [0, 2^31) from `seed`, so generic over any large field.
 pub fn random_quadratic(n: usize, m: usize, seed: u64) -> System {
     let vars = names("x", 0..n);
-    let mut state = seed;
-    let mut next = || {
-        state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
-        let mut z = state;
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        (z ^ (z >> 31)) >> 33
-    };
+    let mut rng = Rng::with_state(seed);
+    let mut next = || rng.next_u64() >> 33;
     let mut monomials: Vec<String> = Vec::new();
     for i in 0..n {
         for j in i..n {

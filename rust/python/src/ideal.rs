@@ -20,9 +20,10 @@ pub fn engine_by_name(name: &str) -> PyResult<Engine> {
     match name {
         "buchberger" => Ok(Engine::Buchberger),
         "f4" => Ok(Engine::F4),
+        "f4-sampled" => Ok(Engine::F4Sampled),
         "auto" => Ok(Engine::default()),
         other => Err(PyValueError::new_err(format!(
-            "unknown engine '{other}': expected auto, f4 or buchberger"
+            "unknown engine '{other}': expected auto, f4, f4-sampled or buchberger"
         ))),
     }
 }

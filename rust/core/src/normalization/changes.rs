@@ -13,6 +13,7 @@ use crate::error::Result;
 use crate::field::Field;
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
+pub use crate::rng::{field_size, Rng};
 
 /// Parameters p_j = x_{params[j]} + shifts[j], with `shifts[j]` a polynomial in the variables
 /// `nonparams` only (indices of the original ring).
@@ -128,39 +129,6 @@ impl<F: Field> Coordinates<F> {
             .map(|g| ring.substitute(g, &self.images, target))
             .collect()
     }
-}
-
-/// A small seeded generator (SplitMix64, Steele, Lea and Flood 2014): every random choice of the
-/// search goes through it, so a seed reproduces the whole run.
-#[derive(Clone, Debug)]
-pub struct Rng(u64);
-
-impl Rng {
-    pub fn new(seed: u64) -> Self {
-        Rng(seed ^ 0x6a09_e667_f3bc_c908)
-    }
-    pub fn next_u64(&mut self) -> u64 {
-        self.0 = self.0.wrapping_add(0x9e37_79b9_7f4a_7c15);
-        let mut z = self.0;
-        z = (z ^ (z >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
-        z ^ (z >> 31)
-    }
-    /// A nonzero field element. Finite fields: uniform among the nonzero elements (up to
-    /// 2^62); infinite fields: a small integer in ±1..±16, so certificates stay readable.
-    pub fn nonzero<F: Field>(&mut self, field: &F) -> F::Elem {
-        let count = field_size(field).map_or(32, |q| q.min(1 << 62));
-        // element_from_index runs through 0, 1, ... so index 0 (zero) is skipped.
-        field.element_from_index(1 + self.next_u64() % (count - 1))
-    }
-}
-
-/// Number of field elements when it fits 64 bits.
-pub fn field_size<F: Field>(field: &F) -> Option<u64> {
-    field
-        .order()
-        .and_then(|q| q.parse().ok())
-        .or_else(|| field.order().map(|_| u64::MAX))
 }
 
 /// Sparse unit-triangular linear change: each parameter x_{s_j} is shifted by c·x_b for one

@@ -13,6 +13,7 @@
 //! - any other field: the field's own elements and operations.
 
 use crate::field::Field;
+use crate::rng::field_size;
 use std::marker::PhantomData;
 
 /// The arithmetic one matrix computation runs on. `axpy` expects strictly increasing columns.
@@ -30,6 +31,7 @@ pub trait Arith<F: Field>: Send + Sync {
     /// The canonical coefficient an accumulator entry stands for.
     fn settle(&self, a: &Self::A) -> Self::C;
     fn is_zero(&self, c: &Self::C) -> bool;
+    fn zero(&self) -> Self::C;
     fn one(&self) -> Self::C;
     fn mul(&self, a: &Self::C, b: &Self::C) -> Self::C;
     /// Inverse of a nonzero coefficient.
@@ -37,12 +39,40 @@ pub trait Arith<F: Field>: Send + Sync {
     fn neg(&self, a: &Self::C) -> Self::C;
     /// acc[cols[k]] += m · coeffs[k] for every k.
     fn axpy(&self, acc: &mut [Self::A], cols: &[u32], coeffs: &[Self::C], m: &Self::C);
+    /// acc[cols[k]·LANES + j] += m[j] · coeffs[k] for every k and lane j: the interleaved
+    /// accumulator of LANES rows reduced together, so one pivot entry updates one cache line.
+    fn axpy_lanes(
+        &self,
+        acc: &mut [Self::A],
+        cols: &[u32],
+        coeffs: &[Self::C],
+        m: &[Self::C; LANES],
+    );
     /// How many `axpy` calls an entry survives before `normalize` must run.
     fn headroom(&self) -> u64 {
         u64::MAX
     }
     /// Brings accumulator entries back into their canonical range.
     fn normalize(&self, _acc: &mut [Self::A]) {}
+    /// Size of the set `element` draws from (all elements, or the first 2^63 of a larger
+    /// field); `None` for an infinite field.
+    fn sample_space(&self) -> Option<u64>;
+    /// The element of index `i` < `sample_space()`.
+    fn element(&self, i: u64) -> Self::C;
+}
+
+/// Rows reduced together in one interleaved accumulator (see `Arith::axpy_lanes`).
+pub const LANES: usize = 8;
+
+/// Checks what the unchecked kernels rely on: increasing columns, the last inside `acc`.
+#[inline]
+fn check_row<T, C>(acc: &[T], lanes: usize, cols: &[u32], coeffs: &[C]) {
+    debug_assert!(cols.windows(2).all(|w| w[0] < w[1]));
+    assert!(
+        cols.last()
+            .is_none_or(|&c| (c as usize + 1) * lanes <= acc.len())
+            && coeffs.len() >= cols.len()
+    );
 }
 
 /// Storage types for residues.
@@ -85,6 +115,92 @@ fn inv_mod(a: u64, p: u64) -> u64 {
     t0.rem_euclid(p as i128) as u64
 }
 
+/// The widest vector instructions this CPU offers for the lane kernels (x86-64 builds target
+/// the baseline instruction set; wider units are used when present, detected at run time).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Vector {
+    Baseline,
+    #[cfg_attr(not(target_arch = "x86_64"), allow(dead_code))]
+    Avx2,
+    #[cfg_attr(not(target_arch = "x86_64"), allow(dead_code))]
+    Avx512,
+}
+
+impl Vector {
+    fn detect() -> Self {
+        #[cfg(target_arch = "x86_64")]
+        {
+            if std::arch::is_x86_feature_detected!("avx512f") {
+                return Vector::Avx512;
+            }
+            if std::arch::is_x86_feature_detected!("avx2") {
+                return Vector::Avx2;
+            }
+        }
+        Vector::Baseline
+    }
+}
+
+/// The LANES entries of column `c` in an interleaved accumulator.
+///
+/// # Safety
+/// (c + 1) · LANES ≤ the accumulator's length, and no other reference to those entries lives.
+#[inline(always)]
+unsafe fn lane_slot<'a>(base: *mut u64, c: u32) -> &'a mut [u64; LANES] {
+    &mut *(base.add(c as usize * LANES) as *mut [u64; LANES])
+}
+
+/// `axpy_lanes` without any reduction (p < 2^21: see `SmallPrime::headroom`).
+#[inline(always)]
+fn lanes_lazy<W: Word>(acc: &mut [u64], cols: &[u32], coeffs: &[W], m: &[u32; LANES]) {
+    let base = acc.as_mut_ptr();
+    for (&c, x) in cols.iter().zip(coeffs) {
+        // SAFETY: checked by the caller (`check_row`); one slot at a time.
+        let (slot, x) = (unsafe { lane_slot(base, c) }, x.get() as u32 as u64);
+        for j in 0..LANES {
+            slot[j] += m[j] as u64 * x;
+        }
+    }
+}
+
+/// `lanes_lazy` compiled for AVX2.
+///
+/// # Safety
+/// The CPU supports AVX2; the row was checked by `check_row`.
+#[cfg(target_arch = "x86_64")]
+#[target_feature(enable = "avx2")]
+unsafe fn lanes_lazy_avx2<W: Word>(acc: &mut [u64], cols: &[u32], coeffs: &[W], m: &[u32; LANES]) {
+    lanes_lazy(acc, cols, coeffs, m)
+}
+
+/// `lanes_lazy` compiled for AVX-512.
+///
+/// # Safety
+/// The CPU supports AVX-512F; the row was checked by `check_row`.
+#[cfg(target_arch = "x86_64")]
+#[target_feature(enable = "avx512f")]
+unsafe fn lanes_lazy_avx512<W: Word>(
+    acc: &mut [u64],
+    cols: &[u32],
+    coeffs: &[W],
+    m: &[u32; LANES],
+) {
+    lanes_lazy(acc, cols, coeffs, m)
+}
+
+/// `axpy_lanes` keeping every entry below p^2 by a conditional subtraction.
+fn lanes_reduced<W: Word>(acc: &mut [u64], cols: &[u32], coeffs: &[W], m: &[u32; LANES], p2: u64) {
+    let base = acc.as_mut_ptr();
+    for (&c, x) in cols.iter().zip(coeffs) {
+        // SAFETY: checked by the caller (`check_row`); one slot at a time.
+        let (slot, x) = (unsafe { lane_slot(base, c) }, x.get() as u32 as u64);
+        for j in 0..LANES {
+            let v = slot[j] + m[j] as u64 * x;
+            slot[j] = v.min(v.wrapping_sub(p2));
+        }
+    }
+}
+
 /// GF(p) for p < 2^31 with coefficients stored as `W` and a u64 accumulator.
 pub struct SmallPrime<W> {
     p: u64,
@@ -92,6 +208,7 @@ pub struct SmallPrime<W> {
     /// No reduction during accumulation (p < 2^21); otherwise conditional subtraction of p^2.
     lazy: bool,
     headroom: u64,
+    vector: Vector,
     _w: PhantomData<W>,
 }
 
@@ -106,6 +223,7 @@ impl<W: Word> SmallPrime<W> {
             p2: p * p,
             lazy,
             headroom,
+            vector: Vector::detect(),
             _w: PhantomData,
         }
     }
@@ -139,6 +257,9 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
     #[inline]
     fn is_zero(&self, c: &W) -> bool {
         c.get() == 0
+    }
+    fn zero(&self) -> W {
+        W::from_u64(0)
     }
     fn one(&self) -> W {
         W::from_u64(1)
@@ -196,6 +317,24 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
             }
         }
     }
+    #[inline]
+    fn axpy_lanes(&self, acc: &mut [u64], cols: &[u32], coeffs: &[W], m: &[W; LANES]) {
+        check_row(acc, LANES, cols, coeffs);
+        // Residues below 2^31: the products are 32 × 32-bit, which vectorizes.
+        let m: [u32; LANES] = m.map(|x| x.get() as u32);
+        if !self.lazy {
+            lanes_reduced(acc, cols, coeffs, &m, self.p2);
+            return;
+        }
+        #[cfg(target_arch = "x86_64")]
+        match self.vector {
+            // SAFETY: the CPU has the feature (detected at construction).
+            Vector::Avx512 => return unsafe { lanes_lazy_avx512(acc, cols, coeffs, &m) },
+            Vector::Avx2 => return unsafe { lanes_lazy_avx2(acc, cols, coeffs, &m) },
+            Vector::Baseline => {}
+        }
+        lanes_lazy(acc, cols, coeffs, &m);
+    }
     fn headroom(&self) -> u64 {
         self.headroom
     }
@@ -203,6 +342,12 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
         for a in acc {
             *a %= self.p;
         }
+    }
+    fn sample_space(&self) -> Option<u64> {
+        Some(self.p)
+    }
+    fn element(&self, i: u64) -> W {
+        W::from_u64(i)
     }
 }
 
@@ -250,6 +395,9 @@ impl<F: Field> Arith<F> for LargePrime {
     fn is_zero(&self, c: &u64) -> bool {
         *c == 0
     }
+    fn zero(&self) -> u64 {
+        0
+    }
     fn one(&self) -> u64 {
         1
     }
@@ -275,6 +423,23 @@ impl<F: Field> Arith<F> for LargePrime {
             let v = acc[c as usize] + m * x as u128;
             acc[c as usize] = v.min(v.wrapping_sub(p2));
         }
+    }
+    fn axpy_lanes(&self, acc: &mut [u128], cols: &[u32], coeffs: &[u64], m: &[u64; LANES]) {
+        check_row(acc, LANES, cols, coeffs);
+        let p2 = self.p2;
+        for (&c, &x) in cols.iter().zip(coeffs) {
+            let slot = &mut acc[c as usize * LANES..][..LANES];
+            for (a, &mj) in slot.iter_mut().zip(m) {
+                let v = *a + mj as u128 * x as u128;
+                *a = v.min(v.wrapping_sub(p2));
+            }
+        }
+    }
+    fn sample_space(&self) -> Option<u64> {
+        Some(self.p)
+    }
+    fn element(&self, i: u64) -> u64 {
+        i
     }
 }
 
@@ -313,6 +478,9 @@ impl<F: Field> Arith<F> for Generic<F> {
     fn is_zero(&self, c: &F::Elem) -> bool {
         self.field.is_zero(c)
     }
+    fn zero(&self) -> F::Elem {
+        self.field.zero()
+    }
     fn one(&self) -> F::Elem {
         self.field.one()
     }
@@ -330,6 +498,30 @@ impl<F: Field> Arith<F> for Generic<F> {
             let slot = &mut acc[c as usize];
             *slot = self.field.add(slot, &self.field.mul(m, x));
         }
+    }
+    fn axpy_lanes(
+        &self,
+        acc: &mut [F::Elem],
+        cols: &[u32],
+        coeffs: &[F::Elem],
+        m: &[F::Elem; LANES],
+    ) {
+        check_row(acc, LANES, cols, coeffs);
+        for (j, mj) in m.iter().enumerate() {
+            if self.field.is_zero(mj) {
+                continue;
+            }
+            for (&c, x) in cols.iter().zip(coeffs) {
+                let slot = &mut acc[c as usize * LANES + j];
+                *slot = self.field.add(slot, &self.field.mul(mj, x));
+            }
+        }
+    }
+    fn sample_space(&self) -> Option<u64> {
+        field_size(&self.field).map(|q| q.min(1 << 63))
+    }
+    fn element(&self, i: u64) -> F::Elem {
+        self.field.element_from_index(i)
     }
 }
 

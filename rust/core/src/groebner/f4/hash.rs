@@ -6,10 +6,15 @@
 //! 64-bit divisibility mask: one bit per (variable, threshold), set when the exponent exceeds the
 //! threshold, so `mask(a) & !mask(b) != 0` proves that a does not divide b without reading the
 //! exponents; divisor searches mostly stop there.
+//!
+//! With at most 16 variables and degrees below 256 (nearly every F4 run), each monomial is also
+//! kept packed, one byte per exponent in a u128: a product is then one 128-bit addition (no byte
+//! can carry when the degrees sum below 256) and a comparison one 128-bit equality.
 
 use crate::error::{Error, Result};
 use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
+use crate::rng::Rng;
 use std::cmp::Ordering;
 
 pub struct MonomialTable {
@@ -21,6 +26,8 @@ pub struct MonomialTable {
     exps: Vec<u32>,
     hashes: Vec<u64>,
     masks: Vec<u64>,
+    /// Packed exponents of every monomial (see the module doc), while every monomial fits.
+    packed: Option<Vec<u128>>,
     /// Open addressing: a slot holds the upper half of the hash above index + 1 (0 when empty),
     /// so most mismatches are rejected without reading the monomial. Length is a power of two.
     slots: Vec<u64>,
@@ -32,9 +39,9 @@ pub struct MonomialTable {
 
 impl MonomialTable {
     pub fn new(nvars: usize, order: MonomialOrder) -> Self {
-        // Fixed pseudo-random weights (splitmix64): runs are reproducible.
-        let mut state = 0x9E37_79B9_7F4A_7C15u64;
-        let weights = (0..nvars).map(|_| splitmix(&mut state)).collect();
+        // Fixed pseudo-random weights: runs are reproducible.
+        let mut rng = Rng::with_state(0x9E37_79B9_7F4A_7C15);
+        let weights = (0..nvars).map(|_| rng.next_u64()).collect();
         MonomialTable {
             nvars,
             order,
@@ -42,6 +49,7 @@ impl MonomialTable {
             exps: Vec::new(),
             hashes: Vec::new(),
             masks: Vec::new(),
+            packed: (nvars <= PACKED_VARS).then(Vec::new),
             slots: vec![0; 1 << 12],
             weights,
             mask_bits: mask_layout(nvars),
@@ -116,6 +124,9 @@ impl MonomialTable {
 
     /// Index of the product a·b; `Overflow` when an exponent or the degree exceeds u32.
     pub fn mul(&mut self, a: u32, b: u32) -> Result<u32> {
+        if let Some(Ok(i)) = self.probe_packed_product(a, b) {
+            return Ok(i);
+        }
         let n = self.nvars;
         let (sa, sb) = (a as usize * n, b as usize * n);
         let (ea, eb) = (&self.exps[sa..sa + n], &self.exps[sb..sb + n]);
@@ -161,6 +172,9 @@ impl MonomialTable {
     /// Index of the product a·b if the table holds it already. Reads only, so threads may
     /// share the table; `buf` is the caller's scratch.
     pub fn find_product(&self, a: u32, b: u32, buf: &mut Vec<u32>) -> Option<u32> {
+        if let Some(found) = self.probe_packed_product(a, b) {
+            return found.ok();
+        }
         buf.clear();
         let (ea, eb) = (self.exps_of(a), self.exps_of(b));
         for (&x, &y) in ea.iter().zip(eb) {
@@ -183,6 +197,13 @@ impl MonomialTable {
     /// would go.
     #[inline]
     fn probe(&self, exps: &[u32], h: u64) -> std::result::Result<u32, usize> {
+        self.probe_by(h, |i| self.exps_of(i) == exps)
+    }
+
+    /// The index of the monomial with hash `h` that `is_it` accepts, or the empty slot where it
+    /// would go (linear probing; the hash tag screens out most other monomials unread).
+    #[inline(always)]
+    fn probe_by(&self, h: u64, is_it: impl Fn(u32) -> bool) -> std::result::Result<u32, usize> {
         let mask = self.slots.len() - 1;
         let mut pos = Self::home_slot(h, self.slots.len());
         let tag = h & TAG_MASK;
@@ -191,14 +212,24 @@ impl MonomialTable {
             if slot == 0 {
                 return Err(pos);
             }
-            if slot & TAG_MASK == tag {
-                let i = (slot as u32) - 1;
-                if self.exps_of(i).iter().zip(exps).all(|(a, b)| a == b) {
-                    return Ok(i);
-                }
+            if slot & TAG_MASK == tag && is_it((slot as u32) - 1) {
+                return Ok((slot as u32) - 1);
             }
             pos = (pos + 1) & mask;
         }
+    }
+
+    /// The product a·b probed by its packed form: `None` when packing does not apply to it,
+    /// else what `probe` would say.
+    #[inline]
+    fn probe_packed_product(&self, a: u32, b: u32) -> Option<std::result::Result<u32, usize>> {
+        let packed = self.packed.as_ref()?;
+        if self.degree(a) + self.degree(b) > PACKED_MAX_DEGREE {
+            return None;
+        }
+        let key = packed[a as usize] + packed[b as usize];
+        let h = self.hashes[a as usize].wrapping_add(self.hashes[b as usize]);
+        Some(self.probe_by(h, |i| packed[i as usize] == key))
     }
 
     /// Finds or inserts the monomial in `scratch` whose hash is `h`.
@@ -214,6 +245,12 @@ impl MonomialTable {
             .filter(|&i| i < u32::MAX)
             .ok_or_else(|| Error::ResourceLimit("more than 2^32 - 1 distinct monomials".into()))?;
         self.masks.push(self.mask_of(m.exponents()));
+        if m.degree() > PACKED_MAX_DEGREE {
+            self.packed = None;
+        }
+        if let Some(packed) = &mut self.packed {
+            packed.push(pack(&self.scratch));
+        }
         self.exps.extend_from_slice(&self.scratch);
         self.monos.push(m);
         self.hashes.push(h);
@@ -246,19 +283,22 @@ impl MonomialTable {
     }
 }
 
+/// Most variables whose exponents are also kept packed, and the highest degree they may have.
+const PACKED_VARS: usize = 16;
+const PACKED_MAX_DEGREE: u32 = 255;
+
+/// One byte per exponent (each at most PACKED_MAX_DEGREE), variable i in byte i.
+fn pack(exps: &[u32]) -> u128 {
+    exps.iter()
+        .enumerate()
+        .fold(0u128, |acc, (i, &e)| acc | (e as u128) << (8 * i))
+}
+
 /// The bits of a slot that hold the hash tag (the index + 1 takes the lower 32).
 const TAG_MASK: u64 = !0u64 << 32;
 
 fn overflow() -> Error {
     Error::Overflow("exponent overflow: a degree exceeds 2^32 - 1".into())
-}
-
-fn splitmix(state: &mut u64) -> u64 {
-    *state = state.wrapping_add(0x9E37_79B9_7F4A_7C15);
-    let mut z = *state;
-    z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-    z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-    z ^ (z >> 31)
 }
 
 /// Up to 64 mask bits: with few variables several thresholds (0, 1, 3, 7, ...) per variable,

@@ -12,6 +12,7 @@ pub mod arith;
 pub mod hash;
 pub mod linalg;
 pub mod parallel;
+pub mod sampled;
 pub mod symbolic;
 
 #[cfg(test)]
@@ -25,6 +26,7 @@ use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::monomial::Monomial;
 use crate::poly::{Poly, Ring};
+use crate::rng::Rng;
 use arith::{Arith, Generic, LargePrime, SmallPrime};
 use hash::MonomialTable;
 use std::collections::HashMap;
@@ -37,6 +39,40 @@ pub struct Options {
     /// At most this many pairs per step (the others wait for the next step); `None`: all pairs
     /// of the lowest degree.
     pub max_pairs_per_step: Option<usize>,
+    pub linear_algebra: LinearAlgebra,
+}
+
+/// How the new rows of each matrix are reduced.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum LinearAlgebra {
+    /// Every new row is reduced: the result is certain.
+    #[default]
+    Exact,
+    /// Random combinations of the new rows are reduced (see [`sampled`]): over a finite field
+    /// the result is the exact one except with probability at most 2^-80 per matrix.
+    Sampled(Sampling),
+}
+
+/// Settings of the sampled linear algebra.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct Sampling {
+    /// Fixes the random choices (`None`: drawn from the operating system's entropy).
+    pub seed: Option<u64>,
+    /// Matrices with fewer new rows are reduced exactly.
+    pub min_rows: usize,
+    /// Whether a matrix whose rank turns out too large for sampling to pay is finished by the
+    /// exact method (always on in normal use; tests turn it off to exercise sampling alone).
+    pub exact_fallback: bool,
+}
+
+impl Default for Sampling {
+    fn default() -> Self {
+        Sampling {
+            seed: None,
+            min_rows: 64,
+            exact_fallback: true,
+        }
+    }
 }
 
 /// Reduced Gröbner basis of `gens` and the run's statistics, with default options.
@@ -114,6 +150,10 @@ struct Engine<'a, F: Field, A: Arith<F>> {
     basis: Vec<Element<A::C>>,
     pairs: PairSet,
     stats: Stats,
+    /// Settings and source of the random combinations when the linear algebra samples.
+    sampler: Option<(Sampling, Rng)>,
+    /// Share of the last matrix's new rows that were independent.
+    rank_share: Option<f64>,
 }
 
 impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
@@ -126,6 +166,14 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             basis: Vec::new(),
             pairs: PairSet::default(),
             stats: Stats::default(),
+            sampler: match options.linear_algebra {
+                LinearAlgebra::Exact => None,
+                LinearAlgebra::Sampled(sampling) => Some((
+                    sampling,
+                    sampling.seed.map_or_else(Rng::from_entropy, Rng::new),
+                )),
+            },
+            rank_share: None,
         }
     }
 
@@ -178,10 +226,25 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             control.check_matrix(stats.rows, stats.columns, step)?;
 
             let clock = Instant::now();
-            let echelon = linalg::reduce_new_rows(&self.arith, &matrix, control)?;
+            // Fully reduced new elements only where that cannot raise degrees (see linalg).
+            let back_substitute = self.ring.order.is_degree_compatible();
+            let echelon = match &mut self.sampler {
+                Some((sampling, rng)) => sampled::reduce_new_rows_sampled(
+                    &self.arith,
+                    &matrix,
+                    control,
+                    (sampling, rng),
+                    self.rank_share,
+                    back_substitute,
+                )?,
+                None => linalg::reduce_new_rows(&self.arith, &matrix, control, back_substitute)?,
+            };
             stats.seconds_linear_algebra = clock.elapsed().as_secs_f64();
             stats.multiply_adds = echelon.multiply_adds;
             stats.new_elements = echelon.rows.len();
+            if !matrix.new_rows.is_empty() {
+                self.rank_share = Some(echelon.rows.len() as f64 / matrix.new_rows.len() as f64);
+            }
             self.stats.zero_reductions += echelon.zero_rows;
             self.stats.steps.push(stats);
 

@@ -107,6 +107,7 @@ proptest! {
     fn same_reduced_basis_as_buchberger(
         prime in 0..PRIMES.len(),
         order in 0..4usize,
+        seed in any::<u64>(),
         n in 2..=4usize,
         polys in proptest::collection::vec(
             proptest::collection::vec((proptest::collection::vec(0u32..3, 4), 0u64..1 << 62), 1..=4),
@@ -129,10 +130,106 @@ proptest! {
         prop_assert_eq!(&f4(&r, &gens).unwrap(), &reference);
         let (generic, _) = compute_generic(&r, &gens, &Control::new(), &Options::default()).unwrap();
         prop_assert_eq!(&generic, &reference);
-        let one_pair = Options { max_pairs_per_step: Some(1) };
+        let one_pair = Options { max_pairs_per_step: Some(1), ..Default::default() };
         let (capped, _) = compute_with(&r, &gens, &Control::new(), &one_pair).unwrap();
         prop_assert_eq!(&capped, &reference);
+        // Sampling on every matrix, however small, with no exact fallback: the acceptance rule
+        // alone must find the whole row space (failure probability ≤ 2^-80 per matrix).
+        let sampled = Options {
+            linear_algebra: LinearAlgebra::Sampled(sampling_only(seed)),
+            ..Default::default()
+        };
+        let (by_sampling, _) = compute_with(&r, &gens, &Control::new(), &sampled).unwrap();
+        prop_assert_eq!(&by_sampling, &reference);
     }
+}
+
+/// Sampled linear algebra on every matrix, never finished by the exact method.
+fn sampling_only(seed: u64) -> Sampling {
+    Sampling {
+        seed: Some(seed),
+        min_rows: 1,
+        exact_fallback: false,
+    }
+}
+
+#[test]
+fn sampled_linear_algebra_gives_the_exact_basis() {
+    // Published counts as in `solution_counts_of_cyclic_and_katsura` (katsura-n: 2^n solutions,
+    // Katsura 1990, from memory; cyclic-6: 156, Björck and Fröberg 1991, from memory), over the
+    // word kernels and the generic one, with the default settings (large matrices sample, small
+    // ones and high-rank ones are exact) and with sampling forced everywhere.
+    let cases = [
+        (65521, systems::katsura(7), Some(1 << 7)),
+        (65521, systems::cyclic(6), Some(156)),
+        (2147483647, systems::katsura(6), Some(1 << 6)),
+        ((1 << 63) - 25, systems::katsura(5), Some(1 << 5)),
+        (3, systems::random_quadratic(6, 7, 3), None),
+    ];
+    for (p, system, count) in cases {
+        let r = ring(p, system.vars.len(), MonomialOrder::Grevlex);
+        let gens = system_in(&r, &system);
+        let (exact, _) = compute(&r, &gens, &Control::new()).unwrap();
+        let leads: Vec<Monomial> = exact
+            .iter()
+            .map(|g| g.leading_monomial().unwrap().clone())
+            .collect();
+        if let Some(count) = count {
+            assert_eq!(
+                standard_monomials(&leads, system.vars.len(), 100_000),
+                Some(count)
+            );
+        }
+        for (seed, sampling) in [
+            (
+                1,
+                Sampling {
+                    seed: Some(1),
+                    min_rows: 8,
+                    ..Default::default()
+                },
+            ),
+            (2, sampling_only(2)),
+        ] {
+            let options = Options {
+                linear_algebra: LinearAlgebra::Sampled(sampling),
+                ..Default::default()
+            };
+            let (sampled, stats) = compute_with(&r, &gens, &Control::new(), &options).unwrap();
+            assert_eq!(sampled, exact, "{} over GF({p}), seed {seed}", system.name);
+            assert!(stats
+                .steps
+                .iter()
+                .all(|s| s.multiply_adds > 0 || s.new_elements == 0));
+            let (generic, _) = compute_generic(&r, &gens, &Control::new(), &options).unwrap();
+            assert_eq!(
+                generic, exact,
+                "{} over GF({p}), generic kernel",
+                system.name
+            );
+        }
+    }
+}
+
+#[test]
+fn the_sampled_engine_is_named_and_exact_over_the_rationals() {
+    let s = systems::katsura(4);
+    let r = ring(65521, 5, MonomialOrder::Grevlex);
+    let gens = system_in(&r, &s);
+    let gb = groebner_basis(&r, &gens, Engine::F4Sampled, &Control::new()).unwrap();
+    assert_eq!(gb.stats.engine, "f4-sampled");
+    assert_eq!(gb.polys, f4(&r, &gens).unwrap());
+    // Over QQ the engine runs modulo primes and the result is checked exactly afterwards.
+    let q = Ring::new(
+        crate::field::RationalField::new(),
+        s.vars.clone(),
+        MonomialOrder::Grevlex,
+    )
+    .unwrap();
+    let gens_q = s.polys(&q).unwrap();
+    let sampled = groebner_basis(&q, &gens_q, Engine::F4Sampled, &Control::new()).unwrap();
+    let exact = groebner_basis(&q, &gens_q, Engine::F4, &Control::new()).unwrap();
+    assert_eq!(sampled.polys, exact.polys);
 }
 
 #[test]
