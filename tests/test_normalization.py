@@ -115,6 +115,22 @@ def test_twisted_cubic_cone_has_rank_three():
     assert zero_dim_vector_space_dimension(fiber) == 3 <= len(nn.module_generators)
 
 
+def test_the_cached_grevlex_basis_gives_the_same_certificate():
+    # The twisted cubic cone again (dimension 2, degree 3: Harris, as above). Once the ideal has
+    # its grevlex basis, the normalization starts from it instead of computing it again; the
+    # certificate must not change, and it must still verify.
+    gens = ["x*z - y^2", "y*w - z^2", "x*w - y*z"]
+    fresh = ideal(32003, "x, y, z, w", gens)
+    assert fresh.cached_basis("grevlex") is None
+    expected = fresh.noether_normalization().to_dict()
+    warm = ideal(32003, "x, y, z, w", gens)
+    assert warm.dimension() == 2
+    assert warm.cached_basis("grevlex") is not None
+    nn = warm.noether_normalization()
+    assert nn.to_dict() == expected
+    assert nn.rank == 3 and nn.verify()
+
+
 def test_zero_dimensional_maximal_ideal():
     # (x^2 + 1, y - x) over GF(3) is maximal (-1 is not a square mod 3, Ireland–Rosen ch. 5):
     # d = 0, R/I = GF(9) of rank 2, each variable a root of u^2 + 1.

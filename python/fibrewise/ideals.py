@@ -143,7 +143,7 @@ class Ideal:
         """
         ring = self.ring if order is None else self.ring.with_order(order)
         limited = (max_degree, max_matrix) != (None, None)
-        key = f"{ring.order!r}/{engine}"
+        key = self._basis_key(ring.order, engine)
         if not limited and key in self._bases:
             return self._bases[key]
         polys, stats = _native.groebner_basis(
@@ -158,6 +158,15 @@ class Ideal:
         if not limited:
             self._bases[key] = gb
         return gb
+
+    @staticmethod
+    def _basis_key(order: Order, engine: str) -> str:
+        return f"{order!r}/{engine}"
+
+    def cached_basis(self, order: Order) -> ReducedBasis | None:
+        """The basis for ``order`` if one was computed already (by the default engine), else
+        ``None``; never computes."""
+        return self._bases.get(self._basis_key(order, "auto"))
 
     def reduce(self, f: Coercible) -> Polynomial:
         """Normal form of ``f`` modulo the ideal (for the ring's order)."""

@@ -142,8 +142,11 @@ def noether_normalization(ideal: "Ideal", strategy: str = "auto", seed: Optional
     if seed is not None and (not isinstance(seed, int) or isinstance(seed, bool) or seed < 0):
         raise ValueError(f"seed must be a non-negative int, got {seed!r}")
     ring = ideal.ring
+    # The search starts from the grevlex basis: hand over the one already computed, if any.
+    grevlex = ideal.cached_basis("grevlex")
     certificate = _native.noether_normalization(
-        ring._native, [g._native for g in ideal.generators], strategy=strategy, seed=(seed or 0) % 2**64
+        ring._native, [g._native for g in ideal.generators], strategy=strategy, seed=(seed or 0) % 2**64,
+        grevlex_basis=None if grevlex is None else [g._native for g in grevlex],
     )
     return FiniteProjection(ideal, certificate)
 

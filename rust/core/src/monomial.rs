@@ -2,13 +2,112 @@
 //!
 //! Exponents are `u32`; every operation that could exceed that (or a total degree above
 //! `u32::MAX`) is checked and reported as [`Error::Overflow`], never wrapped.
+//!
+//! Up to [`INLINE`] exponents are held inside the value itself, more on the heap: polynomial
+//! arithmetic creates and drops monomials all the time, and for the few variables of most
+//! systems that then costs no allocation. Equality, hashing and ordering (degree, then the
+//! exponent slice) depend only on the exponents, never on where they are held.
 
 use crate::error::{Error, Result};
+use std::cmp::Ordering;
+use std::hash::{Hash, Hasher};
 
-#[derive(Clone, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+/// The most exponents held without a heap allocation.
+const INLINE: usize = 6;
+
+#[derive(Clone, Debug)]
 pub struct Monomial {
     degree: u32,
-    exps: Box<[u32]>,
+    exps: Exponents,
+}
+
+/// The exponents: inline (the first `len` entries of the array, the rest zero) or on the heap.
+#[derive(Clone, Debug)]
+enum Exponents {
+    Inline { len: u8, exps: [u32; INLINE] },
+    Heap(Box<[u32]>),
+}
+
+impl Exponents {
+    #[inline]
+    fn as_slice(&self) -> &[u32] {
+        match self {
+            Exponents::Inline { len, exps } => &exps[..*len as usize],
+            Exponents::Heap(exps) => exps,
+        }
+    }
+
+    /// `n` exponents from `f(i)`.
+    #[inline]
+    fn from_fn(n: usize, f: impl FnMut(usize) -> u32) -> Self {
+        if n <= INLINE {
+            let mut f = f;
+            let mut exps = [0; INLINE];
+            for (i, e) in exps.iter_mut().enumerate().take(n) {
+                *e = f(i);
+            }
+            Exponents::Inline { len: n as u8, exps }
+        } else {
+            Exponents::Heap((0..n).map(f).collect())
+        }
+    }
+
+    /// `n` exponents from `f(i)`, or `None` as soon as one is `None`.
+    #[inline]
+    fn try_from_fn(n: usize, mut f: impl FnMut(usize) -> Option<u32>) -> Option<Self> {
+        if n <= INLINE {
+            let mut exps = [0; INLINE];
+            for (i, e) in exps.iter_mut().enumerate().take(n) {
+                *e = f(i)?;
+            }
+            Some(Exponents::Inline { len: n as u8, exps })
+        } else {
+            (0..n)
+                .map(f)
+                .collect::<Option<Box<[u32]>>>()
+                .map(Exponents::Heap)
+        }
+    }
+
+    fn from_vec(exps: Vec<u32>) -> Self {
+        if exps.len() <= INLINE {
+            Self::from_fn(exps.len(), |i| exps[i])
+        } else {
+            Exponents::Heap(exps.into_boxed_slice())
+        }
+    }
+}
+
+impl PartialEq for Monomial {
+    #[inline]
+    fn eq(&self, other: &Self) -> bool {
+        self.degree == other.degree && self.exponents() == other.exponents()
+    }
+}
+
+impl Eq for Monomial {}
+
+impl Hash for Monomial {
+    fn hash<H: Hasher>(&self, state: &mut H) {
+        self.degree.hash(state);
+        self.exponents().hash(state);
+    }
+}
+
+impl Ord for Monomial {
+    #[inline]
+    fn cmp(&self, other: &Self) -> Ordering {
+        self.degree
+            .cmp(&other.degree)
+            .then_with(|| self.exponents().cmp(other.exponents()))
+    }
+}
+
+impl PartialOrd for Monomial {
+    #[inline]
+    fn partial_cmp(&self, other: &Self) -> Option<Ordering> {
+        Some(self.cmp(other))
+    }
 }
 
 fn overflow() -> Error {
@@ -20,17 +119,16 @@ impl Monomial {
     pub fn one(n: usize) -> Self {
         Monomial {
             degree: 0,
-            exps: vec![0; n].into_boxed_slice(),
+            exps: Exponents::from_fn(n, |_| 0),
         }
     }
 
     /// The variable x_i (0-based) in `n` variables, to the power `e`.
     pub fn var_power(n: usize, i: usize, e: u32) -> Self {
-        let mut exps = vec![0; n];
-        exps[i] = e;
+        assert!(i < n, "variable index {i} out of range for {n} variables");
         Monomial {
             degree: e,
-            exps: exps.into_boxed_slice(),
+            exps: Exponents::from_fn(n, |k| if k == i { e } else { 0 }),
         }
     }
 
@@ -41,13 +139,13 @@ impl Monomial {
             .ok_or_else(overflow)?;
         Ok(Monomial {
             degree,
-            exps: exps.into_boxed_slice(),
+            exps: Exponents::from_vec(exps),
         })
     }
 
     #[inline]
     pub fn exponents(&self) -> &[u32] {
-        &self.exps
+        self.exps.as_slice()
     }
     #[inline]
     pub fn degree(&self) -> u32 {
@@ -55,7 +153,7 @@ impl Monomial {
     }
     #[inline]
     pub fn nvars(&self) -> usize {
-        self.exps.len()
+        self.exponents().len()
     }
     pub fn is_one(&self) -> bool {
         self.degree == 0
@@ -63,12 +161,8 @@ impl Monomial {
 
     pub fn mul(&self, other: &Monomial) -> Result<Monomial> {
         let degree = self.degree.checked_add(other.degree).ok_or_else(overflow)?;
-        let exps = self
-            .exps
-            .iter()
-            .zip(other.exps.iter())
-            .map(|(a, b)| a.checked_add(*b));
-        let exps: Option<Box<[u32]>> = exps.collect();
+        let (a, b) = (self.exponents(), other.exponents());
+        let exps = Exponents::try_from_fn(a.len().min(b.len()), |i| a[i].checked_add(b[i]));
         Ok(Monomial {
             degree,
             exps: exps.ok_or_else(overflow)?,
@@ -77,7 +171,8 @@ impl Monomial {
 
     pub fn pow(&self, e: u32) -> Result<Monomial> {
         let degree = self.degree.checked_mul(e).ok_or_else(overflow)?;
-        let exps: Option<Box<[u32]>> = self.exps.iter().map(|a| a.checked_mul(e)).collect();
+        let a = self.exponents();
+        let exps = Exponents::try_from_fn(a.len(), |i| a[i].checked_mul(e));
         Ok(Monomial {
             degree,
             exps: exps.ok_or_else(overflow)?,
@@ -86,33 +181,29 @@ impl Monomial {
 
     #[inline]
     pub fn divides(&self, other: &Monomial) -> bool {
-        self.degree <= other.degree && self.exps.iter().zip(other.exps.iter()).all(|(a, b)| a <= b)
+        self.degree <= other.degree
+            && self
+                .exponents()
+                .iter()
+                .zip(other.exponents())
+                .all(|(a, b)| a <= b)
     }
 
     /// self / other, assuming `other` divides `self`.
     pub fn div(&self, other: &Monomial) -> Monomial {
         debug_assert!(other.divides(self));
-        let exps = self
-            .exps
-            .iter()
-            .zip(other.exps.iter())
-            .map(|(a, b)| a - b)
-            .collect();
+        let (a, b) = (self.exponents(), other.exponents());
         Monomial {
             degree: self.degree - other.degree,
-            exps,
+            exps: Exponents::from_fn(a.len().min(b.len()), |i| a[i] - b[i]),
         }
     }
 
     /// Least common multiple (cannot overflow: each exponent is one of the inputs').
     pub fn lcm(&self, other: &Monomial) -> Monomial {
-        let exps: Box<[u32]> = self
-            .exps
-            .iter()
-            .zip(other.exps.iter())
-            .map(|(a, b)| *a.max(b))
-            .collect();
-        let degree = exps.iter().map(|&e| e as u64).sum::<u64>();
+        let (a, b) = (self.exponents(), other.exponents());
+        let exps = Exponents::from_fn(a.len().min(b.len()), |i| a[i].max(b[i]));
+        let degree = exps.as_slice().iter().map(|&e| e as u64).sum::<u64>();
         Monomial {
             degree: u32::try_from(degree).unwrap_or(u32::MAX),
             exps,
@@ -121,15 +212,15 @@ impl Monomial {
 
     /// Whether the two monomials share no variable.
     pub fn coprime(&self, other: &Monomial) -> bool {
-        self.exps
+        self.exponents()
             .iter()
-            .zip(other.exps.iter())
+            .zip(other.exponents())
             .all(|(a, b)| *a == 0 || *b == 0)
     }
 
     /// If this monomial is a power of a single variable x_i (degree ≥ 1), that i.
     pub fn pure_power_variable(&self) -> Option<usize> {
-        let mut it = self.exps.iter().enumerate().filter(|(_, e)| **e > 0);
+        let mut it = self.exponents().iter().enumerate().filter(|(_, e)| **e > 0);
         match (it.next(), it.next()) {
             (Some((i, _)), None) => Some(i),
             _ => None,
@@ -139,7 +230,7 @@ impl Monomial {
     /// Text form with the given variable names: `x^2*y`, or `1`.
     pub fn format(&self, names: &[String]) -> String {
         let parts: Vec<String> = self
-            .exps
+            .exponents()
             .iter()
             .zip(names)
             .filter(|(e, _)| **e > 0)
@@ -189,5 +280,39 @@ mod tests {
         assert_eq!(l.degree(), 5);
         let names: Vec<String> = ["x", "y", "z"].iter().map(|s| s.to_string()).collect();
         assert_eq!(a.format(&names), "x^2*y");
+    }
+
+    /// Monomials in more variables than fit inline compute and compare as the short ones do:
+    /// the same operations on x^2·y·z^3 and x·y^4 padded by zeros to 3 and to 9 variables.
+    #[test]
+    fn heap_and_inline_exponents_agree() {
+        let pad = |e: &[u32], n: usize| {
+            let mut v = e.to_vec();
+            v.resize(n, 0);
+            Monomial::from_exponents(v).unwrap()
+        };
+        let (a, b) = ([2, 1, 3], [1, 4, 0]);
+        let short = (pad(&a, 3), pad(&b, 3));
+        let long = (pad(&a, INLINE + 3), pad(&b, INLINE + 3));
+        let same = |x: &Monomial, y: &Monomial| {
+            assert_eq!(x.exponents(), &y.exponents()[..x.nvars()]);
+            assert!(y.exponents()[x.nvars()..].iter().all(|&e| e == 0));
+            assert_eq!(x.degree(), y.degree());
+        };
+        same(
+            &short.0.mul(&short.1).unwrap(),
+            &long.0.mul(&long.1).unwrap(),
+        );
+        same(&short.0.lcm(&short.1), &long.0.lcm(&long.1));
+        same(&short.0.pow(3).unwrap(), &long.0.pow(3).unwrap());
+        let l = long.0.lcm(&long.1);
+        same(&short.0.lcm(&short.1).div(&short.1), &l.div(&long.1));
+        assert_eq!(l.exponents()[..3], [2, 4, 3]);
+        assert_eq!(short.0.cmp(&short.1), long.0.cmp(&long.1));
+        assert_eq!(
+            Monomial::var_power(INLINE + 1, INLINE, 2).exponents()[INLINE],
+            2
+        );
+        assert_eq!(Monomial::one(INLINE + 2), pad(&[], INLINE + 2));
     }
 }

@@ -80,14 +80,17 @@ impl PrimeField {
         if a == 0 {
             return None;
         }
-        let (mut r0, mut r1) = (self.p as i128, a as i128);
-        let (mut t0, mut t1) = (0i128, 1i128);
+        // p < 2^63, and every remainder and Bézout coefficient of the extended Euclidean
+        // algorithm stays within ±p, so 64-bit signed words suffice (far cheaper than 128-bit
+        // division).
+        let (mut r0, mut r1) = (self.p as i64, a as i64);
+        let (mut t0, mut t1) = (0i64, 1i64);
         while r1 != 0 {
             let q = r0 / r1;
             (r0, r1) = (r1, r0 - q * r1);
             (t0, t1) = (t1, t0 - q * t1);
         }
-        Some(t0.rem_euclid(self.p as i128) as u64)
+        Some(t0.rem_euclid(self.p as i64) as u64)
     }
 }
 

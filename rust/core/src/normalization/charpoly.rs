@@ -4,8 +4,8 @@
 //! t_i, by evaluation and interpolation: the coefficient of x^k is a polynomial in T whose degree
 //! in t_i is at most the sum over rows of the largest t_i-degree in the row (each term of the
 //! determinant takes one entry per row); evaluate A on a grid of that size, take the
-//! characteristic polynomial of each scalar matrix from a Krylov sequence when it spans, else by
-//! reduction to Hessenberg form (Cohen, *A Course in Computational Algebraic Number Theory*,
+//! characteristic polynomial of each scalar matrix as the minimal polynomial of a projected
+//! Krylov sequence (Berlekamp–Massey) when that has full degree, else by reduction to Hessenberg form (Cohen, *A Course in Computational Algebraic Number Theory*,
 //! 1993, Algorithm 2.2.9), and interpolate one variable at a time (Newton's divided differences).
 //! Otherwise, by Berkowitz's division-free algorithm (Berkowitz 1984) directly over k[T], which
 //! works in every characteristic, GF(2) included.
@@ -152,13 +152,17 @@ fn interpolate_in<S: Scalars>(
             .collect(),
     );
     let entries = EntryTerms::new(s, a);
+    let projection = projection_vector(s, field, r);
     // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
     let mut values = vec![vec![s.zero(); set.exponents.len()]; r + 1];
     for (g, alpha) in set.exponents.iter().enumerate() {
         control.check()?;
         let point: Vec<&S::E> = alpha.iter().map(|&j| &nodes.points[j as usize]).collect();
         let scalar = entries.evaluate(s, &point);
-        for (k, c) in scalar_charpoly(s, scalar).into_iter().enumerate() {
+        for (k, c) in scalar_charpoly(s, scalar, &projection)
+            .into_iter()
+            .enumerate()
+        {
             values[k][g] = c;
         }
     }
@@ -182,6 +186,15 @@ fn interpolate_in<S: Scalars>(
     }
     Ok(out)
 }
+
+/// A fixed pseudo-random vector of nonzero scalars, the same for every matrix: the projection
+/// of the Krylov sequences. The result never depends on it, only how often the fallback runs.
+fn projection_vector<S: Scalars>(s: &S, field: &S::Base, r: usize) -> Vec<S::E> {
+    let mut rng = super::changes::Rng::new(PROJECTION_SEED);
+    (0..r).map(|_| s.import(&rng.nonzero(field))).collect()
+}
+
+const PROJECTION_SEED: u64 = 0x5eed_c0ff_ee00;
 
 /// The exponents α with α_i ≤ bound_i and |α| ≤ total: a lower set, on whose node points
 /// (s_{α_1}, ..., s_{α_d}) a polynomial with exponents in the set is determined. Newton's form
@@ -320,11 +333,7 @@ impl<S: Scalars> EntryTerms<S> {
             .iter()
             .map(|row| {
                 row.iter()
-                    .map(|terms| {
-                        terms.iter().fold(s.zero(), |acc, (k, c)| {
-                            s.mul_add(&acc, c, &monomial_values[*k])
-                        })
-                    })
+                    .map(|terms| s.dot(terms.iter().map(|(k, c)| (c, &monomial_values[*k]))))
                     .collect()
             })
             .collect()
@@ -394,92 +403,91 @@ fn newton_to_monomial<S: Scalars>(s: &S, xs: &[S::E], dd: &[S::E]) -> Vec<S::E> 
     coeffs
 }
 
-/// det(x·Id - A) of a scalar matrix, coefficients low to high. First from the Krylov sequence
-/// of the first unit vector; a matrix of multiplication by an element on standard monomials is
-/// mostly unit rows (x·b is often standard again), so the sequence costs far less than a
-/// Hessenberg reduction. When the sequence does not span (the matrix is not cyclic for that
-/// vector), by Hessenberg reduction, which always works.
-fn scalar_charpoly<S: Scalars>(s: &S, a: Vec<Vec<S::E>>) -> Vec<S::E> {
-    krylov_charpoly(s, &a).unwrap_or_else(|| hessenberg_charpoly(s, a))
+/// det(x·Id - A) of a scalar matrix, coefficients low to high. First as the minimal
+/// polynomial of the sequence u·w_k, w_k = (A^T)^k e_1, for the fixed vector `projection` = u:
+/// it divides det(x·Id - A), so when its degree is r the two are equal. The 2r products
+/// A^T·w run over the nonzero entries only (a matrix of multiplication by an element on
+/// standard monomials has unit rows wherever x·b is standard again) with one reduction per
+/// dot product, and Berlekamp–Massey then costs O(r^2) where solving for the coefficients
+/// would cost O(r^3). When the degree is smaller (the matrix is not cyclic for e_1, or u is
+/// unlucky), by Hessenberg reduction, which always works.
+fn scalar_charpoly<S: Scalars>(s: &S, a: Vec<Vec<S::E>>, projection: &[S::E]) -> Vec<S::E> {
+    sequence_charpoly(s, &a, projection).unwrap_or_else(|| hessenberg_charpoly(s, a))
 }
 
-/// If w_k = (A^T)^k e_1, k < r, are linearly independent, the minimal polynomial of e_1 has
-/// degree r and so is det(x·Id - A): solve w_r + Σ c_k w_k = 0 for the coefficients c_k
-/// (Krylov 1931; Householder, *The Theory of Matrices in Numerical Analysis*, 1964, §6.1).
-/// `None` when they are dependent.
-fn krylov_charpoly<S: Scalars>(s: &S, a: &[Vec<S::E>]) -> Option<Vec<S::E>> {
+/// det(x·Id - A) as the minimal polynomial of the scalar sequence u·(A^T)^k e_1, k < 2r,
+/// when that has degree r (Wiedemann 1986: the minimal polynomial of a projected Krylov
+/// sequence; Krylov 1931); `None` otherwise.
+fn sequence_charpoly<S: Scalars>(s: &S, a: &[Vec<S::E>], u: &[S::E]) -> Option<Vec<S::E>> {
     let r = a.len();
-    if r == 0 {
-        return Some(vec![s.one()]);
-    }
-    let sparse_rows: Vec<Vec<(usize, &S::E)>> = a
-        .iter()
-        .map(|row| {
-            row.iter()
-                .enumerate()
-                .filter(|(_, c)| !s.is_zero(c))
+    // The nonzero entries of each column of A, i.e. of each row of A^T.
+    let sparse_columns: Vec<Vec<(usize, &S::E)>> = (0..r)
+        .map(|col| {
+            (0..r)
+                .filter(|&j| !s.is_zero(&a[j][col]))
+                .map(|j| (j, &a[j][col]))
                 .collect()
         })
         .collect();
-    // system[i] = [w_0[i], ..., w_{r-1}[i], -w_r[i]]: the unknowns c_k are the columns.
-    let mut system = vec![vec![s.zero(); r + 1]; r];
+    let mut sequence = Vec::with_capacity(2 * r);
     let mut w = vec![s.zero(); r];
     let mut next = vec![s.zero(); r];
-    w[0] = s.one();
-    for k in 0..=r {
-        for (i, row) in system.iter_mut().enumerate() {
-            row[k] = if k < r { w[i].clone() } else { s.neg(&w[i]) };
-        }
-        if k < r {
-            next.fill(s.zero());
-            for (wj, row) in w.iter().zip(&sparse_rows) {
-                if s.is_zero(wj) {
-                    continue;
-                }
-                for &(col, c) in row {
-                    next[col] = s.mul_add(&next[col], wj, c);
-                }
+    if r > 0 {
+        w[0] = s.one();
+    }
+    for k in 0..2 * r {
+        sequence.push(s.dot(u.iter().zip(&w)));
+        if k + 1 < 2 * r {
+            for (out, column) in next.iter_mut().zip(&sparse_columns) {
+                *out = s.dot(column.iter().map(|&(j, c)| (&w[j], c)));
             }
             std::mem::swap(&mut w, &mut next);
         }
     }
-    let mut coefficients = solve_square(s, system)?;
-    coefficients.push(s.one());
-    Some(coefficients)
+    let connection = berlekamp_massey(s, &sequence);
+    (connection.len() == r + 1).then(|| connection.into_iter().rev().collect())
 }
 
-/// The solution of the square system given as rows [M | b], by Gaussian elimination; `None`
-/// when M is singular.
-fn solve_square<S: Scalars>(s: &S, mut rows: Vec<Vec<S::E>>) -> Option<Vec<S::E>> {
-    let r = rows.len();
-    for col in 0..r {
-        let pivot = (col..r).find(|&i| !s.is_zero(&rows[i][col]))?;
-        rows.swap(col, pivot);
-        let inv = s.inv(&rows[col][col])?;
-        let (done, rest) = rows.split_at_mut(col + 1);
-        let pivot_row = &mut done[col];
-        for c in pivot_row.iter_mut().skip(col) {
-            *c = s.mul(c, &inv);
+/// The shortest recurrence s_n + c_1 s_{n-1} + ... + c_L s_{n-L} = 0 (n ≥ L) of the sequence,
+/// as [1, c_1, ..., c_L] (Massey 1969). For a sequence whose minimal recurrence has length L,
+/// 2L terms determine it.
+fn berlekamp_massey<S: Scalars>(s: &S, sequence: &[S::E]) -> Vec<S::E> {
+    let mut current = vec![s.one()];
+    // The recurrence before the last length change, its discrepancy's inverse, and how many
+    // terms ago that was.
+    let mut before = vec![s.one()];
+    let mut before_inverse = s.one();
+    let mut shift = 1;
+    let mut length = 0;
+    for n in 0..sequence.len() {
+        // current[0] = 1, and its entries past the length are zero: the discrepancy is
+        // Σ_i current[i]·s_{n-i}.
+        let discrepancy = s.dot(current.iter().zip(sequence[..=n].iter().rev()));
+        if s.is_zero(&discrepancy) {
+            shift += 1;
+            continue;
         }
-        for row in rest {
-            let u = row[col].clone();
-            if s.is_zero(&u) {
-                continue;
+        let factor = s.mul(&discrepancy, &before_inverse);
+        let grows = 2 * length <= n;
+        let previous = if grows { Some(current.clone()) } else { None };
+        if current.len() < before.len() + shift {
+            current.resize(before.len() + shift, s.zero());
+        }
+        for (i, b) in before.iter().enumerate() {
+            current[i + shift] = s.mul_sub(&current[i + shift], &factor, b);
+        }
+        match previous {
+            Some(previous) => {
+                length = n + 1 - length;
+                before = previous;
+                before_inverse = s.inv(&discrepancy).expect("a nonzero discrepancy");
+                shift = 1;
             }
-            for (target, source) in row.iter_mut().zip(pivot_row.iter()).skip(col) {
-                *target = s.mul_sub(target, &u, source);
-            }
+            None => shift += 1,
         }
     }
-    let mut x = vec![s.zero(); r];
-    for col in (0..r).rev() {
-        let mut value = rows[col][r].clone();
-        for k in col + 1..r {
-            value = s.mul_sub(&value, &rows[col][k], &x[k]);
-        }
-        x[col] = value;
-    }
-    Some(x)
+    current.resize(length + 1, s.zero());
+    current
 }
 
 /// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
@@ -641,28 +649,30 @@ mod tests {
         }
     }
 
-    /// The Krylov shortcut agrees with Hessenberg reduction where it applies, and declines the
-    /// matrices that are not cyclic for the first unit vector (a scalar matrix, a direct sum);
-    /// both in the field's arithmetic and in machine words.
+    /// The sequence shortcut agrees with Hessenberg reduction where it applies, and declines
+    /// the matrices that are not cyclic for the first unit vector (a scalar matrix); both in the
+    /// field's arithmetic and in machine words.
     #[test]
-    fn krylov_agrees_with_hessenberg() {
+    fn sequence_agrees_with_hessenberg() {
         let field = PrimeField::new(101).unwrap();
         let generic = Generic(&field);
         let words = Words::new(&field).unwrap();
         let mut rng = crate::normalization::changes::Rng::new(4);
         let mut used = 0;
         for size in 1..9 {
+            let u = projection_vector(&generic, &field, size);
+            assert_eq!(u, projection_vector(&words, &field, size));
             for sparse in [false, true] {
                 let a = random_matrix(&mut rng, size, 101, sparse);
-                if let Some(k) = krylov_charpoly(&generic, &a) {
+                if let Some(k) = sequence_charpoly(&generic, &a, &u) {
                     assert_eq!(k, hessenberg_charpoly(&generic, a.clone()), "{a:?}");
-                    assert_eq!(Some(k), krylov_charpoly(&words, &a), "{a:?}");
+                    assert_eq!(Some(k), sequence_charpoly(&words, &a, &u), "{a:?}");
                     used += 1;
                 }
                 let expected = hessenberg_charpoly(&generic, a.clone());
                 assert_eq!(hessenberg_charpoly(&words, a.clone()), expected);
-                assert_eq!(scalar_charpoly(&generic, a.clone()), expected);
-                assert_eq!(scalar_charpoly(&words, a), expected);
+                assert_eq!(scalar_charpoly(&generic, a.clone(), &u), expected);
+                assert_eq!(scalar_charpoly(&words, a, &u), expected);
             }
         }
         assert!(
@@ -670,10 +680,27 @@ mod tests {
             "the shortcut should apply to most random matrices"
         );
         let scalar = vec![vec![3, 0], vec![0, 3]];
-        assert_eq!(krylov_charpoly(&generic, &scalar), None);
+        let u = projection_vector(&generic, &field, 2);
+        assert_eq!(sequence_charpoly(&generic, &scalar, &u), None);
         // (x - 3)^2 = x^2 - 6x + 9 over GF(101).
-        assert_eq!(scalar_charpoly(&words, scalar.clone()), vec![9, 95, 1]);
-        assert_eq!(scalar_charpoly(&generic, scalar), vec![9, 95, 1]);
+        assert_eq!(scalar_charpoly(&words, scalar.clone(), &u), vec![9, 95, 1]);
+        assert_eq!(scalar_charpoly(&generic, scalar, &u), vec![9, 95, 1]);
+    }
+
+    /// Berlekamp–Massey finds the Fibonacci recurrence s_n - s_{n-1} - s_{n-2} = 0 from four
+    /// terms, and a geometric sequence's s_n - 3·s_{n-1} = 0 (textbook facts), over GF(101);
+    /// the all-zero sequence has the empty recurrence.
+    #[test]
+    fn berlekamp_massey_on_textbook_sequences() {
+        let field = PrimeField::new(101).unwrap();
+        let words = Words::new(&field).unwrap();
+        assert_eq!(berlekamp_massey(&words, &[1, 1, 2, 3]), vec![1, 100, 100]);
+        assert_eq!(
+            berlekamp_massey(&words, &[0, 1, 1, 2, 3, 5, 8, 13]),
+            vec![1, 100, 100]
+        );
+        assert_eq!(berlekamp_massey(&words, &[2, 6, 18, 54]), vec![1, 98]);
+        assert_eq!(berlekamp_massey(&words, &[0, 0, 0]), vec![1]);
     }
 
     fn random_matrix(
@@ -709,7 +736,9 @@ mod tests {
         for sparse in [false, true] {
             let a = random_matrix(&mut rng, 30, p, sparse);
             let expected = hessenberg_charpoly(&Generic(&field), a.clone());
-            assert_eq!(scalar_charpoly(&words, a.clone()), expected);
+            let u = projection_vector(&words, &field, 30);
+            assert!(sequence_charpoly(&words, &a, &u).is_some());
+            assert_eq!(scalar_charpoly(&words, a.clone(), &u), expected);
             assert_eq!(hessenberg_charpoly(&words, a), expected);
         }
     }
@@ -722,13 +751,17 @@ mod tests {
         let p = 4_294_967_291;
         let field = PrimeField::new(p).unwrap();
         let words = Words::new(&field).unwrap();
+        let u = projection_vector(&words, &field, 3);
         assert_eq!(
-            scalar_charpoly(&words, vec![vec![2, 1], vec![1, 2]]),
+            scalar_charpoly(&words, vec![vec![2, 1], vec![1, 2]], &u[..2]),
             vec![3, p - 4, 1]
         );
         // (x - 1)(x - 2)(x - 5) = x^3 - 8x^2 + 17x - 10.
         let upper = vec![vec![1, 7, 9], vec![0, 2, 4], vec![0, 0, 5]];
-        assert_eq!(scalar_charpoly(&words, upper), vec![p - 10, 17, p - 8, 1]);
+        assert_eq!(
+            scalar_charpoly(&words, upper, &u),
+            vec![p - 10, 17, p - 8, 1]
+        );
     }
 
     #[test]

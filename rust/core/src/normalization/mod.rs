@@ -145,7 +145,20 @@ pub fn noether_normalization<F: Field>(
     options: &Options,
     control: &Control,
 ) -> Result<FiniteProjection<F>> {
-    let mut search = Search::new(ring, gens, options, control)?;
+    noether_normalization_from(ring, gens, None, options, control)
+}
+
+/// The same, from the reduced grevlex basis of `gens` when the caller already has it (its
+/// elements, in the order the basis computation returned them): that basis is where the
+/// search starts, so it is not computed twice. It is trusted, not checked.
+pub fn noether_normalization_from<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    grevlex_basis: Option<Vec<Poly<F>>>,
+    options: &Options,
+    control: &Control,
+) -> Result<FiniteProjection<F>> {
+    let mut search = Search::new(ring, gens, grevlex_basis, options, control)?;
     let (change, proof, strategy) = search.run()?;
     let homogeneous = search.homogeneous && change.is_linear();
     certificate::build(ring, &change, &proof, strategy, homogeneous, control)
@@ -167,12 +180,23 @@ impl<'a, F: Field> Search<'a, F> {
     fn new(
         ring: &'a Ring<F>,
         gens: &'a [Poly<F>],
+        grevlex_basis: Option<Vec<Poly<F>>>,
         options: &'a Options,
         control: &'a Control,
     ) -> Result<Self> {
         let grevlex_ring = ring.with_order(MonomialOrder::Grevlex)?;
-        let adopted: Vec<Poly<F>> = gens.iter().map(|g| grevlex_ring.adopt(g.clone())).collect();
-        let grevlex = groebner_basis(&grevlex_ring, &adopted, Engine::default(), control)?;
+        let grevlex = match grevlex_basis {
+            Some(polys) => ReducedBasis {
+                polys: polys.into_iter().map(|g| grevlex_ring.adopt(g)).collect(),
+                ring: grevlex_ring,
+                stats: Default::default(),
+            },
+            None => {
+                let adopted: Vec<Poly<F>> =
+                    gens.iter().map(|g| grevlex_ring.adopt(g.clone())).collect();
+                groebner_basis(&grevlex_ring, &adopted, Engine::default(), control)?
+            }
+        };
         let dim = krull_dimension(ring.nvars(), &grevlex.leading_monomials());
         if dim < 0 {
             return Err(Error::invalid(

@@ -29,6 +29,13 @@ pub trait Scalars {
     fn mul_sub(&self, acc: &Self::E, a: &Self::E, b: &Self::E) -> Self::E {
         self.sub(acc, &self.mul(a, b))
     }
+    /// Σ a_i·b_i.
+    fn dot<'x>(&self, pairs: impl Iterator<Item = (&'x Self::E, &'x Self::E)>) -> Self::E
+    where
+        Self::E: 'x,
+    {
+        pairs.fold(self.zero(), |acc, (a, b)| self.mul_add(&acc, a, b))
+    }
     fn import(&self, a: &<Self::Base as Field>::Elem) -> Self::E;
     fn export(&self, a: &Self::E) -> <Self::Base as Field>::Elem;
 }
@@ -80,6 +87,8 @@ pub struct Words<'a, F: Field> {
     p: u64,
     /// ⌊2^64 / p⌋, so that ⌊x·m / 2^64⌋ is ⌊x / p⌋ or one less for every x < 2^64.
     m: u64,
+    /// 2^64 mod p: the weight of a carry out of the low word of a sum.
+    carry: u64,
 }
 
 impl<'a, F: Field> Words<'a, F> {
@@ -91,6 +100,7 @@ impl<'a, F: Field> Words<'a, F> {
             prime: PrimeField::new(p).ok()?,
             p,
             m: u64::MAX / p,
+            carry: (u64::MAX % p + 1) % p,
         })
     }
 
@@ -146,6 +156,19 @@ impl<F: Field> Scalars for Words<'_, F> {
     fn mul_sub(&self, acc: &u64, a: &u64, b: &u64) -> u64 {
         self.reduce(acc + a * (self.p - b))
     }
+    /// The products (each below 2^64) summed in two words without reduction, reduced once:
+    /// carries·(2^64 mod p) + low, where the first term is below p^2 and the second below p
+    /// after reduction, so the sum stays below 2^64.
+    #[inline]
+    fn dot<'x>(&self, pairs: impl Iterator<Item = (&'x u64, &'x u64)>) -> u64 {
+        let (mut low, mut carries) = (0u64, 0u64);
+        for (a, b) in pairs {
+            let (sum, carry) = low.overflowing_add(a * b);
+            low = sum;
+            carries += u64::from(carry);
+        }
+        self.reduce(self.reduce(carries) * self.carry + self.reduce(low))
+    }
     fn import(&self, a: &F::Elem) -> u64 {
         self.field.to_word(a)
     }
@@ -180,6 +203,9 @@ mod tests {
                 assert_eq!(words.neg(a), generic.neg(a));
                 assert_eq!(words.inv(a), generic.inv(a));
             }
+            // Long sums carry out of the low word many times.
+            let pairs = || samples.iter().zip(samples.iter().rev());
+            assert_eq!(words.dot(pairs()), generic.dot(pairs()), "dot mod {p}");
         }
         assert!(Words::new(&PrimeField::new(2).unwrap()).is_none());
     }
