@@ -2,7 +2,8 @@
 //! `fibrewise_core::systems`, plus this machine's peak rate of a plain modular multiply-add loop.
 //!
 //! Usage: `cargo run --release -p fibrewise-core --example bench_f4 [--quick] [--threads N] [SYSTEM...]`
-//! where SYSTEM is e.g. `cyclic-7`, `katsura-10`, `eco-10`, `noon-6`, `random-14-28`.
+//! where SYSTEM is e.g. `cyclic-7`, `katsura-10`, `eco-10`, `noon-6`, `random-14-28`; a suffix
+//! `~s` runs it with the sampled linear algebra (engine f4-sampled), `@k` on k threads.
 //! Each system runs in a fresh child process so that its peak memory is its own.
 
 use fibrewise_core::groebner::{groebner_basis, Engine};
@@ -13,15 +14,18 @@ use std::time::Instant;
 
 const PRIME: u64 = 65521;
 
-/// `name@k` runs on k threads. Random quadratics: m = n + 1 (n = 10, 11; n = 14 takes minutes)
-/// and m = 2n (n = 14).
-const DEFAULT: [&str; 13] = [
+/// `name@k` runs on k threads, `name~s` with the sampled linear algebra (engine f4-sampled).
+/// Random quadratics: m = n + 1 (n = 10, 11; n = 14 takes minutes) and m = 2n (n = 14).
+const DEFAULT: [&str; 16] = [
     "cyclic-6",
     "cyclic-7",
     "cyclic-8",
     "cyclic-8@2",
+    "cyclic-8~s",
     "katsura-10",
+    "katsura-10~s",
     "katsura-11",
+    "katsura-11~s",
     "eco-10",
     "eco-11",
     "noon-6",

@@ -465,30 +465,43 @@ impl<'m, F: Field, A: Arith<F>> NewPivots<'m, F, A> {
     /// Only for orders that compare degrees first: under lex, reducing a tail can raise its
     /// degree without bound, and the pairs' degrees then run away (noon-3 over GF(7) reached
     /// degree 4 366 instead of 36).
+    ///
+    /// In chunks from the last pivot backwards: a chunk's rows are first reduced in parallel by
+    /// the rows after the chunk (already final), then by each other, last first.
     fn back_substitute(&mut self, control: &Control) -> Result<()> {
         let width = self.free_cols.len();
         let arith = self.arith;
-        let mut dense = Dense::new(arith, width);
+        let leads: Vec<usize> = (0..width)
+            .filter(|&k| self.pivots[k].get().is_some())
+            .collect();
         let mut done: Vec<Option<Row<A::C>>> = (0..width).map(|_| None).collect();
-        for lead in (0..width).rev() {
-            let Some(row) = self.pivots[lead].take() else {
-                continue;
-            };
-            control.check()?;
-            dense.load(&row.cols[1..], &row.coeffs[1..]);
-            let pivot_of = |k: usize| done[k].as_ref();
-            let mut from = lead + 1;
-            while let Some(k) = dense.sweep(from, &pivot_of) {
-                from = k + 1;
+        let work = AtomicU64::new(0);
+        let mut dense = Dense::new(arith, width);
+        for chunk in leads.rchunks(BACK_SUBSTITUTION_CHUNK) {
+            let rows: Vec<(usize, Row<A::C>)> = chunk
+                .iter()
+                .map(|&lead| (lead, self.pivots[lead].take().expect("installed pivot")))
+                .collect();
+            let by_later = map_items(
+                &rows,
+                2,
+                control,
+                || Dense::new(arith, width),
+                |dense, (lead, row)| {
+                    control.check()?;
+                    let reduced = reduce_fully(dense, *lead, row, &done);
+                    work.fetch_add(std::mem::take(&mut dense.multiply_adds), Ordering::Relaxed);
+                    Ok(reduced)
+                },
+            );
+            for (&lead, row) in chunk.iter().zip(by_later).rev() {
+                let row = reduce_fully(&mut dense, lead, &row?, &done);
+                done[lead] = Some(row);
             }
-            let (cols, coeffs) = dense.extract(lead + 1, None, true);
-            done[lead] = Some(Row {
-                cols: std::iter::once(lead as u32).chain(cols).collect(),
-                coeffs: std::iter::once(arith.one()).chain(coeffs).collect(),
-            });
         }
+        work.fetch_add(dense.multiply_adds, Ordering::Relaxed);
         self.multiply_adds
-            .fetch_add(dense.multiply_adds, Ordering::Relaxed);
+            .fetch_add(work.into_inner(), Ordering::Relaxed);
         for (slot, row) in self.pivots.iter_mut().zip(done) {
             if let Some(row) = row {
                 let _ = slot.set(row);
@@ -521,6 +534,30 @@ impl<'m, F: Field, A: Arith<F>> NewPivots<'m, F, A> {
             zero_rows: self.zero_rows,
             multiply_adds: self.multiply_adds.into_inner(),
         })
+    }
+}
+
+/// Pivot rows back-substituted together (in parallel) before the next chunk.
+const BACK_SUBSTITUTION_CHUNK: usize = 32;
+
+/// `row` (monic, leading column `lead`) with every entry after its lead that has a pivot in
+/// `pivots` eliminated.
+fn reduce_fully<F: Field, A: Arith<F>>(
+    dense: &mut Dense<'_, F, A>,
+    lead: usize,
+    row: &Row<A::C>,
+    pivots: &[Option<Row<A::C>>],
+) -> Row<A::C> {
+    dense.load(&row.cols[1..], &row.coeffs[1..]);
+    let pivot_of = |k: usize| pivots[k].as_ref();
+    let mut from = lead + 1;
+    while let Some(k) = dense.sweep(from, &pivot_of) {
+        from = k + 1;
+    }
+    let (cols, coeffs) = dense.extract(lead + 1, None, true);
+    Row {
+        cols: std::iter::once(lead as u32).chain(cols).collect(),
+        coeffs: std::iter::once(dense.arith.one()).chain(coeffs).collect(),
     }
 }
 
