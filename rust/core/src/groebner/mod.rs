@@ -30,7 +30,8 @@ pub enum Engine {
     F4,
     /// F4 reducing random combinations of each matrix's new rows instead of every row: over a
     /// finite field the basis is the exact one except with probability at most 2^-80 per
-    /// matrix (see [`f4::sampled`]); exact over infinite fields.
+    /// matrix (see [`f4::sampled`]); exact over infinite fields and for orders that do not
+    /// compare degrees first.
     F4Sampled,
 }
 

@@ -49,7 +49,9 @@ pub enum LinearAlgebra {
     #[default]
     Exact,
     /// Random combinations of the new rows are reduced (see [`sampled`]): over a finite field
-    /// the result is the exact one except with probability at most 2^-80 per matrix.
+    /// the result is the exact one except with probability at most 2^-80 per matrix. Orders
+    /// that do not compare degrees first (lex, block orders) stay exact: there the dense rows
+    /// that combinations give would raise the degrees of later pairs without bound.
     Sampled(Sampling),
 }
 
@@ -226,10 +228,12 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             control.check_matrix(stats.rows, stats.columns, step)?;
 
             let clock = Instant::now();
-            // Fully reduced new elements only where that cannot raise degrees (see linalg).
-            let back_substitute = self.ring.order.is_degree_compatible();
+            // Fully reduced new elements only where that cannot raise degrees (see linalg); for
+            // the same reason no sampling under other orders: combinations give dense tails.
+            let degree_order = self.ring.order.is_degree_compatible();
+            let back_substitute = degree_order;
             let echelon = match &mut self.sampler {
-                Some((sampling, rng)) => sampled::reduce_new_rows_sampled(
+                Some((sampling, rng)) if degree_order => sampled::reduce_new_rows_sampled(
                     &self.arith,
                     &matrix,
                     control,
@@ -237,7 +241,7 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
                     self.rank_share,
                     back_substitute,
                 )?,
-                None => linalg::reduce_new_rows(&self.arith, &matrix, control, back_substitute)?,
+                _ => linalg::reduce_new_rows(&self.arith, &matrix, control, back_substitute)?,
             };
             stats.seconds_linear_algebra = clock.elapsed().as_secs_f64();
             stats.multiply_adds = echelon.multiply_adds;

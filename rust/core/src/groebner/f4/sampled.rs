@@ -19,8 +19,7 @@
 //! share of the rows; then the remaining rows are reduced exactly (deterministic), after the
 //! pivots already found.
 
-use super::arith::Arith;
-use super::arith::LANES;
+use super::arith::{Arith, LANES};
 use super::linalg::{reduce_new_rows, Block, Echelon, NewPivots};
 use super::parallel::map_items;
 use super::symbolic::{Row, SymbolicMatrix};

@@ -121,26 +121,32 @@ proptest! {
                 random_poly(&r, &terms)
             })
             .collect();
-        // The reference engine can take very long on a few lex cases; those (rare) cases are
-        // skipped by a degree limit instead of slowing the suite down.
+        // Both engines can take very long on a few cases in lex or the block order (lex inside):
+        // minutes and gigabytes for one lex normal form of the reference engine in four
+        // variables, and F4 runs to high degrees on some block-order cases. Those rare cases are
+        // skipped: lex and block orders stay at two or three variables, and every run is bounded
+        // by a degree limit (a case that reaches it in any engine is dropped).
+        prop_assume!(n <= 3 || matches!(r.order, MonomialOrder::Grlex | MonomialOrder::Grevlex));
         let bounded = Control::new().with_limits(Limits { max_degree: Some(10), ..Default::default() });
         let reference = groebner_basis(&r, &gens, Engine::Buchberger, &bounded);
         prop_assume!(!matches!(reference, Err(Error::ResourceLimit(_))));
         let reference = reference.unwrap().polys;
-        prop_assert_eq!(&f4(&r, &gens).unwrap(), &reference);
-        let (generic, _) = compute_generic(&r, &gens, &Control::new(), &Options::default()).unwrap();
-        prop_assert_eq!(&generic, &reference);
         let one_pair = Options { max_pairs_per_step: Some(1), ..Default::default() };
-        let (capped, _) = compute_with(&r, &gens, &Control::new(), &one_pair).unwrap();
-        prop_assert_eq!(&capped, &reference);
         // Sampling on every matrix, however small, with no exact fallback: the acceptance rule
         // alone must find the whole row space (failure probability ≤ 2^-80 per matrix).
         let sampled = Options {
             linear_algebra: LinearAlgebra::Sampled(sampling_only(seed)),
             ..Default::default()
         };
-        let (by_sampling, _) = compute_with(&r, &gens, &Control::new(), &sampled).unwrap();
-        prop_assert_eq!(&by_sampling, &reference);
+        for (name, result) in [
+            ("f4", compute_with(&r, &gens, &bounded, &Options::default())),
+            ("generic kernel", compute_generic(&r, &gens, &bounded, &Options::default())),
+            ("one pair per step", compute_with(&r, &gens, &bounded, &one_pair)),
+            ("sampled", compute_with(&r, &gens, &bounded, &sampled)),
+        ] {
+            prop_assume!(!matches!(result, Err(Error::ResourceLimit(_))));
+            prop_assert_eq!(&result.unwrap().0, &reference, "{}", name);
+        }
     }
 }
 
