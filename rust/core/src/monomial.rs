@@ -15,6 +15,44 @@ use std::hash::{Hash, Hasher};
 /// The most exponents held without a heap allocation.
 const INLINE: usize = 6;
 
+/// Layout of 64-bit divisibility masks: one bit per (variable, threshold), set when the
+/// exponent exceeds the threshold, so `mask(a) & !mask(b) != 0` proves that a does not divide b
+/// without reading the exponents. With few variables each gets several thresholds (0, 1, 3, 7,
+/// ...); with more than 64 variables the first 64 get one bit each (exponent > 0).
+#[derive(Clone, Debug, Default)]
+pub struct MaskLayout {
+    /// Variables with bits (the first 64 at most) and thresholds per variable.
+    vars: usize,
+    per_var: u32,
+}
+
+impl MaskLayout {
+    pub fn new(nvars: usize) -> Self {
+        let per_var = if nvars == 0 {
+            0
+        } else {
+            (64 / nvars).clamp(1, 8) as u32
+        };
+        MaskLayout {
+            vars: nvars.min(64),
+            per_var,
+        }
+    }
+
+    /// Bit `v·per_var + k` is set when exponent v exceeds 2^k - 1, i.e. for k below the
+    /// exponent's bit length.
+    #[inline]
+    pub fn mask(&self, exps: &[u32]) -> u64 {
+        exps[..self.vars]
+            .iter()
+            .enumerate()
+            .fold(0u64, |m, (v, &e)| {
+                let set = self.per_var.min(u32::BITS - e.leading_zeros());
+                m | ((1u64 << set) - 1) << (v as u32 * self.per_var)
+            })
+    }
+}
+
 #[derive(Clone, Debug)]
 pub struct Monomial {
     degree: u32,
@@ -210,6 +248,15 @@ impl Monomial {
         }
     }
 
+    /// Whether `lcm` is the least common multiple of the two (without building it).
+    pub fn lcm_is(&self, other: &Monomial, lcm: &Monomial) -> bool {
+        let (a, b) = (self.exponents(), other.exponents());
+        lcm.exponents()
+            .iter()
+            .zip(a.iter().zip(b))
+            .all(|(l, (x, y))| *l == *x.max(y))
+    }
+
     /// Whether the two monomials share no variable.
     pub fn coprime(&self, other: &Monomial) -> bool {
         self.exponents()
@@ -284,6 +331,37 @@ mod tests {
 
     /// Monomials in more variables than fit inline compute and compare as the short ones do:
     /// the same operations on x^2·y·z^3 and x·y^4 padded by zeros to 3 and to 9 variables.
+    #[test]
+    fn masks_never_reject_a_divisor_and_lcm_is_recognised() {
+        // Exhaustive over small exponent vectors in 2, 9 and 70 variables (one, several and
+        // at most one threshold per variable; beyond 64 variables the rest get no bits).
+        for nvars in [2usize, 9, 70] {
+            let layout = MaskLayout::new(nvars);
+            let mono = |seed: u32| {
+                Monomial::from_exponents(
+                    (0..nvars as u32)
+                        .map(|v| (seed >> (v % 8)).wrapping_mul(v + 3) % 5)
+                        .collect(),
+                )
+                .unwrap()
+            };
+            let monos: Vec<Monomial> = (0..200).map(mono).collect();
+            for a in &monos {
+                for b in &monos {
+                    let (ma, mb) = (layout.mask(a.exponents()), layout.mask(b.exponents()));
+                    if a.divides(b) {
+                        assert_eq!(ma & !mb, 0, "mask rejected a divisor");
+                    }
+                    assert!(a.lcm_is(b, &a.lcm(b)));
+                    assert_eq!(a.lcm_is(b, b), a.divides(b));
+                }
+            }
+        }
+        // Layout: with 8 variables, 8 bits each; exponent 5 (bit length 3) sets 3 of them.
+        let layout = MaskLayout::new(8);
+        assert_eq!(layout.mask(&[0, 5, 0, 0, 0, 0, 0, 1]), 0b111 << 8 | 1 << 56);
+    }
+
     #[test]
     fn heap_and_inline_exponents_agree() {
         let pad = |e: &[u32], n: usize| {

@@ -2,7 +2,7 @@
 //! in the form of Becker and Weispfenning, *Gröbner Bases*, 1993, procedure UPDATE).
 //! Shared by every engine: engines differ in how they reduce pairs, not in which they keep.
 
-use crate::monomial::Monomial;
+use crate::monomial::{MaskLayout, Monomial};
 
 #[derive(Clone, Debug)]
 pub struct Pair {
@@ -11,6 +11,9 @@ pub struct Pair {
     pub lcm: Monomial,
     /// Sugar degree (Giovini, Mora, Niesi, Robbiano, Traverso 1991) of the S-polynomial.
     pub sugar: u32,
+    /// Divisibility mask of `lcm` (see [`MaskLayout`]): the union of the two leading
+    /// monomials' masks, since each bit tests one exponent against a threshold.
+    mask: u64,
 }
 
 /// The basis under construction as leading monomials, sugars and which elements are still
@@ -22,6 +25,9 @@ pub struct PairSet {
     pub sugars: Vec<u32>,
     pub active: Vec<bool>,
     pub pairs: Vec<Pair>,
+    /// Divisibility masks of `leads`, in the layout set by the first element.
+    lead_masks: Vec<u64>,
+    layout: MaskLayout,
 }
 
 impl PairSet {
@@ -32,6 +38,7 @@ impl PairSet {
         Pair {
             i,
             j,
+            mask: self.lead_masks[i] | self.lead_masks[j],
             lcm,
             sugar: s_i.max(s_j),
         }
@@ -39,40 +46,45 @@ impl PairSet {
 
     /// Adds a basis element with leading monomial `lead` and sugar `sugar`; returns its index.
     pub fn insert(&mut self, lead: Monomial, sugar: u32) -> usize {
+        if self.leads.is_empty() {
+            self.layout = MaskLayout::new(lead.nvars());
+        }
         let t = self.leads.len();
+        let h_mask = self.layout.mask(lead.exponents());
         self.leads.push(lead);
+        self.lead_masks.push(h_mask);
         self.sugars.push(sugar);
         self.active.push(true);
         let h = &self.leads[t];
 
         // New pairs {g, h}: keep one per lcm, and none whose lcm is a multiple of another's.
-        let mut candidates: Vec<Pair> = (0..t)
+        // Candidates are tested before their lcm is built (most are dropped).
+        let candidates: Vec<Candidate> = (0..t)
             .filter(|&g| self.active[g])
+            .map(|g| Candidate {
+                g,
+                mask: self.lead_masks[g] | h_mask,
+                degree: lcm_degree(&self.leads[g], h),
+                coprime: self.leads[g].coprime(h),
+            })
+            .collect();
+        let kept: Vec<Pair> = undominated(candidates, &self.leads, h)
+            .into_iter()
             .map(|g| self.pair(g, t))
             .collect();
-        let mut kept: Vec<Pair> = Vec::new();
-        while let Some(p) = candidates.pop() {
-            let coprime = self.leads[p.i].coprime(h);
-            let dominated = candidates
-                .iter()
-                .chain(kept.iter())
-                .any(|q| q.lcm.divides(&p.lcm));
-            if coprime || !dominated {
-                kept.push(p);
-            }
-        }
-        // Buchberger's product criterion: coprime leading monomials reduce to zero.
-        kept.retain(|p| !self.leads[p.i].coprime(h));
 
         // Old pairs whose lcm is a multiple of lead(h), strictly "in between" (chain criterion).
         let leads = &self.leads;
         self.pairs.retain(|p| {
-            !(h.divides(&p.lcm) && leads[p.i].lcm(h) != p.lcm && leads[p.j].lcm(h) != p.lcm)
+            !(h_mask & !p.mask == 0
+                && h.divides(&p.lcm)
+                && !leads[p.i].lcm_is(h, &p.lcm)
+                && !leads[p.j].lcm_is(h, &p.lcm))
         });
         self.pairs.extend(kept);
 
         for g in 0..t {
-            if self.active[g] && h.divides(&self.leads[g]) {
+            if self.active[g] && h_mask & !self.lead_masks[g] == 0 && h.divides(&self.leads[g]) {
                 self.active[g] = false;
             }
         }
@@ -110,5 +122,144 @@ impl PairSet {
     /// Indices of the elements still needed for the final basis.
     pub fn active_indices(&self) -> Vec<usize> {
         (0..self.leads.len()).filter(|&i| self.active[i]).collect()
+    }
+}
+
+/// A new pair {g, h} before its lcm is built: the lcm's mask and degree.
+#[derive(Clone, Copy)]
+struct Candidate {
+    g: usize,
+    mask: u64,
+    degree: u32,
+    coprime: bool,
+}
+
+fn lcm_degree(a: &Monomial, b: &Monomial) -> u32 {
+    let sum: u64 = a
+        .exponents()
+        .iter()
+        .zip(b.exponents())
+        .map(|(x, y)| u64::from(*x.max(y)))
+        .sum();
+    u32::try_from(sum).unwrap_or(u32::MAX)
+}
+
+/// The candidates (given by increasing g) by (degree, coprime first, g): a stable counting
+/// sort, as the degrees span a short range and there are often thousands of candidates.
+fn sorted_by_degree(candidates: Vec<Candidate>) -> Vec<Candidate> {
+    let Some(low) = candidates.iter().map(|c| c.degree).min() else {
+        return candidates;
+    };
+    let key = |c: &Candidate| 2 * (c.degree - low) as usize + usize::from(!c.coprime);
+    let mut starts = vec![0usize; candidates.iter().map(key).max().unwrap_or(0) + 2];
+    for c in &candidates {
+        starts[key(c) + 1] += 1;
+    }
+    for k in 1..starts.len() {
+        starts[k] += starts[k - 1];
+    }
+    let mut sorted = candidates.clone();
+    for c in candidates {
+        let k = key(&c);
+        sorted[starts[k]] = c;
+        starts[k] += 1;
+    }
+    sorted
+}
+
+/// Whether lcm(a, h) divides lcm(b, h).
+fn lcm_divides_lcm(a: &Monomial, b: &Monomial, h: &Monomial) -> bool {
+    let (a, b) = (a.exponents(), b.exponents());
+    h.exponents()
+        .iter()
+        .zip(a.iter().zip(b))
+        .all(|(z, (x, y))| x.max(z) <= y.max(z))
+}
+
+/// The new pairs kept by the Gebauer–Möller criterion on new pairs and Buchberger's product
+/// criterion, by decreasing g. A pair p is dropped when it is coprime, or when another
+/// candidate q has an lcm dividing p's and either a smaller lcm, or the same lcm and (q is
+/// coprime or q.g < p.g): of equal lcms the first is kept, unless one is coprime (then all go).
+/// This is the outcome of the usual one-by-one procedure (each candidate tested against those
+/// not yet tested and those kept), in closed form.
+///
+/// Candidates are visited by (degree, coprime first, g), so every q that can drop p comes before
+/// it; p is tested only against the candidates not dropped so far and the coprime ones (a
+/// dropped, not coprime q that would drop p was itself dropped by one of those, which then
+/// drops p too).
+fn undominated(candidates: Vec<Candidate>, leads: &[Monomial], h: &Monomial) -> Vec<usize> {
+    let candidates = sorted_by_degree(candidates);
+    let mut witnesses: Vec<&Candidate> = Vec::new();
+    let mut kept = Vec::new();
+    for p in &candidates {
+        let dropped = witnesses.iter().any(|q| {
+            q.mask & !p.mask == 0
+                && (q.degree < p.degree || q.coprime || q.g < p.g)
+                && lcm_divides_lcm(&leads[q.g], &leads[p.g], h)
+        });
+        if p.coprime || !dropped {
+            witnesses.push(p);
+        }
+        if !p.coprime && !dropped {
+            kept.push(p.g);
+        }
+    }
+    kept.sort_unstable_by(|a, b| b.cmp(a));
+    kept
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::rng::Rng;
+
+    /// The update as usually written, one candidate at a time: each new pair is tested against
+    /// the candidates not yet tested and those kept; then the product and chain criteria.
+    fn update_one_by_one(before: &PairSet, h: &Monomial) -> Vec<(usize, usize)> {
+        let t = before.leads.len();
+        let lcm = |a: &Monomial| a.lcm(h);
+        let mut candidates: Vec<usize> = (0..t).filter(|&g| before.active[g]).collect();
+        let mut kept: Vec<usize> = Vec::new();
+        while let Some(g) = candidates.pop() {
+            let l = lcm(&before.leads[g]);
+            let coprime = before.leads[g].coprime(h);
+            let dominated = candidates
+                .iter()
+                .chain(kept.iter())
+                .any(|&q| lcm(&before.leads[q]).divides(&l));
+            if coprime || !dominated {
+                kept.push(g);
+            }
+        }
+        kept.retain(|&g| !before.leads[g].coprime(h));
+        let mut pairs: Vec<(usize, usize)> = before
+            .pairs
+            .iter()
+            .filter(|p| {
+                !(h.divides(&p.lcm)
+                    && before.leads[p.i].lcm(h) != p.lcm
+                    && before.leads[p.j].lcm(h) != p.lcm)
+            })
+            .map(|p| (p.i, p.j))
+            .collect();
+        pairs.extend(kept.into_iter().map(|g| (g, t)));
+        pairs
+    }
+
+    #[test]
+    fn closed_form_update_matches_the_one_by_one_procedure() {
+        // Random leading monomials with small exponents give many equal and dividing lcms.
+        let mut rng = Rng::new(7);
+        for (case, nvars) in (0..60).zip([2usize, 3, 4, 5].iter().cycle()) {
+            let mut pairs = PairSet::default();
+            for _ in 0..(60 + 5 * case) {
+                let exps = (0..*nvars).map(|_| rng.below(4) as u32).collect();
+                let h = Monomial::from_exponents(exps).unwrap();
+                let expected = update_one_by_one(&pairs, &h);
+                pairs.insert(h, 0);
+                let got: Vec<(usize, usize)> = pairs.pairs.iter().map(|p| (p.i, p.j)).collect();
+                assert_eq!(got, expected, "case {case}");
+            }
+        }
     }
 }

@@ -3,16 +3,15 @@
 //!
 //! Hashing is linear in the exponent vector (h(a·b) = h(a) + h(b) with fixed pseudo-random
 //! weights per variable), so the hash of a product costs one addition. Each entry also carries a
-//! 64-bit divisibility mask: one bit per (variable, threshold), set when the exponent exceeds the
-//! threshold, so `mask(a) & !mask(b) != 0` proves that a does not divide b without reading the
-//! exponents; divisor searches mostly stop there.
+//! 64-bit divisibility mask ([`MaskLayout`]), so divisor searches mostly stop without reading
+//! exponents.
 //!
 //! With at most 16 variables and degrees below 256 (nearly every F4 run), each monomial is also
 //! kept packed, one byte per exponent in a u128: a product is then one 128-bit addition (no byte
 //! can carry when the degrees sum below 256) and a comparison one 128-bit equality.
 
 use crate::error::{Error, Result};
-use crate::monomial::Monomial;
+use crate::monomial::{MaskLayout, Monomial};
 use crate::order::MonomialOrder;
 use crate::rng::Rng;
 use std::cmp::Ordering;
@@ -32,8 +31,7 @@ pub struct MonomialTable {
     /// so most mismatches are rejected without reading the monomial. Length is a power of two.
     slots: Vec<u64>,
     weights: Vec<u64>,
-    /// Bit layout of the masks: (variable, threshold) per bit.
-    mask_bits: Vec<(usize, u32)>,
+    mask_layout: MaskLayout,
     scratch: Vec<u32>,
 }
 
@@ -52,7 +50,7 @@ impl MonomialTable {
             packed: (nvars <= PACKED_VARS).then(Vec::new),
             slots: vec![0; 1 << 12],
             weights,
-            mask_bits: mask_layout(nvars),
+            mask_layout: MaskLayout::new(nvars),
             scratch: vec![0; nvars],
         }
     }
@@ -244,7 +242,7 @@ impl MonomialTable {
             .ok()
             .filter(|&i| i < u32::MAX)
             .ok_or_else(|| Error::ResourceLimit("more than 2^32 - 1 distinct monomials".into()))?;
-        self.masks.push(self.mask_of(m.exponents()));
+        self.masks.push(self.mask_layout.mask(m.exponents()));
         if m.degree() > PACKED_MAX_DEGREE {
             self.packed = None;
         }
@@ -273,14 +271,6 @@ impl MonomialTable {
         }
         self.slots = slots;
     }
-
-    fn mask_of(&self, exps: &[u32]) -> u64 {
-        self.mask_bits
-            .iter()
-            .enumerate()
-            .filter(|(_, &(v, t))| exps[v] > t)
-            .fold(0u64, |m, (bit, _)| m | (1 << bit))
-    }
 }
 
 /// Most variables whose exponents are also kept packed, and the highest degree they may have.
@@ -299,22 +289,6 @@ const TAG_MASK: u64 = !0u64 << 32;
 
 fn overflow() -> Error {
     Error::Overflow("exponent overflow: a degree exceeds 2^32 - 1".into())
-}
-
-/// Up to 64 mask bits: with few variables several thresholds (0, 1, 3, 7, ...) per variable,
-/// with more than 64 variables the first 64 get one bit each (exponent > 0).
-fn mask_layout(nvars: usize) -> Vec<(usize, u32)> {
-    if nvars == 0 {
-        return vec![];
-    }
-    let per_var = (64 / nvars).clamp(1, 8);
-    let mut bits = Vec::new();
-    for v in 0..nvars.min(64) {
-        for k in 0..per_var {
-            bits.push((v, (1u32 << k) - 1));
-        }
-    }
-    bits
 }
 
 #[cfg(test)]

@@ -6,6 +6,7 @@ use rayon::prelude::*;
 
 /// `work` on every item with a per-thread scratch from `init`, in order: in parallel when there
 /// are at least `min_parallel` items and more than one thread is allowed, sequentially otherwise.
+#[inline(never)] // one call per phase; kept visible to profilers
 pub fn map_items<T: Sync, D, R: Send>(
     items: &[T],
     min_parallel: usize,

@@ -102,14 +102,41 @@ impl<C> Closure<'_, C> {
         self.state.get(m as usize).copied().unwrap_or(UNSEEN)
     }
 
-    /// The monomials of mult · basis[element].
-    fn expand(&mut self, mult: Multiple) -> Result<Vec<u32>> {
-        let basis = self.basis;
-        basis[mult.element]
-            .monos
-            .iter()
-            .map(|&t| self.table.mul(mult.mult, t))
-            .collect()
+    /// The monomials of every `rows[i]` = mult · basis[element]: looked up in parallel in the
+    /// (then read-only) table, the products not yet stored added afterwards, in order.
+    fn expand_all(&mut self, rows: &[Multiple], control: &Control) -> Result<Vec<Vec<u32>>>
+    where
+        C: Send + Sync,
+    {
+        let (table, basis): (&MonomialTable, _) = (self.table, self.basis);
+        let mut found = map_items(
+            rows,
+            PARALLEL_MIN_MONOMIALS,
+            control,
+            Vec::new,
+            |buf, row| {
+                basis[row.element]
+                    .monos
+                    .iter()
+                    .map(|&t| table.find_product(row.mult, t, buf).unwrap_or(MISSING))
+                    .collect::<Vec<u32>>()
+            },
+        );
+        for (&row, monos) in rows.iter().zip(&mut found) {
+            self.store_missing(row, monos)?;
+        }
+        Ok(found)
+    }
+
+    /// Fills the `MISSING` entries of the monomials of `row`, adding those products to the table.
+    fn store_missing(&mut self, row: Multiple, monos: &mut [u32]) -> Result<()> {
+        let element = &self.basis[row.element].monos;
+        for (slot, &t) in monos.iter_mut().zip(element) {
+            if *slot == MISSING {
+                *slot = self.table.mul(row.mult, t)?;
+            }
+        }
+        Ok(())
     }
 
     fn visit_tail(&mut self, monos: &[u32]) {
@@ -129,16 +156,12 @@ impl<C> Closure<'_, C> {
             mult,
             element: found.element,
         };
-        if found.monos.is_empty() {
-            return Ok((multiple, self.expand(multiple)?));
-        }
-        let mut monos = found.monos;
-        let element = &self.basis[found.element].monos;
-        for (slot, &t) in monos.iter_mut().zip(element) {
-            if *slot == MISSING {
-                *slot = self.table.mul(mult, t)?;
-            }
-        }
+        let mut monos = if found.monos.is_empty() {
+            vec![MISSING; self.basis[found.element].monos.len()]
+        } else {
+            found.monos
+        };
+        self.store_missing(multiple, &mut monos)?;
         Ok((multiple, monos))
     }
 }
@@ -210,18 +233,16 @@ pub fn preprocess<C: Send + Sync>(
         seen: vec![],
         todo: vec![],
     };
-    let mut reducers: Vec<(Multiple, Vec<u32>)> = Vec::with_capacity(known.len());
-    let mut new_rows: Vec<(Multiple, Vec<u32>)> = Vec::with_capacity(new.len());
-    for &k in known {
-        let monos = closure.expand(k)?;
+    let known_monos = closure.expand_all(known, control)?;
+    let new_monos = closure.expand_all(new, control)?;
+    for monos in &known_monos {
         closure.mark(monos[0], PIVOT);
-        reducers.push((k, monos));
     }
-    for &k in new {
-        let monos = closure.expand(k)?;
+    for monos in &new_monos {
         closure.mark(monos[0], PENDING);
-        new_rows.push((k, monos));
     }
+    let mut reducers: Vec<(Multiple, Vec<u32>)> = known.iter().copied().zip(known_monos).collect();
+    let new_rows: Vec<(Multiple, Vec<u32>)> = new.iter().copied().zip(new_monos).collect();
     for (_, monos) in reducers.iter().chain(&new_rows) {
         closure.visit_tail(monos);
     }
