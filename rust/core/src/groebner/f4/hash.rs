@@ -14,6 +14,7 @@ use crate::error::{Error, Result};
 use crate::monomial::{MaskLayout, Monomial};
 use crate::order::MonomialOrder;
 use crate::rng::Rng;
+use rayon::slice::ParallelSliceMut;
 use std::cmp::Ordering;
 
 pub struct MonomialTable {
@@ -81,6 +82,46 @@ impl MonomialTable {
         }
         self.order
             .cmp(&self.monos[a as usize], &self.monos[b as usize])
+    }
+
+    /// Sorts `monos` in decreasing order, on the current rayon pool when `parallel`.
+    pub fn sort_decreasing(&self, monos: &mut [u32], parallel: bool) {
+        let Some(key) = self.grevlex_key() else {
+            if parallel {
+                monos.par_sort_unstable_by(|&a, &b| self.cmp(b, a));
+            } else {
+                monos.sort_unstable_by(|&a, &b| self.cmp(b, a));
+            }
+            return;
+        };
+        let mut keyed: Vec<(u128, u32)> = monos.iter().map(|&m| (key(m), m)).collect();
+        if parallel {
+            keyed.par_sort_unstable_by(|a, b| b.0.cmp(&a.0));
+        } else {
+            keyed.sort_unstable_by(|a, b| b.0.cmp(&a.0));
+        }
+        for (slot, (_, m)) in monos.iter_mut().zip(keyed) {
+            *slot = m;
+        }
+    }
+
+    /// Under grevlex with at most 15 variables and degrees below 256 (while packed), a key whose
+    /// integer order is the monomial order: the degree in the top byte, then 255 - e_i from the
+    /// last variable to the first (at the last variable where two monomials of equal degree
+    /// differ, the smaller exponent is the larger monomial). Keys are one comparison instead of
+    /// a walk through two exponent vectors.
+    fn grevlex_key(&self) -> Option<impl Fn(u32) -> u128 + Sync + '_> {
+        if self.order != MonomialOrder::Grevlex || self.nvars > 15 || self.packed.is_none() {
+            return None;
+        }
+        Some(move |m: u32| {
+            let exps = self.exps_of(m);
+            let degree: u32 = exps.iter().sum();
+            exps.iter()
+                .rev()
+                .fold(u128::from(degree), |key, &e| key << 8 | u128::from(255 - e))
+                << (8 * (15 - self.nvars))
+        })
     }
 
     /// Whether monomial `a` divides monomial `b` (mask first, exponents only when needed).
@@ -294,6 +335,37 @@ fn overflow() -> Error {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn keyed_sort_agrees_with_the_order() {
+        // Grevlex keys (up to 15 variables) and the comparator fallback (other orders, 16
+        // variables) must give the order's decreasing sequence.
+        let mut rng = crate::rng::Rng::new(11);
+        for (nvars, order) in [
+            (3, MonomialOrder::Grevlex),
+            (8, MonomialOrder::Grevlex),
+            (15, MonomialOrder::Grevlex),
+            (16, MonomialOrder::Grevlex),
+            (8, MonomialOrder::Lex),
+        ] {
+            let mut t = MonomialTable::new(nvars, order.clone());
+            let mut monos: Vec<u32> = (0..500)
+                .map(|_| {
+                    let exps = (0..nvars).map(|_| rng.below(4) as u32).collect();
+                    t.insert(&Monomial::from_exponents(exps).unwrap())
+                })
+                .collect();
+            monos.sort_unstable();
+            monos.dedup();
+            let mut expected = monos.clone();
+            expected.sort_by(|&a, &b| order.cmp(t.monomial(b), t.monomial(a)));
+            for parallel in [false, true] {
+                let mut got = monos.clone();
+                t.sort_decreasing(&mut got, parallel);
+                assert_eq!(got, expected, "{nvars} variables, {order:?}");
+            }
+        }
+    }
 
     #[test]
     fn products_quotients_and_masks_agree_with_monomials() {

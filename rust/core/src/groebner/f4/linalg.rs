@@ -477,26 +477,32 @@ impl<'m, F: Field, A: Arith<F>> NewPivots<'m, F, A> {
         let mut done: Vec<Option<Row<A::C>>> = (0..width).map(|_| None).collect();
         let work = AtomicU64::new(0);
         let mut dense = Dense::new(arith, width);
-        for chunk in leads.rchunks(BACK_SUBSTITUTION_CHUNK) {
+        for (number, chunk) in leads.rchunks(BACK_SUBSTITUTION_CHUNK).enumerate() {
             let rows: Vec<(usize, Row<A::C>)> = chunk
                 .iter()
                 .map(|&lead| (lead, self.pivots[lead].take().expect("installed pivot")))
                 .collect();
-            let by_later = map_items(
-                &rows,
-                2,
-                control,
-                || Dense::new(arith, width),
-                |dense, (lead, row)| {
-                    control.check()?;
-                    let reduced = reduce_fully(dense, *lead, row, &done);
-                    work.fetch_add(std::mem::take(&mut dense.multiply_adds), Ordering::Relaxed);
-                    Ok(reduced)
-                },
-            );
-            for (&lead, row) in chunk.iter().zip(by_later).rev() {
-                let row = reduce_fully(&mut dense, lead, &row?, &done);
-                done[lead] = Some(row);
+            // The last chunk has no rows after it.
+            let rows_after = number > 0;
+            let by_later: Vec<Result<Row<A::C>>> = if !rows_after {
+                rows.into_iter().map(|(_, row)| Ok(row)).collect()
+            } else {
+                map_items(
+                    &rows,
+                    2,
+                    control,
+                    || Dense::new(arith, width),
+                    |dense, (lead, row)| {
+                        control.check()?;
+                        let reduced = reduce_fully(dense, *lead, row, &done);
+                        work.fetch_add(std::mem::take(&mut dense.multiply_adds), Ordering::Relaxed);
+                        Ok(reduced)
+                    },
+                )
+            };
+            for (i, row) in by_later.into_iter().enumerate().rev() {
+                let row = reduce_within_chunk(&mut dense, chunk[i], &row?, &chunk[i + 1..], &done);
+                done[chunk[i]] = Some(row);
             }
         }
         work.fetch_add(dense.multiply_adds, Ordering::Relaxed);
@@ -554,6 +560,32 @@ fn reduce_fully<F: Field, A: Arith<F>>(
     while let Some(k) = dense.sweep(from, &pivot_of) {
         from = k + 1;
     }
+    monic_row(dense, lead)
+}
+
+/// `row` (monic, leading column `lead`, already reduced by every pivot after its chunk)
+/// reduced by the final rows of the pivots after it in its own chunk, whose leading columns are
+/// `later` (increasing). Only those columns can still hold entries with a pivot, and a final row
+/// has none at the columns of the pivots after it: one pass over `later` suffices, where
+/// [`reduce_fully`] would sweep every column.
+fn reduce_within_chunk<F: Field, A: Arith<F>>(
+    dense: &mut Dense<'_, F, A>,
+    lead: usize,
+    row: &Row<A::C>,
+    later: &[usize],
+    pivots: &[Option<Row<A::C>>],
+) -> Row<A::C> {
+    dense.load(&row.cols[1..], &row.coeffs[1..]);
+    let pivot_of = |k: usize| pivots[k].as_ref();
+    for &k in later {
+        dense.eliminate(k, &pivot_of);
+    }
+    monic_row(dense, lead)
+}
+
+/// The row with leading entry one at `lead` and the accumulator's entries after it as tail
+/// (which it clears).
+fn monic_row<F: Field, A: Arith<F>>(dense: &mut Dense<'_, F, A>, lead: usize) -> Row<A::C> {
     let (cols, coeffs) = dense.extract(lead + 1, None, true);
     Row {
         cols: std::iter::once(lead as u32).chain(cols).collect(),

@@ -8,7 +8,6 @@ use super::hash::MonomialTable;
 use super::parallel::map_items;
 use crate::control::Control;
 use crate::error::Result;
-use rayon::slice::ParallelSliceMut;
 use std::sync::Arc;
 
 /// A basis element: monomial indices in decreasing order and their coefficients (monic: the first
@@ -276,11 +275,8 @@ pub fn preprocess<C: Send + Sync>(
     let Closure {
         table, mut seen, ..
     } = closure;
-    if seen.len() >= PARALLEL_MIN_SORT && control.limits.threads != Some(1) {
-        seen.par_sort_unstable_by(|&a, &b| table.cmp(b, a));
-    } else {
-        seen.sort_unstable_by(|&a, &b| table.cmp(b, a));
-    }
+    let parallel = seen.len() >= PARALLEL_MIN_SORT && control.limits.threads != Some(1);
+    table.sort_decreasing(&mut seen, parallel);
     let mut col_of = vec![u32::MAX; table.len()];
     for (c, &m) in seen.iter().enumerate() {
         col_of[m as usize] = c as u32;
