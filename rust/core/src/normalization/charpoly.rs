@@ -10,7 +10,7 @@
 //! Otherwise, by Berkowitz's division-free algorithm (Berkowitz 1984) directly over k[T], which
 //! works in every characteristic, GF(2) included.
 
-use super::scalars::{Generic, Scalars, Words};
+use super::scalars::{Generic, Scalars, Words, LANES};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
@@ -152,18 +152,30 @@ fn interpolate_in<S: Scalars>(
             .collect(),
     );
     let entries = EntryTerms::new(s, a);
+    let columns = Columns::new(r, |j, k| !a[j][k].is_zero());
     let projection = projection_vector(s, field, r);
     // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
     let mut values = vec![vec![s.zero(); set.exponents.len()]; r + 1];
-    for (g, alpha) in set.exponents.iter().enumerate() {
+    // The points in groups of LANES: their matrices share the nonzero pattern, so their Krylov
+    // sequences are computed side by side.
+    for first in (0..set.exponents.len()).step_by(LANES) {
         control.check()?;
-        let point: Vec<&S::E> = alpha.iter().map(|&j| &nodes.points[j as usize]).collect();
-        let scalar = entries.evaluate(s, &point);
-        for (k, c) in scalar_charpoly(s, scalar, &projection)
-            .into_iter()
-            .enumerate()
-        {
-            values[k][g] = c;
+        let group = first..(first + LANES).min(set.exponents.len());
+        let matrices: Vec<Vec<Vec<S::E>>> = set.exponents[group.clone()]
+            .iter()
+            .map(|alpha| {
+                let point: Vec<&S::E> = alpha.iter().map(|&j| &nodes.points[j as usize]).collect();
+                entries.evaluate(s, &point)
+            })
+            .collect();
+        let sequences = columns.sequences(s, &matrices, &projection);
+        for ((g, matrix), sequence) in group.zip(matrices).zip(sequences) {
+            for (k, c) in scalar_charpoly(s, matrix, &sequence)
+                .into_iter()
+                .enumerate()
+            {
+                values[k][g] = c;
+            }
         }
     }
     let mut out = Vec::with_capacity(r + 1);
@@ -404,48 +416,147 @@ fn newton_to_monomial<S: Scalars>(s: &S, xs: &[S::E], dd: &[S::E]) -> Vec<S::E> 
 }
 
 /// det(x·Id - A) of a scalar matrix, coefficients low to high. First as the minimal
-/// polynomial of the sequence u·w_k, w_k = (A^T)^k e_1, for the fixed vector `projection` = u:
-/// it divides det(x·Id - A), so when its degree is r the two are equal. The 2r products
-/// A^T·w run over the nonzero entries only (a matrix of multiplication by an element on
-/// standard monomials has unit rows wherever x·b is standard again) with one reduction per
-/// dot product, and Berlekamp–Massey then costs O(r^2) where solving for the coefficients
-/// would cost O(r^3). When the degree is smaller (the matrix is not cyclic for e_1, or u is
-/// unlucky), by Hessenberg reduction, which always works.
-fn scalar_charpoly<S: Scalars>(s: &S, a: Vec<Vec<S::E>>, projection: &[S::E]) -> Vec<S::E> {
-    sequence_charpoly(s, &a, projection).unwrap_or_else(|| hessenberg_charpoly(s, a))
+/// polynomial of the sequence u·w_k, w_k = (A^T)^k e_1, k < 2r, for the fixed vector
+/// `projection` = u (`sequence`, from [`Columns::sequences`]): it divides det(x·Id - A), so
+/// when its degree is r the two are equal (Wiedemann 1986: the minimal polynomial of a
+/// projected Krylov sequence; Krylov 1931). The 2r products A^T·w run over the nonzero entries
+/// only (a matrix of multiplication by an element on standard monomials has unit rows wherever
+/// x·b is standard again), and Berlekamp–Massey then costs O(r^2) where solving for the
+/// coefficients would cost O(r^3). When the degree is smaller (the matrix is not cyclic for
+/// e_1, or u is unlucky), by Hessenberg reduction, which always works.
+fn scalar_charpoly<S: Scalars>(s: &S, a: Vec<Vec<S::E>>, sequence: &[S::E]) -> Vec<S::E> {
+    let r = a.len();
+    let connection = berlekamp_massey(s, sequence);
+    if connection.len() == r + 1 {
+        connection.into_iter().rev().collect()
+    } else {
+        hessenberg_charpoly(s, a)
+    }
 }
 
-/// det(x·Id - A) as the minimal polynomial of the scalar sequence u·(A^T)^k e_1, k < 2r,
-/// when that has degree r (Wiedemann 1986: the minimal polynomial of a projected Krylov
-/// sequence; Krylov 1931); `None` otherwise.
-fn sequence_charpoly<S: Scalars>(s: &S, a: &[Vec<S::E>], u: &[S::E]) -> Option<Vec<S::E>> {
-    let r = a.len();
-    // The nonzero entries of each column of A, i.e. of each row of A^T.
-    let sparse_columns: Vec<Vec<(usize, &S::E)>> = (0..r)
-        .map(|col| {
-            (0..r)
-                .filter(|&j| !s.is_zero(&a[j][col]))
-                .map(|j| (j, &a[j][col]))
-                .collect()
-        })
-        .collect();
-    let mut sequence = Vec::with_capacity(2 * r);
-    let mut w = vec![s.zero(); r];
-    let mut next = vec![s.zero(); r];
-    if r > 0 {
-        w[0] = s.one();
-    }
-    for k in 0..2 * r {
-        sequence.push(s.dot(u.iter().zip(&w)));
-        if k + 1 < 2 * r {
-            for (out, column) in next.iter_mut().zip(&sparse_columns) {
-                *out = s.dot(column.iter().map(|&(j, c)| (&w[j], c)));
-            }
-            std::mem::swap(&mut w, &mut next);
+/// The positions (j, k) of an r × r matrix A that may be nonzero, by column k: what row k of
+/// A^T reads. Several matrices with this pattern run their products A^T·w side by side, one
+/// per lane of [`Scalars::lanes_mul_add`].
+struct Columns {
+    /// Column k holds the rows rows[starts[k]..starts[k + 1]].
+    starts: Vec<usize>,
+    rows: Vec<usize>,
+}
+
+impl Columns {
+    fn new(r: usize, nonzero: impl Fn(usize, usize) -> bool) -> Self {
+        let mut starts = vec![0];
+        let mut rows = Vec::new();
+        for k in 0..r {
+            rows.extend((0..r).filter(|&j| nonzero(j, k)));
+            starts.push(rows.len());
         }
+        Columns { starts, rows }
     }
-    let connection = berlekamp_massey(s, &sequence);
-    (connection.len() == r + 1).then(|| connection.into_iter().rev().collect())
+
+    /// For each matrix (at most LANES of them, zero outside the pattern) the sequence
+    /// u·(A^T)^k e_1, k < 2r. Picks the widest vector instructions the CPU has: the lane loops
+    /// are the same code either way.
+    fn sequences<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        #[cfg(target_arch = "x86_64")]
+        {
+            if std::arch::is_x86_feature_detected!("avx512f") {
+                // SAFETY: the CPU has AVX-512F.
+                return unsafe { self.sequences_avx512(s, matrices, u) };
+            }
+            if std::arch::is_x86_feature_detected!("avx2") {
+                // SAFETY: the CPU has AVX2.
+                return unsafe { self.sequences_avx2(s, matrices, u) };
+            }
+        }
+        self.sequences_in_lanes(s, matrices, u)
+    }
+
+    /// `sequences_in_lanes` compiled for AVX2.
+    ///
+    /// # Safety
+    /// The CPU supports AVX2.
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx2")]
+    unsafe fn sequences_avx2<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        self.sequences_in_lanes(s, matrices, u)
+    }
+
+    /// `sequences_in_lanes` compiled for AVX-512.
+    ///
+    /// # Safety
+    /// The CPU supports AVX-512F.
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx512f")]
+    unsafe fn sequences_avx512<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        self.sequences_in_lanes(s, matrices, u)
+    }
+
+    #[inline(always)]
+    fn sequences_in_lanes<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        let r = self.starts.len() - 1;
+        let count = matrices.len();
+        assert!((1..=LANES).contains(&count), "1 to LANES matrices");
+        // Entry t of the pattern in every lane; lanes past `count` repeat the last matrix.
+        let lanes = |entry: &dyn Fn(&Vec<Vec<S::E>>) -> S::E| -> [S::E; LANES] {
+            std::array::from_fn(|l| entry(&matrices[l.min(count - 1)]))
+        };
+        let values: Vec<[S::E; LANES]> = (0..r)
+            .flat_map(|k| {
+                self.rows[self.starts[k]..self.starts[k + 1]]
+                    .iter()
+                    .map(move |&j| (j, k))
+            })
+            .map(|(j, k)| lanes(&|m| m[j][k].clone()))
+            .collect();
+        let projection: Vec<[S::E; LANES]> = u.iter().map(|x| lanes(&|_| x.clone())).collect();
+        let mut w = vec![lanes(&|_| s.zero()); r];
+        if r > 0 {
+            w[0] = lanes(&|_| s.one());
+        }
+        let mut next = w.clone();
+        let mut sequences = vec![Vec::with_capacity(2 * r); count];
+        for k in 0..2 * r {
+            let mut acc = s.lanes_zero();
+            for (x, y) in projection.iter().zip(&w) {
+                s.lanes_mul_add(&mut acc, x, y);
+            }
+            for (sequence, value) in sequences.iter_mut().zip(s.lanes_finish(&acc)) {
+                sequence.push(value);
+            }
+            if k + 1 < 2 * r {
+                for (out, column) in next.iter_mut().zip(self.starts.windows(2)) {
+                    let mut acc = s.lanes_zero();
+                    for t in column[0]..column[1] {
+                        s.lanes_mul_add(&mut acc, &values[t], &w[self.rows[t]]);
+                    }
+                    *out = s.lanes_finish(&acc);
+                }
+                std::mem::swap(&mut w, &mut next);
+            }
+        }
+        sequences
+    }
 }
 
 /// The shortest recurrence s_n + c_1 s_{n-1} + ... + c_L s_{n-L} = 0 (n ≥ L) of the sequence,
@@ -649,6 +760,24 @@ mod tests {
         }
     }
 
+    /// The sequence u·(A^T)^k e_1, k < 2r, of one matrix, through the lanes.
+    fn sequence<S: Scalars>(s: &S, a: &[Vec<S::E>], u: &[S::E]) -> Vec<S::E> {
+        let columns = Columns::new(a.len(), |j, k| !s.is_zero(&a[j][k]));
+        columns.sequences(s, &[a.to_vec()], u).pop().unwrap()
+    }
+
+    /// det(x·Id - A) by the sequence when it has full degree, else by Hessenberg reduction.
+    fn charpoly_of<S: Scalars>(s: &S, a: Vec<Vec<S::E>>, u: &[S::E]) -> Vec<S::E> {
+        let sequence = sequence(s, &a, u);
+        scalar_charpoly(s, a, &sequence)
+    }
+
+    /// det(x·Id - A) by the sequence alone: `None` when its minimal polynomial falls short.
+    fn sequence_charpoly<S: Scalars>(s: &S, a: &[Vec<S::E>], u: &[S::E]) -> Option<Vec<S::E>> {
+        let connection = berlekamp_massey(s, &sequence(s, a, u));
+        (connection.len() == a.len() + 1).then(|| connection.into_iter().rev().collect())
+    }
+
     /// The sequence shortcut agrees with Hessenberg reduction where it applies, and declines
     /// the matrices that are not cyclic for the first unit vector (a scalar matrix); both in the
     /// field's arithmetic and in machine words.
@@ -671,8 +800,8 @@ mod tests {
                 }
                 let expected = hessenberg_charpoly(&generic, a.clone());
                 assert_eq!(hessenberg_charpoly(&words, a.clone()), expected);
-                assert_eq!(scalar_charpoly(&generic, a.clone(), &u), expected);
-                assert_eq!(scalar_charpoly(&words, a, &u), expected);
+                assert_eq!(charpoly_of(&generic, a.clone(), &u), expected);
+                assert_eq!(charpoly_of(&words, a, &u), expected);
             }
         }
         assert!(
@@ -683,8 +812,8 @@ mod tests {
         let u = projection_vector(&generic, &field, 2);
         assert_eq!(sequence_charpoly(&generic, &scalar, &u), None);
         // (x - 3)^2 = x^2 - 6x + 9 over GF(101).
-        assert_eq!(scalar_charpoly(&words, scalar.clone(), &u), vec![9, 95, 1]);
-        assert_eq!(scalar_charpoly(&generic, scalar, &u), vec![9, 95, 1]);
+        assert_eq!(charpoly_of(&words, scalar.clone(), &u), vec![9, 95, 1]);
+        assert_eq!(charpoly_of(&generic, scalar, &u), vec![9, 95, 1]);
     }
 
     /// Berlekamp–Massey finds the Fibonacci recurrence s_n - s_{n-1} - s_{n-2} = 0 from four
@@ -738,7 +867,7 @@ mod tests {
             let expected = hessenberg_charpoly(&Generic(&field), a.clone());
             let u = projection_vector(&words, &field, 30);
             assert!(sequence_charpoly(&words, &a, &u).is_some());
-            assert_eq!(scalar_charpoly(&words, a.clone(), &u), expected);
+            assert_eq!(charpoly_of(&words, a.clone(), &u), expected);
             assert_eq!(hessenberg_charpoly(&words, a), expected);
         }
     }
@@ -753,15 +882,12 @@ mod tests {
         let words = Words::new(&field).unwrap();
         let u = projection_vector(&words, &field, 3);
         assert_eq!(
-            scalar_charpoly(&words, vec![vec![2, 1], vec![1, 2]], &u[..2]),
+            charpoly_of(&words, vec![vec![2, 1], vec![1, 2]], &u[..2]),
             vec![3, p - 4, 1]
         );
         // (x - 1)(x - 2)(x - 5) = x^3 - 8x^2 + 17x - 10.
         let upper = vec![vec![1, 7, 9], vec![0, 2, 4], vec![0, 0, 5]];
-        assert_eq!(
-            scalar_charpoly(&words, upper, &u),
-            vec![p - 10, 17, p - 8, 1]
-        );
+        assert_eq!(charpoly_of(&words, upper, &u), vec![p - 10, 17, p - 8, 1]);
     }
 
     #[test]
