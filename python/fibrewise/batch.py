@@ -8,10 +8,10 @@
   has its next job waiting in its input while it computes (so it never waits for the parent
   between jobs), and its answer is the finished line itself, which the parent appends as it is.
 - Every finished job is appended to the output as one complete line and flushed at once; a
-  background thread fsyncs the file in groups (group commit), so a killed process loses nothing
-  written and a power loss at most the lines of the last few milliseconds. A rerun with the same
-  output skips the ids already there; a torn last line (a crash in the middle of a write) is cut
-  off on resume.
+  background thread fsyncs the file in groups (group commit, at most every 50 ms), so a killed
+  process loses nothing written and a power loss at most the lines of the last tenth of a
+  second. A rerun with the same output skips the ids already there; a torn last line (a crash
+  in the middle of a write) is cut off on resume.
 - ``--scheduler`` sends the same jobs to a Dask distributed cluster; each Dask worker runs them in
   its own sandbox processes, so time and memory limits mean the same there.
 """
@@ -136,10 +136,15 @@ class Finished:
         return cls(record["status"], record_line(record))
 
 
+#: Seconds between the start of one fsync of the result file and the next, at least.
+SYNC_INTERVAL = 0.05
+
+
 class ResultFile:
     """Appends one JSON line per finished job. ``append`` writes and flushes the whole line at
     once (a killed process keeps it); a syncing thread fsyncs whatever has been written since
-    its last fsync, so durability costs the main loop nothing."""
+    its last fsync, at most every ``SYNC_INTERVAL`` seconds, so durability costs the main loop
+    nothing."""
 
     def __init__(self, path: str):
         import fcntl
@@ -156,6 +161,7 @@ class ResultFile:
             _fsync_directory(path)
         self.cond = threading.Condition()
         self.dirty = self.closing = False
+        self.stopping = threading.Event()
         self.syncer = threading.Thread(target=self._sync_loop, name="fibrewise-fsync", daemon=True)
         self.syncer.start()
 
@@ -175,9 +181,14 @@ class ResultFile:
                 if not self.dirty:
                     return
                 self.dirty = False
+            started = time.monotonic()
             os.fsync(self.handle.fileno())
+            # Lines finished in the next moments share the next fsync (each costs milliseconds
+            # of disk time and a little CPU); closing cuts the wait short.
+            self.stopping.wait(max(0.0, started + SYNC_INTERVAL - time.monotonic()))
 
     def close(self) -> None:
+        self.stopping.set()
         with self.cond:
             self.closing = True
             self.cond.notify()
@@ -238,8 +249,8 @@ def _exit_with_parent(parent: int) -> None:
 
 @dataclass
 class Sandbox:
-    """One long-lived worker process, running one job at a time; ``jobs`` are the jobs sent to it,
-    the first one running, the others waiting in its input. It has its own session, so a Ctrl-C
+    """One long-lived worker process, running one job at a time; ``jobs`` are the jobs sent to it
+    with their input lines, the first one running, the others waiting in its input. It has its own session, so a Ctrl-C
     at the terminal reaches only the parent, which decides what stops."""
 
     memory_bytes: int | None = None
@@ -263,29 +274,30 @@ class Sandbox:
             stdin=subprocess.PIPE, stdout=subprocess.PIPE, stderr=self.errors, env=env,
             start_new_session=True)
         self.unread = bytearray()
-        for job in self.jobs:  # after a restart: the jobs that were waiting in the old one's input
-            self._send(job)
+        for _, line in self.jobs:  # after a restart: the jobs waiting in the old one's input
+            self._send(line)
         self._start_clock()
         return self
 
     def fileno(self) -> int:
         return self.process.stdout.fileno()
 
-    def can_take(self, job: dict) -> bool:
-        """Whether ``job`` may be sent now: to an idle worker always, behind a running job when
-        its line is short."""
-        return not self.jobs or (len(self.jobs) == 1 and len(_job_line(job)) <= QUEUED_LINE_LIMIT)
+    def can_take(self, line: bytes) -> bool:
+        """Whether the job of input line ``line`` may be sent now: to an idle worker always,
+        behind a running job when the line is short."""
+        return not self.jobs or (len(self.jobs) == 1 and len(line) <= QUEUED_LINE_LIMIT)
 
-    def submit(self, job: dict, timeout: float | None) -> None:
+    def submit(self, job: dict, timeout: float | None, line: bytes | None = None) -> None:
         self.timeout = timeout
-        self.jobs.append(job)
-        self._send(job)
+        line = line or job_line(job)
+        self.jobs.append((job, line))
+        self._send(line)
         if len(self.jobs) == 1:
             self._start_clock()
 
-    def _send(self, job: dict) -> None:
+    def _send(self, line: bytes) -> None:
         try:
-            self.process.stdin.write(_job_line(job))
+            self.process.stdin.write(line)
             self.process.stdin.flush()
         except OSError:
             pass  # a dead worker shows up as the end of its output
@@ -299,7 +311,7 @@ class Sandbox:
         running job becomes an error line and the worker is replaced."""
         data = os.read(self.fileno(), 1 << 20)
         if not data:
-            job = self.jobs.popleft()
+            job, _ = self.jobs.popleft()
             record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None}
             self.restart()
             return [Finished.of(record)]
@@ -338,7 +350,7 @@ class Sandbox:
 
     def time_out(self) -> Finished:
         """The running job's timeout line; the worker is replaced."""
-        job = self.jobs.popleft()
+        job, _ = self.jobs.popleft()
         record = {"id": job["id"], "status": "timeout",
                   "error": f"over the time limit of {self.timeout:g} s", "seconds": self.timeout}
         self.restart()
@@ -374,7 +386,8 @@ class Sandbox:
                 pass
 
 
-def _job_line(job: dict) -> bytes:
+def job_line(job: dict) -> bytes:
+    """A job as the line a worker reads."""
     return json.dumps(job).encode("utf-8") + b"\n"
 
 
@@ -385,15 +398,16 @@ def run_local(jobs: list[dict], workers: int, timeout: float | None,
 
     if not jobs:
         return
-    pending = deque(jobs)
+    pending = deque((job, job_line(job)) for job in jobs)
     pool = [Sandbox(memory_bytes).start() for _ in range(max(1, min(workers, len(jobs))))]
     try:
         while True:
             # A job for every idle worker first, then one more behind each running one.
             for queued in (0, 1):
                 for sandbox in pool:
-                    if pending and len(sandbox.jobs) == queued and sandbox.can_take(pending[0]):
-                        sandbox.submit(pending.popleft(), timeout)
+                    if pending and len(sandbox.jobs) == queued and sandbox.can_take(pending[0][1]):
+                        job, line = pending.popleft()
+                        sandbox.submit(job, timeout, line)
             busy = [s for s in pool if s.jobs]
             if not busy:
                 return
