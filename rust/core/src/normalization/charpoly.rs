@@ -10,7 +10,7 @@
 //! Otherwise, by Berkowitz's division-free algorithm (Berkowitz 1984) directly over k[T], which
 //! works in every characteristic, GF(2) included.
 
-use super::scalars::{Generic, Scalars, Words, LANES};
+use super::scalars::{invert_all, Generic, Scalars, Words, LANES};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
@@ -363,14 +363,20 @@ struct Nodes<S: Scalars> {
 impl<S: Scalars> Nodes<S> {
     fn new(s: &S, points: Vec<S::E>) -> Self {
         let n = points.len();
+        let gaps: Vec<S::E> = (1..n)
+            .flat_map(|level| (level..n).map(move |i| (level, i)))
+            .map(|(level, i)| s.sub(&points[i], &points[i - level]))
+            .collect();
+        let mut inverses = invert_all(s, &gaps)
+            .expect("nodes are distinct")
+            .into_iter();
         let inverse_gaps = (0..n)
             .map(|level| {
                 (0..n)
-                    .map(|i| match i.checked_sub(level) {
-                        Some(j) if level > 0 => s
-                            .inv(&s.sub(&points[i], &points[j]))
-                            .expect("nodes are distinct"),
-                        _ => s.zero(),
+                    .map(|i| match level {
+                        0 => s.zero(),
+                        _ if i < level => s.zero(),
+                        _ => inverses.next().unwrap(),
                     })
                     .collect()
             })
@@ -561,44 +567,54 @@ impl Columns {
 
 /// The shortest recurrence s_n + c_1 s_{n-1} + ... + c_L s_{n-L} = 0 (n ≥ L) of the sequence,
 /// as [1, c_1, ..., c_L] (Massey 1969). For a sequence whose minimal recurrence has length L,
-/// 2L terms determine it.
+/// 2L terms determine it. Without divisions in the loop: the update C := b·C - d·x^shift·B
+/// (b the discrepancy B had) keeps a nonzero multiple of Massey's C, which changes neither the
+/// discrepancies' zero tests nor the lengths; one inverse at the end makes the constant term 1.
+/// An inverse costs as much as dozens of products, and the loop would need one per length change.
 fn berlekamp_massey<S: Scalars>(s: &S, sequence: &[S::E]) -> Vec<S::E> {
     let mut current = vec![s.one()];
-    // The recurrence before the last length change, its discrepancy's inverse, and how many
-    // terms ago that was.
+    // The recurrence before the last length change, its discrepancy, and how many terms ago
+    // that was.
     let mut before = vec![s.one()];
-    let mut before_inverse = s.one();
+    let mut before_discrepancy = s.one();
     let mut shift = 1;
     let mut length = 0;
     for n in 0..sequence.len() {
-        // current[0] = 1, and its entries past the length are zero: the discrepancy is
-        // Σ_i current[i]·s_{n-i}.
+        // current[0] ≠ 0, and its entries past the length are zero: the discrepancy (up to
+        // the factor current[0]) is Σ_i current[i]·s_{n-i}.
         let discrepancy = s.dot(current.iter().zip(sequence[..=n].iter().rev()));
         if s.is_zero(&discrepancy) {
             shift += 1;
             continue;
         }
-        let factor = s.mul(&discrepancy, &before_inverse);
         let grows = 2 * length <= n;
         let previous = if grows { Some(current.clone()) } else { None };
         if current.len() < before.len() + shift {
             current.resize(before.len() + shift, s.zero());
         }
+        if before_discrepancy != s.one() {
+            for c in current.iter_mut() {
+                *c = s.mul(c, &before_discrepancy);
+            }
+        }
         for (i, b) in before.iter().enumerate() {
-            current[i + shift] = s.mul_sub(&current[i + shift], &factor, b);
+            current[i + shift] = s.mul_sub(&current[i + shift], &discrepancy, b);
         }
         match previous {
             Some(previous) => {
                 length = n + 1 - length;
                 before = previous;
-                before_inverse = s.inv(&discrepancy).expect("a nonzero discrepancy");
+                before_discrepancy = discrepancy;
                 shift = 1;
             }
             None => shift += 1,
         }
     }
     current.resize(length + 1, s.zero());
-    current
+    let scale = s
+        .inv(&current[0])
+        .expect("a product of nonzero discrepancies");
+    current.iter().map(|c| s.mul(c, &scale)).collect()
 }
 
 /// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
