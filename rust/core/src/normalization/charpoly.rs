@@ -25,7 +25,10 @@ pub fn characteristic_polynomial<F: Field>(
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
     match interpolation_grid(ring, a) {
-        Some((bounds, total)) => by_interpolation(ring, a, &LowerSet::new(&bounds, total), control),
+        Some((bounds, total, mean)) => {
+            let set = LowerSet::new(&bounds, total);
+            by_interpolation(ring, a, &set, mean, control)
+        }
         None => berkowitz(ring, a, control),
     }
 }
@@ -33,9 +36,17 @@ pub fn characteristic_polynomial<F: Field>(
 /// Largest number of values (grid points × coefficients) interpolation may hold.
 const MAX_INTERPOLATION_VALUES: u64 = 20_000_000;
 
-/// Degree bounds in each t_i and in total for the coefficients, when the field has enough
-/// points for them and the grid is small enough; `None` otherwise.
-fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(Vec<u64>, u64)> {
+/// A cycle mean λ* as a fraction (numerator, denominator); `None` when the graph has no cycle.
+type CycleMean = Option<(i64, i64)>;
+
+/// Degree bounds in each t_i and in total for the coefficients, and the largest cycle mean of
+/// the entries' total degrees (the total degree of the coefficient of x^k is at most
+/// ⌊(r - k)·λ*⌋), when the field has enough points for them and the grid is small enough;
+/// `None` otherwise.
+fn interpolation_grid<F: Field>(
+    ring: &Ring<F>,
+    a: &[Vec<Poly<F>>],
+) -> Option<(Vec<u64>, u64, CycleMean)> {
     let d = ring.nvars();
     let r = a.len();
     let degree_in = |p: &Poly<F>, i: usize| {
@@ -46,11 +57,12 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(V
             .unwrap_or(0)
     };
     let total = |p: &Poly<F>| p.degree().map(u64::from);
-    let total_bound = cycle_mean_bound(
+    let total_mean = largest_cycle_mean(
         &a.iter()
             .map(|row| row.iter().map(total).collect())
             .collect::<Vec<_>>(),
     );
+    let total_bound = cycle_bound(total_mean, r);
     let bounds: Vec<u64> = (0..d)
         .map(|i| {
             let rows: u64 = a
@@ -61,10 +73,13 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(V
                 .map(|k| a.iter().map(|row| degree_in(&row[k], i)).max().unwrap_or(0))
                 .sum();
             let in_i = |p: &Poly<F>| (!p.is_zero()).then(|| degree_in(p, i));
-            let cycles = cycle_mean_bound(
-                &a.iter()
-                    .map(|row| row.iter().map(in_i).collect())
-                    .collect::<Vec<_>>(),
+            let cycles = cycle_bound(
+                largest_cycle_mean(
+                    &a.iter()
+                        .map(|row| row.iter().map(in_i).collect())
+                        .collect::<Vec<_>>(),
+                ),
+                r,
             );
             rows.min(cols).min(cycles).min(total_bound)
         })
@@ -76,15 +91,19 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(V
     let points = bounds
         .iter()
         .try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
-    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((bounds, total_bound))
+    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((
+        bounds,
+        total_bound,
+        total_mean,
+    ))
 }
 
-/// A bound on the degree of every coefficient of det(x·Id - A), given the degree of each entry
-/// (`None` for a zero entry): each term of the coefficient of x^{r-k} is a product of entries
-/// along disjoint cycles through k indices, so its degree is at most k times the largest mean
-/// degree of a cycle, which Karp's theorem (Karp 1978) computes from the heaviest walks with
-/// exactly j edges: λ* = max_v min_j (W_r(v) - W_j(v)) / (r - j). The bound is ⌊r·λ*⌋.
-fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
+/// The largest mean degree λ* of a cycle, given the degree of each entry (`None` for a zero
+/// entry): each term of the coefficient of x^{r-k} in det(x·Id - A) is a product of entries
+/// along disjoint cycles through k indices, so its degree is at most ⌊k·λ*⌋ (see
+/// [`cycle_bound`]). Karp's theorem (Karp 1978) computes λ* from the heaviest walks with
+/// exactly j edges: λ* = max_v min_j (W_r(v) - W_j(v)) / (r - j).
+fn largest_cycle_mean(degrees: &[Vec<Option<u64>>]) -> CycleMean {
     let r = degrees.len();
     // walks[j][v]: largest degree of a walk of exactly j edges ending at v (None: no walk).
     let mut walks: Vec<Vec<Option<i64>>> = vec![vec![Some(0); r]];
@@ -116,8 +135,13 @@ fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
             }
         }
     }
-    best.map_or(0, |(num, den)| {
-        u64::try_from((r as i64 * num).div_euclid(den)).unwrap_or(0)
+    best
+}
+
+/// ⌊k·λ*⌋: the degree bound of the coefficient of x^{r-k}, k ≤ r (0 without cycles).
+fn cycle_bound(mean: CycleMean, k: usize) -> u64 {
+    mean.map_or(0, |(num, den)| {
+        u64::try_from((k as i64 * num).div_euclid(den)).unwrap_or(0)
     })
 }
 
@@ -127,11 +151,12 @@ fn by_interpolation<F: Field>(
     ring: &Ring<F>,
     a: &[Vec<Poly<F>>],
     set: &LowerSet,
+    mean: CycleMean,
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
     match Words::new(&ring.field) {
-        Some(words) => interpolate_in(&words, ring, a, set, control),
-        None => interpolate_in(&Generic(&ring.field), ring, a, set, control),
+        Some(words) => interpolate_in(&words, ring, a, set, mean, control),
+        None => interpolate_in(&Generic(&ring.field), ring, a, set, mean, control),
     }
 }
 
@@ -140,6 +165,7 @@ fn interpolate_in<S: Scalars>(
     ring: &Ring<S::Base>,
     a: &[Vec<Poly<S::Base>>],
     set: &LowerSet,
+    mean: CycleMean,
     control: &Control,
 ) -> Result<Vec<Poly<S::Base>>> {
     let field = &ring.field;
@@ -181,7 +207,10 @@ fn interpolate_in<S: Scalars>(
     let mut out = Vec::with_capacity(r + 1);
     for k in (0..=r).rev() {
         control.check()?;
-        let coefficients = set.interpolate(s, &nodes, std::mem::take(&mut values[k]));
+        // The coefficient of x^k has total degree at most ⌊(r - k)·λ*⌋: its Newton coefficients
+        // above that vanish, so the points up to that degree determine it.
+        let degree = cycle_bound(mean, r - k);
+        let coefficients = set.interpolate(s, &nodes, std::mem::take(&mut values[k]), degree);
         let terms = set
             .exponents
             .iter()
@@ -216,6 +245,8 @@ const PROJECTION_SEED: u64 = 0x5eed_c0ff_ee00;
 /// exact (multivariate Newton interpolation on lower sets; Sauer 2006, Dyn and Floater 2014).
 struct LowerSet {
     exponents: Vec<Vec<u32>>,
+    /// degrees[g]: the total degree |α| of exponents[g].
+    degrees: Vec<u64>,
     /// lines[i]: the lines of the set along axis i, found once for all the coefficients.
     lines: Vec<Vec<Vec<usize>>>,
 }
@@ -239,7 +270,15 @@ impl LowerSet {
                     .collect()
             })
             .collect();
-        LowerSet { exponents, lines }
+        let degrees = exponents
+            .iter()
+            .map(|e| e.iter().map(|&x| u64::from(x)).sum())
+            .collect();
+        LowerSet {
+            exponents,
+            degrees,
+            lines,
+        }
     }
 
     fn enumerate(
@@ -271,11 +310,30 @@ impl LowerSet {
         line
     }
 
-    /// Values at the node points -> coefficients of the monomials t^α.
-    fn interpolate<S: Scalars>(&self, s: &S, nodes: &Nodes<S>, mut values: Vec<S::E>) -> Vec<S::E> {
+    /// Values at the node points -> coefficients of the monomials t^α, for a polynomial of
+    /// total degree at most `degree`. Its Newton coefficients above that degree are zero, and
+    /// the coefficient at α only involves points below α, so only the points with
+    /// |α| <= `degree` are used: along each line, a prefix (|α| grows by one per step).
+    fn interpolate<S: Scalars>(
+        &self,
+        s: &S,
+        nodes: &Nodes<S>,
+        mut values: Vec<S::E>,
+        degree: u64,
+    ) -> Vec<S::E> {
+        for (value, &d) in values.iter_mut().zip(&self.degrees) {
+            if d > degree {
+                *value = s.zero();
+            }
+        }
         for pass in 0..2 {
             for lines in &self.lines {
                 for line in lines {
+                    let used = line
+                        .iter()
+                        .take_while(|&&g| self.degrees[g] <= degree)
+                        .count();
+                    let line = &line[..used];
                     let ys: Vec<S::E> = line.iter().map(|&g| values[g].clone()).collect();
                     let out = if pass == 0 {
                         divided_differences(s, nodes, &ys)
@@ -765,13 +823,20 @@ mod tests {
                 })
                 .collect();
             let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
-            let (bounds, total) = interpolation_grid(&ring, &a).unwrap();
+            let (bounds, total, mean) = interpolation_grid(&ring, &a).unwrap();
             let expected = berkowitz(&ring, &a, &Control::new()).unwrap();
             assert_eq!(fast, expected, "{nvars} variables, size {size}");
             // The same interpolation in the field's own arithmetic, the path of every field
             // that is not a word-size prime field.
             let set = LowerSet::new(&bounds, total);
-            let generic = interpolate_in(&Generic(&ring.field), &ring, &a, &set, &Control::new());
+            let generic = interpolate_in(
+                &Generic(&ring.field),
+                &ring,
+                &a,
+                &set,
+                mean,
+                &Control::new(),
+            );
             assert_eq!(generic.unwrap(), expected, "{nvars} variables, size {size}");
         }
     }
