@@ -4,12 +4,14 @@
   a bad job or a duplicate id is one error naming the line.
 - Jobs run in long-lived worker processes (``Sandbox``), one job at a time each, with an optional
   data-memory limit; a job over its time limit has its worker killed and replaced. A worker that
-  dies (out of memory, a crash) costs only its own job, which gets an error line.
+  dies (out of memory, a crash) costs only its own job, which gets an error line. Each worker
+  has its next job waiting in its input while it computes (so it never waits for the parent
+  between jobs), and its answer is the finished line itself, which the parent appends as it is.
 - Every finished job is appended to the output as one complete line and flushed at once; a
-  background thread fsyncs the file in groups (group commit), so a killed process loses nothing
-  written and a power loss at most the lines of the last few milliseconds. A rerun with the same
-  output skips the ids already there; a torn last line (a crash in the middle of a write) is cut
-  off on resume.
+  background thread fsyncs the file in groups (group commit, at most every 50 ms), so a killed
+  process loses nothing written and a power loss at most the lines of the last tenth of a
+  second. A rerun with the same output skips the ids already there; a torn last line (a crash
+  in the middle of a write) is cut off on resume.
 - ``--scheduler`` sends the same jobs to a Dask distributed cluster; each Dask worker runs them in
   its own sandbox processes, so time and memory limits mean the same there.
 """
@@ -22,6 +24,7 @@ import signal
 import sys
 import threading
 import time
+from collections import deque
 from dataclasses import dataclass, field
 from typing import Any, Iterator
 
@@ -116,10 +119,32 @@ def _parse_record(raw: bytes) -> dict | None:
     return record if isinstance(record, dict) and "id" in record and "status" in record else None
 
 
+def record_line(record: dict) -> bytes:
+    """A result record as the one line that goes into the output file."""
+    return (json.dumps(record, ensure_ascii=False, separators=(",", ":")) + "\n").encode("utf-8")
+
+
+@dataclass
+class Finished:
+    """A finished job: its status and its result line, ready to append."""
+
+    status: str
+    line: bytes
+
+    @classmethod
+    def of(cls, record: dict) -> "Finished":
+        return cls(record["status"], record_line(record))
+
+
+#: Seconds between the start of one fsync of the result file and the next, at least.
+SYNC_INTERVAL = 0.05
+
+
 class ResultFile:
     """Appends one JSON line per finished job. ``append`` writes and flushes the whole line at
     once (a killed process keeps it); a syncing thread fsyncs whatever has been written since
-    its last fsync, so durability costs the main loop nothing."""
+    its last fsync, at most every ``SYNC_INTERVAL`` seconds, so durability costs the main loop
+    nothing."""
 
     def __init__(self, path: str):
         import fcntl
@@ -136,12 +161,13 @@ class ResultFile:
             _fsync_directory(path)
         self.cond = threading.Condition()
         self.dirty = self.closing = False
+        self.stopping = threading.Event()
         self.syncer = threading.Thread(target=self._sync_loop, name="fibrewise-fsync", daemon=True)
         self.syncer.start()
 
-    def append(self, record: dict) -> None:
-        line = json.dumps(record, ensure_ascii=False, separators=(",", ":")) + "\n"
-        self.handle.write(line.encode("utf-8"))
+    def append(self, line: bytes) -> None:
+        """Appends one complete result line (as made by ``record_line``)."""
+        self.handle.write(line)
         self.handle.flush()
         with self.cond:
             self.dirty = True
@@ -155,9 +181,14 @@ class ResultFile:
                 if not self.dirty:
                     return
                 self.dirty = False
+            started = time.monotonic()
             os.fsync(self.handle.fileno())
+            # Lines finished in the next moments share the next fsync (each costs milliseconds
+            # of disk time and a little CPU); closing cuts the wait short.
+            self.stopping.wait(max(0.0, started + SYNC_INTERVAL - time.monotonic()))
 
     def close(self) -> None:
+        self.stopping.set()
         with self.cond:
             self.closing = True
             self.cond.notify()
@@ -185,23 +216,27 @@ def _fsync_directory(path: str) -> None:
 
 WORKER_CODE = "from fibrewise.batch import serve; serve()"
 
+#: A second job is queued behind the running one only when its line is this short: the pipe
+#: (64 KiB on Linux) then always has room, so the parent never blocks writing to a busy worker.
+QUEUED_LINE_LIMIT = 16 << 10
+
 
 def serve() -> None:
     """A worker's life (``python -c WORKER_CODE MEMORY_BYTES``): limit its data memory (heap and
-    anonymous mappings: RLIMIT_DATA), then read one job a line on stdin and answer one record a
-    line on stdout, until stdin closes."""
+    anonymous mappings: RLIMIT_DATA), then read one job a line on stdin and answer one line on
+    stdout, the job's status, a tab and its result line, until stdin closes."""
     import resource
 
     memory_bytes = int(sys.argv[1]) if len(sys.argv) > 1 else 0
     if memory_bytes:
         resource.setrlimit(resource.RLIMIT_DATA, (memory_bytes, memory_bytes))
-    replies = os.fdopen(os.dup(1), "w", encoding="utf-8")
+    replies = os.fdopen(os.dup(1), "wb")
     os.dup2(2, 1)  # stray output, from Python or native code, must not break the protocol
     sys.stdout = sys.stderr
     threading.Thread(target=_exit_with_parent, args=(os.getppid(),), daemon=True).start()
     for line in sys.stdin:
         record = run_job(json.loads(line))
-        replies.write(json.dumps(record, ensure_ascii=False, separators=(",", ":")) + "\n")
+        replies.write(record["status"].encode("ascii") + b"\t" + record_line(record))
         replies.flush()
 
 
@@ -214,50 +249,83 @@ def _exit_with_parent(parent: int) -> None:
 
 @dataclass
 class Sandbox:
-    """One long-lived worker process, running one job at a time. It has its own session, so a
-    Ctrl-C at the terminal reaches only the parent, which decides what stops."""
+    """One long-lived worker process, running one job at a time; ``jobs`` are the jobs sent to it
+    with their input lines, the first one running, the others waiting in its input. It has its own session, so a Ctrl-C
+    at the terminal reaches only the parent, which decides what stops."""
 
     memory_bytes: int | None = None
-    job: dict | None = None
-    deadline: float | None = None
+    jobs: deque = field(default_factory=deque)
+    timeout: float | None = None
+    deadline: float | None = None  # of the running job
     process: Any = field(default=None, repr=False)
     errors: Any = field(default=None, repr=False)
+    unread: bytearray = field(default_factory=bytearray, repr=False)
 
     def start(self) -> "Sandbox":
         import subprocess
         import tempfile
 
         self.errors = tempfile.TemporaryFile()  # the worker's stderr, read if it dies
-        env = dict(os.environ, RAYON_NUM_THREADS="1", RUST_BACKTRACE="0")  # one core per job
+        # One core per job; numeric libraries must not start thread pools of their own either.
+        env = dict(os.environ, RAYON_NUM_THREADS="1", OPENBLAS_NUM_THREADS="1", OMP_NUM_THREADS="1",
+                   RUST_BACKTRACE="0")
         self.process = subprocess.Popen(
             [sys.executable, "-c", WORKER_CODE, str(self.memory_bytes or 0)],
             stdin=subprocess.PIPE, stdout=subprocess.PIPE, stderr=self.errors, env=env,
             start_new_session=True)
+        self.unread = bytearray()
+        for _, line in self.jobs:  # after a restart: the jobs waiting in the old one's input
+            self._send(line)
+        self._start_clock()
         return self
 
-    @property
-    def replies(self):
-        return self.process.stdout
+    def fileno(self) -> int:
+        return self.process.stdout.fileno()
 
-    def submit(self, job: dict, timeout: float | None) -> None:
-        self.job = job
-        self.deadline = None if timeout is None else time.monotonic() + timeout
+    def can_take(self, line: bytes) -> bool:
+        """Whether the job of input line ``line`` may be sent now: to an idle worker always,
+        behind a running job when the line is short."""
+        return not self.jobs or (len(self.jobs) == 1 and len(line) <= QUEUED_LINE_LIMIT)
+
+    def submit(self, job: dict, timeout: float | None, line: bytes | None = None) -> None:
+        self.timeout = timeout
+        line = line or job_line(job)
+        self.jobs.append((job, line))
+        self._send(line)
+        if len(self.jobs) == 1:
+            self._start_clock()
+
+    def _send(self, line: bytes) -> None:
         try:
-            self.process.stdin.write(json.dumps(job).encode("utf-8") + b"\n")
+            self.process.stdin.write(line)
             self.process.stdin.flush()
         except OSError:
-            pass  # a dead worker shows up as an empty reply
+            pass  # a dead worker shows up as the end of its output
 
-    def receive(self) -> dict:
-        """The record of the current job; a dead worker becomes an error record."""
-        job = self.job
-        self.job, self.deadline = None, None
-        line = self.replies.readline()
-        if line.endswith(b"\n"):
-            return json.loads(line)
-        record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None}
-        self.restart()
-        return record
+    def _start_clock(self) -> None:
+        """The first job runs from now on (the worker reads its next job as soon as it answers)."""
+        self.deadline = None if not self.jobs or self.timeout is None else time.monotonic() + self.timeout
+
+    def read(self) -> list[Finished]:
+        """The jobs finished since the last call, once the output is readable; a dead worker's
+        running job becomes an error line and the worker is replaced."""
+        data = os.read(self.fileno(), 1 << 20)
+        if not data:
+            job, _ = self.jobs.popleft()
+            record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None}
+            self.restart()
+            return [Finished.of(record)]
+        self.unread += data
+        finished, start = [], 0
+        while (end := self.unread.find(b"\n", start) + 1):
+            tab = self.unread.index(b"\t", start)
+            self.jobs.popleft()
+            finished.append(Finished(self.unread[start:tab].decode("ascii"), bytes(self.unread[tab + 1:end])))
+            start = end
+        if finished:
+            del self.unread[:start]
+            self._start_clock()
+        return finished
 
     def _death_message(self) -> str:
         code = self.process.wait()
@@ -280,12 +348,13 @@ class Sandbox:
         useful = [l for l in lines if not l.startswith("note: run with")]
         return useful[-1] if useful else ""
 
-    def time_out(self, timeout: float) -> dict:
-        record = {"id": self.job["id"], "status": "timeout",
-                  "error": f"over the time limit of {timeout:g} s", "seconds": timeout}
-        self.job, self.deadline = None, None
+    def time_out(self) -> Finished:
+        """The running job's timeout line; the worker is replaced."""
+        job, _ = self.jobs.popleft()
+        record = {"id": job["id"], "status": "timeout",
+                  "error": f"over the time limit of {self.timeout:g} s", "seconds": self.timeout}
         self.restart()
-        return record
+        return Finished.of(record)
 
     def restart(self) -> None:
         self.kill()
@@ -317,43 +386,45 @@ class Sandbox:
                 pass
 
 
+def job_line(job: dict) -> bytes:
+    """A job as the line a worker reads."""
+    return json.dumps(job).encode("utf-8") + b"\n"
+
+
 def run_local(jobs: list[dict], workers: int, timeout: float | None,
-              memory_bytes: int | None) -> Iterator[dict]:
-    """Records of the jobs, in completion order, from a pool of ``workers`` sandboxes."""
+              memory_bytes: int | None) -> Iterator[Finished]:
+    """The finished jobs, in completion order, from a pool of ``workers`` sandboxes."""
     from multiprocessing.connection import wait
 
-    jobs = list(jobs)
     if not jobs:
         return
-    pending = iter(jobs)
+    pending = deque((job, job_line(job)) for job in jobs)
     pool = [Sandbox(memory_bytes).start() for _ in range(max(1, min(workers, len(jobs))))]
-    busy: dict[Any, Sandbox] = {}
     try:
         while True:
-            for sandbox in pool:
-                if sandbox.job is None:
-                    job = next(pending, None)
-                    if job is None:
-                        break
-                    sandbox.submit(job, timeout)
-                    busy[sandbox.replies] = sandbox
+            # A job for every idle worker first, then one more behind each running one.
+            for queued in (0, 1):
+                for sandbox in pool:
+                    if pending and len(sandbox.jobs) == queued and sandbox.can_take(pending[0][1]):
+                        job, line = pending.popleft()
+                        sandbox.submit(job, timeout, line)
+            busy = [s for s in pool if s.jobs]
             if not busy:
                 return
-            deadlines = [s.deadline for s in busy.values() if s.deadline is not None]
+            deadlines = [s.deadline for s in busy if s.deadline is not None]
             wait_for = max(0.0, min(deadlines) - time.monotonic()) if deadlines else None
-            for replies in wait(list(busy), timeout=wait_for):
-                yield busy.pop(replies).receive()
+            for sandbox in wait(busy, timeout=wait_for):
+                yield from sandbox.read()
             now = time.monotonic()
-            for replies, sandbox in list(busy.items()):
-                if sandbox.deadline is not None and sandbox.deadline <= now:
-                    del busy[replies]
-                    yield sandbox.time_out(timeout)
+            for sandbox in busy:
+                if sandbox.jobs and sandbox.deadline is not None and sandbox.deadline <= now:
+                    yield sandbox.time_out()
     finally:
         for sandbox in pool:
-            if sandbox.job is None:
-                sandbox.stop()
+            if sandbox.jobs:
+                sandbox.kill()  # interrupted mid-job: its jobs get no line and run again on resume
             else:
-                sandbox.kill()  # interrupted mid-job: the job gets no line and runs again on resume
+                sandbox.stop()
 
 
 # ----------------------------------------------------------------------------------------------
@@ -374,9 +445,17 @@ def run_in_sandbox(job: dict, timeout: float | None, memory_bytes: int | None) -
     from multiprocessing.connection import wait
 
     sandbox.submit(job, timeout)
-    if wait([sandbox.replies], timeout=timeout):
-        return sandbox.receive()
-    return sandbox.time_out(timeout)
+    while True:
+        left = None if sandbox.deadline is None else max(0.0, sandbox.deadline - time.monotonic())
+        if not wait([sandbox], timeout=left):
+            return _as_record(sandbox.time_out())
+        finished = sandbox.read()
+        if finished:
+            return _as_record(finished[0])
+
+
+def _as_record(finished: Finished) -> dict:
+    return json.loads(finished.line)
 
 
 DASK_WINDOW = 1000  # jobs in flight on the cluster at once: bounded scheduler memory, quick stop
@@ -473,14 +552,15 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
             records = run_dask(todo, scheduler, timeout, memory_bytes)
         else:
             records = run_local(todo, workers or os.cpu_count() or 1, timeout, memory_bytes)
-        for record in records:
-            if record["status"] == "lost":
+        for item in records:
+            if isinstance(item, dict) and item["status"] == "lost":
                 summary.lost += 1
-                print(f"fibrewise batch: job {json.dumps(record['id'])} lost by the cluster "
-                      f"({record['error']}); it runs again on resume", file=sys.stderr)
+                print(f"fibrewise batch: job {json.dumps(item['id'])} lost by the cluster "
+                      f"({item['error']}); it runs again on resume", file=sys.stderr)
             else:
-                output.append(record)
-                setattr(summary, record["status"], getattr(summary, record["status"]) + 1)
+                finished = item if isinstance(item, Finished) else Finished.of(item)
+                output.append(finished.line)
+                setattr(summary, finished.status, getattr(summary, finished.status) + 1)
             progress.advance()
     except KeyboardInterrupt:
         summary.interrupted = "SIGINT"

@@ -9,6 +9,7 @@ the ideal alone; ``to_dict()`` / :func:`check_certificate` save and re-check it.
 from __future__ import annotations
 
 import re
+from functools import cached_property
 from typing import TYPE_CHECKING, Optional, Sequence
 
 from . import _native
@@ -68,19 +69,29 @@ class FiniteProjection:
 
     def __init__(self, ideal: "Ideal", certificate: dict):
         self.ideal = ideal
-        ring = ideal.ring
         self._certificate = {k: certificate[k] for k in CERTIFICATE_KEYS}
         self.dimension: int = certificate["dimension"]
-        self.parameters: list[Polynomial] = [ring(p) for p in certificate["parameters"]]
         self.parameter_symbols: list[str] = list(certificate["parameter_symbols"])
-        self.coordinates: list[Polynomial] = [ring(p) for p in certificate["coordinates"]]
         self.coordinate_symbols: list[str] = list(certificate["coordinate_symbols"])
         self.inverse: list[str] = list(certificate["inverse"])
         self.equations: list[list[str]] = [list(e) for e in certificate["equations"]]
-        self.module_generators: list[Polynomial] = [ring(p) for p in certificate["module_generators"]]
         self.rank: int = certificate["rank"]
         self.strategy: str = certificate["strategy"]
         self.homogeneous: bool = certificate["homogeneous"]
+
+    # The polynomials are read from their texts on first use: a batch job only saves the texts.
+
+    @cached_property
+    def parameters(self) -> list[Polynomial]:
+        return [self.ideal.ring(p) for p in self._certificate["parameters"]]
+
+    @cached_property
+    def coordinates(self) -> list[Polynomial]:
+        return [self.ideal.ring(p) for p in self._certificate["coordinates"]]
+
+    @cached_property
+    def module_generators(self) -> list[Polynomial]:
+        return [self.ideal.ring(p) for p in self._certificate["module_generators"]]
 
     @classmethod
     def from_dict(cls, certificate: dict, ideal: "Ideal") -> "FiniteProjection":
@@ -89,7 +100,10 @@ class FiniteProjection:
         missing = [k for k in CERTIFICATE_KEYS if k not in certificate]
         if missing:
             raise ValueError(f"certificate entry '{missing[0]}' is missing")
-        return cls(ideal, certificate)
+        projection = cls(ideal, certificate)
+        for name in ("parameters", "coordinates", "module_generators"):
+            getattr(projection, name)  # read now, so that an unreadable entry raises here
+        return projection
 
     def to_dict(self) -> dict:
         """The certificate as plain JSON-ready data (texts, ints, bools)."""

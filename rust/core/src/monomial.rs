@@ -181,6 +181,17 @@ impl Monomial {
         })
     }
 
+    /// The monomial with exponents f(0), ..., f(n - 1), built in place (no vector in between).
+    pub fn from_exponent_fn(n: usize, f: impl FnMut(usize) -> u32) -> Result<Self> {
+        let exps = Exponents::from_fn(n, f);
+        let degree = exps
+            .as_slice()
+            .iter()
+            .try_fold(0u32, |d, &e| d.checked_add(e))
+            .ok_or_else(overflow)?;
+        Ok(Monomial { degree, exps })
+    }
+
     #[inline]
     pub fn exponents(&self) -> &[u32] {
         self.exps.as_slice()
@@ -314,6 +325,22 @@ mod tests {
         ));
         let two = Monomial::from_exponents(vec![u32::MAX, 1]);
         assert!(matches!(two, Err(Error::Overflow(_))));
+        let built = Monomial::from_exponent_fn(2, |i| [u32::MAX, 1][i]);
+        assert!(matches!(built, Err(Error::Overflow(_))));
+    }
+
+    /// Built in place or from a vector, inline (up to six exponents) or on the heap, a
+    /// monomial is the same: equal, same degree, same exponents.
+    #[test]
+    fn built_in_place_equals_built_from_a_vector() {
+        for n in [0, 1, 6, 7, 12] {
+            let exponents: Vec<u32> = (0..n).map(|i| (i * 7 % 5) as u32).collect();
+            let built = Monomial::from_exponent_fn(n, |i| exponents[i]).unwrap();
+            let from_vec = Monomial::from_exponents(exponents.clone()).unwrap();
+            assert_eq!(built, from_vec);
+            assert_eq!(built.degree(), exponents.iter().sum::<u32>());
+            assert_eq!(built.exponents(), &exponents[..]);
+        }
     }
 
     #[test]

@@ -58,11 +58,6 @@ impl<F: Field> Poly<F> {
     pub fn from_sorted(terms: Vec<(Monomial, F::Elem)>) -> Self {
         Poly { terms }
     }
-    /// The terms after the first `skip` (still sorted).
-    pub fn from_sorted_tail(mut f: Poly<F>, skip: usize) -> Self {
-        f.terms.drain(..skip.min(f.terms.len()));
-        f
-    }
     /// The leading term and the rest (`self` must be nonzero).
     pub fn split_lead(&self) -> ((Monomial, F::Elem), Poly<F>) {
         (
@@ -186,47 +181,56 @@ impl<F: Field> Ring<F> {
         g: &Poly<F>,
     ) -> Result<Poly<F>> {
         let mut out = Vec::with_capacity(f.len() + g.len());
-        let mut it_g = g.terms.iter().peekable();
-        let mut shifted = |t: &(Monomial, F::Elem)| -> Result<(Monomial, F::Elem)> {
+        self.add_scaled_into(&f.terms, c, m, &g.terms, &mut out)?;
+        Ok(Poly { terms: out })
+    }
+
+    /// f + c·m·g for sorted term lists, appended to `out`: the merge of [`Ring::add_scaled`]
+    /// into a buffer the caller keeps, so that a loop of reduction steps allocates nothing once
+    /// its two buffers are large enough.
+    pub fn add_scaled_into(
+        &self,
+        f: &[(Monomial, F::Elem)],
+        c: &F::Elem,
+        m: &Monomial,
+        g: &[(Monomial, F::Elem)],
+        out: &mut Vec<(Monomial, F::Elem)>,
+    ) -> Result<()> {
+        out.reserve(f.len() + g.len());
+        let shifted = |t: &(Monomial, F::Elem)| -> Result<(Monomial, F::Elem)> {
             Ok((t.0.mul(m)?, self.field.mul(&t.1, c)))
         };
-        let mut next_g = it_g.next().map(&mut shifted).transpose()?;
-        let mut it_f = f.terms.iter();
-        let mut next_f = it_f.next().cloned();
-        loop {
-            match (next_f.take(), next_g.take()) {
-                (None, None) => break,
-                (Some(a), None) => {
-                    out.push(a);
-                    next_f = it_f.next().cloned();
+        let (mut i, mut j) = (0, 0);
+        let mut next_g = g.first().map(shifted).transpose()?;
+        while let Some(b) = next_g.take() {
+            let Some(a) = f.get(i) else {
+                out.push(b);
+                for t in &g[j + 1..] {
+                    out.push(shifted(t)?);
                 }
-                (None, Some(b)) => {
-                    out.push(b);
-                    next_g = it_g.next().map(&mut shifted).transpose()?;
+                return Ok(());
+            };
+            match self.cmp(&a.0, &b.0) {
+                Ordering::Greater => {
+                    out.push(a.clone());
+                    i += 1;
+                    next_g = Some(b);
+                    continue;
                 }
-                (Some(a), Some(b)) => match self.cmp(&a.0, &b.0) {
-                    Ordering::Greater => {
-                        out.push(a);
-                        next_f = it_f.next().cloned();
-                        next_g = Some(b);
+                Ordering::Less => out.push(b),
+                Ordering::Equal => {
+                    let s = self.field.add(&a.1, &b.1);
+                    if !self.field.is_zero(&s) {
+                        out.push((b.0, s));
                     }
-                    Ordering::Less => {
-                        out.push(b);
-                        next_f = Some(a);
-                        next_g = it_g.next().map(&mut shifted).transpose()?;
-                    }
-                    Ordering::Equal => {
-                        let s = self.field.add(&a.1, &b.1);
-                        if !self.field.is_zero(&s) {
-                            out.push((a.0, s));
-                        }
-                        next_f = it_f.next().cloned();
-                        next_g = it_g.next().map(&mut shifted).transpose()?;
-                    }
-                },
+                    i += 1;
+                }
             }
+            j += 1;
+            next_g = g.get(j).map(shifted).transpose()?;
         }
-        Ok(Poly { terms: out })
+        out.extend_from_slice(&f[i..]);
+        Ok(())
     }
 
     pub fn add(&self, f: &Poly<F>, g: &Poly<F>) -> Poly<F> {
@@ -395,4 +399,53 @@ impl<F: Field> Ring<F> {
 /// A coefficient text that needs no parentheses after a sign or before `*`.
 fn is_atom(s: &str) -> bool {
     !s.is_empty() && !s.contains([' ', '+', '-'])
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::field::Field;
+    use crate::order::MonomialOrder;
+    use crate::rng::Rng;
+    use crate::test_support::{random_poly, ring_32003};
+
+    /// The merge agrees with the plain sum of f and the shifted, scaled terms of g (like terms
+    /// added, zeros dropped, sorted anew by `from_terms`), for two orders, cancellations
+    /// included (g = f shifted by 1 with c = -1), and appends after what `out` held.
+    #[test]
+    fn add_scaled_agrees_with_the_sum_of_terms() {
+        let mut rng = Rng::new(2026);
+        for order in [MonomialOrder::Grevlex, MonomialOrder::Lex] {
+            let ring = ring_32003(&["x", "y", "z", "w"], order);
+            for round in 0..300 {
+                let (f_len, g_len) = (rng.below(12) as usize, rng.below(12) as usize);
+                let f = random_poly(&ring, &mut rng, f_len, 4);
+                let g = if round % 5 == 0 {
+                    f.clone()
+                } else {
+                    random_poly(&ring, &mut rng, g_len, 3)
+                };
+                let m = random_poly(&ring, &mut rng, 1, 2)
+                    .leading_monomial()
+                    .cloned()
+                    .unwrap_or_else(|| crate::monomial::Monomial::one(4));
+                let c = if round % 5 == 0 {
+                    32002
+                } else {
+                    rng.below(32003)
+                };
+                let shifted = g
+                    .terms()
+                    .iter()
+                    .map(|(n, d)| (n.mul(&m).unwrap(), ring.field.mul(d, &c)));
+                let expected = ring.from_terms(f.terms().iter().cloned().chain(shifted));
+                assert_eq!(ring.add_scaled(&f, &c, &m, &g).unwrap(), expected);
+                let prefix = ring.one().into_terms();
+                let mut out = prefix.clone();
+                ring.add_scaled_into(f.terms(), &c, &m, g.terms(), &mut out)
+                    .unwrap();
+                assert_eq!(out[..1], prefix[..]);
+                assert_eq!(out[1..], expected.terms()[..]);
+            }
+        }
+    }
 }

@@ -22,3 +22,26 @@ pub fn numbered_ring_32003(n: usize) -> Ring<PrimeField> {
 pub fn polys(ring: &Ring<PrimeField>, texts: &[&str]) -> Vec<Poly<PrimeField>> {
     texts.iter().map(|t| parse_poly(ring, t).unwrap()).collect()
 }
+
+/// A random polynomial of `ring` with up to `terms` terms of degree at most `degree` (a seeded
+/// generator: the same polynomials on every run).
+pub fn random_poly(
+    ring: &Ring<PrimeField>,
+    rng: &mut crate::rng::Rng,
+    terms: usize,
+    degree: u32,
+) -> Poly<PrimeField> {
+    let n = ring.nvars();
+    ring.from_terms((0..terms).map(|_| {
+        let mut left = rng.below(u64::from(degree) + 1) as u32;
+        let exponents: Vec<u32> = (0..n)
+            .map(|_| {
+                let e = rng.below(u64::from(left) + 1) as u32;
+                left -= e;
+                e
+            })
+            .collect();
+        let monomial = crate::monomial::Monomial::from_exponents(exponents).unwrap();
+        (monomial, rng.below(32003))
+    }))
+}

@@ -146,14 +146,13 @@ impl<'a, F: Field> Module<'a, F> {
     /// Splits a monomial of the proof ring into its non-parameter part and its parameter part
     /// (a monomial of k[T]).
     fn split(&self, m: &Monomial) -> Result<(Monomial, Monomial)> {
-        let mut x = m.exponents().to_vec();
-        let t: Vec<u32> = self
-            .proof
-            .param_pos
-            .iter()
-            .map(|&p| std::mem::take(&mut x[p]))
-            .collect();
-        Ok((Monomial::from_exponents(x)?, Monomial::from_exponents(t)?))
+        let (e, params) = (m.exponents(), &self.proof.param_pos);
+        let x =
+            Monomial::from_exponent_fn(e.len(), |i| if params.contains(&i) { 0 } else { e[i] })?;
+        Ok((
+            x,
+            Monomial::from_exponent_fn(params.len(), |k| e[params[k]])?,
+        ))
     }
 
     /// An element of the proof ring that involves only parameters, as a polynomial of k[T].
@@ -200,13 +199,24 @@ impl<'a, F: Field> Module<'a, F> {
                 let k = self.index[&x];
                 row[k].push((t, c.clone()));
             }
-            matrix.push(
-                row.into_iter()
-                    .map(|terms| self.params.from_terms(terms))
-                    .collect(),
-            );
+            matrix.push(row.into_iter().map(|terms| self.entry(terms)).collect());
         }
         Ok(matrix)
+    }
+
+    /// An entry of the matrix from the parameter parts of the terms of a normal form that
+    /// share one standard x^α, in the normal form's order. With the parameters last in grevlex
+    /// that is already the order of k[T] (equal x^α: the parameters decide), so the terms are
+    /// taken as they are once that is checked; otherwise they are sorted.
+    fn entry(&self, terms: Vec<(Monomial, F::Elem)>) -> Poly<F> {
+        let decreasing = terms
+            .windows(2)
+            .all(|w| self.params.cmp(&w[0].0, &w[1].0) == std::cmp::Ordering::Greater);
+        if decreasing {
+            Poly::from_sorted(terms)
+        } else {
+            self.params.from_terms(terms)
+        }
     }
 
     /// The normal form of `f` modulo the proof's basis, term by term from the cache.

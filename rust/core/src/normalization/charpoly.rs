@@ -10,7 +10,7 @@
 //! Otherwise, by Berkowitz's division-free algorithm (Berkowitz 1984) directly over k[T], which
 //! works in every characteristic, GF(2) included.
 
-use super::scalars::{Generic, Scalars, Words};
+use super::scalars::{invert_all, Generic, Scalars, Words, LANES};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
@@ -25,7 +25,10 @@ pub fn characteristic_polynomial<F: Field>(
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
     match interpolation_grid(ring, a) {
-        Some((bounds, total)) => by_interpolation(ring, a, &LowerSet::new(&bounds, total), control),
+        Some((bounds, total, mean)) => {
+            let set = LowerSet::new(&bounds, total);
+            by_interpolation(ring, a, &set, mean, control)
+        }
         None => berkowitz(ring, a, control),
     }
 }
@@ -33,9 +36,17 @@ pub fn characteristic_polynomial<F: Field>(
 /// Largest number of values (grid points × coefficients) interpolation may hold.
 const MAX_INTERPOLATION_VALUES: u64 = 20_000_000;
 
-/// Degree bounds in each t_i and in total for the coefficients, when the field has enough
-/// points for them and the grid is small enough; `None` otherwise.
-fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(Vec<u64>, u64)> {
+/// A cycle mean λ* as a fraction (numerator, denominator); `None` when the graph has no cycle.
+type CycleMean = Option<(i64, i64)>;
+
+/// Degree bounds in each t_i and in total for the coefficients, and the largest cycle mean of
+/// the entries' total degrees (the total degree of the coefficient of x^k is at most
+/// ⌊(r - k)·λ*⌋), when the field has enough points for them and the grid is small enough;
+/// `None` otherwise.
+fn interpolation_grid<F: Field>(
+    ring: &Ring<F>,
+    a: &[Vec<Poly<F>>],
+) -> Option<(Vec<u64>, u64, CycleMean)> {
     let d = ring.nvars();
     let r = a.len();
     let degree_in = |p: &Poly<F>, i: usize| {
@@ -46,11 +57,12 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(V
             .unwrap_or(0)
     };
     let total = |p: &Poly<F>| p.degree().map(u64::from);
-    let total_bound = cycle_mean_bound(
+    let total_mean = largest_cycle_mean(
         &a.iter()
             .map(|row| row.iter().map(total).collect())
             .collect::<Vec<_>>(),
     );
+    let total_bound = cycle_bound(total_mean, r);
     let bounds: Vec<u64> = (0..d)
         .map(|i| {
             let rows: u64 = a
@@ -61,10 +73,13 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(V
                 .map(|k| a.iter().map(|row| degree_in(&row[k], i)).max().unwrap_or(0))
                 .sum();
             let in_i = |p: &Poly<F>| (!p.is_zero()).then(|| degree_in(p, i));
-            let cycles = cycle_mean_bound(
-                &a.iter()
-                    .map(|row| row.iter().map(in_i).collect())
-                    .collect::<Vec<_>>(),
+            let cycles = cycle_bound(
+                largest_cycle_mean(
+                    &a.iter()
+                        .map(|row| row.iter().map(in_i).collect())
+                        .collect::<Vec<_>>(),
+                ),
+                r,
             );
             rows.min(cols).min(cycles).min(total_bound)
         })
@@ -76,15 +91,19 @@ fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<(V
     let points = bounds
         .iter()
         .try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
-    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((bounds, total_bound))
+    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((
+        bounds,
+        total_bound,
+        total_mean,
+    ))
 }
 
-/// A bound on the degree of every coefficient of det(x·Id - A), given the degree of each entry
-/// (`None` for a zero entry): each term of the coefficient of x^{r-k} is a product of entries
-/// along disjoint cycles through k indices, so its degree is at most k times the largest mean
-/// degree of a cycle, which Karp's theorem (Karp 1978) computes from the heaviest walks with
-/// exactly j edges: λ* = max_v min_j (W_r(v) - W_j(v)) / (r - j). The bound is ⌊r·λ*⌋.
-fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
+/// The largest mean degree λ* of a cycle, given the degree of each entry (`None` for a zero
+/// entry): each term of the coefficient of x^{r-k} in det(x·Id - A) is a product of entries
+/// along disjoint cycles through k indices, so its degree is at most ⌊k·λ*⌋ (see
+/// [`cycle_bound`]). Karp's theorem (Karp 1978) computes λ* from the heaviest walks with
+/// exactly j edges: λ* = max_v min_j (W_r(v) - W_j(v)) / (r - j).
+fn largest_cycle_mean(degrees: &[Vec<Option<u64>>]) -> CycleMean {
     let r = degrees.len();
     // walks[j][v]: largest degree of a walk of exactly j edges ending at v (None: no walk).
     let mut walks: Vec<Vec<Option<i64>>> = vec![vec![Some(0); r]];
@@ -116,8 +135,13 @@ fn cycle_mean_bound(degrees: &[Vec<Option<u64>>]) -> u64 {
             }
         }
     }
-    best.map_or(0, |(num, den)| {
-        u64::try_from((r as i64 * num).div_euclid(den)).unwrap_or(0)
+    best
+}
+
+/// ⌊k·λ*⌋: the degree bound of the coefficient of x^{r-k}, k ≤ r (0 without cycles).
+fn cycle_bound(mean: CycleMean, k: usize) -> u64 {
+    mean.map_or(0, |(num, den)| {
+        u64::try_from((k as i64 * num).div_euclid(den)).unwrap_or(0)
     })
 }
 
@@ -127,11 +151,12 @@ fn by_interpolation<F: Field>(
     ring: &Ring<F>,
     a: &[Vec<Poly<F>>],
     set: &LowerSet,
+    mean: CycleMean,
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
     match Words::new(&ring.field) {
-        Some(words) => interpolate_in(&words, ring, a, set, control),
-        None => interpolate_in(&Generic(&ring.field), ring, a, set, control),
+        Some(words) => interpolate_in(&words, ring, a, set, mean, control),
+        None => interpolate_in(&Generic(&ring.field), ring, a, set, mean, control),
     }
 }
 
@@ -140,6 +165,7 @@ fn interpolate_in<S: Scalars>(
     ring: &Ring<S::Base>,
     a: &[Vec<Poly<S::Base>>],
     set: &LowerSet,
+    mean: CycleMean,
     control: &Control,
 ) -> Result<Vec<Poly<S::Base>>> {
     let field = &ring.field;
@@ -152,24 +178,39 @@ fn interpolate_in<S: Scalars>(
             .collect(),
     );
     let entries = EntryTerms::new(s, a);
+    let columns = Columns::new(r, |j, k| !a[j][k].is_zero());
     let projection = projection_vector(s, field, r);
     // values[k][g]: coefficient of x^k at the node point of the g-th exponent of the lower set.
     let mut values = vec![vec![s.zero(); set.exponents.len()]; r + 1];
-    for (g, alpha) in set.exponents.iter().enumerate() {
+    // The points in groups of LANES: their matrices share the nonzero pattern, so their Krylov
+    // sequences are computed side by side.
+    for first in (0..set.exponents.len()).step_by(LANES) {
         control.check()?;
-        let point: Vec<&S::E> = alpha.iter().map(|&j| &nodes.points[j as usize]).collect();
-        let scalar = entries.evaluate(s, &point);
-        for (k, c) in scalar_charpoly(s, scalar, &projection)
-            .into_iter()
-            .enumerate()
-        {
-            values[k][g] = c;
+        let group = first..(first + LANES).min(set.exponents.len());
+        let matrices: Vec<Vec<Vec<S::E>>> = set.exponents[group.clone()]
+            .iter()
+            .map(|alpha| {
+                let point: Vec<&S::E> = alpha.iter().map(|&j| &nodes.points[j as usize]).collect();
+                entries.evaluate(s, &point)
+            })
+            .collect();
+        let sequences = columns.sequences(s, &matrices, &projection);
+        for ((g, matrix), sequence) in group.zip(matrices).zip(sequences) {
+            for (k, c) in scalar_charpoly(s, matrix, &sequence)
+                .into_iter()
+                .enumerate()
+            {
+                values[k][g] = c;
+            }
         }
     }
     let mut out = Vec::with_capacity(r + 1);
     for k in (0..=r).rev() {
         control.check()?;
-        let coefficients = set.interpolate(s, &nodes, std::mem::take(&mut values[k]));
+        // The coefficient of x^k has total degree at most ⌊(r - k)·λ*⌋: its Newton coefficients
+        // above that vanish, so the points up to that degree determine it.
+        let degree = cycle_bound(mean, r - k);
+        let coefficients = set.interpolate(s, &nodes, std::mem::take(&mut values[k]), degree);
         let terms = set
             .exponents
             .iter()
@@ -204,6 +245,8 @@ const PROJECTION_SEED: u64 = 0x5eed_c0ff_ee00;
 /// exact (multivariate Newton interpolation on lower sets; Sauer 2006, Dyn and Floater 2014).
 struct LowerSet {
     exponents: Vec<Vec<u32>>,
+    /// degrees[g]: the total degree |α| of exponents[g].
+    degrees: Vec<u64>,
     /// lines[i]: the lines of the set along axis i, found once for all the coefficients.
     lines: Vec<Vec<Vec<usize>>>,
 }
@@ -227,7 +270,15 @@ impl LowerSet {
                     .collect()
             })
             .collect();
-        LowerSet { exponents, lines }
+        let degrees = exponents
+            .iter()
+            .map(|e| e.iter().map(|&x| u64::from(x)).sum())
+            .collect();
+        LowerSet {
+            exponents,
+            degrees,
+            lines,
+        }
     }
 
     fn enumerate(
@@ -259,11 +310,30 @@ impl LowerSet {
         line
     }
 
-    /// Values at the node points -> coefficients of the monomials t^α.
-    fn interpolate<S: Scalars>(&self, s: &S, nodes: &Nodes<S>, mut values: Vec<S::E>) -> Vec<S::E> {
+    /// Values at the node points -> coefficients of the monomials t^α, for a polynomial of
+    /// total degree at most `degree`. Its Newton coefficients above that degree are zero, and
+    /// the coefficient at α only involves points below α, so only the points with
+    /// |α| <= `degree` are used: along each line, a prefix (|α| grows by one per step).
+    fn interpolate<S: Scalars>(
+        &self,
+        s: &S,
+        nodes: &Nodes<S>,
+        mut values: Vec<S::E>,
+        degree: u64,
+    ) -> Vec<S::E> {
+        for (value, &d) in values.iter_mut().zip(&self.degrees) {
+            if d > degree {
+                *value = s.zero();
+            }
+        }
         for pass in 0..2 {
             for lines in &self.lines {
                 for line in lines {
+                    let used = line
+                        .iter()
+                        .take_while(|&&g| self.degrees[g] <= degree)
+                        .count();
+                    let line = &line[..used];
                     let ys: Vec<S::E> = line.iter().map(|&g| values[g].clone()).collect();
                     let out = if pass == 0 {
                         divided_differences(s, nodes, &ys)
@@ -351,14 +421,20 @@ struct Nodes<S: Scalars> {
 impl<S: Scalars> Nodes<S> {
     fn new(s: &S, points: Vec<S::E>) -> Self {
         let n = points.len();
+        let gaps: Vec<S::E> = (1..n)
+            .flat_map(|level| (level..n).map(move |i| (level, i)))
+            .map(|(level, i)| s.sub(&points[i], &points[i - level]))
+            .collect();
+        let mut inverses = invert_all(s, &gaps)
+            .expect("nodes are distinct")
+            .into_iter();
         let inverse_gaps = (0..n)
             .map(|level| {
                 (0..n)
-                    .map(|i| match i.checked_sub(level) {
-                        Some(j) if level > 0 => s
-                            .inv(&s.sub(&points[i], &points[j]))
-                            .expect("nodes are distinct"),
-                        _ => s.zero(),
+                    .map(|i| match level {
+                        0 => s.zero(),
+                        _ if i < level => s.zero(),
+                        _ => inverses.next().unwrap(),
                     })
                     .collect()
             })
@@ -404,90 +480,199 @@ fn newton_to_monomial<S: Scalars>(s: &S, xs: &[S::E], dd: &[S::E]) -> Vec<S::E> 
 }
 
 /// det(x·Id - A) of a scalar matrix, coefficients low to high. First as the minimal
-/// polynomial of the sequence u·w_k, w_k = (A^T)^k e_1, for the fixed vector `projection` = u:
-/// it divides det(x·Id - A), so when its degree is r the two are equal. The 2r products
-/// A^T·w run over the nonzero entries only (a matrix of multiplication by an element on
-/// standard monomials has unit rows wherever x·b is standard again) with one reduction per
-/// dot product, and Berlekamp–Massey then costs O(r^2) where solving for the coefficients
-/// would cost O(r^3). When the degree is smaller (the matrix is not cyclic for e_1, or u is
-/// unlucky), by Hessenberg reduction, which always works.
-fn scalar_charpoly<S: Scalars>(s: &S, a: Vec<Vec<S::E>>, projection: &[S::E]) -> Vec<S::E> {
-    sequence_charpoly(s, &a, projection).unwrap_or_else(|| hessenberg_charpoly(s, a))
+/// polynomial of the sequence u·w_k, w_k = (A^T)^k e_1, k < 2r, for the fixed vector
+/// `projection` = u (`sequence`, from [`Columns::sequences`]): it divides det(x·Id - A), so
+/// when its degree is r the two are equal (Wiedemann 1986: the minimal polynomial of a
+/// projected Krylov sequence; Krylov 1931). The 2r products A^T·w run over the nonzero entries
+/// only (a matrix of multiplication by an element on standard monomials has unit rows wherever
+/// x·b is standard again), and Berlekamp–Massey then costs O(r^2) where solving for the
+/// coefficients would cost O(r^3). When the degree is smaller (the matrix is not cyclic for
+/// e_1, or u is unlucky), by Hessenberg reduction, which always works.
+fn scalar_charpoly<S: Scalars>(s: &S, a: Vec<Vec<S::E>>, sequence: &[S::E]) -> Vec<S::E> {
+    let r = a.len();
+    let connection = berlekamp_massey(s, sequence);
+    if connection.len() == r + 1 {
+        connection.into_iter().rev().collect()
+    } else {
+        hessenberg_charpoly(s, a)
+    }
 }
 
-/// det(x·Id - A) as the minimal polynomial of the scalar sequence u·(A^T)^k e_1, k < 2r,
-/// when that has degree r (Wiedemann 1986: the minimal polynomial of a projected Krylov
-/// sequence; Krylov 1931); `None` otherwise.
-fn sequence_charpoly<S: Scalars>(s: &S, a: &[Vec<S::E>], u: &[S::E]) -> Option<Vec<S::E>> {
-    let r = a.len();
-    // The nonzero entries of each column of A, i.e. of each row of A^T.
-    let sparse_columns: Vec<Vec<(usize, &S::E)>> = (0..r)
-        .map(|col| {
-            (0..r)
-                .filter(|&j| !s.is_zero(&a[j][col]))
-                .map(|j| (j, &a[j][col]))
-                .collect()
-        })
-        .collect();
-    let mut sequence = Vec::with_capacity(2 * r);
-    let mut w = vec![s.zero(); r];
-    let mut next = vec![s.zero(); r];
-    if r > 0 {
-        w[0] = s.one();
-    }
-    for k in 0..2 * r {
-        sequence.push(s.dot(u.iter().zip(&w)));
-        if k + 1 < 2 * r {
-            for (out, column) in next.iter_mut().zip(&sparse_columns) {
-                *out = s.dot(column.iter().map(|&(j, c)| (&w[j], c)));
-            }
-            std::mem::swap(&mut w, &mut next);
+/// The positions (j, k) of an r × r matrix A that may be nonzero, by column k: what row k of
+/// A^T reads. Several matrices with this pattern run their products A^T·w side by side, one
+/// per lane of [`Scalars::lanes_mul_add`].
+struct Columns {
+    /// Column k holds the rows rows[starts[k]..starts[k + 1]].
+    starts: Vec<usize>,
+    rows: Vec<usize>,
+}
+
+impl Columns {
+    fn new(r: usize, nonzero: impl Fn(usize, usize) -> bool) -> Self {
+        let mut starts = vec![0];
+        let mut rows = Vec::new();
+        for k in 0..r {
+            rows.extend((0..r).filter(|&j| nonzero(j, k)));
+            starts.push(rows.len());
         }
+        Columns { starts, rows }
     }
-    let connection = berlekamp_massey(s, &sequence);
-    (connection.len() == r + 1).then(|| connection.into_iter().rev().collect())
+
+    /// For each matrix (at most LANES of them, zero outside the pattern) the sequence
+    /// u·(A^T)^k e_1, k < 2r. Picks the widest vector instructions the CPU has: the lane loops
+    /// are the same code either way.
+    fn sequences<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        #[cfg(target_arch = "x86_64")]
+        {
+            if std::arch::is_x86_feature_detected!("avx512f") {
+                // SAFETY: the CPU has AVX-512F.
+                return unsafe { self.sequences_avx512(s, matrices, u) };
+            }
+            if std::arch::is_x86_feature_detected!("avx2") {
+                // SAFETY: the CPU has AVX2.
+                return unsafe { self.sequences_avx2(s, matrices, u) };
+            }
+        }
+        self.sequences_in_lanes(s, matrices, u)
+    }
+
+    /// `sequences_in_lanes` compiled for AVX2.
+    ///
+    /// # Safety
+    /// The CPU supports AVX2.
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx2")]
+    unsafe fn sequences_avx2<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        self.sequences_in_lanes(s, matrices, u)
+    }
+
+    /// `sequences_in_lanes` compiled for AVX-512.
+    ///
+    /// # Safety
+    /// The CPU supports AVX-512F.
+    #[cfg(target_arch = "x86_64")]
+    #[target_feature(enable = "avx512f")]
+    unsafe fn sequences_avx512<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        self.sequences_in_lanes(s, matrices, u)
+    }
+
+    #[inline(always)]
+    fn sequences_in_lanes<S: Scalars>(
+        &self,
+        s: &S,
+        matrices: &[Vec<Vec<S::E>>],
+        u: &[S::E],
+    ) -> Vec<Vec<S::E>> {
+        let r = self.starts.len() - 1;
+        let count = matrices.len();
+        assert!((1..=LANES).contains(&count), "1 to LANES matrices");
+        // Entry t of the pattern in every lane; lanes past `count` repeat the last matrix.
+        let lanes = |entry: &dyn Fn(&Vec<Vec<S::E>>) -> S::E| -> [S::E; LANES] {
+            std::array::from_fn(|l| entry(&matrices[l.min(count - 1)]))
+        };
+        let values: Vec<[S::E; LANES]> = (0..r)
+            .flat_map(|k| {
+                self.rows[self.starts[k]..self.starts[k + 1]]
+                    .iter()
+                    .map(move |&j| (j, k))
+            })
+            .map(|(j, k)| lanes(&|m| m[j][k].clone()))
+            .collect();
+        let projection: Vec<[S::E; LANES]> = u.iter().map(|x| lanes(&|_| x.clone())).collect();
+        let mut w = vec![lanes(&|_| s.zero()); r];
+        if r > 0 {
+            w[0] = lanes(&|_| s.one());
+        }
+        let mut next = w.clone();
+        let mut sequences = vec![Vec::with_capacity(2 * r); count];
+        for k in 0..2 * r {
+            let mut acc = s.lanes_zero();
+            for (x, y) in projection.iter().zip(&w) {
+                s.lanes_mul_add(&mut acc, x, y);
+            }
+            for (sequence, value) in sequences.iter_mut().zip(s.lanes_finish(&acc)) {
+                sequence.push(value);
+            }
+            if k + 1 < 2 * r {
+                for (out, column) in next.iter_mut().zip(self.starts.windows(2)) {
+                    let mut acc = s.lanes_zero();
+                    for t in column[0]..column[1] {
+                        s.lanes_mul_add(&mut acc, &values[t], &w[self.rows[t]]);
+                    }
+                    *out = s.lanes_finish(&acc);
+                }
+                std::mem::swap(&mut w, &mut next);
+            }
+        }
+        sequences
+    }
 }
 
 /// The shortest recurrence s_n + c_1 s_{n-1} + ... + c_L s_{n-L} = 0 (n ≥ L) of the sequence,
 /// as [1, c_1, ..., c_L] (Massey 1969). For a sequence whose minimal recurrence has length L,
-/// 2L terms determine it.
+/// 2L terms determine it. Without divisions in the loop: the update C := b·C - d·x^shift·B
+/// (b the discrepancy B had) keeps a nonzero multiple of Massey's C, which changes neither the
+/// discrepancies' zero tests nor the lengths; one inverse at the end makes the constant term 1.
+/// An inverse costs as much as dozens of products, and the loop would need one per length change.
 fn berlekamp_massey<S: Scalars>(s: &S, sequence: &[S::E]) -> Vec<S::E> {
     let mut current = vec![s.one()];
-    // The recurrence before the last length change, its discrepancy's inverse, and how many
-    // terms ago that was.
+    // The recurrence before the last length change, its discrepancy, and how many terms ago
+    // that was.
     let mut before = vec![s.one()];
-    let mut before_inverse = s.one();
+    let mut before_discrepancy = s.one();
     let mut shift = 1;
     let mut length = 0;
     for n in 0..sequence.len() {
-        // current[0] = 1, and its entries past the length are zero: the discrepancy is
-        // Σ_i current[i]·s_{n-i}.
+        // current[0] ≠ 0, and its entries past the length are zero: the discrepancy (up to
+        // the factor current[0]) is Σ_i current[i]·s_{n-i}.
         let discrepancy = s.dot(current.iter().zip(sequence[..=n].iter().rev()));
         if s.is_zero(&discrepancy) {
             shift += 1;
             continue;
         }
-        let factor = s.mul(&discrepancy, &before_inverse);
         let grows = 2 * length <= n;
         let previous = if grows { Some(current.clone()) } else { None };
         if current.len() < before.len() + shift {
             current.resize(before.len() + shift, s.zero());
         }
+        if before_discrepancy != s.one() {
+            for c in current.iter_mut() {
+                *c = s.mul(c, &before_discrepancy);
+            }
+        }
         for (i, b) in before.iter().enumerate() {
-            current[i + shift] = s.mul_sub(&current[i + shift], &factor, b);
+            current[i + shift] = s.mul_sub(&current[i + shift], &discrepancy, b);
         }
         match previous {
             Some(previous) => {
                 length = n + 1 - length;
                 before = previous;
-                before_inverse = s.inv(&discrepancy).expect("a nonzero discrepancy");
+                before_discrepancy = discrepancy;
                 shift = 1;
             }
             None => shift += 1,
         }
     }
     current.resize(length + 1, s.zero());
-    current
+    let scale = s
+        .inv(&current[0])
+        .expect("a product of nonzero discrepancies");
+    current.iter().map(|c| s.mul(c, &scale)).collect()
 }
 
 /// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
@@ -638,15 +823,40 @@ mod tests {
                 })
                 .collect();
             let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
-            let (bounds, total) = interpolation_grid(&ring, &a).unwrap();
+            let (bounds, total, mean) = interpolation_grid(&ring, &a).unwrap();
             let expected = berkowitz(&ring, &a, &Control::new()).unwrap();
             assert_eq!(fast, expected, "{nvars} variables, size {size}");
             // The same interpolation in the field's own arithmetic, the path of every field
             // that is not a word-size prime field.
             let set = LowerSet::new(&bounds, total);
-            let generic = interpolate_in(&Generic(&ring.field), &ring, &a, &set, &Control::new());
+            let generic = interpolate_in(
+                &Generic(&ring.field),
+                &ring,
+                &a,
+                &set,
+                mean,
+                &Control::new(),
+            );
             assert_eq!(generic.unwrap(), expected, "{nvars} variables, size {size}");
         }
+    }
+
+    /// The sequence u·(A^T)^k e_1, k < 2r, of one matrix, through the lanes.
+    fn sequence<S: Scalars>(s: &S, a: &[Vec<S::E>], u: &[S::E]) -> Vec<S::E> {
+        let columns = Columns::new(a.len(), |j, k| !s.is_zero(&a[j][k]));
+        columns.sequences(s, &[a.to_vec()], u).pop().unwrap()
+    }
+
+    /// det(x·Id - A) by the sequence when it has full degree, else by Hessenberg reduction.
+    fn charpoly_of<S: Scalars>(s: &S, a: Vec<Vec<S::E>>, u: &[S::E]) -> Vec<S::E> {
+        let sequence = sequence(s, &a, u);
+        scalar_charpoly(s, a, &sequence)
+    }
+
+    /// det(x·Id - A) by the sequence alone: `None` when its minimal polynomial falls short.
+    fn sequence_charpoly<S: Scalars>(s: &S, a: &[Vec<S::E>], u: &[S::E]) -> Option<Vec<S::E>> {
+        let connection = berlekamp_massey(s, &sequence(s, a, u));
+        (connection.len() == a.len() + 1).then(|| connection.into_iter().rev().collect())
     }
 
     /// The sequence shortcut agrees with Hessenberg reduction where it applies, and declines
@@ -671,8 +881,8 @@ mod tests {
                 }
                 let expected = hessenberg_charpoly(&generic, a.clone());
                 assert_eq!(hessenberg_charpoly(&words, a.clone()), expected);
-                assert_eq!(scalar_charpoly(&generic, a.clone(), &u), expected);
-                assert_eq!(scalar_charpoly(&words, a, &u), expected);
+                assert_eq!(charpoly_of(&generic, a.clone(), &u), expected);
+                assert_eq!(charpoly_of(&words, a, &u), expected);
             }
         }
         assert!(
@@ -683,8 +893,8 @@ mod tests {
         let u = projection_vector(&generic, &field, 2);
         assert_eq!(sequence_charpoly(&generic, &scalar, &u), None);
         // (x - 3)^2 = x^2 - 6x + 9 over GF(101).
-        assert_eq!(scalar_charpoly(&words, scalar.clone(), &u), vec![9, 95, 1]);
-        assert_eq!(scalar_charpoly(&generic, scalar, &u), vec![9, 95, 1]);
+        assert_eq!(charpoly_of(&words, scalar.clone(), &u), vec![9, 95, 1]);
+        assert_eq!(charpoly_of(&generic, scalar, &u), vec![9, 95, 1]);
     }
 
     /// Berlekamp–Massey finds the Fibonacci recurrence s_n - s_{n-1} - s_{n-2} = 0 from four
@@ -738,7 +948,7 @@ mod tests {
             let expected = hessenberg_charpoly(&Generic(&field), a.clone());
             let u = projection_vector(&words, &field, 30);
             assert!(sequence_charpoly(&words, &a, &u).is_some());
-            assert_eq!(scalar_charpoly(&words, a.clone(), &u), expected);
+            assert_eq!(charpoly_of(&words, a.clone(), &u), expected);
             assert_eq!(hessenberg_charpoly(&words, a), expected);
         }
     }
@@ -753,15 +963,12 @@ mod tests {
         let words = Words::new(&field).unwrap();
         let u = projection_vector(&words, &field, 3);
         assert_eq!(
-            scalar_charpoly(&words, vec![vec![2, 1], vec![1, 2]], &u[..2]),
+            charpoly_of(&words, vec![vec![2, 1], vec![1, 2]], &u[..2]),
             vec![3, p - 4, 1]
         );
         // (x - 1)(x - 2)(x - 5) = x^3 - 8x^2 + 17x - 10.
         let upper = vec![vec![1, 7, 9], vec![0, 2, 4], vec![0, 0, 5]];
-        assert_eq!(
-            scalar_charpoly(&words, upper, &u),
-            vec![p - 10, 17, p - 8, 1]
-        );
+        assert_eq!(charpoly_of(&words, upper, &u), vec![p - 10, 17, p - 8, 1]);
     }
 
     #[test]

@@ -38,7 +38,37 @@ pub trait Scalars {
     }
     fn import(&self, a: &<Self::Base as Field>::Elem) -> Self::E;
     fn export(&self, a: &Self::E) -> <Self::Base as Field>::Elem;
+
+    /// Sums of products for [`LANES`] independent problems side by side: `acc[l] += a[l]·b[l]`
+    /// with no reduction in between, so that the loop over the lanes can run on vector units.
+    type Lanes: Clone;
+    fn lanes_zero(&self) -> Self::Lanes;
+    fn lanes_mul_add(&self, acc: &mut Self::Lanes, a: &[Self::E; LANES], b: &[Self::E; LANES]);
+    /// The reduced sum of each lane.
+    fn lanes_finish(&self, acc: &Self::Lanes) -> [Self::E; LANES];
 }
+
+/// The inverses of all `values`, or `None` when one is zero, with one inversion and three
+/// products per value (Montgomery 1987, batch inversion): an inverse by the extended Euclidean
+/// algorithm costs as much as dozens of products.
+pub fn invert_all<S: Scalars>(s: &S, values: &[S::E]) -> Option<Vec<S::E>> {
+    // prefix[i] = values[0]·...·values[i-1]
+    let mut prefix = Vec::with_capacity(values.len() + 1);
+    prefix.push(s.one());
+    for v in values {
+        prefix.push(s.mul(prefix.last().unwrap(), v));
+    }
+    let mut rest = s.inv(prefix.last().unwrap())?; // 1 / (values[0]·...·values[i])
+    let mut inverses = vec![s.zero(); values.len()];
+    for i in (0..values.len()).rev() {
+        inverses[i] = s.mul(&rest, &prefix[i]);
+        rest = s.mul(&rest, &values[i]);
+    }
+    Some(inverses)
+}
+
+/// How many problems the lane operations of [`Scalars`] carry side by side.
+pub const LANES: usize = 8;
 
 /// The field's own arithmetic: works for every field.
 pub struct Generic<'a, F: Field>(pub &'a F);
@@ -76,6 +106,19 @@ impl<F: Field> Scalars for Generic<'_, F> {
     }
     fn export(&self, a: &F::Elem) -> F::Elem {
         a.clone()
+    }
+
+    type Lanes = [F::Elem; LANES];
+    fn lanes_zero(&self) -> Self::Lanes {
+        std::array::from_fn(|_| self.0.zero())
+    }
+    fn lanes_mul_add(&self, acc: &mut Self::Lanes, a: &[F::Elem; LANES], b: &[F::Elem; LANES]) {
+        for ((acc, a), b) in acc.iter_mut().zip(a).zip(b) {
+            *acc = self.mul_add(acc, a, b);
+        }
+    }
+    fn lanes_finish(&self, acc: &Self::Lanes) -> [F::Elem; LANES] {
+        acc.clone()
     }
 }
 
@@ -175,6 +218,29 @@ impl<F: Field> Scalars for Words<'_, F> {
     fn export(&self, a: &u64) -> F::Elem {
         self.field.from_word(*a)
     }
+
+    /// Each lane sums its products (each below 2^64, of residues below p < 2^32, which
+    /// vector units multiply directly) in one word; a sum that wraps past 2^64 gets
+    /// 2^64 mod p added back at once, so the word stays congruent to the exact sum and below
+    /// 2^64 (a wrapped sum is below the product just added, at most (p - 1)^2 <= 2^64 - 2^33,
+    /// and 2^64 mod p < 2^32). One reduction at the end.
+    type Lanes = [u64; LANES];
+    fn lanes_zero(&self) -> Self::Lanes {
+        [0; LANES]
+    }
+    #[inline(always)]
+    fn lanes_mul_add(&self, acc: &mut Self::Lanes, a: &[u64; LANES], b: &[u64; LANES]) {
+        for l in 0..LANES {
+            // Residues are below p < 2^32: the casts lose nothing and show the compiler so.
+            let product = (a[l] as u32 as u64) * (b[l] as u32 as u64);
+            let (sum, wrapped) = acc[l].overflowing_add(product);
+            acc[l] = sum + if wrapped { self.carry } else { 0 };
+        }
+    }
+    #[inline(always)]
+    fn lanes_finish(&self, acc: &Self::Lanes) -> [u64; LANES] {
+        std::array::from_fn(|l| self.reduce(acc[l]))
+    }
 }
 
 #[cfg(test)]
@@ -208,5 +274,59 @@ mod tests {
             assert_eq!(words.dot(pairs()), generic.dot(pairs()), "dot mod {p}");
         }
         assert!(Words::new(&PrimeField::new(2).unwrap()).is_none());
+    }
+
+    /// Batch inversion gives each value's inverse (checked by the product with the value), and
+    /// `None` when a value is zero; over GF(4294967291) in words and GF(7) in the field.
+    #[test]
+    fn batch_inverses_are_inverses() {
+        let mut rng = crate::normalization::changes::Rng::new(5);
+        for p in [7u64, 4_294_967_291] {
+            let field = PrimeField::new(p).unwrap();
+            let (words, generic) = (Words::new(&field).unwrap(), Generic(&field));
+            let values: Vec<u64> = (0..40).map(|_| 1 + rng.next_u64() % (p - 1)).collect();
+            for inverses in [invert_all(&words, &values), invert_all(&generic, &values)] {
+                let inverses = inverses.unwrap();
+                for (v, w) in values.iter().zip(&inverses) {
+                    assert_eq!(words.mul(v, w), 1, "{v} mod {p}");
+                }
+            }
+            assert_eq!(invert_all(&words, &[]), Some(vec![]));
+            assert_eq!(invert_all(&words, &[3, 0, 5]), None);
+        }
+    }
+
+    /// The lane sums agree with the field's own sums of products, lane by lane, for sums long
+    /// enough to wrap past 2^64 many times (products near (p - 1)^2, every other one), over
+    /// GF(4294967291) and GF(7).
+    #[test]
+    fn lane_sums_agree_with_the_field() {
+        let mut rng = crate::normalization::changes::Rng::new(23);
+        for p in [7u64, 4_294_967_291] {
+            let field = PrimeField::new(p).unwrap();
+            let (words, generic) = (Words::new(&field).unwrap(), Generic(&field));
+            for length in [0, 1, 5, 3000] {
+                let (mut fast, mut slow) = (words.lanes_zero(), generic.lanes_zero());
+                for step in 0..length {
+                    let draw = |rng: &mut crate::normalization::changes::Rng| -> [u64; LANES] {
+                        std::array::from_fn(|_| {
+                            if step % 2 == 0 {
+                                p - 1
+                            } else {
+                                rng.next_u64() % p
+                            }
+                        })
+                    };
+                    let (a, b) = (draw(&mut rng), draw(&mut rng));
+                    words.lanes_mul_add(&mut fast, &a, &b);
+                    generic.lanes_mul_add(&mut slow, &a, &b);
+                }
+                assert_eq!(
+                    words.lanes_finish(&fast),
+                    generic.lanes_finish(&slow),
+                    "{length} mod {p}"
+                );
+            }
+        }
     }
 }
