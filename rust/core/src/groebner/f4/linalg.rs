@@ -253,7 +253,11 @@ impl<'a, F: Field, A: Arith<F>> Block<'a, F, A> {
 }
 
 /// Reduces each row by the known pivots (starting after the row's leading entry when
-/// `skip_lead`); returns what is left of each row, sparse.
+/// `skip_lead`); returns what is left of each row, sparse, in the order of `rows`.
+///
+/// Rows go into blocks by their first column: a block's rows then start together (a block
+/// scans the pivots from its earliest start), and blocks come by decreasing work, which the
+/// workers take in turn.
 fn reduce_by_known<F: Field, A: Arith<F>>(
     arith: &A,
     width: usize,
@@ -264,7 +268,11 @@ fn reduce_by_known<F: Field, A: Arith<F>>(
     multiply_adds: &AtomicU64,
 ) -> Result<Vec<Entries<A::C>>> {
     let skip = usize::from(skip_lead);
-    let blocks: Vec<&[&Row<A::C>]> = rows.chunks(LANES).collect();
+    let first_column = |row: &Row<A::C>| row.cols.get(skip).map_or(width, |&c| c as usize);
+    let mut order: Vec<usize> = (0..rows.len()).collect();
+    order.sort_by_key(|&i| first_column(rows[i]));
+    let sorted: Vec<&Row<A::C>> = order.iter().map(|&i| rows[i]).collect();
+    let blocks: Vec<&[&Row<A::C>]> = sorted.chunks(LANES).collect();
     let reduced = map_items(
         &blocks,
         PARALLEL_MIN_ROWS / LANES,
@@ -291,9 +299,12 @@ fn reduce_by_known<F: Field, A: Arith<F>>(
                 .collect::<Vec<_>>())
         },
     );
-    let mut out = Vec::with_capacity(rows.len());
+    let mut out: Vec<Entries<A::C>> = (0..rows.len()).map(|_| Default::default()).collect();
+    let mut reduced_rows = order.iter();
     for block in reduced {
-        out.extend(block?);
+        for entries in block? {
+            out[*reduced_rows.next().expect("one result per row")] = entries;
+        }
     }
     Ok(out)
 }
