@@ -1,5 +1,7 @@
 //! The F4 algorithm (Faugère 1999): Gröbner bases by sparse linear algebra. Each step takes all
-//! critical pairs of the lowest degree (normal strategy), writes both halves of every
+//! critical pairs of the lowest degree (normal strategy; of the lowest sugar, Giovini, Mora,
+//! Niesi, Robbiano and Traverso 1991, under orders that do not compare degrees first), writes
+//! both halves of every
 //! S-polynomial as rows of one matrix, adds reducer rows by symbolic preprocessing, and reduces
 //! the whole matrix at once; rows whose leading monomial is new join the basis.
 //!
@@ -193,16 +195,25 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
                 return Ok(Outcome::Unit);
             }
             let element = self.import(f);
-            self.add_element(element);
+            self.add_element(element, 0);
         }
+        let degree_order = self.ring.order.is_degree_compatible();
         loop {
             control.check()?;
-            let selected = self
-                .pairs
-                .take_lowest_degree(self.options.max_pairs_per_step);
-            let Some(degree) = selected.first().map(|p| p.lcm.degree()) else {
+            // Pairs of least lcm degree (the normal strategy) under orders that compare degrees
+            // first; of least sugar under the others, where the normal strategy can run far
+            // above the degrees the basis needs (a block order on three variables climbed to
+            // degree 38 and beyond where degree 10 suffices).
+            let limit = self.options.max_pairs_per_step;
+            let selected = if degree_order {
+                self.pairs.take_lowest_degree(limit)
+            } else {
+                self.pairs.take_lowest(limit)
+            };
+            let Some(degree) = selected.iter().map(|p| p.lcm.degree()).max() else {
                 break;
             };
+            let sugar = selected.iter().map(|p| p.sugar).max().unwrap_or(0);
             let step = self.stats.steps.len();
             control.check_degree(degree, step)?;
             let mut stats = StepStats {
@@ -230,7 +241,6 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             let clock = Instant::now();
             // Fully reduced new elements only where that cannot raise degrees (see linalg); for
             // the same reason no sampling under other orders: combinations give dense tails.
-            let degree_order = self.ring.order.is_degree_compatible();
             let back_substitute = degree_order;
             let echelon = match &mut self.sampler {
                 Some((sampling, rng)) if degree_order => sampled::reduce_new_rows_sampled(
@@ -264,7 +274,7 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             // retires it in the pair set.
             found.sort_by(|a, b| self.table.cmp(b.lead(), a.lead()));
             for e in found {
-                self.add_element(e);
+                self.add_element(e, sugar);
             }
         }
         Ok(Outcome::Basis)
@@ -308,7 +318,8 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             .collect()
     }
 
-    fn add_element(&mut self, e: Element<A::C>) {
+    /// Adds an element found at sugar `sugar` (0 for the input); its sugar is at least its degree.
+    fn add_element(&mut self, e: Element<A::C>, sugar: u32) {
         let lead = self.table.monomial(e.lead()).clone();
         let degree = e
             .monos
@@ -316,7 +327,7 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             .map(|&m| self.table.degree(m))
             .max()
             .unwrap_or(0);
-        self.pairs.insert(lead, degree);
+        self.pairs.insert(lead, degree.max(sugar));
         self.basis.push(e);
     }
 
