@@ -1,9 +1,9 @@
 //! The F4 algorithm (Faugère 1999): Gröbner bases by sparse linear algebra. Each step takes all
 //! critical pairs of the lowest degree (normal strategy; of the lowest sugar, Giovini, Mora,
 //! Niesi, Robbiano and Traverso 1991, under orders that do not compare degrees first), writes
-//! both halves of every
-//! S-polynomial as rows of one matrix, adds reducer rows by symbolic preprocessing, and reduces
-//! the whole matrix at once; rows whose leading monomial is new join the basis.
+//! both halves of every S-polynomial as rows of one matrix, adds reducer rows by symbolic
+//! preprocessing, and reduces the whole matrix at once; rows whose leading monomial is new join
+//! the basis.
 //!
 //! Modules: [`hash`] (the monomial table), [`symbolic`] (symbolic preprocessing), [`linalg`]
 //! (the Faugère–Lachartre reduction), [`arith`] (coefficient kernels with delayed reduction).
