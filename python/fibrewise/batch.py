@@ -8,9 +8,9 @@
   has its next job waiting in its input while it computes (so it never waits for the parent
   between jobs), and its answer is the finished line itself, which the parent appends as it is.
 - Every finished job is appended to the output as one complete line and flushed at once; a
-  background thread fsyncs the file in groups (group commit, at most every 50 ms), so a killed
-  process loses nothing written and a power loss at most the lines of the last tenth of a
-  second. A rerun with the same output skips the ids already there; a torn last line (a crash
+  background thread fsyncs the file in groups (group commit: each fsync covers every line
+  written while the previous one ran), so a killed process loses nothing written and a power
+  loss at most the lines of the last few milliseconds (one fsync). A rerun with the same output skips the ids already there; a torn last line (a crash
   in the middle of a write) is cut off on resume.
 - ``--scheduler`` sends the same jobs to a Dask distributed cluster; each Dask worker runs them in
   its own sandbox processes, so time and memory limits mean the same there.
@@ -136,15 +136,12 @@ class Finished:
         return cls(record["status"], record_line(record))
 
 
-#: Seconds between the start of one fsync of the result file and the next, at least.
-SYNC_INTERVAL = 0.05
-
-
 class ResultFile:
     """Appends one JSON line per finished job. ``append`` writes and flushes the whole line at
     once (a killed process keeps it); a syncing thread fsyncs whatever has been written since
-    its last fsync, at most every ``SYNC_INTERVAL`` seconds, so durability costs the main loop
-    nothing."""
+    its last fsync, as soon as it is written, so durability costs the main loop nothing.
+    (Spacing the fsyncs 50 ms apart gave 6% more jobs per second on the batch benchmark, for a
+    window of lost lines ten times longer; not worth it.)"""
 
     def __init__(self, path: str):
         import fcntl
@@ -161,7 +158,6 @@ class ResultFile:
             _fsync_directory(path)
         self.cond = threading.Condition()
         self.dirty = self.closing = False
-        self.stopping = threading.Event()
         self.syncer = threading.Thread(target=self._sync_loop, name="fibrewise-fsync", daemon=True)
         self.syncer.start()
 
@@ -181,14 +177,10 @@ class ResultFile:
                 if not self.dirty:
                     return
                 self.dirty = False
-            started = time.monotonic()
+            # Lines written while this runs (milliseconds of disk time) share the next one.
             os.fsync(self.handle.fileno())
-            # Lines finished in the next moments share the next fsync (each costs milliseconds
-            # of disk time and a little CPU); closing cuts the wait short.
-            self.stopping.wait(max(0.0, started + SYNC_INTERVAL - time.monotonic()))
 
     def close(self) -> None:
-        self.stopping.set()
         with self.cond:
             self.closing = True
             self.cond.notify()
