@@ -15,6 +15,8 @@ use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
 use crate::poly::{Poly, Ring};
+#[cfg(target_arch = "x86_64")]
+use crate::vector_unit::VectorUnit;
 use std::collections::HashMap;
 
 /// Coefficients [1, c_{r-1}, ..., c_0] of det(x·Id - A) = x^r + c_{r-1} x^{r-1} + ... + c_0,
@@ -528,15 +530,11 @@ impl Columns {
         u: &[S::E],
     ) -> Vec<Vec<S::E>> {
         #[cfg(target_arch = "x86_64")]
-        {
-            if std::arch::is_x86_feature_detected!("avx512f") {
-                // SAFETY: the CPU has AVX-512F.
-                return unsafe { self.sequences_avx512(s, matrices, u) };
-            }
-            if std::arch::is_x86_feature_detected!("avx2") {
-                // SAFETY: the CPU has AVX2.
-                return unsafe { self.sequences_avx2(s, matrices, u) };
-            }
+        match VectorUnit::detect() {
+            // SAFETY: the CPU has the feature.
+            VectorUnit::Avx512 => return unsafe { self.sequences_avx512(s, matrices, u) },
+            VectorUnit::Avx2 => return unsafe { self.sequences_avx2(s, matrices, u) },
+            VectorUnit::Baseline => {}
         }
         self.sequences_in_lanes(s, matrices, u)
     }

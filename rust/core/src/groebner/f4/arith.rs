@@ -14,6 +14,7 @@
 
 use crate::field::Field;
 use crate::rng::field_size;
+use crate::vector_unit::VectorUnit;
 use std::marker::PhantomData;
 
 /// The arithmetic one matrix computation runs on. `axpy` expects strictly increasing columns.
@@ -115,32 +116,6 @@ fn inv_mod(a: u64, p: u64) -> u64 {
     t0.rem_euclid(p as i128) as u64
 }
 
-/// The widest vector instructions this CPU offers for the lane kernels (x86-64 builds target
-/// the baseline instruction set; wider units are used when present, detected at run time).
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-enum Vector {
-    Baseline,
-    #[cfg_attr(not(target_arch = "x86_64"), allow(dead_code))]
-    Avx2,
-    #[cfg_attr(not(target_arch = "x86_64"), allow(dead_code))]
-    Avx512,
-}
-
-impl Vector {
-    fn detect() -> Self {
-        #[cfg(target_arch = "x86_64")]
-        {
-            if std::arch::is_x86_feature_detected!("avx512f") {
-                return Vector::Avx512;
-            }
-            if std::arch::is_x86_feature_detected!("avx2") {
-                return Vector::Avx2;
-            }
-        }
-        Vector::Baseline
-    }
-}
-
 /// The LANES entries of column `c` in an interleaved accumulator.
 ///
 /// # Safety
@@ -208,7 +183,7 @@ pub struct SmallPrime<W> {
     /// No reduction during accumulation (p < 2^21); otherwise conditional subtraction of p^2.
     lazy: bool,
     headroom: u64,
-    vector: Vector,
+    vector: VectorUnit,
     _w: PhantomData<W>,
 }
 
@@ -223,7 +198,7 @@ impl<W: Word> SmallPrime<W> {
             p2: p * p,
             lazy,
             headroom,
-            vector: Vector::detect(),
+            vector: VectorUnit::detect(),
             _w: PhantomData,
         }
     }
@@ -329,9 +304,9 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
         #[cfg(target_arch = "x86_64")]
         match self.vector {
             // SAFETY: the CPU has the feature (detected at construction).
-            Vector::Avx512 => return unsafe { lanes_lazy_avx512(acc, cols, coeffs, &m) },
-            Vector::Avx2 => return unsafe { lanes_lazy_avx2(acc, cols, coeffs, &m) },
-            Vector::Baseline => {}
+            VectorUnit::Avx512 => return unsafe { lanes_lazy_avx512(acc, cols, coeffs, &m) },
+            VectorUnit::Avx2 => return unsafe { lanes_lazy_avx2(acc, cols, coeffs, &m) },
+            VectorUnit::Baseline => {}
         }
         lanes_lazy(acc, cols, coeffs, &m);
     }
