@@ -1,0 +1,28 @@
+//! The widest vector instructions this CPU offers. Builds target the baseline x86-64
+//! instruction set; kernels that gain from wider units are compiled again under
+//! `#[target_feature]` and the widest one the CPU has is picked at run time.
+
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum VectorUnit {
+    Baseline,
+    #[cfg_attr(not(target_arch = "x86_64"), allow(dead_code))]
+    Avx2,
+    #[cfg_attr(not(target_arch = "x86_64"), allow(dead_code))]
+    Avx512,
+}
+
+impl VectorUnit {
+    /// The widest unit present (the check is cached by the standard library).
+    pub fn detect() -> Self {
+        #[cfg(target_arch = "x86_64")]
+        {
+            if std::arch::is_x86_feature_detected!("avx512f") {
+                return VectorUnit::Avx512;
+            }
+            if std::arch::is_x86_feature_detected!("avx2") {
+                return VectorUnit::Avx2;
+            }
+        }
+        VectorUnit::Baseline
+    }
+}
