@@ -273,7 +273,7 @@ def _batch(args: argparse.Namespace, activity) -> dict:
 
 
 # The engine names the native layer accepts (rust/python/src/ideal.rs, engine_by_name).
-ENGINES = ("auto", "f4", "f4-sampled", "buchberger")
+ENGINES = ("auto", "f4", "f4-sampled", "f4-signature", "buchberger")
 FILE_HELP = "system file (field:, variables:, order: headers, then one polynomial a line)"
 
 SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
@@ -329,7 +329,8 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
         p.add_argument("--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)")
         p.add_argument("--engine", choices=list(ENGINES), default="auto",
                        help="f4 (the default), f4-sampled (faster on large systems over finite fields; "
-                            "wrong with probability at most 2^-80 per matrix) or buchberger (the reference)")
+                            "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
+                            "only; skips most rows that reduce to zero) or buchberger (the reference)")
     elif name == "analyze":
         p.add_argument("--plot", metavar="FILE.png", help="draw degree and matrix size per Groebner step and the Hilbert function")
         group = p.add_mutually_exclusive_group()

@@ -138,7 +138,9 @@ class Ideal:
         random combinations of each matrix's new rows instead of every row, much faster when most
         rows are dependent; over a finite field its basis is the exact one except with
         probability at most 2^-80 per matrix, and over QQ it is checked exactly like the others —
-        or ``"buchberger"``, the reference engine.
+        ``"f4-signature"`` — F4 with signatures (exact; grlex and grevlex only), which skips most
+        rows that would reduce to zero: faster on systems whose degrees do not fall, such as
+        katsura-n, slower on most others — or ``"buchberger"``, the reference engine.
 
         ``max_degree`` and ``max_matrix`` (rows × columns) bound the work: going over raises
         ``fibrewise.ResourceLimit``. Ctrl-C raises ``KeyboardInterrupt`` promptly.

@@ -3,7 +3,8 @@
 //!
 //! Usage: `cargo run --release -p fibrewise-core --example bench_f4 [--quick] [--threads N] [SYSTEM...]`
 //! where SYSTEM is e.g. `cyclic-7`, `katsura-10`, `eco-10`, `noon-6`, `random-14-28`; a suffix
-//! `~s` runs it with the sampled linear algebra (engine f4-sampled), `@k` on k threads.
+//! `~s` runs it with the sampled linear algebra (engine f4-sampled), `~g` with signature-based
+//! F4 (engine f4-signature), `@k` on k threads.
 //! Each system runs in a fresh child process so that its peak memory is its own.
 
 use fibrewise_core::groebner::{groebner_basis, Engine};
@@ -75,9 +76,12 @@ fn peak_memory_mb() -> f64 {
 
 /// Runs one system and prints one tab-separated result line.
 fn run_one(label: &str, threads: usize) -> Result<(), String> {
-    let (name, sampled) = match label.strip_suffix("~s") {
-        Some(name) => (name, true),
-        None => (label, false),
+    let (name, engine) = if let Some(name) = label.strip_suffix("~s") {
+        (name, Engine::F4Sampled)
+    } else if let Some(name) = label.strip_suffix("~g") {
+        (name, Engine::F4Signature)
+    } else {
+        (label, Engine::F4)
     };
     let sys = system(name).ok_or_else(|| format!("unknown system {name}"))?;
     let field = PrimeField::new(PRIME).map_err(|e| e.to_string())?;
@@ -87,11 +91,6 @@ fn run_one(label: &str, threads: usize) -> Result<(), String> {
     let mut control = Control::new();
     control.limits.threads = Some(threads);
     let clock = Instant::now();
-    let engine = if sampled {
-        Engine::F4Sampled
-    } else {
-        Engine::F4
-    };
     let gb = groebner_basis(&ring, &gens, engine, &control).map_err(|e| e.to_string())?;
     let seconds = clock.elapsed().as_secs_f64();
     let s = &gb.stats;

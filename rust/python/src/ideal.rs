@@ -21,9 +21,10 @@ pub fn engine_by_name(name: &str) -> PyResult<Engine> {
         "buchberger" => Ok(Engine::Buchberger),
         "f4" => Ok(Engine::F4),
         "f4-sampled" => Ok(Engine::F4Sampled),
+        "f4-signature" => Ok(Engine::F4Signature),
         "auto" => Ok(Engine::default()),
         other => Err(PyValueError::new_err(format!(
-            "unknown engine '{other}': expected auto, f4, f4-sampled or buchberger"
+            "unknown engine '{other}': expected auto, f4, f4-sampled, f4-signature or buchberger"
         ))),
     }
 }

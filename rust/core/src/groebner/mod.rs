@@ -33,6 +33,9 @@ pub enum Engine {
     /// matrix (see [`f4::sampled`]); exact over infinite fields and for orders that do not
     /// compare degrees first.
     F4Sampled,
+    /// F4 with the signature criteria of F5 (see [`f4::signature`]): exact; orders that compare
+    /// degrees first only.
+    F4Signature,
 }
 
 impl Engine {
@@ -41,6 +44,7 @@ impl Engine {
             Engine::Buchberger => "buchberger",
             Engine::F4 => "f4",
             Engine::F4Sampled => "f4-sampled",
+            Engine::F4Signature => "f4-signature",
         }
     }
 }
@@ -71,6 +75,13 @@ pub fn groebner_basis<F: Field>(
         Engine::F4Sampled => {
             let options = f4::Options {
                 linear_algebra: f4::LinearAlgebra::Sampled(f4::Sampling::default()),
+                ..Default::default()
+            };
+            f4::compute_with(ring, gens, control, &options)?
+        }
+        Engine::F4Signature => {
+            let options = f4::Options {
+                signatures: true,
                 ..Default::default()
             };
             f4::compute_with(ring, gens, control, &options)?

@@ -263,10 +263,14 @@ impl MonomialTable {
     #[inline]
     fn probe_packed_product(&self, a: u32, b: u32) -> Option<std::result::Result<u32, usize>> {
         let packed = self.packed.as_ref()?;
-        if self.degree(a) + self.degree(b) > PACKED_MAX_DEGREE {
+        let (pa, pb) = (packed[a as usize], packed[b as usize]);
+        let key = pa.wrapping_add(pb);
+        // A byte that carries (an exponent above 255) leaves the packed form; testing the carry
+        // out of each byte reads no more than the two packed words (a degree test would read
+        // both monomials).
+        if ((pa & pb) | ((pa ^ pb) & !key)) & BYTE_TOPS != 0 {
             return None;
         }
-        let key = packed[a as usize] + packed[b as usize];
         let h = self.hashes[a as usize].wrapping_add(self.hashes[b as usize]);
         Some(self.probe_by(h, |i| packed[i as usize] == key))
     }
@@ -317,6 +321,8 @@ impl MonomialTable {
 /// Most variables whose exponents are also kept packed, and the highest degree they may have.
 const PACKED_VARS: usize = 16;
 const PACKED_MAX_DEGREE: u32 = 255;
+/// The top bit of every byte of a packed monomial.
+const BYTE_TOPS: u128 = u128::from_le_bytes([0x80; 16]);
 
 /// One byte per exponent (each at most PACKED_MAX_DEGREE), variable i in byte i.
 fn pack(exps: &[u32]) -> u128 {
@@ -365,6 +371,24 @@ mod tests {
                 assert_eq!(got, expected, "{nvars} variables, {order:?}");
             }
         }
+    }
+
+    #[test]
+    fn a_packed_exponent_that_carries_is_not_taken_for_another_monomial() {
+        // x^200 · x^100 = x^300 does not fit a byte: its packed sum wraps to x^44·y, which is in
+        // the table. The look-up must not return it, and the product must come out exact.
+        let mut t = MonomialTable::new(2, MonomialOrder::Grevlex);
+        let wrapped = t.insert(&Monomial::from_exponents(vec![44, 1]).unwrap());
+        let a = t.insert(&Monomial::from_exponents(vec![200, 0]).unwrap());
+        let b = t.insert(&Monomial::from_exponents(vec![100, 0]).unwrap());
+        let c = t.insert(&Monomial::from_exponents(vec![55, 0]).unwrap());
+        let mut buf = Vec::new();
+        assert_eq!(t.find_product(a, b, &mut buf), None);
+        let top = t.insert(&Monomial::from_exponents(vec![255, 0]).unwrap());
+        assert_eq!(t.find_product(a, c, &mut buf), Some(top));
+        let ab = t.mul(a, b).unwrap();
+        assert_ne!(ab, wrapped);
+        assert_eq!(t.monomial(ab).exponents(), &[300, 0]);
     }
 
     #[test]

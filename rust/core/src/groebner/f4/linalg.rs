@@ -152,6 +152,36 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
     }
 }
 
+impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
+    /// `row` with every entry from its leading column on reduced by the pivots `pivot_of`
+    /// gives: the monic result, or `None` when the row reduces to zero.
+    pub(super) fn reduce_row<'r>(
+        &mut self,
+        row: &Row<A::C>,
+        pivot_of: &impl Fn(usize) -> Option<&'r Row<A::C>>,
+    ) -> Option<Row<A::C>>
+    where
+        A::C: 'r,
+    {
+        self.load(&row.cols, &row.coeffs);
+        let lead = self.sweep(row.cols[0] as usize, pivot_of)?;
+        let mut from = lead + 1;
+        while let Some(k) = self.sweep(from, pivot_of) {
+            from = k + 1;
+        }
+        let inv = self.arith.inv(&self.arith.settle(&self.acc[lead]));
+        let (cols, coeffs) = self.extract(lead, Some(&inv), true);
+        Some(Row {
+            cols,
+            coeffs: coeffs.into(),
+        })
+    }
+
+    pub(super) fn multiply_adds(&self) -> u64 {
+        self.multiply_adds
+    }
+}
+
 /// Up to LANES rows reduced together by the known pivots, in one interleaved accumulator: the
 /// entry of column k in lane j sits at k·LANES + j. Each pivot row is then read once per block
 /// rather than once per row, and each of its entries updates all lanes in one cache line (the
@@ -258,7 +288,7 @@ impl<'a, F: Field, A: Arith<F>> Block<'a, F, A> {
 /// Rows go into blocks by their first column: a block's rows then start together (a block
 /// scans the pivots from its earliest start), and blocks come by decreasing work, which the
 /// workers take in turn.
-fn reduce_by_known<F: Field, A: Arith<F>>(
+pub(super) fn reduce_by_known<F: Field, A: Arith<F>>(
     arith: &A,
     width: usize,
     pivots: &[Option<&Row<A::C>>],

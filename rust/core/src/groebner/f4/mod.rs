@@ -15,6 +15,7 @@ pub mod hash;
 pub mod linalg;
 pub mod parallel;
 pub mod sampled;
+pub mod signature;
 pub mod symbolic;
 
 #[cfg(test)]
@@ -42,6 +43,9 @@ pub struct Options {
     /// of the lowest degree.
     pub max_pairs_per_step: Option<usize>,
     pub linear_algebra: LinearAlgebra,
+    /// Signature-based F4 (see [`signature`]): exact, needs a degree-compatible order, and
+    /// skips most rows that would reduce to zero.
+    pub signatures: bool,
 }
 
 /// How the new rows of each matrix are reduced.
@@ -182,6 +186,9 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
     }
 
     fn run(mut self, gens: &[Poly<F>], control: &Control) -> Result<(Vec<Poly<F>>, Stats)> {
+        if self.options.signatures {
+            return signature::compute(self.ring, self.arith, gens, control);
+        }
         if let Outcome::Unit = self.main_loop(gens, control)? {
             return Ok((vec![self.ring.one()], self.stats));
         }
@@ -305,17 +312,7 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
     }
 
     fn divisors(&self, indices: &[usize]) -> Vec<Divisor> {
-        indices
-            .iter()
-            .map(|&element| {
-                let lead = self.basis[element].lead();
-                Divisor {
-                    lead,
-                    mask: self.table.mask(lead),
-                    element,
-                }
-            })
-            .collect()
+        divisors_of(&self.table, &self.basis, indices)
     }
 
     /// Adds an element found at sugar `sugar` (0 for the input); its sugar is at least its degree.
@@ -333,71 +330,98 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
 
     /// A nonzero input polynomial as a monic element.
     fn import(&mut self, f: &Poly<F>) -> Element<A::C> {
-        let field = &self.ring.field;
-        let inv = self
-            .arith
-            .inv(&self.arith.import(field, f.leading_coefficient().unwrap()));
-        let monos = f
-            .terms()
-            .iter()
-            .map(|(m, _)| self.table.insert(m))
-            .collect();
-        let coeffs = f
-            .terms()
-            .iter()
-            .map(|(_, c)| self.arith.mul(&self.arith.import(field, c), &inv))
-            .collect();
-        Element { monos, coeffs }
+        import_poly(self.ring, &self.arith, &mut self.table, f)
     }
 
-    fn export(&self, e: &Element<A::C>) -> Poly<F> {
-        let field = &self.ring.field;
-        let terms: Vec<(Monomial, F::Elem)> = e
-            .monos
-            .iter()
-            .zip(e.coeffs.iter())
-            .map(|(&m, c)| (self.table.monomial(m).clone(), self.arith.export(field, c)))
-            .collect();
-        Poly::from_sorted(terms)
-    }
-
-    /// The reduced basis: a minimal subset of the active elements, tails fully reduced by one
-    /// more matrix (the minimal elements as known pivots, closed by symbolic preprocessing).
+    /// The reduced basis from the active elements.
     fn final_basis(&mut self, control: &Control) -> Result<Vec<Poly<F>>> {
         let active = self.pairs.active_indices();
-        let leads: Vec<&Monomial> = active
-            .iter()
-            .map(|&k| self.table.monomial(self.basis[k].lead()))
-            .collect();
-        let minimal: Vec<usize> = minimal_indices(&leads, &self.ring.order)
-            .into_iter()
-            .map(|i| active[i])
-            .collect();
-        let one = self.table.insert(&Monomial::one(self.ring.nvars()));
-        let known: Vec<Multiple> = minimal
-            .iter()
-            .map(|&element| Multiple { mult: one, element })
-            .collect();
-        let divisors = self.divisors(&minimal);
-        let matrix = symbolic::preprocess(
-            control,
-            &mut self.table,
-            &self.basis,
-            &divisors,
-            &known,
-            &[],
-        )?;
-        let rows = linalg::reduce_tails(&self.arith, &matrix, known.len(), control)?;
-        let mut polys: Vec<Poly<F>> = rows
-            .into_iter()
-            .map(|r| self.export(&element_of(&matrix, r)))
-            .collect();
-        polys.sort_by(|a, b| {
-            self.ring
-                .cmp(b.leading_monomial().unwrap(), a.leading_monomial().unwrap())
-        });
-        Ok(polys)
+        let (ring, arith) = (self.ring, &self.arith);
+        reduced_basis(ring, arith, &mut self.table, &self.basis, &active, control)
     }
+}
+
+/// The elements `indices` as reducers: leading monomial, its mask, index.
+fn divisors_of<C>(table: &MonomialTable, basis: &[Element<C>], indices: &[usize]) -> Vec<Divisor> {
+    indices
+        .iter()
+        .map(|&element| {
+            let lead = basis[element].lead();
+            Divisor {
+                lead,
+                mask: table.mask(lead),
+                element,
+            }
+        })
+        .collect()
+}
+
+/// A nonzero polynomial as a monic element.
+fn import_poly<F: Field, A: Arith<F>>(
+    ring: &Ring<F>,
+    arith: &A,
+    table: &mut MonomialTable,
+    f: &Poly<F>,
+) -> Element<A::C> {
+    let field = &ring.field;
+    let inv = arith.inv(&arith.import(field, f.leading_coefficient().unwrap()));
+    let monos = f.terms().iter().map(|(m, _)| table.insert(m)).collect();
+    let coeffs = f
+        .terms()
+        .iter()
+        .map(|(_, c)| arith.mul(&arith.import(field, c), &inv))
+        .collect();
+    Element { monos, coeffs }
+}
+
+fn export_element<F: Field, A: Arith<F>>(
+    ring: &Ring<F>,
+    arith: &A,
+    table: &MonomialTable,
+    e: &Element<A::C>,
+) -> Poly<F> {
+    let terms: Vec<(Monomial, F::Elem)> = e
+        .monos
+        .iter()
+        .zip(e.coeffs.iter())
+        .map(|(&m, c)| (table.monomial(m).clone(), arith.export(&ring.field, c)))
+        .collect();
+    Poly::from_sorted(terms)
+}
+
+/// The reduced basis of the ideal that the elements `candidates` (a Gröbner basis) generate: a
+/// minimal subset, tails fully reduced by one more matrix (the minimal elements as known pivots,
+/// closed by symbolic preprocessing), sorted by decreasing leading monomial.
+fn reduced_basis<F: Field, A: Arith<F>>(
+    ring: &Ring<F>,
+    arith: &A,
+    table: &mut MonomialTable,
+    basis: &[Element<A::C>],
+    candidates: &[usize],
+    control: &Control,
+) -> Result<Vec<Poly<F>>> {
+    let leads: Vec<&Monomial> = candidates
+        .iter()
+        .map(|&k| table.monomial(basis[k].lead()))
+        .collect();
+    let minimal: Vec<usize> = minimal_indices(&leads, &ring.order)
+        .into_iter()
+        .map(|i| candidates[i])
+        .collect();
+    let one = table.insert(&Monomial::one(ring.nvars()));
+    let known: Vec<Multiple> = minimal
+        .iter()
+        .map(|&element| Multiple { mult: one, element })
+        .collect();
+    let divisors = divisors_of(table, basis, &minimal);
+    let matrix = symbolic::preprocess(control, table, basis, &divisors, &known, &[])?;
+    let rows = linalg::reduce_tails(arith, &matrix, known.len(), control)?;
+    let mut polys: Vec<Poly<F>> = rows
+        .into_iter()
+        .map(|r| export_element(ring, arith, table, &element_of(&matrix, r)))
+        .collect();
+    polys.sort_by(|a, b| ring.cmp(b.leading_monomial().unwrap(), a.leading_monomial().unwrap()));
+    Ok(polys)
 }
 
 /// A matrix row as a basis element (columns back to monomials).

@@ -51,6 +51,8 @@ pub struct SymbolicMatrix<C> {
     pub columns: Vec<u32>,
     /// Known pivots: the given known rows first (in their order), then the reducers found here.
     pub reducers: Vec<Row<C>>,
+    /// The multiple each reducer row was made from.
+    pub reducer_multiples: Vec<Multiple>,
     pub new_rows: Vec<Row<C>>,
 }
 
@@ -184,19 +186,28 @@ struct Found {
     monos: Vec<u32>,
 }
 
-/// The reducer of `m`: the first basis element (oldest first) whose leading monomial divides `m`.
-/// (Preferring the sparsest, the newest or the one of largest leading degree all gave larger
-/// matrices and more multiply-adds on katsura-9, katsura-10 and cyclic-7.)
+/// The first basis element (oldest first) whose leading monomial divides `m`: F4's choice of
+/// reducer. (Preferring the sparsest, the newest or the one of largest leading degree all gave
+/// larger matrices and more multiply-adds on katsura-9, katsura-10 and cyclic-7.)
+pub fn first_divisor<'d>(
+    table: &MonomialTable,
+    divisors: &'d [Divisor],
+    m: u32,
+) -> Option<&'d Divisor> {
+    divisors
+        .iter()
+        .find(|d| table.may_divide(d.mask, m) && table.divides(d.lead, m))
+}
+
+/// The reducer row of `m` from the divisor `pick` chooses, looked up in the read-only table.
 fn find_reducer<C>(
     table: &MonomialTable,
     basis: &[Element<C>],
-    divisors: &[Divisor],
+    pick: &(impl Fn(&MonomialTable, u32) -> Option<Divisor> + Sync),
     m: u32,
     buf: &mut Vec<u32>,
 ) -> Option<Found> {
-    let d = divisors
-        .iter()
-        .find(|d| table.may_divide(d.mask, m) && table.divides(d.lead, m))?;
+    let d = pick(table, m)?;
     let mult = table.find_quotient(m, d.lead, buf);
     let monos = match mult {
         Some(mult) => basis[d.element]
@@ -221,6 +232,19 @@ pub fn preprocess<C: Send + Sync>(
     table: &mut MonomialTable,
     basis: &[Element<C>],
     divisors: &[Divisor],
+    known: &[Multiple],
+    new: &[Multiple],
+) -> Result<SymbolicMatrix<C>> {
+    let pick = |table: &MonomialTable, m: u32| first_divisor(table, divisors, m).copied();
+    preprocess_with(control, table, basis, &pick, known, new)
+}
+
+/// [`preprocess`] with the reducer of each monomial chosen by `pick` (`None`: not reducible).
+pub fn preprocess_with<C: Send + Sync>(
+    control: &Control,
+    table: &mut MonomialTable,
+    basis: &[Element<C>],
+    pick: &(impl Fn(&MonomialTable, u32) -> Option<Divisor> + Sync),
     known: &[Multiple],
     new: &[Multiple],
 ) -> Result<SymbolicMatrix<C>> {
@@ -257,7 +281,7 @@ pub fn preprocess<C: Send + Sync>(
             PARALLEL_MIN_MONOMIALS,
             control,
             Vec::new,
-            |buf, &m| find_reducer(table, basis, divisors, m, buf),
+            |buf, &m| find_reducer(table, basis, pick, m, buf),
         );
         for (m, reducer) in round.into_iter().zip(found) {
             let Some(reducer) = reducer else {
@@ -286,6 +310,7 @@ pub fn preprocess<C: Send + Sync>(
         coeffs: basis[mult.element].coeffs.clone(),
     };
     Ok(SymbolicMatrix {
+        reducer_multiples: reducers.iter().map(|(mult, _)| *mult).collect(),
         reducers: map_items(&reducers, PARALLEL_MIN_MONOMIALS, control, || (), to_row),
         new_rows: map_items(&new_rows, PARALLEL_MIN_MONOMIALS, control, || (), to_row),
         columns: seen,

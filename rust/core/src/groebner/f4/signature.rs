@@ -1,0 +1,584 @@
+//! Signature-based F4: F4's matrices (Faugère 1999) with the signature criteria of F5 (Faugère
+//! 2002), so that the rows that would reduce to zero are mostly never built.
+//!
+//! Every polynomial carries a signature: the leading term t·e_i of some representation
+//! Σ a_j f_j, in a module order that compares the degree of t·f_i first, then the position i,
+//! then t. The computation is that of the homogenized system (one extra variable h, smallest
+//! in the order), with h kept implicit: an element of homogeneous degree D is stored
+//! dehomogenized together with D, and a monomial m stands for m·h^(D - deg m). Over a
+//! degree-compatible order the dehomogenized basis is a Gröbner basis of the affine ideal
+//! (h-free leading monomials dehomogenize to leading monomials), and the homogeneous setting
+//! keeps the criteria simple: every signature of one step has the same degree.
+//!
+//! Per step, all J-pairs of the lowest degree (the larger-signature half u·g of each
+//! S-polynomial, Gao, Volny and Wang 2010) not discarded by
+//! - the syzygy criterion: the signature is a multiple of a known syzygy's (those of the
+//!   rows that reduced to zero, and the Koszul syzygies LM(g)·e_i of the elements g in the
+//!   ideal of f_1..f_{i-1});
+//! - the rewrite criterion (Eder and Roune 2013): an element added later has a signature that
+//!   divides this one's;
+//! become the rows of one matrix, with reducers from symbolic preprocessing that for each
+//! monomial take the multiple of smallest signature. All rows are reduced in increasing order of
+//! signature, each only by rows of smaller signature (so that every reduction keeps the
+//! signature of the row reduced). A row whose leading monomial changed, and that is not a
+//! multiple of an element with the same signature, is a new element; a row that reduces to zero
+//! gives a syzygy. When no J-pair is left, the elements are a Gröbner basis; the engine returns
+//! the reduced basis.
+
+use super::arith::Arith;
+use super::arith::LANES;
+use super::hash::MonomialTable;
+use super::linalg::{reduce_by_known, Dense};
+use super::symbolic::{self, Divisor, Element, Multiple, Row};
+use super::{element_of, import_poly, reduced_basis};
+use crate::control::Control;
+use crate::error::{Error, Result};
+use crate::field::Field;
+use crate::monomial::Monomial;
+use crate::order::MonomialOrder;
+use crate::poly::{Poly, Ring};
+use std::cmp::Ordering;
+use std::collections::{BTreeMap, HashMap};
+use std::sync::atomic::{AtomicU64, Ordering as AtomicOrdering};
+use std::time::Instant;
+
+use super::super::stats::{Stats, StepStats};
+
+/// The signature t·e_index of a homogeneous element of degree `degree`; `mono` is t
+/// dehomogenized (a monomial-table index).
+#[derive(Clone, Copy, PartialEq, Eq, Hash, Debug)]
+struct Sig {
+    degree: u32,
+    index: u32,
+    mono: u32,
+}
+
+/// An element's signature and whether it takes part in pairs and reductions (the input
+/// polynomials are stored as inactive elements until their own row has been reduced).
+struct Label {
+    sig: Sig,
+    active: bool,
+}
+
+/// A J-pair: the row mult·basis[element], of signature mult·sig(element).
+#[derive(Clone, Copy)]
+struct JPair {
+    mult: u32,
+    element: usize,
+}
+
+/// Reduced Gröbner basis of `gens` by signature-based F4; requires a degree-compatible order.
+pub(super) fn compute<F: Field, A: Arith<F>>(
+    ring: &Ring<F>,
+    arith: A,
+    gens: &[Poly<F>],
+    control: &Control,
+) -> Result<(Vec<Poly<F>>, Stats)> {
+    if !ring.order.is_degree_compatible() {
+        return Err(Error::invalid(
+            "signature-based F4 needs an order that compares degrees first (grevlex, deglex)",
+        ));
+    }
+    let mut engine = SignatureEngine {
+        ring,
+        arith,
+        table: MonomialTable::new(ring.nvars(), ring.order.clone()),
+        basis: Vec::new(),
+        labels: Vec::new(),
+        input_degrees: Vec::new(),
+        by_index: Vec::new(),
+        syzygies: Vec::new(),
+        pending: BTreeMap::new(),
+        stats: Stats::default(),
+    };
+    if engine.main_loop(gens, control)? {
+        return Ok((vec![ring.one()], engine.stats));
+    }
+    let active: Vec<usize> = (0..engine.basis.len())
+        .filter(|&k| engine.labels[k].active)
+        .collect();
+    let polys = reduced_basis(
+        ring,
+        &engine.arith,
+        &mut engine.table,
+        &engine.basis,
+        &active,
+        control,
+    )?;
+    Ok((polys, engine.stats))
+}
+
+struct SignatureEngine<'a, F: Field, A: Arith<F>> {
+    ring: &'a Ring<F>,
+    arith: A,
+    table: MonomialTable,
+    basis: Vec<Element<A::C>>,
+    labels: Vec<Label>,
+    /// Total degree of each input polynomial (the degree of its signature e_i).
+    input_degrees: Vec<u32>,
+    /// The active elements of each signature position, in the order they were added.
+    by_index: Vec<Vec<usize>>,
+    /// Signatures of the rows that reduced to zero, per position.
+    syzygies: Vec<Vec<Sig>>,
+    /// J-pairs by degree, one per signature (position, t).
+    pending: BTreeMap<u32, HashMap<(u32, u32), JPair>>,
+    stats: Stats,
+}
+
+/// A row of one step's matrix: its signature, and where it comes from.
+#[derive(Clone, Copy)]
+struct Slot {
+    sig: Sig,
+    /// Index into the matrix's new rows (a J-pair) or reducers.
+    row: usize,
+    j_pair: bool,
+}
+
+impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
+    /// Runs until no J-pair is left; `true` when the ideal turned out to be the unit ideal.
+    fn main_loop(&mut self, gens: &[Poly<F>], control: &Control) -> Result<bool> {
+        let one = self.table.insert(&Monomial::one(self.ring.nvars()));
+        for f in gens.iter().filter(|f| !f.is_zero()) {
+            if f.is_constant() {
+                return Ok(true);
+            }
+            let index = self.input_degrees.len() as u32;
+            let degree = f.degree().unwrap_or(0);
+            self.input_degrees.push(degree);
+            self.by_index.push(Vec::new());
+            self.syzygies.push(Vec::new());
+            let element = import_poly(self.ring, &self.arith, &mut self.table, f);
+            let sig = Sig {
+                degree,
+                index,
+                mono: one,
+            };
+            self.basis.push(element);
+            self.labels.push(Label { sig, active: false });
+            self.push_pair(
+                sig,
+                JPair {
+                    mult: one,
+                    element: self.basis.len() - 1,
+                },
+            );
+        }
+        while let Some((&degree, _)) = self.pending.iter().next() {
+            control.check()?;
+            let pairs = self.pending.remove(&degree).unwrap_or_default();
+            if self.step(degree, pairs, control)? {
+                return Ok(true);
+            }
+        }
+        Ok(false)
+    }
+
+    /// One matrix: the J-pairs of degree `degree`; `true` when a unit was found.
+    fn step(
+        &mut self,
+        degree: u32,
+        pairs: HashMap<(u32, u32), JPair>,
+        control: &Control,
+    ) -> Result<bool> {
+        let step = self.stats.steps.len();
+        control.check_degree(degree, step)?;
+        let mut selected: Vec<(Sig, JPair)> = pairs
+            .into_iter()
+            .map(|((index, mono), pair)| {
+                let sig = Sig {
+                    degree,
+                    index,
+                    mono,
+                };
+                (sig, pair)
+            })
+            .filter(|(sig, pair)| !self.is_syzygy(sig) && !self.is_rewritable(sig, pair.element))
+            .collect();
+        if selected.is_empty() {
+            return Ok(false);
+        }
+        selected.sort_by(|a, b| self.cmp_sig(&a.0, &b.0));
+        let mut stats = StepStats {
+            degree,
+            pairs: selected.len(),
+            ..Default::default()
+        };
+
+        let clock = Instant::now();
+        let new: Vec<Multiple> = selected
+            .iter()
+            .map(|(_, p)| Multiple {
+                mult: p.mult,
+                element: p.element,
+            })
+            .collect();
+        let matrix = {
+            let pick = reducer_picker(
+                &self.basis,
+                &self.labels,
+                &self.by_index,
+                &self.ring.order,
+                degree,
+            );
+            symbolic::preprocess_with(control, &mut self.table, &self.basis, &pick, &[], &new)?
+        };
+        let mut slots: Vec<Slot> = selected
+            .iter()
+            .enumerate()
+            .map(|(row, (sig, _))| Slot {
+                sig: *sig,
+                row,
+                j_pair: true,
+            })
+            .collect();
+        for (row, multiple) in matrix.reducer_multiples.iter().enumerate() {
+            let sig = self.multiple_sig(degree, multiple)?;
+            slots.push(Slot {
+                sig,
+                row,
+                j_pair: false,
+            });
+        }
+        // Increasing signature; of rows with equal signatures only one is kept (the J-pair's):
+        // one may not reduce the other, and either represents the signature.
+        slots.sort_by(|a, b| self.cmp_sig(&a.sig, &b.sig).then(b.j_pair.cmp(&a.j_pair)));
+        slots.dedup_by(|later, earlier| later.sig == earlier.sig);
+        stats.seconds_symbolic = clock.elapsed().as_secs_f64();
+        (stats.rows, stats.columns, stats.nonzeros) =
+            (matrix.rows(), matrix.columns.len(), matrix.nonzeros());
+        control.check_matrix(stats.rows, stats.columns, step)?;
+
+        let clock = Instant::now();
+        let mut pivots: Vec<Option<Row<A::C>>> = (0..matrix.columns.len()).map(|_| None).collect();
+        let mut dense = Dense::new(&self.arith, matrix.columns.len());
+        let mut found: Vec<(Sig, usize)> = Vec::new();
+        let lane_work = AtomicU64::new(0);
+        let mut started: HashMap<usize, Row<A::C>> = HashMap::new();
+        for (done, slot) in slots.iter().enumerate() {
+            if done % 64 == 0 {
+                control.check()?;
+            }
+            let row = if slot.j_pair {
+                &matrix.new_rows[slot.row]
+            } else {
+                &matrix.reducers[slot.row]
+            };
+            let lead = row.cols[0] as usize;
+            if !slot.j_pair && pivots[lead].is_none() {
+                // A reducer nothing reduced before: a pivot as it is.
+                pivots[lead] = Some(Row {
+                    cols: row.cols.clone(),
+                    coeffs: row.coeffs.clone(),
+                });
+                continue;
+            }
+            if slot.j_pair && !started.contains_key(&done) {
+                let block =
+                    self.start_block(&matrix, &slots, done, &pivots, control, &lane_work)?;
+                started.extend(block);
+            }
+            let reduced = match started.remove(&done) {
+                Some(start) if start.cols.is_empty() => None,
+                Some(start) => dense.reduce_row(&start, &|k| pivots[k].as_ref()),
+                None => dense.reduce_row(row, &|k| pivots[k].as_ref()),
+            };
+            match reduced {
+                None => {
+                    self.stats.zero_reductions += 1;
+                    self.syzygies[slot.sig.index as usize].push(slot.sig);
+                }
+                Some(reduced) => {
+                    let new_lead = reduced.cols[0] as usize;
+                    let is_input = slot.j_pair && !self.labels[selected[slot.row].1.element].active;
+                    if new_lead != lead || is_input {
+                        found.push((slot.sig, new_lead));
+                    }
+                    pivots[new_lead] = Some(reduced);
+                }
+            }
+        }
+        stats.seconds_linear_algebra = clock.elapsed().as_secs_f64();
+        stats.multiply_adds = dense.multiply_adds() + lane_work.load(AtomicOrdering::Relaxed);
+
+        let mut added = 0;
+        for (sig, column) in found {
+            let lead = matrix.columns[column];
+            if self.is_singular(&sig, lead) {
+                continue;
+            }
+            let row = pivots[column]
+                .take()
+                .expect("a new element's row is a pivot");
+            let element = element_of(&matrix, row);
+            if self.table.degree(element.lead()) == 0 {
+                return Ok(true);
+            }
+            self.add_element(element, sig)?;
+            added += 1;
+        }
+        stats.new_elements = added;
+        self.stats.steps.push(stats);
+        Ok(false)
+    }
+
+    /// The J-pair rows from slot `first` on (up to one block of lanes) reduced together by the
+    /// pivots installed so far, which all have smaller signatures than these rows: the bulk of
+    /// their reduction, in the eight-lane kernel. What the rows meet after `first` (pivots of
+    /// the rows in between) is left to each row's own pass.
+    fn start_block(
+        &self,
+        matrix: &symbolic::SymbolicMatrix<A::C>,
+        slots: &[Slot],
+        first: usize,
+        pivots: &[Option<Row<A::C>>],
+        control: &Control,
+        work: &AtomicU64,
+    ) -> Result<Vec<(usize, Row<A::C>)>> {
+        let block: Vec<usize> = (first..slots.len())
+            .filter(|&i| slots[i].j_pair)
+            .take(LANES)
+            .collect();
+        let rows: Vec<&Row<A::C>> = block
+            .iter()
+            .map(|&i| &matrix.new_rows[slots[i].row])
+            .collect();
+        let known: Vec<Option<&Row<A::C>>> = pivots.iter().map(Option::as_ref).collect();
+        let width = matrix.columns.len();
+        let reduced = reduce_by_known(&self.arith, width, &known, &rows, false, control, work)?;
+        Ok(block
+            .into_iter()
+            .zip(reduced)
+            .map(|(i, (cols, coeffs))| {
+                let row = Row {
+                    cols,
+                    coeffs: coeffs.into(),
+                };
+                (i, row)
+            })
+            .collect())
+    }
+
+    /// Signature order: degree, then position, then the monomial t (as the homogeneous t·h^a:
+    /// with degree and position equal, a larger t means a smaller power of h, a larger term).
+    fn cmp_sig(&self, a: &Sig, b: &Sig) -> Ordering {
+        (a.degree, a.index)
+            .cmp(&(b.degree, b.index))
+            .then_with(|| self.table.cmp(a.mono, b.mono))
+    }
+
+    /// The power of h in the homogeneous signature.
+    fn h_power(&self, sig: &Sig) -> u32 {
+        sig.degree - self.input_degrees[sig.index as usize] - self.table.degree(sig.mono)
+    }
+
+    /// The power of h in the leading monomial of element `k` (homogeneous degree minus degree).
+    fn lead_h_power(&self, k: usize) -> u32 {
+        self.labels[k].sig.degree - self.table.degree(self.basis[k].lead())
+    }
+
+    fn sig_divides(&self, a: &Sig, b: &Sig) -> bool {
+        a.index == b.index
+            && self.table.divides(a.mono, b.mono)
+            && self.h_power(a) <= self.h_power(b)
+    }
+
+    /// Syzygy criterion: `sig` is a multiple of a zero reduction's signature, or of a Koszul
+    /// syzygy's LM(g)·e_i, g an element of the ideal of the inputs before position i.
+    fn is_syzygy(&self, sig: &Sig) -> bool {
+        let index = sig.index as usize;
+        if self.syzygies[index]
+            .iter()
+            .any(|s| self.sig_divides(s, sig))
+        {
+            return true;
+        }
+        let power = self.h_power(sig);
+        self.by_index[..index].iter().flatten().any(|&g| {
+            let lead = self.basis[g].lead();
+            self.table.divides(lead, sig.mono) && self.lead_h_power(g) <= power
+        })
+    }
+
+    /// Rewrite criterion in the order of Gao, Volny and Wang (2010): of the elements whose
+    /// signature divides `sig`, only the one whose multiple of that signature has the smallest
+    /// leading monomial (the latest added among equals) needs its J-pair reduced; the others'
+    /// are discarded. (Preferring the latest added element instead loses pairs here, where a
+    /// row whose result is dropped as a multiple of an older element leaves the later one as
+    /// the rewriter.)
+    fn is_rewritable(&self, sig: &Sig, element: usize) -> bool {
+        let own = self.rewrite_key(sig, element);
+        self.by_index[sig.index as usize].iter().any(|&k| {
+            k != element
+                && self.sig_divides(&self.labels[k].sig, sig)
+                && match self.ring.order.cmp(&self.rewrite_key(sig, k), &own) {
+                    Ordering::Less => true,
+                    Ordering::Equal => k > element,
+                    Ordering::Greater => false,
+                }
+        })
+    }
+
+    /// The leading monomial (dehomogenized) of the multiple of element `k` whose signature is
+    /// `sig` (a multiple of k's signature).
+    fn rewrite_key(&self, sig: &Sig, k: usize) -> Monomial {
+        let (t, s, l) = (
+            self.table.monomial(sig.mono).exponents(),
+            self.table.monomial(self.labels[k].sig.mono).exponents(),
+            self.table.monomial(self.basis[k].lead()).exponents(),
+        );
+        Monomial::from_exponent_fn(t.len(), |v| t[v] - s[v] + l[v])
+            .expect("exponents below the table's bound")
+    }
+
+    /// Whether a row of signature `sig` with leading monomial `lead` is a multiple u·g of an
+    /// element with u·sig(g) = sig: then it adds nothing that g does not give.
+    fn is_singular(&self, sig: &Sig, lead: u32) -> bool {
+        let power = sig.degree - self.table.degree(lead);
+        let target = self.table.monomial(sig.mono);
+        self.by_index[sig.index as usize].iter().any(|&g| {
+            let g_lead = self.basis[g].lead();
+            if !self.table.divides(g_lead, lead) || self.lead_h_power(g) > power {
+                return false;
+            }
+            let (m, l, t) = (
+                self.table.monomial(lead).exponents(),
+                self.table.monomial(g_lead).exponents(),
+                self.table.monomial(self.labels[g].sig.mono).exponents(),
+            );
+            (0..m.len()).all(|v| m[v] - l[v] + t[v] == target.exponents()[v])
+        })
+    }
+
+    /// The signature of a reducer row of degree `degree`.
+    fn multiple_sig(&mut self, degree: u32, multiple: &Multiple) -> Result<Sig> {
+        let sig = self.labels[multiple.element].sig;
+        Ok(Sig {
+            degree,
+            index: sig.index,
+            mono: self.table.mul(multiple.mult, sig.mono)?,
+        })
+    }
+
+    /// Adds a new element and the J-pairs it forms with the active elements.
+    fn add_element(&mut self, element: Element<A::C>, sig: Sig) -> Result<()> {
+        let new = self.basis.len();
+        self.basis.push(element);
+        self.labels.push(Label { sig, active: true });
+        let others: Vec<usize> = self.by_index.iter().flatten().copied().collect();
+        for other in others {
+            if let Some((sig, pair)) = self.j_pair(new, other)? {
+                self.push_pair(sig, pair);
+            }
+        }
+        self.by_index[sig.index as usize].push(new);
+        Ok(())
+    }
+
+    /// The J-pair of elements `a` and `b`: the half of their S-polynomial of larger signature,
+    /// in the homogeneous setting (`None` when both halves have the same signature).
+    fn j_pair(&mut self, a: usize, b: usize) -> Result<Option<(Sig, JPair)>> {
+        let (la, lb) = (self.basis[a].lead(), self.basis[b].lead());
+        let (ma, mb) = (self.table.monomial(la), self.table.monomial(lb));
+        // Coprime leading monomials (h included): the larger half's signature is the leading
+        // term of the principal syzygy g_b·a - g_a·b, so the syzygy criterion discards it.
+        if ma.coprime(mb) && (self.lead_h_power(a) == 0 || self.lead_h_power(b) == 0) {
+            return Ok(None);
+        }
+        let lcm = ma.lcm(mb);
+        let lcm = self.table.insert(&lcm);
+        let degree = self.table.degree(lcm) + self.lead_h_power(a).max(self.lead_h_power(b));
+        let half = |engine: &mut Self, k: usize, lead: u32| -> Result<(Sig, JPair)> {
+            let mult = engine.table.div(lcm, lead);
+            let label = engine.labels[k].sig;
+            let sig = Sig {
+                degree,
+                index: label.index,
+                mono: engine.table.mul(mult, label.mono)?,
+            };
+            Ok((sig, JPair { mult, element: k }))
+        };
+        let (sa, pa) = half(self, a, la)?;
+        let (sb, pb) = half(self, b, lb)?;
+        Ok(match self.cmp_sig(&sa, &sb) {
+            Ordering::Equal => None,
+            Ordering::Greater => Some((sa, pa)),
+            Ordering::Less => Some((sb, pb)),
+        })
+    }
+
+    /// Queues a J-pair; of two with the same signature the one the rewrite criterion prefers
+    /// stays.
+    fn push_pair(&mut self, sig: Sig, pair: JPair) {
+        let key = (sig.index, sig.mono);
+        let queued = self
+            .pending
+            .entry(sig.degree)
+            .or_default()
+            .get(&key)
+            .copied();
+        let keep_queued = queued.is_some_and(|q| {
+            match self.ring.order.cmp(
+                &self.rewrite_key(&sig, q.element),
+                &self.rewrite_key(&sig, pair.element),
+            ) {
+                Ordering::Less => true,
+                Ordering::Equal => q.element > pair.element,
+                Ordering::Greater => false,
+            }
+        });
+        if !keep_queued {
+            self.pending
+                .entry(sig.degree)
+                .or_default()
+                .insert(key, pair);
+        }
+    }
+}
+
+/// Symbolic preprocessing's choice of reducer for monomial m in a matrix of degree `degree`:
+/// among the active elements whose leading monomial divides m (as homogeneous monomials), the
+/// one whose multiple has the smallest signature, which lets the most rows be reduced by it.
+fn reducer_picker<'e, C: Send + Sync>(
+    basis: &'e [Element<C>],
+    labels: &'e [Label],
+    by_index: &'e [Vec<usize>],
+    order: &'e MonomialOrder,
+    degree: u32,
+) -> impl Fn(&MonomialTable, u32) -> Option<Divisor> + Sync + 'e {
+    move |table: &MonomialTable, m: u32| {
+        let room = degree - table.degree(m);
+        let fits = |g: usize| {
+            let lead = basis[g].lead();
+            table.may_divide(table.mask(lead), m)
+                && table.divides(lead, m)
+                && labels[g].sig.degree - table.degree(lead) <= room
+        };
+        for elements in by_index {
+            let mut best: Option<(Monomial, usize)> = None;
+            for &g in elements.iter().filter(|&&g| fits(g)) {
+                let (mm, l, t) = (
+                    table.monomial(m).exponents(),
+                    table.monomial(basis[g].lead()).exponents(),
+                    table.monomial(labels[g].sig.mono).exponents(),
+                );
+                let product = Monomial::from_exponent_fn(mm.len(), |v| mm[v] - l[v] + t[v])
+                    .expect("exponents below the table's bound");
+                if best
+                    .as_ref()
+                    .map_or(true, |(b, _)| order.cmp(&product, b) == Ordering::Less)
+                {
+                    best = Some((product, g));
+                }
+            }
+            if let Some((_, g)) = best {
+                let lead = basis[g].lead();
+                return Some(Divisor {
+                    lead,
+                    mask: table.mask(lead),
+                    element: g,
+                });
+            }
+        }
+        None
+    }
+}
