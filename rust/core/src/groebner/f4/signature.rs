@@ -163,9 +163,8 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
                 },
             );
         }
-        while let Some((&degree, _)) = self.pending.iter().next() {
+        while let Some((degree, pairs)) = self.pending.pop_first() {
             control.check()?;
-            let pairs = self.pending.remove(&degree).unwrap_or_default();
             if self.step(degree, pairs, control)? {
                 return Ok(true);
             }
