@@ -405,16 +405,22 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
     /// row whose result is dropped as a multiple of an older element leaves the later one as
     /// the rewriter.)
     fn is_rewritable(&self, sig: &Sig, element: usize) -> bool {
-        let own = self.rewrite_key(sig, element);
         self.by_index[sig.index as usize].iter().any(|&k| {
             k != element
                 && self.sig_divides(&self.labels[k].sig, sig)
-                && match self.ring.order.cmp(&self.rewrite_key(sig, k), &own) {
-                    Ordering::Less => true,
-                    Ordering::Equal => k > element,
-                    Ordering::Greater => false,
-                }
+                && self.prefers(sig, k, element)
         })
+    }
+
+    /// Whether element `a`'s multiple of signature `sig` is the one to reduce rather than
+    /// element `b`'s: its leading monomial is smaller, or equal and `a` was added later.
+    fn prefers(&self, sig: &Sig, a: usize, b: usize) -> bool {
+        let (key_a, key_b) = (self.rewrite_key(sig, a), self.rewrite_key(sig, b));
+        match self.ring.order.cmp(&key_a, &key_b) {
+            Ordering::Less => true,
+            Ordering::Equal => a > b,
+            Ordering::Greater => false,
+        }
     }
 
     /// The leading monomial (dehomogenized) of the multiple of element `k` whose signature is
@@ -515,16 +521,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             .or_default()
             .get(&key)
             .copied();
-        let keep_queued = queued.is_some_and(|q| {
-            match self.ring.order.cmp(
-                &self.rewrite_key(&sig, q.element),
-                &self.rewrite_key(&sig, pair.element),
-            ) {
-                Ordering::Less => true,
-                Ordering::Equal => q.element > pair.element,
-                Ordering::Greater => false,
-            }
-        });
+        let keep_queued = queued.is_some_and(|q| self.prefers(&sig, q.element, pair.element));
         if !keep_queued {
             self.pending
                 .entry(sig.degree)
