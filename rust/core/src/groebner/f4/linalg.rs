@@ -83,6 +83,42 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
         (from..self.acc.len()).find(|&k| self.eliminate(k, pivot_of) == Entry::Free)
     }
 
+    /// Eliminates every entry from column `from` on whose column has a pivot.
+    fn sweep_all<'r>(&mut self, from: usize, pivot_of: &impl Fn(usize) -> Option<&'r Row<A::C>>)
+    where
+        A::C: 'r,
+    {
+        let mut from = from;
+        while let Some(k) = self.sweep(from, pivot_of) {
+            from = k + 1;
+        }
+    }
+
+    /// `row` with every entry from its leading column on reduced by the pivots `pivot_of`
+    /// gives: the monic result, or `None` when the row reduces to zero.
+    pub(super) fn reduce_row<'r>(
+        &mut self,
+        row: &Row<A::C>,
+        pivot_of: &impl Fn(usize) -> Option<&'r Row<A::C>>,
+    ) -> Option<Row<A::C>>
+    where
+        A::C: 'r,
+    {
+        self.load(&row.cols, &row.coeffs);
+        let lead = self.sweep(row.cols[0] as usize, pivot_of)?;
+        self.sweep_all(lead + 1, pivot_of);
+        let inv = self.arith.inv(&self.arith.settle(&self.acc[lead]));
+        let (cols, coeffs) = self.extract(lead, Some(&inv), true);
+        Some(Row {
+            cols,
+            coeffs: coeffs.into(),
+        })
+    }
+
+    pub(super) fn multiply_adds(&self) -> u64 {
+        self.multiply_adds
+    }
+
     /// Clears column `k` with its pivot if it has one; says what the column holds afterwards.
     #[inline(always)]
     fn eliminate<'r>(
@@ -149,36 +185,6 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
             }
         }
         (cols, coeffs)
-    }
-}
-
-impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
-    /// `row` with every entry from its leading column on reduced by the pivots `pivot_of`
-    /// gives: the monic result, or `None` when the row reduces to zero.
-    pub(super) fn reduce_row<'r>(
-        &mut self,
-        row: &Row<A::C>,
-        pivot_of: &impl Fn(usize) -> Option<&'r Row<A::C>>,
-    ) -> Option<Row<A::C>>
-    where
-        A::C: 'r,
-    {
-        self.load(&row.cols, &row.coeffs);
-        let lead = self.sweep(row.cols[0] as usize, pivot_of)?;
-        let mut from = lead + 1;
-        while let Some(k) = self.sweep(from, pivot_of) {
-            from = k + 1;
-        }
-        let inv = self.arith.inv(&self.arith.settle(&self.acc[lead]));
-        let (cols, coeffs) = self.extract(lead, Some(&inv), true);
-        Some(Row {
-            cols,
-            coeffs: coeffs.into(),
-        })
-    }
-
-    pub(super) fn multiply_adds(&self) -> u64 {
-        self.multiply_adds
     }
 }
 
@@ -596,11 +602,7 @@ fn reduce_fully<F: Field, A: Arith<F>>(
     pivots: &[Option<Row<A::C>>],
 ) -> Row<A::C> {
     dense.load(&row.cols[1..], &row.coeffs[1..]);
-    let pivot_of = |k: usize| pivots[k].as_ref();
-    let mut from = lead + 1;
-    while let Some(k) = dense.sweep(from, &pivot_of) {
-        from = k + 1;
-    }
+    dense.sweep_all(lead + 1, &|k: usize| pivots[k].as_ref());
     monic_row(dense, lead)
 }
 

@@ -426,13 +426,8 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
     /// The leading monomial (dehomogenized) of the multiple of element `k` whose signature is
     /// `sig` (a multiple of k's signature).
     fn rewrite_key(&self, sig: &Sig, k: usize) -> Monomial {
-        let (t, s, l) = (
-            self.table.monomial(sig.mono).exponents(),
-            self.table.monomial(self.labels[k].sig.mono).exponents(),
-            self.table.monomial(self.basis[k].lead()).exponents(),
-        );
-        Monomial::from_exponent_fn(t.len(), |v| t[v] - s[v] + l[v])
-            .expect("exponents below the table's bound")
+        let label = self.labels[k].sig.mono;
+        quotient_times(&self.table, sig.mono, label, self.basis[k].lead())
     }
 
     /// Whether a row of signature `sig` with leading monomial `lead` is a multiple u·g of an
@@ -445,12 +440,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             if !self.table.divides(g_lead, lead) || self.lead_h_power(g) > power {
                 return false;
             }
-            let (m, l, t) = (
-                self.table.monomial(lead).exponents(),
-                self.table.monomial(g_lead).exponents(),
-                self.table.monomial(self.labels[g].sig.mono).exponents(),
-            );
-            (0..m.len()).all(|v| m[v] - l[v] + t[v] == target.exponents()[v])
+            quotient_times(&self.table, lead, g_lead, self.labels[g].sig.mono) == *target
         })
     }
 
@@ -552,13 +542,7 @@ fn reducer_picker<'e, C: Send + Sync>(
         for elements in by_index {
             let mut best: Option<(Monomial, usize)> = None;
             for &g in elements.iter().filter(|&&g| fits(g)) {
-                let (mm, l, t) = (
-                    table.monomial(m).exponents(),
-                    table.monomial(basis[g].lead()).exponents(),
-                    table.monomial(labels[g].sig.mono).exponents(),
-                );
-                let product = Monomial::from_exponent_fn(mm.len(), |v| mm[v] - l[v] + t[v])
-                    .expect("exponents below the table's bound");
+                let product = quotient_times(table, m, basis[g].lead(), labels[g].sig.mono);
                 if best
                     .as_ref()
                     .map_or(true, |(b, _)| order.cmp(&product, b) == Ordering::Less)
@@ -577,4 +561,17 @@ fn reducer_picker<'e, C: Send + Sync>(
         }
         None
     }
+}
+
+/// (a / b)·c for monomials of the table, b dividing a: the signature monomial of the multiple of
+/// an element (leading monomial b, signature monomial c) that has leading monomial a, and the
+/// other way round, the leading monomial of the multiple whose signature monomial is a.
+fn quotient_times(table: &MonomialTable, a: u32, b: u32, c: u32) -> Monomial {
+    let (a, b, c) = (
+        table.monomial(a).exponents(),
+        table.monomial(b).exponents(),
+        table.monomial(c).exponents(),
+    );
+    Monomial::from_exponent_fn(a.len(), |v| a[v] - b[v] + c[v])
+        .expect("exponents below the table's bound")
 }

@@ -189,7 +189,7 @@ struct Found {
 /// The first basis element (oldest first) whose leading monomial divides `m`: F4's choice of
 /// reducer. (Preferring the sparsest, the newest or the one of largest leading degree all gave
 /// larger matrices and more multiply-adds on katsura-9, katsura-10 and cyclic-7.)
-pub fn first_divisor<'d>(
+fn first_divisor<'d>(
     table: &MonomialTable,
     divisors: &'d [Divisor],
     m: u32,
