@@ -130,6 +130,38 @@ impl MonomialOrder {
         }
     }
 
+    /// Comparison of the monomials whose exponents are x(0), ..., x(n - 1) and y(0), ...,
+    /// y(n - 1): for exponents computed on the fly (a quotient times a monomial, say) without
+    /// building either monomial (lex, grlex and grevlex; other orders build both).
+    pub fn cmp_by(&self, n: usize, x: impl Fn(usize) -> u32, y: impl Fn(usize) -> u32) -> Ordering {
+        let degree = |f: &dyn Fn(usize) -> u32| (0..n).map(|v| u64::from(f(v))).sum::<u64>();
+        let first_difference = |vars: &mut dyn Iterator<Item = usize>, flip: bool| {
+            vars.map(|v| {
+                if flip {
+                    y(v).cmp(&x(v))
+                } else {
+                    x(v).cmp(&y(v))
+                }
+            })
+            .find(|o| o.is_ne())
+            .unwrap_or(Ordering::Equal)
+        };
+        match self {
+            MonomialOrder::Lex => first_difference(&mut (0..n), false),
+            MonomialOrder::Grlex => degree(&x)
+                .cmp(&degree(&y))
+                .then_with(|| first_difference(&mut (0..n), false)),
+            MonomialOrder::Grevlex => degree(&x)
+                .cmp(&degree(&y))
+                .then_with(|| first_difference(&mut (0..n).rev(), true)),
+            _ => {
+                let (a, b): (Vec<u32>, Vec<u32>) =
+                    ((0..n).map(&x).collect(), (0..n).map(&y).collect());
+                self.cmp_on(&a, &b, None)
+            }
+        }
+    }
+
     /// Comparison restricted to the variables `vars` (all when `None`).
     fn cmp_on(&self, a: &[u32], b: &[u32], vars: Option<&[usize]>) -> Ordering {
         let n = vars.map_or(a.len(), |v| v.len());
@@ -257,6 +289,15 @@ mod tests {
     }
 
     proptest! {
+        /// Comparing exponents given as functions is comparing the monomials they make.
+        #[test]
+        fn comparison_by_exponent_functions_agrees(a in proptest::collection::vec(0u32..6, 3),
+                                                   b in proptest::collection::vec(0u32..6, 3)) {
+            for o in orders() {
+                prop_assert_eq!(o.cmp_by(3, |v| a[v], |v| b[v]), o.cmp(&mono(&a), &mono(&b)));
+            }
+        }
+
         /// Total order, compatible with multiplication, and 1 is least (a well-order on N^n).
         #[test]
         fn order_axioms(a in proptest::collection::vec(0u32..6, 3),

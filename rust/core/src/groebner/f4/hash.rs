@@ -148,10 +148,23 @@ impl MonomialTable {
 
     /// Index of `m`, inserting it if new.
     pub fn insert(&mut self, m: &Monomial) -> u32 {
-        self.scratch.copy_from_slice(m.exponents());
-        let h = self.hash_of(m.exponents());
-        self.lookup_scratch(h)
+        self.insert_exponents(m.exponents())
             .expect("a stored monomial's degree fits")
+    }
+
+    /// Index of the monomial with exponents `exps`, inserted if new; `Overflow` when its degree
+    /// exceeds u32.
+    pub fn insert_exponents(&mut self, exps: &[u32]) -> Result<u32> {
+        self.scratch.copy_from_slice(exps);
+        let h = self.hash_of(exps);
+        self.lookup_scratch(h)
+    }
+
+    /// The exponents of stored monomial `i` (the same as `monomial(i).exponents()`, from the
+    /// contiguous copy).
+    #[inline]
+    pub fn exponents(&self, i: u32) -> &[u32] {
+        self.exps_of(i)
     }
 
     /// The exponents of stored monomial `i`.
@@ -223,6 +236,47 @@ impl MonomialTable {
         self.probe(buf, h).ok()
     }
 
+    /// The products `mult`·t for every t of `terms`, as `find_product` gives them
+    /// (`MISSING_PRODUCT` where the table lacks one). In batches, with the memory each probe
+    /// will read fetched for the whole batch first (the home slots, then the monomials those
+    /// slots name), so that the cache misses of a batch overlap instead of following one another:
+    /// on large steps the table is far larger than the caches.
+    pub fn find_products(&self, mult: u32, terms: &[u32], buf: &mut Vec<u32>) -> Vec<u32> {
+        let Some(packed) = self.packed.as_ref() else {
+            return terms
+                .iter()
+                .map(|&t| self.find_product(mult, t, buf).unwrap_or(MISSING_PRODUCT))
+                .collect();
+        };
+        let (pm, hm) = (packed[mult as usize], self.hashes[mult as usize]);
+        let mut out = Vec::with_capacity(terms.len());
+        let mut homes = [0usize; PREFETCH_BATCH];
+        for batch in terms.chunks(PREFETCH_BATCH) {
+            for (home, &t) in homes.iter_mut().zip(batch) {
+                let h = hm.wrapping_add(self.hashes[t as usize]);
+                *home = Self::home_slot(h, self.slots.len());
+                prefetch(&self.slots[*home]);
+            }
+            for &home in &homes[..batch.len()] {
+                let slot = self.slots[home];
+                if slot != 0 {
+                    prefetch(&packed[(slot as u32 - 1) as usize]);
+                }
+            }
+            for &t in batch {
+                let found = match packed_product(pm, packed[t as usize]) {
+                    Some(key) => {
+                        let h = hm.wrapping_add(self.hashes[t as usize]);
+                        self.probe_by(h, |i| packed[i as usize] == key).ok()
+                    }
+                    None => self.find_product(mult, t, buf),
+                };
+                out.push(found.unwrap_or(MISSING_PRODUCT));
+            }
+        }
+        out
+    }
+
     /// Index of the quotient a / b (b dividing a) if the table holds it already; reads only.
     pub fn find_quotient(&self, a: u32, b: u32, buf: &mut Vec<u32>) -> Option<u32> {
         buf.clear();
@@ -263,14 +317,7 @@ impl MonomialTable {
     #[inline]
     fn probe_packed_product(&self, a: u32, b: u32) -> Option<std::result::Result<u32, usize>> {
         let packed = self.packed.as_ref()?;
-        let (pa, pb) = (packed[a as usize], packed[b as usize]);
-        let key = pa.wrapping_add(pb);
-        // A byte that carries (an exponent above 255) leaves the packed form; testing the carry
-        // out of each byte reads no more than the two packed words (a degree test would read
-        // both monomials).
-        if ((pa & pb) | ((pa ^ pb) & !key)) & BYTE_TOPS != 0 {
-            return None;
-        }
+        let key = packed_product(packed[a as usize], packed[b as usize])?;
         let h = self.hashes[a as usize].wrapping_add(self.hashes[b as usize]);
         Some(self.probe_by(h, |i| packed[i as usize] == key))
     }
@@ -318,6 +365,26 @@ impl MonomialTable {
     }
 }
 
+/// Marks, in `find_products`, a product the table does not hold.
+pub const MISSING_PRODUCT: u32 = u32::MAX;
+
+/// Products whose slots are fetched together in `find_products`.
+const PREFETCH_BATCH: usize = 16;
+
+/// Asks the CPU to bring `x`'s cache line in (a hint only: no effect on the result).
+#[inline(always)]
+fn prefetch<T>(x: &T) {
+    #[cfg(target_arch = "x86_64")]
+    // SAFETY: prefetching is a hint that never faults, and SSE is part of baseline x86-64.
+    unsafe {
+        std::arch::x86_64::_mm_prefetch::<{ std::arch::x86_64::_MM_HINT_T0 }>(
+            (x as *const T).cast::<i8>(),
+        );
+    }
+    #[cfg(not(target_arch = "x86_64"))]
+    let _ = x;
+}
+
 /// Most variables whose exponents are also kept packed, and the highest degree they may have.
 const PACKED_VARS: usize = 16;
 const PACKED_MAX_DEGREE: u32 = 255;
@@ -329,6 +396,15 @@ fn pack(exps: &[u32]) -> u128 {
     exps.iter()
         .enumerate()
         .fold(0u128, |acc, (i, &e)| acc | (e as u128) << (8 * i))
+}
+
+/// The packed form of the product of two packed monomials, `None` when an exponent carries out
+/// of its byte (above 255) and so leaves the packed form. Testing the carry out of each byte
+/// reads no more than the two packed words (a degree test would read both monomials).
+#[inline(always)]
+fn packed_product(pa: u128, pb: u128) -> Option<u128> {
+    let key = pa.wrapping_add(pb);
+    (((pa & pb) | ((pa ^ pb) & !key)) & BYTE_TOPS == 0).then_some(key)
 }
 
 /// The bits of a slot that hold the hash tag (the index + 1 takes the lower 32).
@@ -389,6 +465,41 @@ mod tests {
         let ab = t.mul(a, b).unwrap();
         assert_ne!(ab, wrapped);
         assert_eq!(t.monomial(ab).exponents(), &[300, 0]);
+    }
+
+    #[test]
+    fn batched_products_agree_with_single_look_ups() {
+        // Products present and absent, more terms than one prefetch batch, and (three
+        // variables, below the packed bound; nineteen, above it) both look-up paths; x^200
+        // times x^100 carries out of its byte and must be reported missing, not confused.
+        for nvars in [3, 19] {
+            let mut t = MonomialTable::new(nvars, MonomialOrder::Grevlex);
+            let mut rng = crate::rng::Rng::new(5);
+            let mut random = |t: &mut MonomialTable| {
+                let exps = (0..nvars).map(|_| rng.below(3) as u32).collect();
+                t.insert(&Monomial::from_exponents(exps).unwrap())
+            };
+            let terms: Vec<u32> = (0..200).map(|_| random(&mut t)).collect();
+            let mult = random(&mut t);
+            for &term in terms.iter().step_by(3) {
+                t.mul(mult, term).unwrap();
+            }
+            let big = t.insert(&Monomial::var_power(nvars, 0, 200));
+            let bigger = t.insert(&Monomial::var_power(nvars, 0, 100));
+            t.mul(big, mult).unwrap();
+            let mut buf = Vec::new();
+            for (m, terms) in [(mult, terms.clone()), (big, vec![bigger, big, mult])] {
+                let single: Vec<u32> = terms
+                    .iter()
+                    .map(|&x| t.find_product(m, x, &mut buf).unwrap_or(MISSING_PRODUCT))
+                    .collect();
+                assert_eq!(t.find_products(m, &terms, &mut buf), single);
+                assert!(
+                    single.contains(&MISSING_PRODUCT)
+                        && single.iter().any(|&p| p != MISSING_PRODUCT)
+                );
+            }
+        }
     }
 
     #[test]

@@ -39,6 +39,7 @@ use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
 use std::cmp::Ordering;
 use std::collections::{BTreeMap, HashMap};
+use std::hash::{BuildHasherDefault, Hasher};
 use std::sync::atomic::{AtomicU64, Ordering as AtomicOrdering};
 use std::time::Instant;
 
@@ -60,11 +61,34 @@ struct Label {
     active: bool,
 }
 
-/// A J-pair: the row mult·basis[element], of signature mult·sig(element).
+/// A J-pair of signature sig: the row mult·basis[element] with mult·sig(element) = sig (the
+/// multiplier is found from the signature when the pair is reduced: most pairs never are).
 #[derive(Clone, Copy)]
 struct JPair {
-    mult: u32,
     element: usize,
+}
+
+/// One degree's J-pairs, by signature (position, t).
+type PairQueue = HashMap<(u32, u32), JPair, BuildHasherDefault<KeyHasher>>;
+
+/// Hashes the pair queue's keys, two small integers, with one multiplication: SipHash's
+/// resistance to chosen keys buys nothing here, and every new element queues a pair with
+/// every other.
+#[derive(Default)]
+struct KeyHasher(u64);
+
+impl Hasher for KeyHasher {
+    fn write(&mut self, bytes: &[u8]) {
+        for &b in bytes {
+            self.write_u32(u32::from(b));
+        }
+    }
+    fn write_u32(&mut self, x: u32) {
+        self.0 = (self.0.rotate_left(32) ^ u64::from(x)).wrapping_mul(0x9E37_79B9_7F4A_7C15);
+    }
+    fn finish(&self) -> u64 {
+        self.0 ^ (self.0 >> 32)
+    }
 }
 
 /// Reduced Gröbner basis of `gens` by signature-based F4; requires a degree-compatible order.
@@ -121,7 +145,7 @@ struct SignatureEngine<'a, F: Field, A: Arith<F>> {
     /// Signatures of the rows that reduced to zero, per position.
     syzygies: Vec<Vec<Sig>>,
     /// J-pairs by degree, one per signature (position, t).
-    pending: BTreeMap<u32, HashMap<(u32, u32), JPair>>,
+    pending: BTreeMap<u32, PairQueue>,
     stats: Stats,
 }
 
@@ -158,7 +182,6 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             self.push_pair(
                 sig,
                 JPair {
-                    mult: one,
                     element: self.basis.len() - 1,
                 },
             );
@@ -173,12 +196,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
     }
 
     /// One matrix: the J-pairs of degree `degree`; `true` when a unit was found.
-    fn step(
-        &mut self,
-        degree: u32,
-        pairs: HashMap<(u32, u32), JPair>,
-        control: &Control,
-    ) -> Result<bool> {
+    fn step(&mut self, degree: u32, pairs: PairQueue, control: &Control) -> Result<bool> {
         let step = self.stats.steps.len();
         control.check_degree(degree, step)?;
         let mut selected: Vec<(Sig, JPair)> = pairs
@@ -206,8 +224,8 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         let clock = Instant::now();
         let new: Vec<Multiple> = selected
             .iter()
-            .map(|(_, p)| Multiple {
-                mult: p.mult,
+            .map(|(sig, p)| Multiple {
+                mult: self.table.div(sig.mono, self.labels[p.element].sig.mono),
                 element: p.element,
             })
             .collect();
@@ -217,6 +235,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
                 &self.labels,
                 &self.by_index,
                 &self.ring.order,
+                &self.table,
                 degree,
             );
             symbolic::preprocess_with(control, &mut self.table, &self.basis, &pick, &[], &new)?
@@ -415,8 +434,12 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
     /// Whether element `a`'s multiple of signature `sig` is the one to reduce rather than
     /// element `b`'s: its leading monomial is smaller, or equal and `a` was added later.
     fn prefers(&self, sig: &Sig, a: usize, b: usize) -> bool {
-        let (key_a, key_b) = (self.rewrite_key(sig, a), self.rewrite_key(sig, b));
-        match self.ring.order.cmp(&key_a, &key_b) {
+        let n = self.ring.nvars();
+        match self
+            .ring
+            .order
+            .cmp_by(n, self.rewrite_key(sig, a), self.rewrite_key(sig, b))
+        {
             Ordering::Less => true,
             Ordering::Equal => a > b,
             Ordering::Greater => false,
@@ -424,8 +447,8 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
     }
 
     /// The leading monomial (dehomogenized) of the multiple of element `k` whose signature is
-    /// `sig` (a multiple of k's signature).
-    fn rewrite_key(&self, sig: &Sig, k: usize) -> Monomial {
+    /// `sig` (a multiple of k's signature), as exponents.
+    fn rewrite_key(&self, sig: &Sig, k: usize) -> impl Fn(usize) -> u32 + '_ {
         let label = self.labels[k].sig.mono;
         quotient_times(&self.table, sig.mono, label, self.basis[k].lead())
     }
@@ -434,13 +457,14 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
     /// element with u·sig(g) = sig: then it adds nothing that g does not give.
     fn is_singular(&self, sig: &Sig, lead: u32) -> bool {
         let power = sig.degree - self.table.degree(lead);
-        let target = self.table.monomial(sig.mono);
+        let target = self.table.exponents(sig.mono);
         self.by_index[sig.index as usize].iter().any(|&g| {
             let g_lead = self.basis[g].lead();
             if !self.table.divides(g_lead, lead) || self.lead_h_power(g) > power {
                 return false;
             }
-            quotient_times(&self.table, lead, g_lead, self.labels[g].sig.mono) == *target
+            let times = quotient_times(&self.table, lead, g_lead, self.labels[g].sig.mono);
+            target.iter().enumerate().all(|(v, &e)| times(v) == e)
         })
     }
 
@@ -470,52 +494,66 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
     }
 
     /// The J-pair of elements `a` and `b`: the half of their S-polynomial of larger signature,
-    /// in the homogeneous setting (`None` when both halves have the same signature).
+    /// in the homogeneous setting (`None` when both halves have the same signature). Most pairs
+    /// are discarded here or in `push_pair`, so both halves are compared on exponents computed
+    /// on the fly; only the kept half's monomials go into the table.
     fn j_pair(&mut self, a: usize, b: usize) -> Result<Option<(Sig, JPair)>> {
+        let (ha, hb) = (self.lead_h_power(a), self.lead_h_power(b));
+        let table = &self.table;
         let (la, lb) = (self.basis[a].lead(), self.basis[b].lead());
-        let (ma, mb) = (self.table.monomial(la), self.table.monomial(lb));
+        let (ea, eb) = (table.exponents(la), table.exponents(lb));
         // Coprime leading monomials (h included): the larger half's signature is the leading
         // term of the principal syzygy g_b·a - g_a·b, so the syzygy criterion discards it.
-        if ma.coprime(mb) && (self.lead_h_power(a) == 0 || self.lead_h_power(b) == 0) {
+        if (ha == 0 || hb == 0) && ea.iter().zip(eb).all(|(&x, &y)| x == 0 || y == 0) {
             return Ok(None);
         }
-        let lcm = ma.lcm(mb);
-        let lcm = self.table.insert(&lcm);
-        let degree = self.table.degree(lcm) + self.lead_h_power(a).max(self.lead_h_power(b));
-        let half = |engine: &mut Self, k: usize, lead: u32| -> Result<(Sig, JPair)> {
-            let mult = engine.table.div(lcm, lead);
-            let label = engine.labels[k].sig;
-            let sig = Sig {
-                degree,
-                index: label.index,
-                mono: engine.table.mul(mult, label.mono)?,
-            };
-            Ok((sig, JPair { mult, element: k }))
+        let lcm = |v: usize| ea[v].max(eb[v]);
+        let n = ea.len();
+        let lcm_degree: u64 = (0..n).map(|v| u64::from(lcm(v))).sum();
+        let (sa, sb) = (self.labels[a].sig, self.labels[b].sig);
+        // Each half's signature monomial lcm / lead · label, of degree at most that of the
+        // pair: checked once here, so that no exponent below can overflow.
+        let degree = u32::try_from(lcm_degree + u64::from(ha.max(hb))).map_err(|_| overflow())?;
+        for (label, lead) in [(sa.mono, la), (sb.mono, lb)] {
+            let half = lcm_degree - u64::from(table.degree(lead)) + u64::from(table.degree(label));
+            u32::try_from(half).map_err(|_| overflow())?;
+        }
+        let (ca, cb) = (table.exponents(sa.mono), table.exponents(sb.mono));
+        let half = |of_a: bool| {
+            let (e, c) = if of_a { (ea, ca) } else { (eb, cb) };
+            move |v: usize| lcm(v) - e[v] + c[v]
         };
-        let (sa, pa) = half(self, a, la)?;
-        let (sb, pb) = half(self, b, lb)?;
-        Ok(match self.cmp_sig(&sa, &sb) {
-            Ordering::Equal => None,
-            Ordering::Greater => Some((sa, pa)),
-            Ordering::Less => Some((sb, pb)),
-        })
+        let larger = sa
+            .index
+            .cmp(&sb.index)
+            .then_with(|| self.ring.order.cmp_by(n, half(true), half(false)));
+        let (k, label, of_a) = match larger {
+            Ordering::Equal => return Ok(None),
+            Ordering::Greater => (a, sa, true),
+            Ordering::Less => (b, sb, false),
+        };
+        let sig_exps: Vec<u32> = (0..n).map(half(of_a)).collect();
+        let sig = Sig {
+            degree,
+            index: label.index,
+            mono: self.table.insert_exponents(&sig_exps)?,
+        };
+        Ok(Some((sig, JPair { element: k })))
     }
 
     /// Queues a J-pair; of two with the same signature the one the rewrite criterion prefers
     /// stays.
     fn push_pair(&mut self, sig: Sig, pair: JPair) {
         let key = (sig.index, sig.mono);
-        let queued = self
-            .pending
-            .entry(sig.degree)
-            .or_default()
-            .get(&key)
-            .copied();
-        let keep_queued = queued.is_some_and(|q| self.prefers(&sig, q.element, pair.element));
-        if !keep_queued {
+        let queue = self.pending.entry(sig.degree).or_default();
+        let Some(&queued) = queue.get(&key) else {
+            queue.insert(key, pair);
+            return;
+        };
+        if !self.prefers(&sig, queued.element, pair.element) {
             self.pending
-                .entry(sig.degree)
-                .or_default()
+                .get_mut(&sig.degree)
+                .expect("the queue of this degree exists")
                 .insert(key, pair);
         }
     }
@@ -529,49 +567,74 @@ fn reducer_picker<'e, C: Send + Sync>(
     labels: &'e [Label],
     by_index: &'e [Vec<usize>],
     order: &'e MonomialOrder,
+    table: &MonomialTable,
     degree: u32,
 ) -> impl Fn(&MonomialTable, u32) -> Option<Divisor> + Sync + 'e {
+    // The candidates' leading monomials, masks and h powers side by side: every monomial of
+    // the matrix scans them.
+    let candidates: Vec<Vec<Candidate>> = by_index
+        .iter()
+        .map(|elements| {
+            elements
+                .iter()
+                .map(|&g| {
+                    let lead = basis[g].lead();
+                    Candidate {
+                        divisor: Divisor {
+                            lead,
+                            mask: table.mask(lead),
+                            element: g,
+                        },
+                        h_power: labels[g].sig.degree - table.degree(lead),
+                        label: labels[g].sig.mono,
+                    }
+                })
+                .collect()
+        })
+        .collect();
     move |table: &MonomialTable, m: u32| {
         let room = degree - table.degree(m);
-        let fits = |g: usize| {
-            let lead = basis[g].lead();
-            table.may_divide(table.mask(lead), m)
-                && table.divides(lead, m)
-                && labels[g].sig.degree - table.degree(lead) <= room
-        };
-        for elements in by_index {
-            let mut best: Option<(Monomial, usize)> = None;
-            for &g in elements.iter().filter(|&&g| fits(g)) {
-                let product = quotient_times(table, m, basis[g].lead(), labels[g].sig.mono);
-                if best
-                    .as_ref()
-                    .map_or(true, |(b, _)| order.cmp(&product, b) == Ordering::Less)
-                {
-                    best = Some((product, g));
+        let n = table.exponents(m).len();
+        let sig_of = |c: &Candidate| quotient_times(table, m, c.divisor.lead, c.label);
+        for elements in &candidates {
+            let mut best: Option<&Candidate> = None;
+            let fitting = elements.iter().filter(|c| {
+                table.may_divide(c.divisor.mask, m)
+                    && table.divides(c.divisor.lead, m)
+                    && c.h_power <= room
+            });
+            for c in fitting {
+                if best.map_or(true, |b| {
+                    order.cmp_by(n, sig_of(c), sig_of(b)) == Ordering::Less
+                }) {
+                    best = Some(c);
                 }
             }
-            if let Some((_, g)) = best {
-                let lead = basis[g].lead();
-                return Some(Divisor {
-                    lead,
-                    mask: table.mask(lead),
-                    element: g,
-                });
+            if let Some(best) = best {
+                return Some(best.divisor);
             }
         }
         None
     }
 }
 
-/// (a / b)·c for monomials of the table, b dividing a: the signature monomial of the multiple of
-/// an element (leading monomial b, signature monomial c) that has leading monomial a, and the
-/// other way round, the leading monomial of the multiple whose signature monomial is a.
-fn quotient_times(table: &MonomialTable, a: u32, b: u32, c: u32) -> Monomial {
-    let (a, b, c) = (
-        table.monomial(a).exponents(),
-        table.monomial(b).exponents(),
-        table.monomial(c).exponents(),
-    );
-    Monomial::from_exponent_fn(a.len(), |v| a[v] - b[v] + c[v])
-        .expect("exponents below the table's bound")
+/// An element as candidate reducer: its divisor entry, the h power of its leading monomial
+/// and its signature monomial.
+struct Candidate {
+    divisor: Divisor,
+    h_power: u32,
+    label: u32,
+}
+
+/// (a / b)·c for monomials of the table, b dividing a, as its exponents: the signature
+/// monomial of the multiple of an element (leading monomial b, signature monomial c) that has
+/// leading monomial a, and the other way round, the leading monomial of the multiple whose
+/// signature monomial is a.
+fn quotient_times(table: &MonomialTable, a: u32, b: u32, c: u32) -> impl Fn(usize) -> u32 + '_ {
+    let (a, b, c) = (table.exponents(a), table.exponents(b), table.exponents(c));
+    move |v| a[v] - b[v] + c[v]
+}
+
+fn overflow() -> Error {
+    Error::Overflow("exponent overflow: a signature's degree exceeds 2^32 - 1".into())
 }

@@ -4,7 +4,7 @@
 //! is closed. The result is the matrix's shape: its columns (monomials in decreasing order), the
 //! known-pivot rows (distinct leading columns) and the new rows to be reduced by them.
 
-use super::hash::MonomialTable;
+use super::hash::{MonomialTable, MISSING_PRODUCT};
 use super::parallel::map_items;
 use crate::control::Control;
 use crate::error::Result;
@@ -115,13 +115,7 @@ impl<C> Closure<'_, C> {
             PARALLEL_MIN_MONOMIALS,
             control,
             Vec::new,
-            |buf, row| {
-                basis[row.element]
-                    .monos
-                    .iter()
-                    .map(|&t| table.find_product(row.mult, t, buf).unwrap_or(MISSING))
-                    .collect::<Vec<u32>>()
-            },
+            |buf, row| table.find_products(row.mult, &basis[row.element].monos, buf),
         );
         for (&row, monos) in rows.iter().zip(&mut found) {
             self.store_missing(row, monos)?;
@@ -174,7 +168,7 @@ const PARALLEL_MIN_MONOMIALS: usize = 32;
 const PARALLEL_MIN_SORT: usize = 4096;
 
 /// Marks a product not yet in the monomial table.
-const MISSING: u32 = u32::MAX;
+const MISSING: u32 = MISSING_PRODUCT;
 
 /// What the read-only look-up learnt about the reducer of one monomial: the divisor's element
 /// and leading monomial, the multiplier if already stored, and the row's monomials (`MISSING`
@@ -210,11 +204,7 @@ fn find_reducer<C>(
     let d = pick(table, m)?;
     let mult = table.find_quotient(m, d.lead, buf);
     let monos = match mult {
-        Some(mult) => basis[d.element]
-            .monos
-            .iter()
-            .map(|&t| table.find_product(mult, t, buf).unwrap_or(MISSING))
-            .collect(),
+        Some(mult) => table.find_products(mult, &basis[d.element].monos, buf),
         None => Vec::new(),
     };
     Some(Found {
