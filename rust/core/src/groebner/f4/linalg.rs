@@ -218,13 +218,16 @@ impl<'a, F: Field, A: Arith<F>> Block<'a, F, A> {
         }
     }
 
-    /// Clears column `k` in every lane with the column's pivot.
+    /// Clears column `k` with the column's pivot in the lanes whose bit is set in `lanes`.
     #[inline(always)]
-    fn eliminate(&mut self, k: usize, pivot: &Row<A::C>) {
+    fn eliminate(&mut self, k: usize, pivot: &Row<A::C>, lanes: LaneMask) {
         let arith = self.arith;
         let mut multipliers: [A::C; LANES] = std::array::from_fn(|_| arith.zero());
         let mut used = 0;
         for (j, m) in multipliers.iter_mut().enumerate() {
+            if lanes & (1 << j) == 0 {
+                continue;
+            }
             let entry = &mut self.acc[k * LANES + j];
             if arith.acc_is_zero(entry) {
                 continue;
@@ -294,7 +297,7 @@ impl<'a, F: Field, A: Arith<F>> Block<'a, F, A> {
 /// Rows go into blocks by their first column: a block's rows then start together (a block
 /// scans the pivots from its earliest start), and blocks come by decreasing work, which the
 /// workers take in turn.
-pub(super) fn reduce_by_known<F: Field, A: Arith<F>>(
+fn reduce_by_known<F: Field, A: Arith<F>>(
     arith: &A,
     width: usize,
     pivots: &[Option<&Row<A::C>>],
@@ -316,23 +319,8 @@ pub(super) fn reduce_by_known<F: Field, A: Arith<F>>(
         || Block::new(arith, width),
         |acc, block| {
             control.check()?;
-            let mut start = width;
-            for (lane, row) in block.iter().enumerate() {
-                if row.cols.len() > skip {
-                    acc.load(lane, &row.cols[skip..], &row.coeffs[skip..]);
-                    start = start.min(row.cols[skip] as usize);
-                }
-            }
-            let before = acc.multiply_adds;
-            for (k, pivot) in pivots.iter().enumerate().skip(start) {
-                if let Some(pivot) = pivot {
-                    acc.eliminate(k, pivot);
-                }
-            }
-            multiply_adds.fetch_add(acc.multiply_adds - before, Ordering::Relaxed);
-            Ok((0..block.len())
-                .map(|lane| acc.extract(lane, start))
-                .collect::<Vec<_>>())
+            let pivot_of = |k: usize| pivots[k].map(|p| (p, ALL_LANES));
+            Ok(reduce_block(acc, block, skip, pivot_of, multiply_adds))
         },
     );
     let mut out: Vec<Entries<A::C>> = (0..rows.len()).map(|_| Default::default()).collect();
@@ -343,6 +331,43 @@ pub(super) fn reduce_by_known<F: Field, A: Arith<F>>(
         }
     }
     Ok(out)
+}
+
+/// Which lanes of a block a pivot may reduce: bit j for lane j.
+pub(super) type LaneMask = u32;
+pub(super) const ALL_LANES: LaneMask = (1 << LANES) - 1;
+
+/// Up to LANES rows (lane j: `rows[j]`, from entry `skip` on) reduced together in `acc` by
+/// the pivots `pivot_of` gives, each only in the lanes of its mask; returns what is left of
+/// each row, sparse.
+pub(super) fn reduce_block<'r, F: Field, A: Arith<F>>(
+    acc: &mut Block<'_, F, A>,
+    rows: &[&Row<A::C>],
+    skip: usize,
+    pivot_of: impl Fn(usize) -> Option<(&'r Row<A::C>, LaneMask)>,
+    multiply_adds: &AtomicU64,
+) -> Vec<Entries<A::C>>
+where
+    A::C: 'r,
+{
+    let width = acc.acc.len() / LANES;
+    let mut start = width;
+    for (lane, row) in rows.iter().enumerate() {
+        if row.cols.len() > skip {
+            acc.load(lane, &row.cols[skip..], &row.coeffs[skip..]);
+            start = start.min(row.cols[skip] as usize);
+        }
+    }
+    let before = acc.multiply_adds;
+    for k in start..width {
+        if let Some((pivot, lanes)) = pivot_of(k) {
+            acc.eliminate(k, pivot, lanes);
+        }
+    }
+    multiply_adds.fetch_add(acc.multiply_adds - before, Ordering::Relaxed);
+    (0..rows.len())
+        .map(|lane| acc.extract(lane, start))
+        .collect()
 }
 
 /// Rows below which a matrix is reduced on the calling thread: waking the worker pool costs

@@ -28,7 +28,7 @@
 use super::arith::Arith;
 use super::arith::LANES;
 use super::hash::MonomialTable;
-use super::linalg::{reduce_by_known, Dense};
+use super::linalg::{reduce_block, Block, Dense, LaneMask, ALL_LANES};
 use super::symbolic::{self, Divisor, Element, Multiple, Row};
 use super::{element_of, import_poly, reduced_basis};
 use crate::control::Control;
@@ -339,10 +339,14 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         Ok(false)
     }
 
-    /// The J-pair rows from slot `first` on (up to one block of lanes) reduced together by the
-    /// pivots installed so far, which all have smaller signatures than these rows: the bulk of
-    /// their reduction, in the eight-lane kernel. What the rows meet after `first` (pivots of
-    /// the rows in between) is left to each row's own pass.
+    /// The J-pair rows from slot `first` on (up to one block of lanes) reduced together, in the
+    /// eight-lane kernel, by the rows of smaller signature known so far: the pivots installed,
+    /// and the reducers between the block's rows whose leading column has no pivot yet (most
+    /// are installed as they are when their turn comes; each reduces only the lanes after it).
+    /// What else the rows meet is left to each row's own pass. Should such a reducer be reduced
+    /// instead of installed, the lanes it served still received a reduction by a row of smaller
+    /// signature, and their own pass ends on the same row: a row fully reduced by the pivots
+    /// of smaller signature is unique.
     fn start_block(
         &self,
         matrix: &symbolic::SymbolicMatrix<A::C>,
@@ -352,6 +356,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         control: &Control,
         work: &AtomicU64,
     ) -> Result<Vec<(usize, Row<A::C>)>> {
+        control.check()?;
         let block: Vec<usize> = (first..slots.len())
             .filter(|&i| slots[i].j_pair)
             .take(LANES)
@@ -360,9 +365,24 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             .iter()
             .map(|&i| &matrix.new_rows[slots[i].row])
             .collect();
-        let known: Vec<Option<&Row<A::C>>> = pivots.iter().map(Option::as_ref).collect();
         let width = matrix.columns.len();
-        let reduced = reduce_by_known(&self.arith, width, &known, &rows, false, control, work)?;
+        let mut waiting: Vec<Option<(&Row<A::C>, LaneMask)>> = vec![None; width];
+        for (lane, pair) in block.windows(2).enumerate() {
+            let later_lanes = ALL_LANES & !((2 << lane) - 1);
+            for slot in &slots[pair[0] + 1..pair[1]] {
+                let row = &matrix.reducers[slot.row];
+                let lead = row.cols[0] as usize;
+                if pivots[lead].is_none() && waiting[lead].is_none() {
+                    waiting[lead] = Some((row, later_lanes));
+                }
+            }
+        }
+        let pivot_of = |k: usize| match &pivots[k] {
+            Some(pivot) => Some((pivot, ALL_LANES)),
+            None => waiting[k],
+        };
+        let mut acc = Block::new(&self.arith, width);
+        let reduced = reduce_block(&mut acc, &rows, 0, pivot_of, work);
         Ok(block
             .into_iter()
             .zip(reduced)
