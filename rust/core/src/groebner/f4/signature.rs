@@ -276,11 +276,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             if done % 64 == 0 {
                 control.check()?;
             }
-            let row = if slot.j_pair {
-                &matrix.new_rows[slot.row]
-            } else {
-                &matrix.reducers[slot.row]
-            };
+            let row = row_of(&matrix, slot);
             let lead = row.cols[0] as usize;
             if !slot.j_pair && pivots[lead].is_none() {
                 // A reducer nothing reduced before: a pivot as it is.
@@ -290,7 +286,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
                 });
                 continue;
             }
-            if slot.j_pair && !started.contains_key(&done) {
+            if !started.contains_key(&done) {
                 let block =
                     self.start_block(&matrix, &slots, done, &pivots, control, &lane_work)?;
                 started.extend(block);
@@ -339,8 +335,9 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         Ok(false)
     }
 
-    /// The J-pair rows from slot `first` on (up to one block of lanes) reduced together, in the
-    /// eight-lane kernel, by the rows of smaller signature known so far: the pivots installed,
+    /// The rows to be reduced from slot `first` on (up to one block of lanes: J-pair rows, and
+    /// reducers whose leading column already has a pivot) reduced together, in the eight-lane
+    /// kernel, by the rows of smaller signature known so far: the pivots installed,
     /// and the reducers between the block's rows whose leading column has no pivot yet (most
     /// are installed as they are when their turn comes; each reduces only the lanes after it).
     /// What else the rows meet is left to each row's own pass. Should such a reducer be reduced
@@ -357,20 +354,18 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         work: &AtomicU64,
     ) -> Result<Vec<(usize, Row<A::C>)>> {
         control.check()?;
+        let lead_of = |slot: &Slot| row_of(matrix, slot).cols[0] as usize;
         let block: Vec<usize> = (first..slots.len())
-            .filter(|&i| slots[i].j_pair)
+            .filter(|&i| slots[i].j_pair || pivots[lead_of(&slots[i])].is_some())
             .take(LANES)
             .collect();
-        let rows: Vec<&Row<A::C>> = block
-            .iter()
-            .map(|&i| &matrix.new_rows[slots[i].row])
-            .collect();
+        let rows: Vec<&Row<A::C>> = block.iter().map(|&i| row_of(matrix, &slots[i])).collect();
         let width = matrix.columns.len();
         let mut waiting: Vec<Option<(&Row<A::C>, LaneMask)>> = vec![None; width];
         for (lane, pair) in block.windows(2).enumerate() {
             let later_lanes = ALL_LANES & !((2 << lane) - 1);
             for slot in &slots[pair[0] + 1..pair[1]] {
-                let row = &matrix.reducers[slot.row];
+                let row = row_of(matrix, slot);
                 let lead = row.cols[0] as usize;
                 if pivots[lead].is_none() && waiting[lead].is_none() {
                     waiting[lead] = Some((row, later_lanes));
@@ -576,6 +571,15 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
                 .expect("the queue of this degree exists")
                 .insert(key, pair);
         }
+    }
+}
+
+/// The matrix row of a slot.
+fn row_of<'m, C>(matrix: &'m symbolic::SymbolicMatrix<C>, slot: &Slot) -> &'m Row<C> {
+    if slot.j_pair {
+        &matrix.new_rows[slot.row]
+    } else {
+        &matrix.reducers[slot.row]
     }
 }
 
