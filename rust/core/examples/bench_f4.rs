@@ -15,9 +15,10 @@ use std::time::Instant;
 
 const PRIME: u64 = 65521;
 
-/// `name@k` runs on k threads, `name~s` with the sampled linear algebra (engine f4-sampled).
+/// `name@k` runs on k threads, `name~s` with the sampled linear algebra (engine f4-sampled),
+/// `name~g` with signature-based F4 (engine f4-signature).
 /// Random quadratics: m = n + 1 (n = 10, 11; n = 14 takes minutes) and m = 2n (n = 14).
-const DEFAULT: [&str; 16] = [
+const DEFAULT: [&str; 18] = [
     "cyclic-6",
     "cyclic-7",
     "cyclic-8",
@@ -25,8 +26,10 @@ const DEFAULT: [&str; 16] = [
     "cyclic-8~s",
     "katsura-10",
     "katsura-10~s",
+    "katsura-10~g",
     "katsura-11",
     "katsura-11~s",
+    "katsura-11~g",
     "eco-10",
     "eco-11",
     "noon-6",
