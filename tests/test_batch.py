@@ -44,8 +44,11 @@ def write_jobs(path: Path, jobs: list[dict]) -> Path:
     return path
 
 
-def read_records(path: Path) -> list[dict]:
+def read_records(path: Path, torn_tail: bool = False) -> list[dict]:
+    """The records of a result file; with ``torn_tail``, an incomplete last line is left out."""
     text = path.read_text(encoding="utf-8")
+    if torn_tail:
+        text = text[:text.rfind("\n") + 1]
     assert text == "" or text.endswith("\n"), "every line is complete"
     return [json.loads(line) for line in text.splitlines()]
 
@@ -134,7 +137,10 @@ def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
     wait_for_lines(out, len(after_first) + 3, second)
     second.kill()  # SIGKILL: no cleanup at all
     second.communicate(timeout=60)
-    after_second = read_records(out)
+    # SIGKILL may land while a line is being written: a result line of tens of kilobytes is not
+    # written atomically, so it can be left torn (seen once in CI). The resume below must cut it
+    # off and run that job again, as it does for the torn line written by hand.
+    after_second = read_records(out, torn_tail=True)
     assert [r["id"] for r in after_second[:len(after_first)]] == [r["id"] for r in after_first]
 
     with open(out, "ab") as handle:  # a crash in the middle of writing a line
