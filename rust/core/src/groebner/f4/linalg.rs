@@ -705,3 +705,40 @@ pub fn reduce_tails<F: Field, A: Arith<F>>(
         })
         .collect())
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::field::PrimeField;
+    use crate::groebner::f4::arith::SmallPrime;
+
+    #[test]
+    fn a_pivot_reduces_only_the_lanes_of_its_mask() {
+        // Over GF(7), both lanes hold x0 + x1 and the pivot is x0 + 3·x2: the lane it may
+        // reduce becomes x1 - 3·x2 = x1 + 4·x2, the other keeps its row.
+        let arith = SmallPrime::<u32>::new(7);
+        let row = |cols: Vec<u32>, coeffs: Vec<u32>| Row {
+            cols,
+            coeffs: coeffs.into(),
+        };
+        let pivot = row(vec![0, 2], vec![1, 3]);
+        let lane_row = row(vec![0, 1], vec![1, 1]);
+        let rows = [&lane_row, &lane_row];
+        let work = AtomicU64::new(0);
+        for (mask, expected) in [
+            (0b10, [(vec![0, 1], vec![1, 1]), (vec![1, 2], vec![1, 4])]),
+            (
+                ALL_LANES,
+                [(vec![1, 2], vec![1, 4]), (vec![1, 2], vec![1, 4])],
+            ),
+        ] {
+            let mut acc = Block::<PrimeField, _>::new(&arith, 3);
+            let pivot_of = |k: usize| (k == 0).then_some((&pivot, mask));
+            assert_eq!(
+                reduce_block(&mut acc, &rows, 0, pivot_of, &work),
+                expected,
+                "mask {mask:b}"
+            );
+        }
+    }
+}

@@ -291,10 +291,15 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
                     self.start_block(&matrix, &slots, done, &pivots, control, &lane_work)?;
                 started.extend(block);
             }
-            let reduced = match started.remove(&done) {
-                Some(start) if start.cols.is_empty() => None,
-                Some(start) => dense.reduce_row(&start, &|k| pivots[k].as_ref()),
-                None => dense.reduce_row(row, &|k| pivots[k].as_ref()),
+            // Every row that needs reducing starts in a block: the one begun at it, if no
+            // earlier block took it.
+            let start = started
+                .remove(&done)
+                .expect("a block holds every row to be reduced");
+            let reduced = if start.cols.is_empty() {
+                None
+            } else {
+                dense.reduce_row(&start, &|k| pivots[k].as_ref())
             };
             match reduced {
                 None => {
@@ -587,9 +592,9 @@ fn row_of<'m, C>(matrix: &'m symbolic::SymbolicMatrix<C>, slot: &Slot) -> &'m Ro
 /// among the active elements whose leading monomial divides m (as homogeneous monomials), the
 /// one whose multiple has the smallest signature, which lets the most rows be reduced by it.
 fn reducer_picker<'e, C: Send + Sync>(
-    basis: &'e [Element<C>],
-    labels: &'e [Label],
-    by_index: &'e [Vec<usize>],
+    basis: &[Element<C>],
+    labels: &[Label],
+    by_index: &[Vec<usize>],
     order: &'e MonomialOrder,
     table: &MonomialTable,
     degree: u32,
