@@ -24,6 +24,10 @@ pub const EXHAUSTIVE_RATE: f64 = 5.0e8;
 /// times on random quadratic systems with m = 2n (bench `bench_boolean`).
 pub const ENGINE_RATE: f64 = 1.0e10;
 
+/// Seconds one engine run costs at least (setting up, a few small matrices), measured on
+/// systems of a few variables.
+pub const ENGINE_RUN: f64 = 5.0e-5;
+
 /// A method for solving a Boolean system.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Method {
@@ -128,7 +132,7 @@ pub fn regularity_degree(n: usize, degrees: &[u32]) -> u32 {
 pub fn engine_seconds(n: usize, degrees: &[u32]) -> (f64, u32) {
     let d = regularity_degree(n, degrees);
     let columns: f64 = (0..=d as usize).map(|k| binomial(n, k)).sum();
-    (columns.powi(3) / 64.0 / 8.0 / ENGINE_RATE, d)
+    (ENGINE_RUN + columns.powi(3) / 64.0 / 8.0 / ENGINE_RATE, d)
 }
 
 /// Estimated seconds of exhaustive search on n variables with `threads` threads.

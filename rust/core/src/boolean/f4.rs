@@ -52,14 +52,13 @@ struct Run<const W: usize> {
 
 impl<const W: usize> Run<W> {
     fn main(&mut self, gens: &[Vec<Bits<W>>], control: &Control) -> Result<Vec<Vec<Bits<W>>>> {
-        // The generators, Gaussian-eliminated among themselves, make the first elements; all
-        // of them go in (they generate the ideal).
+        // The generators, Gaussian-eliminated among themselves, make the first elements.
         let mut assembly = Assembly::default();
         for g in gens.iter().filter(|g| !g.is_empty()) {
             assembly.add_to_reduce(Bits::ONE, usize::MAX, g);
         }
         let first = self.step(assembly, 0, 0, control)?;
-        if self.insert_all(first, false) {
+        if self.insert_all(first) {
             return Ok(vec![vec![Bits::ONE]]);
         }
         loop {
@@ -85,7 +84,7 @@ impl<const W: usize> Run<W> {
                 }
             }
             let new = self.step(assembly, degree, selected.len(), control)?;
-            if self.insert_all(new, true) {
+            if self.insert_all(new) {
                 return Ok(vec![vec![Bits::ONE]]);
             }
         }
@@ -140,27 +139,22 @@ impl<const W: usize> Run<W> {
         Ok(new)
     }
 
-    /// Inserts new elements in increasing order of leading monomial; after the first step an
-    /// element whose leading monomial another new one divides is left out (it lies in the
-    /// ideal of the others and the field equations). Returns true when 1 is among them.
-    fn insert_all(&mut self, mut new: Vec<Vec<Bits<W>>>, skip_divisible: bool) -> bool {
+    /// Inserts new elements in decreasing order of leading monomial, so that an element whose
+    /// leading monomial another one divides comes first and is retired by it (its pairs stay,
+    /// as the criteria require). Returns true when 1 is among them.
+    fn insert_all(&mut self, mut new: Vec<Vec<Bits<W>>>) -> bool {
         if new.iter().any(|p| p[0].is_one()) {
             return true;
         }
-        new.sort_by(|a, b| self.order.cmp_bits(&a[0], &b[0]));
-        let mut inserted_leads: Vec<Bits<W>> = Vec::new();
+        new.sort_by(|a, b| self.order.cmp_bits(&b[0], &a[0]));
         for p in new {
             let lead = p[0];
-            if skip_divisible && inserted_leads.iter().any(|l| l.divides(&lead)) {
-                continue;
-            }
             let field_degrees: Vec<(usize, u32)> = lead
                 .vars()
                 .filter_map(|v| field_product_degree(&p, v).map(|d| (v, d)))
                 .collect();
             self.pairs.insert(lead, &field_degrees);
             self.polys.push(p);
-            inserted_leads.push(lead);
         }
         false
     }

@@ -122,28 +122,55 @@ fn exhaustive_search_equals_brute_force() {
     }
 }
 
+/// Brute force for up to 64 variables on monomial masks (bit v = x_v): the points, as numbers,
+/// where every equation has an even number of monomials inside the point.
+fn brute_force_masks(r: &BooleanRing, gens: &[BoolPoly]) -> Vec<u64> {
+    let eqs: Vec<Vec<u64>> = gens
+        .iter()
+        .map(|g| g.monomials().map(|m| m[0]).collect())
+        .collect();
+    (0u64..1 << r.nvars())
+        .filter(|&x| {
+            eqs.iter()
+                .all(|eq| eq.iter().filter(|&&m| m & !x == 0).count() % 2 == 0)
+        })
+        .collect()
+}
+
+fn as_numbers(points: &[Vec<bool>]) -> Vec<u64> {
+    points
+        .iter()
+        .map(|p| p.iter().enumerate().map(|(v, &b)| (b as u64) << v).sum())
+        .collect()
+}
+
 /// More than 64 equations: the walk filters on the first 64, the rest are checked per
-/// candidate; cubic equations take the general walk. Both on a split search (n > 20).
+/// candidate. Cubic equations take the general walk; more than 20 variables split the search
+/// over several walks (both kernels).
 #[test]
-fn exhaustive_search_with_many_equations_and_degree_three() {
+fn exhaustive_search_with_many_equations_degree_three_and_split_walks() {
     let mut rng = Rng::new(64);
     let r = ring(10, BoolOrder::Grevlex);
     let planted = random_point(10, &mut rng);
-    // 70 sparse equations, the last 6 of them checked by filtering only.
     let mut gens = random_system(&r, 64, 2, 50, Some(&planted), &mut rng);
     gens.extend(random_system(&r, 6, 2, 50, None, &mut rng));
     let expected = brute_force(&r, &gens);
     let found = solve(&r, &gens, Method::Exhaustive, None, &Control::new()).unwrap();
     assert_eq!(found.points, expected);
-    let r = ring(22, BoolOrder::Grevlex);
-    let planted = random_point(22, &mut rng);
-    let gens = random_system(&r, 22, 3, 2, Some(&planted), &mut rng);
-    let found = solve(&r, &gens, Method::Exhaustive, None, &Control::new()).unwrap();
-    let via_basis = solve(&r, &gens, Method::Basis, None, &Control::new()).unwrap();
-    assert!(found.points.contains(&planted));
-    assert_eq!(found.points, via_basis.points);
-    for p in &found.points {
-        assert!(gens.iter().all(|g| !r.evaluate(g, p).unwrap()));
+    for (n, m, degree, percent) in [
+        (12, 6, 3, 10),
+        (16, 16, 3, 5),
+        (22, 3, 3, 1),
+        (23, 4, 2, 30),
+    ] {
+        let r = ring(n, BoolOrder::Grevlex);
+        let planted = random_point(n, &mut rng);
+        let gens = random_system(&r, m, degree, percent, Some(&planted), &mut rng);
+        let expected = brute_force_masks(&r, &gens);
+        let found = count(&r, &gens, Method::Exhaustive, &Control::new()).unwrap();
+        assert_eq!(found.count, Some(BigUint::from(expected.len())), "n = {n}");
+        let found = solve(&r, &gens, Method::Exhaustive, None, &Control::new()).unwrap();
+        assert_eq!(as_numbers(&found.points), expected, "n = {n}");
     }
 }
 
@@ -414,4 +441,78 @@ fn the_chooser_prefers_exhaustive_search_for_square_systems() {
     let choice = choose_method(&r, &gens, &Control::new());
     assert_ne!(choice.method, Method::Exhaustive, "{choice}");
     assert!(choice.estimates.exhaustive.is_none());
+}
+
+/// The toy cipher of `examples/toy_spn_cipher_gf2.txt` (our own, described in the file).
+fn toy_encrypt(key: u16, plaintext: u8) -> u8 {
+    const SBOX: [u8; 16] = [0xC, 5, 6, 0xB, 9, 0, 0xA, 0xD, 3, 0xE, 0xF, 8, 4, 7, 1, 2];
+    const P: [usize; 8] = [0, 2, 4, 6, 1, 3, 5, 7];
+    let round_key = |r: u32| -> u8 { (key.rotate_right(4 * r) & 0xFF) as u8 };
+    let mut s = plaintext;
+    for r in 0..3 {
+        let x = s ^ round_key(r);
+        let u = SBOX[(x & 15) as usize] | SBOX[(x >> 4) as usize] << 4;
+        s = (0..8).fold(0, |acc, i| acc | (u >> i & 1) << P[i]);
+    }
+    s ^ round_key(3)
+}
+
+/// Expands `k0..k15` ranges in a list of variable names.
+fn expand_names(list: &str) -> Vec<String> {
+    let mut out = Vec::new();
+    for item in list.split(',').map(str::trim) {
+        match item.split_once("..") {
+            Some((a, b)) => {
+                let prefix = a.trim_end_matches(|c: char| c.is_ascii_digit());
+                let from: usize = a[prefix.len()..].parse().unwrap();
+                let to: usize = b[prefix.len()..].parse().unwrap();
+                out.extend((from..=to).map(|i| format!("{prefix}{i}")));
+            }
+            None => out.push(item.to_string()),
+        }
+    }
+    out
+}
+
+/// The README's cipher example: the key is recovered from the file's polynomials, and it
+/// encrypts every listed plaintext to its ciphertext under an independent implementation of
+/// the cipher (the file's description).
+#[test]
+fn toy_cipher_key_is_recovered_from_the_example_file() {
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../../examples/toy_spn_cipher_gf2.txt"
+    );
+    let text = std::fs::read_to_string(path).unwrap();
+    let (mut names, mut equations, mut pairs, mut boolean) = (vec![], vec![], vec![], false);
+    for line in text.lines().map(str::trim) {
+        if let Some(pair) = line.strip_prefix("# pair ") {
+            let hex = |tag: &str| {
+                let at = pair.find(tag).unwrap() + tag.len();
+                u8::from_str_radix(&pair[at..at + 2], 16).unwrap()
+            };
+            pairs.push((hex("plaintext 0x"), hex("ciphertext 0x")));
+        } else if line.is_empty() || line.starts_with('#') {
+            continue;
+        } else if let Some(v) = line.strip_prefix("variables:") {
+            names = expand_names(v);
+        } else if let Some(b) = line.strip_prefix("boolean:") {
+            boolean = b.trim() == "yes";
+        } else if !line.starts_with("field:") && !line.starts_with("order:") {
+            equations.push(line.to_string());
+        }
+    }
+    assert!(boolean && pairs.len() == 3 && names.len() == 88);
+    let r = BooleanRing::new(names, BoolOrder::Grevlex).unwrap();
+    let gens: Vec<BoolPoly> = equations.iter().map(|e| r.parse(e).unwrap()).collect();
+    let found = solve(&r, &gens, Method::Basis, None, &Control::new()).unwrap();
+    assert_eq!(found.points.len(), 1, "the three pairs determine the key");
+    let key = (0..16).fold(0u16, |k, i| k | (found.points[0][i] as u16) << i);
+    for &(plaintext, ciphertext) in &pairs {
+        assert_eq!(toy_encrypt(key, plaintext), ciphertext);
+    }
+    assert_eq!(key, 0xB5E3, "the key the file says was used");
+    // Exhaustive search cannot run on 88 variables; the chooser says so.
+    let choice = choose_method(&r, &gens, &Control::new());
+    assert_ne!(choice.method, Method::Exhaustive, "{choice}");
 }
