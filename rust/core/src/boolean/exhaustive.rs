@@ -200,25 +200,35 @@ impl Walk {
         let d2: &[u64; 65 * 65] = (&*d2).try_into().expect("65 x 65 table");
         let top = 1u64 << self.n;
         let mut y = self.constant;
-        let mut i = 1u64;
-        while i < top {
-            let end = (i + BLOCK).min(top);
-            for i in i..end {
-                let k1 = i.trailing_zeros() as usize;
-                let k2 = ((i & (i - 1)) | top).trailing_zeros() as usize;
+        // Steps come in pairs: an odd i flips x_0 (k1 = 0), whose derivative stays in a
+        // register; the even i after it flips a higher variable.
+        let mut d1_0 = d1[0];
+        let high = self.high;
+        in_blocks(top, control, stop, |start, end| {
+            // Locals for the loop, so that the running values stay in registers.
+            let (mut value, mut first) = (y, d1_0);
+            for odd in (start..end).step_by(2) {
+                let k2 = ((odd & (odd - 1)) | top).trailing_zeros() as usize;
+                first ^= d2[65 * k2];
+                value ^= first;
+                if value == 0 && !found(gray(odd) | high) {
+                    return false;
+                }
+                let even = odd + 1;
+                if even == top {
+                    break;
+                }
+                let k1 = even.trailing_zeros() as usize;
+                let k2 = ((even & (even - 1)) | top).trailing_zeros() as usize;
                 d1[k1] ^= d2[k1 + 65 * k2];
-                y ^= d1[k1];
-                if y == 0 && !found(gray(i) | self.high) {
-                    return Ok(());
+                value ^= d1[k1];
+                if value == 0 && !found(gray(even) | high) {
+                    return false;
                 }
             }
-            i = end;
-            control.check()?;
-            if stop.load(Ordering::Relaxed) {
-                return Ok(());
-            }
-        }
-        Ok(())
+            (y, d1_0) = (value, first);
+            true
+        })
     }
 
     /// Any degree: along the lowest d set bits k1 < ... < kd of i, each derivative is updated
@@ -234,10 +244,10 @@ impl Walk {
         let mut y = self.constant;
         let mut k = vec![0usize; d];
         let mut index = vec![0usize; d];
-        let mut i = 1u64;
-        while i < top {
-            let end = (i + BLOCK).min(top);
-            for i in i..end {
+        let high = self.high;
+        let levels = &mut self.levels;
+        in_blocks(top, control, stop, |start, end| {
+            for i in start..end {
                 let mut rest = i;
                 let mut scale = 1;
                 for j in 0..d {
@@ -251,22 +261,41 @@ impl Walk {
                     scale *= s;
                 }
                 for j in (1..d).rev() {
-                    let deeper = self.levels[j][index[j]];
-                    self.levels[j - 1][index[j - 1]] ^= deeper;
+                    let deeper = levels[j][index[j]];
+                    levels[j - 1][index[j - 1]] ^= deeper;
                 }
-                y ^= self.levels[0][index[0]];
-                if y == 0 && !found(gray(i) | self.high) {
-                    return Ok(());
+                y ^= levels[0][index[0]];
+                if y == 0 && !found(gray(i) | high) {
+                    return false;
                 }
             }
-            i = end;
-            control.check()?;
-            if stop.load(Ordering::Relaxed) {
-                return Ok(());
-            }
-        }
-        Ok(())
+            true
+        })
     }
+}
+
+/// Runs `block` on the steps 1..top in blocks of [`BLOCK`] (each starting at an odd step),
+/// checking `control` and the other walks' stop request between blocks; `block` returns false
+/// to end the walk.
+fn in_blocks(
+    top: u64,
+    control: &Control,
+    stop: &AtomicBool,
+    mut block: impl FnMut(u64, u64) -> bool,
+) -> Result<()> {
+    let mut start = 1u64;
+    while start < top {
+        let end = (start + BLOCK).min(top);
+        if !block(start, end) {
+            return Ok(());
+        }
+        start = end;
+        control.check()?;
+        if stop.load(Ordering::Relaxed) {
+            return Ok(());
+        }
+    }
+    Ok(())
 }
 
 /// Bits fixed to split the work: enough walks for every thread to get several, none shorter

@@ -2,7 +2,7 @@
 //! words, with the Method of Four Russians (Arlazarov, Dinic, Kronrod and Faradzev 1970): the
 //! 2^k sums of k pivot rows are tabulated once (in Gray-code order, one row XOR each), and every
 //! other row then clears k columns with a single table XOR instead of up to k row XORs — the
-//! form used for echelon forms by Bard (2007, "M4RI").
+//! form used for echelon forms by Bard (2007).
 //!
 //! Two operations serve the Boolean F4 engine, whose matrices come in the block form of Faugère
 //! and Lachartre (2010): pivot rows with distinct leading columns first, the rows to reduce below.

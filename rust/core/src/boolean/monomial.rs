@@ -216,6 +216,10 @@ impl Hasher for WordHasher {
         self.0 = (self.0.rotate_left(5) ^ x).wrapping_mul(0x51_7cc1_b727_220a_95);
     }
     #[inline]
+    fn write_usize(&mut self, x: usize) {
+        self.write_u64(x as u64);
+    }
+    #[inline]
     fn finish(&self) -> u64 {
         self.0 ^ (self.0 >> 29)
     }

@@ -44,20 +44,7 @@ impl<const W: usize> PairSet<W> {
     /// have the degrees `field_degrees`; returns its index.
     pub fn insert(&mut self, lead: Bits<W>, field_degrees: &[(usize, u32)]) -> usize {
         let t = self.leads.len();
-        let mut candidates: Vec<(usize, Bits<W>, bool)> = (0..t)
-            .filter(|&g| self.active[g])
-            .map(|g| (g, self.leads[g].union(&lead), self.leads[g].coprime(&lead)))
-            .collect();
-        // Criterion M (and F): a new pair goes when another new pair's lcm divides its lcm.
-        // Sorting by degree lets each pair look only at pairs of smaller or equal degree.
-        candidates.sort_by_key(|c| c.1.degree());
-        let mut kept: Vec<(usize, Bits<W>, bool)> = Vec::with_capacity(candidates.len());
-        while let Some(p) = candidates.pop() {
-            let divided = |q: &(usize, Bits<W>, bool)| q.1.divides(&p.1);
-            if p.2 || !(candidates.iter().any(divided) || kept.iter().any(divided)) {
-                kept.push(p);
-            }
-        }
+        let kept = self.new_pairs(&lead);
         // Criterion B on the old pairs of G.
         let leads = &self.leads;
         self.pairs.retain(|pair| match pair.kind {
@@ -68,14 +55,12 @@ impl<const W: usize> PairSet<W> {
             }
             PairKind::Field(..) => true,
         });
-        for (g, lcm, coprime) in kept {
-            if !coprime {
-                self.pairs.push(Pair {
-                    kind: PairKind::Basis(g, t),
-                    lcm,
-                    degree: lcm.degree(),
-                });
-            }
+        for (g, lcm) in kept {
+            self.pairs.push(Pair {
+                kind: PairKind::Basis(g, t),
+                lcm,
+                degree: lcm.degree(),
+            });
         }
         for &(v, degree) in field_degrees {
             self.pairs.push(Pair {
@@ -92,6 +77,39 @@ impl<const W: usize> PairSet<W> {
         self.leads.push(lead);
         self.active.push(true);
         t
+    }
+
+    /// The new pairs {g, h} that criteria M and F keep (Buchberger's first criterion then drops
+    /// the coprime ones): a pair goes when another new pair's lcm divides its lcm, one pair
+    /// stays of those with equal lcms, and coprime pairs prune others but are not kept.
+    /// lcm(g', h) divides lcm(g, h) exactly when lm(g') \ lm(h) ⊆ lm(g) \ lm(h), so the pairs
+    /// are visited by increasing size of that set; a pair survives when no survivor's set is
+    /// inside its own. Sets of one variable are kept as a mask, so that most pairs are decided
+    /// by one AND.
+    fn new_pairs(&self, lead: &Bits<W>) -> Vec<(usize, Bits<W>)> {
+        let mut candidates: Vec<(usize, Bits<W>, bool)> = (0..self.leads.len())
+            .filter(|&g| self.active[g])
+            .map(|g| (g, self.leads[g].minus(lead), self.leads[g].coprime(lead)))
+            .collect();
+        // Among equal sets the coprime pair comes first: it prunes the others.
+        candidates.sort_by_key(|c| (c.1.degree(), !c.2));
+        let mut single = Bits::<W>::ONE;
+        let mut larger: Vec<Bits<W>> = Vec::new();
+        let mut kept = Vec::new();
+        for (g, rest, coprime) in candidates {
+            if !rest.coprime(&single) || larger.iter().any(|d| d.divides(&rest)) {
+                continue;
+            }
+            if rest.degree() == 1 {
+                single = single.union(&rest);
+            } else {
+                larger.push(rest);
+            }
+            if !coprime {
+                kept.push((g, rest.union(lead)));
+            }
+        }
+        kept
     }
 
     /// Removes and returns the pairs of the lowest degree (the normal strategy).

@@ -13,7 +13,6 @@ use super::linalg::{self, Dense, Work};
 use super::monomial::{Bits, BoolOrder, WordMap};
 use crate::control::Control;
 use crate::error::{Error, Result};
-use std::collections::HashSet;
 
 /// Basis elements usable as reducers, indexed by one variable of their leading monomial so
 /// that finding a divisor of t looks only at elements filed under t's variables.
@@ -71,7 +70,7 @@ pub struct Assembly<const W: usize> {
     pivot_rows: Vec<Vec<u32>>,
     reduce_rows: Vec<Vec<u32>>,
     /// Products (multiplier, element) already made into rows.
-    made: HashSet<(Bits<W>, usize)>,
+    made: WordMap<(Bits<W>, usize), ()>,
     pub nonzeros: usize,
 }
 
@@ -91,7 +90,7 @@ impl<const W: usize> Default for Assembly<W> {
             pivot_of: Vec::new(),
             pivot_rows: Vec::new(),
             reduce_rows: Vec::new(),
-            made: HashSet::new(),
+            made: WordMap::default(),
             nonzeros: 0,
         }
     }
@@ -127,7 +126,7 @@ impl<const W: usize> Assembly<W> {
     /// monomial) when that column has none, as a row to reduce otherwise. `element` names the
     /// product so it is made once.
     pub fn add_with_lead(&mut self, u: Bits<W>, element: usize, poly: &[Bits<W>], lead: Bits<W>) {
-        if !self.made.insert((u, element)) {
+        if self.made.insert((u, element), ()).is_some() {
             return;
         }
         let row = self.product(&u, poly);
@@ -142,7 +141,7 @@ impl<const W: usize> Assembly<W> {
 
     /// Adds u·poly as a row to reduce.
     pub fn add_to_reduce(&mut self, u: Bits<W>, element: usize, poly: &[Bits<W>]) {
-        if element != usize::MAX && !self.made.insert((u, element)) {
+        if element != usize::MAX && self.made.insert((u, element), ()).is_some() {
             return;
         }
         let row = self.product(&u, poly);
@@ -168,7 +167,7 @@ impl<const W: usize> Assembly<W> {
             if let Some(i) = reducers.find(&t) {
                 let poly = reducers.poly(i);
                 let u = t.minus(&poly[0]);
-                self.made.insert((u, i));
+                self.made.insert((u, i), ());
                 let row = self.product(&u, poly);
                 self.pivot_of[c] = self.pivot_rows.len() as u32;
                 self.pivot_rows.push(row);
