@@ -257,7 +257,38 @@ pub fn count(
     run_method(ring, gens, method, None, true, control)
 }
 
+/// Most points a call returns when the caller set no limit (a list of 2^26 points takes over
+/// 2 GB as vectors of booleans); more raise `ResourceLimit`.
+pub const MAX_POINTS: usize = 1 << 26;
+
 fn run_method(
+    ring: &BooleanRing,
+    gens: &[BoolPoly],
+    method: Method,
+    limit: Option<usize>,
+    count_only: bool,
+    control: &Control,
+) -> Result<Solutions> {
+    let unlimited = limit.is_none() && !count_only;
+    let limit = if unlimited {
+        Some(MAX_POINTS + 1)
+    } else {
+        limit
+    };
+    let found = run_limited(ring, gens, method, limit, count_only, control)?;
+    if unlimited && found.points.len() > MAX_POINTS {
+        return Err(too_many_points());
+    }
+    Ok(found)
+}
+
+fn too_many_points() -> Error {
+    Error::ResourceLimit(format!(
+        "the system has more than {MAX_POINTS} solutions: ask for a count or set a limit"
+    ))
+}
+
+fn run_limited(
     ring: &BooleanRing,
     gens: &[BoolPoly],
     method: Method,
@@ -284,6 +315,10 @@ fn run_method(
         Method::Basis => {
             let b = basis(ring, gens, control)?;
             let count = b.count_solutions(control)?;
+            if limit == Some(MAX_POINTS + 1) && count > BigUint::from(MAX_POINTS) {
+                // Too many to list: the error without the enumeration.
+                return Err(too_many_points());
+            }
             let points = if count_only {
                 Vec::new()
             } else {

@@ -38,8 +38,8 @@ impl<'a, const W: usize> Reducers<'a, W> {
         Reducers { polys, by_var }
     }
 
-    /// An element whose leading monomial divides `t` (the sparsest of those filed under the
-    /// first of t's variables that has one).
+    /// An element whose leading monomial divides `t`: of the sparsest divisor filed under each
+    /// of t's variables, the sparsest.
     pub fn find(&self, t: &Bits<W>) -> Option<usize> {
         let mut best: Option<usize> = None;
         for v in t.vars() {
