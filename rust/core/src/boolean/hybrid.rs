@@ -27,6 +27,9 @@ pub struct Guessed<const W: usize> {
     pub runs: usize,
 }
 
+/// One guess's outcome: its points and count (`None`: skipped after the limit was reached).
+type Outcome<const W: usize> = Option<(Vec<Bits<W>>, BigUint)>;
+
 /// `gens` with each guessed variable `guessed[i]` set to bit i of `guess`, plus the equations
 /// fixing them.
 fn specialize<const W: usize>(
@@ -90,7 +93,7 @@ pub fn solve<const W: usize>(
     let limit = if count_only { None } else { limit };
     let stop = AtomicBool::new(false);
     let kept = AtomicUsize::new(0);
-    let runs: Vec<Result<Option<(Vec<Bits<W>>, BigUint)>>> = (0..1u64 << guessed.len())
+    let runs: Vec<Result<Outcome<W>>> = (0..1u64 << guessed.len())
         .into_par_iter()
         .map(|guess| {
             if stop.load(Ordering::Relaxed) {

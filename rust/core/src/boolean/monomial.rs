@@ -213,7 +213,7 @@ impl Hasher for WordHasher {
     }
     #[inline]
     fn write_u64(&mut self, x: u64) {
-        self.0 = (self.0.rotate_left(5) ^ x).wrapping_mul(0x51_7cc1_b727_220a_95);
+        self.0 = (self.0.rotate_left(5) ^ x).wrapping_mul(0x517c_c1b7_2722_0a95);
     }
     #[inline]
     fn write_usize(&mut self, x: usize) {

@@ -160,7 +160,7 @@ impl BooleanRing {
     /// sorted, and monomials that occur an even number of times cancel.
     pub fn from_words(&self, data: &[u64]) -> Result<BoolPoly> {
         let w = self.words;
-        if data.len() % w != 0 {
+        if !data.len().is_multiple_of(w) {
             return Err(Error::invalid(format!(
                 "monomial data of {} words is not a multiple of {w}",
                 data.len()

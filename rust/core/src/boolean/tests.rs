@@ -343,8 +343,8 @@ fn present_sbox_has_21_quadratic_equations() {
     // the space of equations; its dimension is 37 minus the rank (= the rank of this transpose).
     let mut m = linalg::Dense::zeros(37, 16);
     for (row, mono) in monomials.iter().enumerate() {
-        for x in 0..16usize {
-            let bits = x | (SBOX[x] as usize) << 4;
+        for (x, &y) in SBOX.iter().enumerate() {
+            let bits = x | (y as usize) << 4;
             if mono.iter().all(|&v| bits >> v & 1 == 1) {
                 m.set(row, x);
             }
