@@ -15,6 +15,7 @@
 //! - [`control`]: interruption and resource limits for long computations.
 //! - [`systems`]: standard benchmark systems (cyclic, katsura, eco, noon, random quadratics).
 
+pub mod boolean;
 pub mod control;
 pub mod dimension;
 pub mod error;

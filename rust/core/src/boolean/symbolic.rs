@@ -1,0 +1,298 @@
+//! Symbolic preprocessing of the Boolean F4 engine (Faugère 1999): the rows of one step's
+//! matrix, and the same machinery for normal forms of many polynomials at once.
+//!
+//! Rows are Boolean products u·g (x·x = x) of basis elements by monomials. When u shares no
+//! variable with lm(g), u·g has leading monomial u ∪ lm(g) and every other monomial below it
+//! (each u ∪ t is the reduction of u·t, which is below u·lm(g), by the field equations, which
+//! only lower monomials): so every monomial divisible by a leading monomial gets one pivot row
+//! with exactly that leading monomial. The matrix is then laid out in the block form of Faugère
+//! and Lachartre (2010): pivot columns first (so pivot i leads column i), the other columns
+//! after, both in decreasing order.
+
+use super::linalg::{self, Dense, Work};
+use super::monomial::{Bits, BoolOrder, WordMap};
+use crate::control::Control;
+use crate::error::{Error, Result};
+
+/// Basis elements usable as reducers, indexed by one variable of their leading monomial so
+/// that finding a divisor of t looks only at elements filed under t's variables.
+pub struct Reducers<'a, const W: usize> {
+    polys: &'a [Vec<Bits<W>>],
+    by_var: Vec<Vec<u32>>,
+}
+
+impl<'a, const W: usize> Reducers<'a, W> {
+    /// The elements `polys[i]` with `usable[i]` (none may be the constant 1).
+    pub fn new(polys: &'a [Vec<Bits<W>>], usable: &[bool], nvars: usize) -> Self {
+        let mut by_var = vec![Vec::new(); nvars];
+        for (i, p) in polys.iter().enumerate() {
+            if usable[i] {
+                let v = p[0].vars().next().expect("no constant among reducers");
+                by_var[v].push(i as u32);
+            }
+        }
+        // Sparser reducers first: their rows bring fewer monomials.
+        for list in &mut by_var {
+            list.sort_by_key(|&i| polys[i as usize].len());
+        }
+        Reducers { polys, by_var }
+    }
+
+    /// An element whose leading monomial divides `t`: of the sparsest divisor filed under each
+    /// of t's variables, the sparsest.
+    pub fn find(&self, t: &Bits<W>) -> Option<usize> {
+        let mut best: Option<usize> = None;
+        for v in t.vars() {
+            for &i in &self.by_var[v] {
+                let i = i as usize;
+                if self.polys[i][0].divides(t) {
+                    if best.is_none_or(|b| self.polys[i].len() < self.polys[b].len()) {
+                        best = Some(i);
+                    }
+                    break;
+                }
+            }
+        }
+        best
+    }
+
+    pub fn poly(&self, i: usize) -> &'a [Bits<W>] {
+        &self.polys[i]
+    }
+}
+
+/// The rows of one matrix while they are collected: columns are numbered as monomials appear.
+pub struct Assembly<const W: usize> {
+    index: WordMap<Bits<W>, u32>,
+    monos: Vec<Bits<W>>,
+    /// For each column, its pivot row (`u32::MAX`: none yet).
+    pivot_of: Vec<u32>,
+    pivot_rows: Vec<Vec<u32>>,
+    reduce_rows: Vec<Vec<u32>>,
+    /// Products (multiplier, element) already made into rows.
+    made: WordMap<(Bits<W>, usize), ()>,
+    pub nonzeros: usize,
+}
+
+/// A matrix in block form: pivot rows (pivot i leads column i), rows to reduce, and the monomial
+/// of every column.
+pub struct Matrix<const W: usize> {
+    pub pivots: Vec<Vec<u32>>,
+    pub reduce: Vec<Vec<u32>>,
+    pub monomials: Vec<Bits<W>>,
+}
+
+impl<const W: usize> Default for Assembly<W> {
+    fn default() -> Self {
+        Assembly {
+            index: WordMap::default(),
+            monos: Vec::new(),
+            pivot_of: Vec::new(),
+            pivot_rows: Vec::new(),
+            reduce_rows: Vec::new(),
+            made: WordMap::default(),
+            nonzeros: 0,
+        }
+    }
+}
+
+impl<const W: usize> Assembly<W> {
+    fn column(&mut self, m: Bits<W>) -> u32 {
+        let next = self.monos.len() as u32;
+        *self.index.entry(m).or_insert_with(|| {
+            self.monos.push(m);
+            self.pivot_of.push(u32::MAX);
+            next
+        })
+    }
+
+    /// The columns of u·poly (x·x = x), monomials that occur twice cancelled.
+    fn product(&mut self, u: &Bits<W>, poly: &[Bits<W>]) -> Vec<u32> {
+        let mut cols: Vec<u32> = poly.iter().map(|t| self.column(u.union(t))).collect();
+        cols.sort_unstable();
+        let mut out = Vec::with_capacity(cols.len());
+        for c in cols {
+            if out.last() == Some(&c) {
+                out.pop();
+            } else {
+                out.push(c);
+            }
+        }
+        self.nonzeros += out.len();
+        out
+    }
+
+    /// Adds u·poly as the pivot row of the column of `lead` (which must be its leading
+    /// monomial) when that column has none, as a row to reduce otherwise. `element` names the
+    /// product so it is made once.
+    pub fn add_with_lead(&mut self, u: Bits<W>, element: usize, poly: &[Bits<W>], lead: Bits<W>) {
+        if self.made.insert((u, element), ()).is_some() {
+            return;
+        }
+        let row = self.product(&u, poly);
+        let col = self.column(lead);
+        if self.pivot_of[col as usize] == u32::MAX {
+            self.pivot_of[col as usize] = self.pivot_rows.len() as u32;
+            self.pivot_rows.push(row);
+        } else {
+            self.reduce_rows.push(row);
+        }
+    }
+
+    /// Adds u·poly as a row to reduce.
+    pub fn add_to_reduce(&mut self, u: Bits<W>, element: usize, poly: &[Bits<W>]) {
+        if element != usize::MAX && self.made.insert((u, element), ()).is_some() {
+            return;
+        }
+        let row = self.product(&u, poly);
+        if !row.is_empty() {
+            self.reduce_rows.push(row);
+        }
+    }
+
+    /// Gives every column whose monomial some reducer's leading monomial divides a pivot row,
+    /// following the monomials those rows bring in.
+    pub fn preprocess(&mut self, reducers: &Reducers<W>, control: &Control) -> Result<()> {
+        let mut next = 0;
+        while next < self.monos.len() {
+            if next % 1024 == 0 {
+                control.check()?;
+            }
+            let c = next;
+            next += 1;
+            if self.pivot_of[c] != u32::MAX {
+                continue;
+            }
+            let t = self.monos[c];
+            if let Some(i) = reducers.find(&t) {
+                let poly = reducers.poly(i);
+                let u = t.minus(&poly[0]);
+                self.made.insert((u, i), ());
+                let row = self.product(&u, poly);
+                self.pivot_of[c] = self.pivot_rows.len() as u32;
+                self.pivot_rows.push(row);
+            }
+        }
+        Ok(())
+    }
+
+    pub fn columns(&self) -> usize {
+        self.monos.len()
+    }
+    pub fn rows(&self) -> usize {
+        self.pivot_rows.len() + self.reduce_rows.len()
+    }
+    pub fn reduce_count(&self) -> usize {
+        self.reduce_rows.len()
+    }
+
+    /// The block form: columns renumbered (pivot columns first, each part decreasing), rows'
+    /// columns sorted.
+    pub fn finish(self, order: BoolOrder) -> Matrix<W> {
+        let cmp =
+            |a: &u32, b: &u32| order.cmp_bits(&self.monos[*b as usize], &self.monos[*a as usize]);
+        let (mut pivot_cols, mut other_cols): (Vec<u32>, Vec<u32>) =
+            (0..self.monos.len() as u32).partition(|&c| self.pivot_of[c as usize] != u32::MAX);
+        pivot_cols.sort_unstable_by(cmp);
+        other_cols.sort_unstable_by(cmp);
+        let mut position = vec![0u32; self.monos.len()];
+        for (p, &c) in pivot_cols.iter().chain(&other_cols).enumerate() {
+            position[c as usize] = p as u32;
+        }
+        let renumber = |row: Vec<u32>| {
+            let mut row: Vec<u32> = row.into_iter().map(|c| position[c as usize]).collect();
+            row.sort_unstable();
+            row
+        };
+        let mut pivot_rows: Vec<Option<Vec<u32>>> = self.pivot_rows.into_iter().map(Some).collect();
+        let pivots: Vec<Vec<u32>> = pivot_cols
+            .iter()
+            .map(|&c| {
+                renumber(
+                    pivot_rows[self.pivot_of[c as usize] as usize]
+                        .take()
+                        .unwrap(),
+                )
+            })
+            .collect();
+        debug_assert!(pivots.iter().enumerate().all(|(i, r)| r[0] as usize == i));
+        let reduce = self.reduce_rows.into_iter().map(renumber).collect();
+        let monomials = pivot_cols
+            .iter()
+            .chain(&other_cols)
+            .map(|&c| self.monos[c as usize])
+            .collect();
+        Matrix {
+            pivots,
+            reduce,
+            monomials,
+        }
+    }
+}
+
+/// Bytes a dense matrix may take before the step stops with `ResourceLimit` (when the caller
+/// set no smaller matrix limit): a fourth of a 24 GB machine.
+const DENSE_BYTES: u64 = 6 << 30;
+
+impl<const W: usize> Matrix<W> {
+    /// The rows to reduce as a dense matrix, after a size check against the caller's limits.
+    pub fn dense_reduce_rows(&self, control: &Control, step: usize) -> Result<Dense> {
+        let (rows, cols) = (self.reduce.len(), self.monomials.len());
+        control.check_matrix(rows + self.pivots.len(), cols, step)?;
+        let bytes = rows as u64 * cols.div_ceil(64) as u64 * 8;
+        if bytes > DENSE_BYTES {
+            return Err(Error::ResourceLimit(format!(
+                "step {step} needs a dense {rows} x {cols} matrix over GF(2) ({} MB)",
+                bytes >> 20
+            )));
+        }
+        let mut m = Dense::zeros(rows, cols);
+        for (i, row) in self.reduce.iter().enumerate() {
+            for &c in row {
+                m.set(i, c as usize);
+            }
+        }
+        Ok(m)
+    }
+
+    /// The monomials of the set bits of `row` (decreasing).
+    pub fn row_monomials(&self, row: &[u64]) -> Vec<Bits<W>> {
+        let mut out = Vec::new();
+        for (w, &word) in row.iter().enumerate() {
+            let mut word = word;
+            while word != 0 {
+                out.push(self.monomials[64 * w + word.trailing_zeros() as usize]);
+                word &= word - 1;
+            }
+        }
+        out
+    }
+}
+
+/// The normal forms of `polys` with respect to the reducers (every monomial divisible by a
+/// reducer's leading monomial removed), all in one matrix: the polynomials are the rows to
+/// reduce, preprocessing brings the reducer rows, and one pass of [`linalg::reduce_by_pivots`]
+/// clears the pivot columns.
+pub fn normal_forms<const W: usize>(
+    polys: &[Vec<Bits<W>>],
+    reducers: &Reducers<W>,
+    order: BoolOrder,
+    control: &Control,
+) -> Result<Vec<Vec<Bits<W>>>> {
+    let mut assembly = Assembly::default();
+    let mut keep = Vec::with_capacity(polys.len());
+    for p in polys {
+        let before = assembly.reduce_count();
+        assembly.add_to_reduce(Bits::ONE, usize::MAX, p);
+        keep.push(assembly.reduce_count() > before);
+    }
+    assembly.preprocess(reducers, control)?;
+    let matrix = assembly.finish(order);
+    let mut dense = matrix.dense_reduce_rows(control, 0)?;
+    linalg::reduce_by_pivots(&mut dense, &matrix.pivots, control, &mut Work(0))?;
+    let mut rows = (0..dense.rows).map(|i| matrix.row_monomials(dense.row(i)));
+    Ok(keep
+        .into_iter()
+        .map(|k| if k { rows.next().unwrap() } else { Vec::new() })
+        .collect())
+}
