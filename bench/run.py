@@ -14,7 +14,7 @@ import time
 
 HERE = pathlib.Path(__file__).resolve().parent
 ROOT = HERE.parent
-RUST_BENCHES: list[str] = ["bench_f4", "bench_hilbert", "bench_boolean"]
+RUST_BENCHES: list[str] = ["bench_f4", "bench_hilbert", "bench_boolean", "bench_projection"]
 
 
 def run(title: str, cmd: list[str]) -> bool:

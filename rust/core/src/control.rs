@@ -3,13 +3,19 @@
 //! Engines call [`Control::check`] often (once per reduction step or matrix row). The check is
 //! cheap: a counter, and every few thousand calls a clock read; the caller's interrupt callback
 //! (e.g. one that asks Python whether Ctrl-C was pressed) runs at most every `poll_interval`.
+//!
+//! Memory: a computation has a budget in bytes (by default a fraction of the machine's memory).
+//! Every allocation whose size depends on the input is announced first with
+//! [`Control::check_memory`] (or made through [`Control::try_vec`]), which ends the computation
+//! in [`Error::ResourceLimit`] naming what was being built, instead of letting the allocation
+//! abort the process or exhaust the machine.
 
 use crate::error::{Error, Result};
 use std::sync::atomic::{AtomicBool, AtomicU64, Ordering};
-use std::sync::Mutex;
+use std::sync::{Arc, Mutex, OnceLock};
 use std::time::{Duration, Instant};
 
-type InterruptFn = Box<dyn Fn() -> bool + Send + Sync>;
+type InterruptFn = Arc<dyn Fn() -> bool + Send + Sync>;
 
 /// Limits a caller may put on one computation; `None` means unlimited.
 #[derive(Clone, Debug, Default, PartialEq, Eq)]
@@ -26,9 +32,75 @@ pub struct Control {
     interrupt: Option<InterruptFn>,
     pub limits: Limits,
     calls: AtomicU64,
-    stopped: AtomicBool,
+    /// Shared with the children of this control, so that a stop reaches them all.
+    stopped: Arc<AtomicBool>,
     last_poll: Mutex<Instant>,
     poll_interval: Duration,
+    /// Bytes the big allocations of this computation may hold at once; `None`: no budget.
+    memory_budget: Option<u64>,
+}
+
+/// The fraction of the machine's memory a computation may use when its caller set no budget.
+const DEFAULT_BUDGET_FRACTION: f64 = 0.75;
+
+/// The default memory budget: three quarters of the machine's memory where it can be read
+/// (Linux: /proc/meminfo), else none.
+pub fn default_memory_budget() -> Option<u64> {
+    static BUDGET: OnceLock<Option<u64>> = OnceLock::new();
+    *BUDGET.get_or_init(|| {
+        let info = std::fs::read_to_string("/proc/meminfo").ok()?;
+        let line = info.lines().find(|l| l.starts_with("MemTotal:"))?;
+        let kib: u64 = line.split_whitespace().nth(1)?.parse().ok()?;
+        Some((kib as f64 * 1024.0 * DEFAULT_BUDGET_FRACTION) as u64)
+    })
+}
+
+/// `ResourceLimit` for an allocation of `bytes` for `what` over `budget`.
+fn over_budget(bytes: u64, what: &str, budget: u64) -> Error {
+    Error::ResourceLimit(format!(
+        "memory budget of {} exceeded: {what} needs about {}",
+        format_bytes(budget),
+        format_bytes(bytes)
+    ))
+}
+
+/// Bytes in the largest unit that keeps a number ≥ 1 (binary units, as memory is counted).
+pub fn format_bytes(bytes: u64) -> String {
+    const UNITS: [&str; 5] = ["bytes", "KiB", "MiB", "GiB", "TiB"];
+    let mut value = bytes as f64;
+    let mut unit = 0;
+    while value >= 1024.0 && unit + 1 < UNITS.len() {
+        value /= 1024.0;
+        unit += 1;
+    }
+    if unit == 0 {
+        format!("{bytes} bytes")
+    } else {
+        format!("{value:.1} {}", UNITS[unit])
+    }
+}
+
+/// The memory check for code that has no [`Control`] (polynomial arithmetic called directly):
+/// against the default budget.
+pub fn check_memory_default(bytes: u64, what: &str) -> Result<()> {
+    match default_memory_budget() {
+        Some(budget) if bytes > budget => Err(over_budget(bytes, what, budget)),
+        _ => Ok(()),
+    }
+}
+
+/// A vector with room for `len` items, or `ResourceLimit` naming `what` when the allocator
+/// refuses it (the request is larger than the machine can give).
+pub fn try_with_capacity<T>(len: usize, what: &str) -> Result<Vec<T>> {
+    let mut v = Vec::new();
+    v.try_reserve_exact(len).map_err(|_| {
+        let bytes = (len as u64).saturating_mul(std::mem::size_of::<T>() as u64);
+        Error::ResourceLimit(format!(
+            "out of memory: {what} needs about {}",
+            format_bytes(bytes)
+        ))
+    })?;
+    Ok(v)
 }
 
 impl Default for Control {
@@ -44,15 +116,57 @@ impl Control {
             interrupt: None,
             limits: Limits::default(),
             calls: AtomicU64::new(0),
-            stopped: AtomicBool::new(false),
+            stopped: Arc::new(AtomicBool::new(false)),
             last_poll: Mutex::new(Instant::now()),
             poll_interval: Duration::from_millis(20),
+            memory_budget: default_memory_budget(),
         }
+    }
+
+    /// A control for one part of this computation with other limits (e.g. a degree bound on a
+    /// trial basis that may be abandoned): the same interruption, stop flag and memory budget.
+    pub fn child(&self, limits: Limits) -> Control {
+        Control {
+            interrupt: self.interrupt.clone(),
+            limits,
+            calls: AtomicU64::new(0),
+            stopped: Arc::clone(&self.stopped),
+            last_poll: Mutex::new(Instant::now()),
+            poll_interval: self.poll_interval,
+            memory_budget: self.memory_budget,
+        }
+    }
+
+    /// A budget of `bytes` for the big allocations of this computation.
+    pub fn with_memory_budget(mut self, bytes: u64) -> Self {
+        self.memory_budget = Some(bytes);
+        self
+    }
+
+    pub fn memory_budget(&self) -> Option<u64> {
+        self.memory_budget
+    }
+
+    /// The one call before a big allocation: `ResourceLimit` when `bytes` for `what` (e.g.
+    /// "a 120000 x 450000 matrix at step 7") would exceed the memory budget.
+    pub fn check_memory(&self, bytes: u64, what: &str) -> Result<()> {
+        match self.memory_budget {
+            Some(budget) if bytes > budget => Err(over_budget(bytes, what, budget)),
+            _ => Ok(()),
+        }
+    }
+
+    /// A vector with room for `len` items of `T`, after [`Control::check_memory`], made with a
+    /// fallible allocation: never an abort.
+    pub fn try_vec<T>(&self, len: usize, what: &str) -> Result<Vec<T>> {
+        let bytes = (len as u64).saturating_mul(std::mem::size_of::<T>() as u64);
+        self.check_memory(bytes, what)?;
+        try_with_capacity(len, what)
     }
 
     /// `interrupt` returns true when the computation must stop.
     pub fn with_interrupt(mut self, interrupt: impl Fn() -> bool + Send + Sync + 'static) -> Self {
-        self.interrupt = Some(Box::new(interrupt));
+        self.interrupt = Some(Arc::new(interrupt));
         self
     }
 

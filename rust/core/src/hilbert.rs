@@ -14,7 +14,10 @@
 //! R/I and R/in(I) have the same Hilbert function for homogeneous I and any order (Macaulay
 //! 1927); for non-homogeneous I a degree-compatible order gives the *affine* Hilbert function
 //! s ↦ dim_k R_{≤s}/I_{≤s}, whose series is H(R/in(I)) / (1 - t) (Cox, Little, O'Shea 1992, §9.3).
-//! Coefficients are `i128`; overflow is reported as [`Error::Overflow`], never wrapped.
+//! The recursion and the cancellation of factors (1 - t) run on big integers, since the first
+//! numerator of an ideal in many variables has binomial coefficients far beyond any machine
+//! word ((1 - t)^132 for 132 linear forms) while the reduced series is small; the results are
+//! `i128`, and a result beyond that range is reported as [`Error::Overflow`], never wrapped.
 
 use crate::control::Control;
 use crate::error::{Error, Result};
@@ -23,6 +26,8 @@ use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
+use num_bigint::BigInt;
+use num_traits::{One, ToPrimitive, Zero};
 
 fn overflow() -> Error {
     Error::Overflow("Hilbert series: a coefficient exceeds the 128-bit integer range".into())
@@ -39,18 +44,29 @@ pub struct HilbertSeries {
     pub affine: bool,
 }
 
+/// A first numerator N(t) of H = N(t) / (1 - t)^n, coefficient of t^i at index i.
+type BigNumerator = Vec<BigInt>;
+
 impl HilbertSeries {
     /// From the first numerator N(t) of H = N(t) / (1 - t)^n, cancelling factors (1 - t).
-    pub fn from_first_numerator(mut numerator: Vec<i128>, n: usize, affine: bool) -> Result<Self> {
-        trim(&mut numerator);
+    pub fn from_first_numerator(numerator: Vec<i128>, n: usize, affine: bool) -> Result<Self> {
+        Self::from_big_numerator(numerator.into_iter().map(BigInt::from).collect(), n, affine)
+    }
+
+    fn from_big_numerator(mut numerator: BigNumerator, n: usize, affine: bool) -> Result<Self> {
+        trim_big(&mut numerator);
         let mut d = n as u32 + u32::from(affine);
-        while d > 0 && !numerator.is_empty() && sum(&numerator)? == 0 {
-            numerator = divide_by_one_minus_t(&numerator)?;
+        while d > 0 && !numerator.is_empty() && numerator.iter().sum::<BigInt>().is_zero() {
+            numerator = divide_by_one_minus_t(&numerator);
             d -= 1;
         }
         if numerator.is_empty() {
             d = 0;
         }
+        let numerator = numerator
+            .iter()
+            .map(|c| c.to_i128().ok_or_else(overflow))
+            .collect::<Result<Vec<_>>>()?;
         Ok(HilbertSeries {
             numerator,
             denominator_exponent: d,
@@ -58,9 +74,19 @@ impl HilbertSeries {
         })
     }
 
+    /// Whether this is the series of the graded Hilbert function s ↦ dim_k (R/I)_s (homogeneous
+    /// ideal); otherwise it is the affine one, s ↦ dim_k R_{≤s}/I_{≤s}. A point shows the
+    /// difference: (x, y) has the graded series 1, (x - 1, y) the affine series 1/(1 - t).
+    pub fn graded(&self) -> bool {
+        !self.affine
+    }
+
     /// The degree (multiplicity) h(1): for a zero-dimensional ideal, dim_k R/I.
     pub fn degree(&self) -> Result<i128> {
-        sum(&self.numerator)
+        self.numerator
+            .iter()
+            .try_fold(0i128, |a, b| a.checked_add(*b))
+            .ok_or_else(overflow)
     }
 
     /// Krull dimension of R/I: d for a graded series, d - 1 for an affine one; -1 for the unit
@@ -89,38 +115,40 @@ impl HilbertSeries {
     /// The Hilbert polynomial P(s) = Σ_i h_i · C(s - i + d - 1, d - 1) as reduced fractions
     /// (numerator, denominator), the coefficient of s^j at index j; empty when P = 0.
     pub fn polynomial(&self) -> Result<Vec<(i128, i128)>> {
-        let (scaled, denom) = self.scaled_polynomial()?;
-        Ok(scaled
+        let (scaled, denom) = self.scaled_polynomial();
+        scaled
             .into_iter()
-            .map(|c| reduce_fraction(c, denom))
-            .collect())
+            .map(|c| {
+                let g = num_integer::Integer::gcd(&c, &denom).max(BigInt::one());
+                let (num, den) = (&c / &g, &denom / &g);
+                Ok((
+                    num.to_i128().ok_or_else(overflow)?,
+                    den.to_i128().ok_or_else(overflow)?,
+                ))
+            })
+            .collect()
     }
 
     /// (d - 1)! · P(s) with integer coefficients, and (d - 1)!.
-    fn scaled_polynomial(&self) -> Result<(Vec<i128>, i128)> {
-        let d = self.denominator_exponent as i128;
+    fn scaled_polynomial(&self) -> (Vec<BigInt>, BigInt) {
+        let d = i64::from(self.denominator_exponent);
         if d == 0 {
-            return Ok((vec![], 1));
+            return (vec![], BigInt::one());
         }
-        let mut total: Vec<i128> = vec![0; d as usize];
+        let mut total: Vec<BigInt> = vec![BigInt::zero(); d as usize];
         for (i, &h) in self.numerator.iter().enumerate() {
             // ∏_{j=0}^{d-2} (s + d - 1 - i - j) = (d-1)! · C(s - i + d - 1, d - 1).
-            let mut factor: Vec<i128> = vec![1];
+            let mut factor: Vec<BigInt> = vec![BigInt::one()];
             for j in 0..d - 1 {
-                factor = times_linear(&factor, d - 1 - i as i128 - j)?;
+                factor = times_linear(&factor, d - 1 - i as i64 - j);
             }
             for (k, c) in factor.iter().enumerate() {
-                total[k] = c
-                    .checked_mul(h)
-                    .and_then(|v| v.checked_add(total[k]))
-                    .ok_or_else(overflow)?;
+                total[k] += c * h;
             }
         }
-        trim(&mut total);
-        let factorial = (1..d)
-            .try_fold(1i128, |a, b| a.checked_mul(b))
-            .ok_or_else(overflow)?;
-        Ok((total, factorial))
+        trim_big(&mut total);
+        let factorial = (1..d).map(BigInt::from).product();
+        (total, factorial)
     }
 
     /// The least s0 ≥ 0 with HF(s) = P(s) for every s ≥ s0 (equality is certain from
@@ -131,94 +159,102 @@ impl HilbertSeries {
         if last_possible < 0 {
             return Ok(0);
         }
-        let values = self.coefficients(last_possible as usize + 1)?;
-        let (scaled, denom) = self.scaled_polynomial()?;
+        let values = self.big_coefficients(last_possible as usize + 1);
+        let (scaled, denom) = self.scaled_polynomial();
         for s in (0..=last_possible).rev() {
-            let p = evaluate(&scaled, s as i128)?;
-            if values[s as usize].checked_mul(denom).ok_or_else(overflow)? != p {
+            let p = scaled
+                .iter()
+                .rev()
+                .fold(BigInt::zero(), |acc, c| acc * s + c);
+            if &values[s as usize] * &denom != p {
                 return Ok(s as u64 + 1);
             }
         }
         Ok(0)
     }
+
+    /// The first `count` values of the Hilbert function as big integers.
+    fn big_coefficients(&self, count: usize) -> Vec<BigInt> {
+        let mut c: Vec<BigInt> = (0..count)
+            .map(|i| BigInt::from(self.numerator.get(i).copied().unwrap_or(0)))
+            .collect();
+        for _ in 0..self.denominator_exponent {
+            for i in 1..count {
+                let previous = c[i - 1].clone();
+                c[i] += previous;
+            }
+        }
+        c
+    }
 }
 
-fn trim(p: &mut Vec<i128>) {
-    while p.last() == Some(&0) {
+fn trim_big(p: &mut Vec<BigInt>) {
+    while p.last().is_some_and(|c| c.is_zero()) {
         p.pop();
     }
 }
 
-fn sum(p: &[i128]) -> Result<i128> {
-    p.iter()
-        .try_fold(0i128, |a, b| a.checked_add(*b))
-        .ok_or_else(overflow)
-}
-
-fn evaluate(p: &[i128], s: i128) -> Result<i128> {
-    p.iter()
-        .rev()
-        .try_fold(0i128, |acc, c| {
-            acc.checked_mul(s).and_then(|v| v.checked_add(*c))
-        })
-        .ok_or_else(overflow)
-}
-
 /// p(s) · (s + a).
-fn times_linear(p: &[i128], a: i128) -> Result<Vec<i128>> {
-    let mut out = vec![0i128; p.len() + 1];
+fn times_linear(p: &[BigInt], a: i64) -> Vec<BigInt> {
+    let mut out = vec![BigInt::zero(); p.len() + 1];
     for (k, c) in p.iter().enumerate() {
-        out[k] = c
-            .checked_mul(a)
-            .and_then(|v| v.checked_add(out[k]))
-            .ok_or_else(overflow)?;
-        out[k + 1] = out[k + 1].checked_add(*c).ok_or_else(overflow)?;
+        out[k] += c * a;
+        out[k + 1] += c;
     }
-    Ok(out)
+    out
 }
 
 /// p / (1 - t) for p with p(1) = 0: the quotient's coefficients are the partial sums of p.
-fn divide_by_one_minus_t(p: &[i128]) -> Result<Vec<i128>> {
+fn divide_by_one_minus_t(p: &[BigInt]) -> Vec<BigInt> {
     let mut out = Vec::with_capacity(p.len());
-    let mut acc = 0i128;
+    let mut acc = BigInt::zero();
     for c in &p[..p.len() - 1] {
-        acc = acc.checked_add(*c).ok_or_else(overflow)?;
-        out.push(acc);
+        acc += c;
+        out.push(acc.clone());
     }
-    trim(&mut out);
-    Ok(out)
+    trim_big(&mut out);
+    out
 }
 
-fn gcd(a: i128, b: i128) -> i128 {
-    if b == 0 {
-        a.abs()
-    } else {
-        gcd(b, a % b)
-    }
-}
-
-fn reduce_fraction(num: i128, den: i128) -> (i128, i128) {
-    let g = gcd(num, den).max(1);
-    (num / g, den / g)
-}
-
-/// Dense polynomials in t for the recursion.
-fn add_shifted(a: &mut Vec<i128>, b: &[i128], shift: usize) -> Result<()> {
-    if a.len() < b.len() + shift {
-        a.resize(b.len() + shift, 0);
+/// a += t^shift · b, growing `a` as needed (within the memory budget).
+fn add_shifted(a: &mut BigNumerator, b: &[BigInt], shift: usize, control: &Control) -> Result<()> {
+    let len = b.len().saturating_add(shift);
+    if a.len() < len {
+        reserve_numerator(a, len, control)?;
+        a.resize(len, BigInt::zero());
     }
     for (k, c) in b.iter().enumerate() {
-        a[k + shift] = a[k + shift].checked_add(*c).ok_or_else(overflow)?;
+        if !c.is_zero() {
+            a[k + shift] += c;
+        }
     }
     Ok(())
 }
 
+/// Room for a dense numerator of `len` coefficients: its degree comes from the input's
+/// exponents (x^4294967295 gives one of 2^32 coefficients), so it is announced first.
+fn reserve_numerator(a: &mut BigNumerator, len: usize, control: &Control) -> Result<()> {
+    let what = format!("a Hilbert series numerator of degree {}", len - 1);
+    let bytes = (len as u64).saturating_mul(std::mem::size_of::<BigInt>() as u64);
+    control.check_memory(bytes, &what)?;
+    a.try_reserve_exact(len - a.len()).map_err(|_| {
+        Error::ResourceLimit(format!(
+            "out of memory: {what} needs about {}",
+            crate::control::format_bytes(bytes)
+        ))
+    })
+}
+
 /// ∏ (1 - t^e) over the given degrees.
-fn product_of_one_minus(degrees: impl Iterator<Item = u32>) -> Result<Vec<i128>> {
-    let mut p = vec![1i128];
+fn product_of_one_minus(
+    degrees: impl Iterator<Item = u32>,
+    control: &Control,
+) -> Result<BigNumerator> {
+    let mut p = vec![BigInt::one()];
     for e in degrees {
-        let shifted: Vec<i128> = p.iter().map(|c| -c).collect();
-        add_shifted(&mut p, &shifted, e as usize)?;
+        control.check()?;
+        let shifted: Vec<BigInt> = p.iter().map(|c| -c).collect();
+        add_shifted(&mut p, &shifted, e as usize, control)?;
     }
     Ok(p)
 }
@@ -280,13 +316,13 @@ fn choose_pivot(gens: &Gens, n: usize) -> (usize, u32) {
 }
 
 /// First numerator N(t) of the Hilbert series of R/M, M generated by `gens` (minimal).
-fn first_numerator(gens: Gens, n: usize, control: &Control) -> Result<Vec<i128>> {
+fn first_numerator(gens: Gens, n: usize, control: &Control) -> Result<BigNumerator> {
     control.check()?;
     if gens.iter().any(|m| m.iter().all(|&e| e == 0)) {
         return Ok(vec![]);
     }
     if pairwise_coprime(&gens, n) {
-        return product_of_one_minus(gens.iter().map(|m| degree_of(m) as u32));
+        return product_of_one_minus(gens.iter().map(|m| degree_of(m) as u32), control);
     }
     let (var, e) = choose_pivot(&gens, n);
     let colon: Gens = gens
@@ -303,8 +339,8 @@ fn first_numerator(gens: Gens, n: usize, control: &Control) -> Result<Vec<i128>>
     sum_ideal.push(pivot);
     let mut result = first_numerator(sum_ideal, n, control)?;
     let colon_part = first_numerator(minimalize(colon), n, control)?;
-    add_shifted(&mut result, &colon_part, e as usize)?;
-    trim(&mut result);
+    add_shifted(&mut result, &colon_part, e as usize, control)?;
+    trim_big(&mut result);
     Ok(result)
 }
 
@@ -324,7 +360,7 @@ pub fn monomial_ideal_series(
         .map(|m| used.iter().map(|&i| m[i]).collect())
         .collect();
     let numerator = first_numerator(gens, used.len(), control)?;
-    let mut series = HilbertSeries::from_first_numerator(numerator, used.len(), affine)?;
+    let mut series = HilbertSeries::from_big_numerator(numerator, used.len(), affine)?;
     if !series.numerator.is_empty() {
         series.denominator_exponent += (n - used.len()) as u32;
     }

@@ -4,6 +4,7 @@
 //! zero coefficients; all arithmetic goes through the [`Ring`], which knows the field, the
 //! variable names and the order.
 
+use crate::control::{check_memory_default, try_with_capacity, Control};
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::monomial::Monomial;
@@ -278,25 +279,71 @@ impl<F: Field> Ring<F> {
         Ok(Poly { terms: terms? })
     }
     pub fn mul(&self, f: &Poly<F>, g: &Poly<F>) -> Result<Poly<F>> {
+        self.mul_checked(f, g, None)
+    }
+
+    /// f·g under the memory budget of `control`, interruptible.
+    pub fn mul_within(&self, f: &Poly<F>, g: &Poly<F>, control: &Control) -> Result<Poly<F>> {
+        self.mul_checked(f, g, Some(control))
+    }
+
+    fn mul_checked(&self, f: &Poly<F>, g: &Poly<F>, control: Option<&Control>) -> Result<Poly<F>> {
         let (small, large) = if f.len() <= g.len() { (f, g) } else { (g, f) };
-        let mut products = Vec::with_capacity(f.len() * g.len());
+        let count = small.len().saturating_mul(large.len());
+        let what = format!(
+            "a product of polynomials with {} and {} terms",
+            f.len(),
+            g.len()
+        );
+        check_bytes::<F>(count as u64, &what, control)?;
+        let mut products = try_with_capacity(count, &what)?;
         for (m, c) in &small.terms {
+            if let Some(control) = control {
+                control.check()?;
+            }
             for (n, d) in &large.terms {
                 products.push((m.mul(n)?, self.field.mul(c, d)));
             }
         }
         Ok(self.from_terms(products))
     }
-    pub fn pow(&self, f: &Poly<F>, mut e: u64) -> Result<Poly<F>> {
+
+    pub fn pow(&self, f: &Poly<F>, e: u64) -> Result<Poly<F>> {
+        self.pow_checked(f, e, None)
+    }
+
+    /// f^e under the memory budget of `control`, interruptible.
+    pub fn pow_within(&self, f: &Poly<F>, e: u64, control: &Control) -> Result<Poly<F>> {
+        self.pow_checked(f, e, Some(control))
+    }
+
+    /// Square and multiply, after two checks that need no arithmetic: the degree of f^e must fit
+    /// an exponent, and the number of terms it can have must fit the memory budget.
+    fn pow_checked(&self, f: &Poly<F>, mut e: u64, control: Option<&Control>) -> Result<Poly<F>> {
+        if e == 0 {
+            return Ok(self.one());
+        }
+        let degree = u64::from(f.degree().unwrap_or(0));
+        if degree.saturating_mul(e) > u64::from(u32::MAX) {
+            return Err(Error::Overflow(format!(
+                "a polynomial of degree {degree} to the power {e} has degree above 2^32 - 1"
+            )));
+        }
+        let terms = power_size(f, e);
+        let what = format!("a polynomial of {} terms to the power {e}", f.len());
+        check_bytes::<F>(terms, &what, control)?;
         let mut base = f.clone();
         let mut acc = self.one();
         while e > 0 {
+            if let Some(control) = control {
+                control.check()?;
+            }
             if e & 1 == 1 {
-                acc = self.mul(&acc, &base)?;
+                acc = self.mul_checked(&acc, &base, control)?;
             }
             e >>= 1;
             if e > 0 {
-                base = self.mul(&base, &base)?;
+                base = self.mul_checked(&base, &base, control)?;
             }
         }
         Ok(acc)
@@ -333,25 +380,60 @@ impl<F: Field> Ring<F> {
     /// Replaces each variable i by `images[i]` (a polynomial of the ring `target`), by Horner-free
     /// term expansion with cached powers.
     pub fn substitute(&self, f: &Poly<F>, images: &[Poly<F>], target: &Ring<F>) -> Result<Poly<F>> {
+        self.substitute_checked(f, images, target, None)
+    }
+
+    /// The same under the memory budget of `control`, interruptible.
+    pub fn substitute_within(
+        &self,
+        f: &Poly<F>,
+        images: &[Poly<F>],
+        target: &Ring<F>,
+        control: &Control,
+    ) -> Result<Poly<F>> {
+        self.substitute_checked(f, images, target, Some(control))
+    }
+
+    fn substitute_checked(
+        &self,
+        f: &Poly<F>,
+        images: &[Poly<F>],
+        target: &Ring<F>,
+        control: Option<&Control>,
+    ) -> Result<Poly<F>> {
         if images.len() != self.nvars() {
             return Err(Error::invalid("substitution needs one image per variable"));
         }
+        let terms = substitution_size(f, images, target.nvars());
+        check_bytes::<F>(terms, "a substitution", control)?;
+        // Powers up to this exponent are cached (x·x^k from x^k); higher ones are computed by
+        // squaring, so that x^(2^32 - 1) never fills a cache with 2^32 powers.
+        const CACHED: u32 = 64;
         let mut powers: Vec<Vec<Poly<F>>> = images
             .iter()
             .map(|g| vec![target.one(), g.clone()])
             .collect();
         let mut acc = Poly::zero();
         for (m, c) in &f.terms {
+            if let Some(control) = control {
+                control.check()?;
+            }
             let mut t = target.constant(c.clone());
             for (i, &e) in m.exponents().iter().enumerate() {
                 if e == 0 {
                     continue;
                 }
+                if e > CACHED {
+                    let power = target.pow_checked(&images[i], u64::from(e), control)?;
+                    t = target.mul_checked(&t, &power, control)?;
+                    continue;
+                }
                 while powers[i].len() <= e as usize {
-                    let next = target.mul(powers[i].last().unwrap(), &images[i])?;
+                    let next =
+                        target.mul_checked(powers[i].last().unwrap(), &images[i], control)?;
                     powers[i].push(next);
                 }
-                t = target.mul(&t, &powers[i][e as usize])?;
+                t = target.mul_checked(&t, &powers[i][e as usize], control)?;
             }
             acc = target.add(&acc, &t);
         }
@@ -394,6 +476,80 @@ impl<F: Field> Ring<F> {
         }
         out
     }
+}
+
+/// Announces `terms` terms of polynomials over F for `what` to the memory budget.
+fn check_bytes<F: Field>(terms: u64, what: &str, control: Option<&Control>) -> Result<()> {
+    let bytes = terms.saturating_mul(std::mem::size_of::<(Monomial, F::Elem)>() as u64);
+    match control {
+        Some(control) => control.check_memory(bytes, what),
+        None => check_memory_default(bytes, what),
+    }
+}
+
+/// The number of monomials of degree at most `degree` in `n` variables, C(n + degree, n),
+/// saturating at u64::MAX.
+pub fn monomials_up_to(n: usize, degree: u64) -> u64 {
+    let mut count: u128 = 1;
+    for k in 1..=n as u128 {
+        match count.checked_mul(u128::from(degree) + k) {
+            Some(product) if product / k <= u128::from(u64::MAX) => count = product / k,
+            _ => return u64::MAX,
+        }
+    }
+    count as u64
+}
+
+/// The variables that occur in f.
+fn support<F: Field>(f: &Poly<F>) -> usize {
+    let n = f.terms.first().map_or(0, |(m, _)| m.nvars());
+    (0..n)
+        .filter(|&i| f.terms.iter().any(|(m, _)| m.exponents()[i] > 0))
+        .count()
+}
+
+/// An upper bound on the number of terms of f^e: at most C(|f| + e - 1, e) products of e terms,
+/// and at most the monomials of degree e·deg f in the variables of f.
+pub fn power_size<F: Field>(f: &Poly<F>, e: u64) -> u64 {
+    if f.len() <= 1 {
+        return f.len() as u64;
+    }
+    let by_degree = monomials_up_to(
+        support(f),
+        e.saturating_mul(u64::from(f.degree().unwrap_or(0))),
+    );
+    let by_products = {
+        // C(e + |f| - 1, |f| - 1), saturating.
+        let mut count: u128 = 1;
+        for k in 1..f.len() as u128 {
+            match count.checked_mul(u128::from(e) + k) {
+                Some(product) if product / k <= u128::from(u64::MAX) => count = product / k,
+                _ => return by_degree,
+            }
+        }
+        count as u64
+    };
+    by_degree.min(by_products)
+}
+
+/// An upper bound on the number of terms of f with x_i replaced by `images[i]`: each term x^α
+/// gives at most Π |image_i|^α_i terms, and the result has at most the monomials of its degree
+/// in `n` variables.
+pub fn substitution_size<F: Field>(f: &Poly<F>, images: &[Poly<F>], n: usize) -> u64 {
+    let mut degree = 0u64;
+    let mut products = 0u64;
+    for (m, _) in &f.terms {
+        let mut term_degree = 0u64;
+        let mut count = 1u64;
+        for (&e, image) in m.exponents().iter().zip(images) {
+            let image_degree = u64::from(image.degree().unwrap_or(0));
+            term_degree = term_degree.saturating_add(u64::from(e).saturating_mul(image_degree));
+            count = count.saturating_mul((image.len() as u64).max(1).saturating_pow(e));
+        }
+        degree = degree.max(term_degree);
+        products = products.saturating_add(count);
+    }
+    products.min(monomials_up_to(n, degree))
 }
 
 /// A coefficient text that needs no parentheses after a sign or before `*`.

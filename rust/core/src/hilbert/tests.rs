@@ -157,12 +157,8 @@ fn bezout_complete_intersections() {
         let product: i128 = degrees.iter().map(|&d| d as i128).product();
         assert_eq!(s.degree().unwrap(), product, "degrees {degrees:?}");
         assert_eq!(s.dimension(), (n - degrees.len()) as i64);
-        let expected = HilbertSeries::from_first_numerator(
-            product_of_one_minus(degrees.iter().copied()).unwrap(),
-            n,
-            false,
-        )
-        .unwrap();
+        let numerator = product_of_one_minus(degrees.iter().copied(), &Control::new()).unwrap();
+        let expected = HilbertSeries::from_big_numerator(numerator, n, false).unwrap();
         assert_eq!(s, expected);
     }
 }
@@ -240,11 +236,61 @@ fn zero_dimensional_affine_ideal_counts_solutions_with_multiplicity() {
 }
 
 #[test]
-fn overflow_is_an_error() {
-    // (x_1, ..., x_140): numerator (1 - t)^140 has the coefficient C(140, 70) > 2^127.
+fn many_variables_need_big_intermediate_coefficients() {
+    // (x_1, ..., x_140): the first numerator (1 - t)^140 has the coefficient C(140, 70) > 2^127,
+    // but the series of a point is 1. 132 generic linear forms in 132 variables: one point,
+    // degree 1 (Bézout; a linear system of full rank has one solution).
     let leads: Vec<Monomial> = (0..140).map(|i| Monomial::var_power(140, i, 1)).collect();
-    let err = monomial_ideal_series(140, &leads, false, &Control::new()).unwrap_err();
-    assert!(matches!(err, Error::Overflow(_)), "{err}");
+    let series = monomial_ideal_series(140, &leads, false, &Control::new()).unwrap();
+    assert_eq!(
+        (series.numerator.clone(), series.denominator_exponent),
+        (vec![1], 0)
+    );
+    let r = numbered_ring_32003(132);
+    let mut rng = Lcg(132);
+    let gens: Vec<_> = (0..132).map(|_| random_form(&r, 1, &mut rng)).collect();
+    let series = hilbert_series(&r, &gens, Engine::default(), &Control::new()).unwrap();
+    assert_eq!(series.degree().unwrap(), 1);
+    assert_eq!(series.dimension(), 0);
+    // The ideal (0) in 140 variables: 1/(1 - t)^140, degree 1; its Hilbert polynomial
+    // C(s + 139, 139) has coefficients with denominators 139!, beyond 128 bits: an error.
+    let zero = monomial_ideal_series(140, &[], false, &Control::new()).unwrap();
+    assert_eq!(zero.degree().unwrap(), 1);
+    assert!(matches!(zero.polynomial(), Err(Error::Overflow(_))));
+}
+
+#[test]
+fn graded_or_affine_says_which_function() {
+    // (x, y) is homogeneous: the graded function of a point is 1, 0, 0, ...; (x - 1, y) is
+    // not: the affine function s -> dim R_{<=s}/I_{<=s} of a point is 1, 1, 1, ... (Cox,
+    // Little, O'Shea, §9.3, from memory).
+    let r = ring(&["x", "y"]);
+    let graded = series_of(&r, &["x", "y"]);
+    assert!(graded.graded());
+    assert_eq!(
+        (graded.numerator.clone(), graded.denominator_exponent),
+        (vec![1], 0)
+    );
+    let affine = series_of(&r, &["x - 1", "y"]);
+    assert!(!affine.graded());
+    assert_eq!(
+        (affine.numerator.clone(), affine.denominator_exponent),
+        (vec![1], 1)
+    );
+    assert_eq!(graded.degree().unwrap(), affine.degree().unwrap());
+}
+
+#[test]
+fn a_huge_exponent_is_a_resource_limit_not_an_abort() {
+    // The leading ideal of x^4294967295 - 1: the numerator 1 - t^(2^32 - 1) would need 2^32
+    // coefficients.
+    let leads = [Monomial::var_power(1, 0, u32::MAX)];
+    let control = Control::new().with_memory_budget(1 << 30);
+    let err = monomial_ideal_series(1, &leads, false, &control).unwrap_err();
+    assert!(
+        matches!(err, Error::ResourceLimit(ref m) if m.contains("Hilbert series numerator")),
+        "{err}"
+    );
 }
 
 #[test]

@@ -10,12 +10,12 @@
 
 use super::changes::Change;
 use super::charpoly::characteristic_polynomial;
-use super::finiteness::{generic_rank, standard_monomials, Proof};
+use super::division::normal_form;
+use super::finiteness::{generic_rank, standard_monomials, Proof, MAX_MODULE_GENERATORS};
 use super::{FiniteProjection, Strategy};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
-use crate::groebner::{groebner_basis, reduce::normal_form, Engine};
 use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
@@ -42,15 +42,56 @@ pub fn taken_names<F: Field>(ring: &Ring<F>) -> Vec<String> {
     taken
 }
 
-/// Everything but the search: the certificate from the change and the basis that proved it.
-pub fn build<F: Field>(
+/// A finite projection with every claim but the monic equations, and the basis that proves
+/// it: the equations come from that basis on first use ([`Projection::equations`]), since they
+/// can cost far more than everything else and most callers never read them.
+#[derive(Clone, Debug)]
+pub struct Projection<F: Field> {
+    /// The certificate without its equations (`equations` is empty).
+    summary: FiniteProjection<F>,
+    proof: Proof<F>,
+    standard: Vec<Monomial>,
+}
+
+impl<F: Field> Projection<F> {
+    /// Every claim but the equations (its `equations` list is empty).
+    pub fn summary(&self) -> &FiniteProjection<F> {
+        &self.summary
+    }
+
+    /// For every original variable, its monic equation [1, c_{m-1}, ..., c_0] over k[t].
+    pub fn equations(&self, control: &Control) -> Result<Vec<Vec<Poly<F>>>> {
+        let module = Module::new(
+            &self.proof,
+            &self.summary.parameter_ring,
+            self.standard.clone(),
+        );
+        self.proof
+            .images
+            .iter()
+            .map(|e| module.equation(e, control))
+            .collect()
+    }
+
+    /// The whole certificate, equations included.
+    pub fn into_certificate(self, control: &Control) -> Result<FiniteProjection<F>> {
+        let equations = self.equations(control)?;
+        Ok(FiniteProjection {
+            equations,
+            ..self.summary
+        })
+    }
+}
+
+/// Everything but the search and the equations: the summary from the change and the basis that
+/// proved it.
+pub fn summary<F: Field>(
     ring: &Ring<F>,
     change: &Change<F>,
-    proof: &Proof<F>,
-    strategy: Strategy,
+    proof: Proof<F>,
     homogeneous: bool,
     control: &Control,
-) -> Result<FiniteProjection<F>> {
+) -> Result<Projection<F>> {
     let d = change.params.len();
     let symbols = fresh_symbols("t", d, &taken_names(ring));
     let parameter_ring = Ring::new(ring.field.clone(), symbols.clone(), MonomialOrder::Grevlex)?;
@@ -64,7 +105,13 @@ pub fn build<F: Field>(
     let inverse = inverse_map(ring, change, &coordinate_ring)?;
 
     let leads = proof.leading_monomials();
-    let standard = standard_monomials(&leads, &proof.nonparam_pos, proof.ring.nvars(), control)?;
+    let standard = standard_monomials(
+        &leads,
+        &proof.nonparam_pos,
+        proof.ring.nvars(),
+        MAX_MODULE_GENERATORS,
+        control,
+    )?;
     let rank = generic_rank(&leads, &standard, &proof.nonparam_pos)?;
     let module_generators = standard
         .iter()
@@ -76,13 +123,7 @@ pub fn build<F: Field>(
             Ok(ring.term(Monomial::from_exponents(e)?, ring.field.one()))
         })
         .collect::<Result<Vec<_>>>()?;
-    let module = Module::new(proof, &parameter_ring, standard);
-    let equations = proof
-        .images
-        .iter()
-        .map(|e| module.equation(e, control))
-        .collect::<Result<Vec<_>>>()?;
-    Ok(FiniteProjection {
+    let summary = FiniteProjection {
         ring: ring.clone(),
         dimension: d,
         parameters,
@@ -90,16 +131,21 @@ pub fn build<F: Field>(
         coordinates,
         coordinate_ring,
         inverse,
-        equations,
+        equations: Vec::new(),
         module_generators,
         rank,
-        strategy,
+        strategy: Strategy::of_change(change),
         homogeneous,
+    };
+    Ok(Projection {
+        summary,
+        proof,
+        standard,
     })
 }
 
 /// x_{s_j} = y_j - h_j(y_N), x_b = y_b, written in the coordinate ring (parameters first).
-fn inverse_map<F: Field>(
+pub(super) fn inverse_map<F: Field>(
     ring: &Ring<F>,
     change: &Change<F>,
     coords: &Ring<F>,
@@ -117,7 +163,7 @@ fn inverse_map<F: Field>(
 }
 
 /// R/I as a module over k[T] on the standard monomials of a proof.
-struct Module<'a, F: Field> {
+pub(super) struct Module<'a, F: Field> {
     proof: &'a Proof<F>,
     params: &'a Ring<F>,
     standard: Vec<Monomial>,
@@ -128,7 +174,7 @@ struct Module<'a, F: Field> {
 }
 
 impl<'a, F: Field> Module<'a, F> {
-    fn new(proof: &'a Proof<F>, params: &'a Ring<F>, standard: Vec<Monomial>) -> Self {
+    pub(super) fn new(proof: &'a Proof<F>, params: &'a Ring<F>, standard: Vec<Monomial>) -> Self {
         let index = standard
             .iter()
             .enumerate()
@@ -169,7 +215,7 @@ impl<'a, F: Field> Module<'a, F> {
     }
 
     /// A monic equation [1, c_{m-1}, ..., c_0] over k[T] for the element `e` of the proof ring.
-    fn equation(&self, e: &Poly<F>, control: &Control) -> Result<Vec<Poly<F>>> {
+    pub(super) fn equation(&self, e: &Poly<F>, control: &Control) -> Result<Vec<Poly<F>>> {
         if let Some(t) = self.in_parameters(e)? {
             return Ok(vec![self.params.one(), self.params.neg(&t)]);
         }
@@ -184,14 +230,18 @@ impl<'a, F: Field> Module<'a, F> {
     }
 
     /// The matrix A over k[T] with e·b_j = Σ_k A[j][k] b_k modulo I.
-    fn multiplication_matrix(&self, e: &Poly<F>, control: &Control) -> Result<Vec<Vec<Poly<F>>>> {
+    pub(super) fn multiplication_matrix(
+        &self,
+        e: &Poly<F>,
+        control: &Control,
+    ) -> Result<Vec<Vec<Poly<F>>>> {
         let ring = &self.proof.ring;
         let r = self.standard.len();
         let mut matrix = Vec::with_capacity(r);
         for b in &self.standard {
             control.check()?;
             let product = ring.mul_term(e, &ring.field.one(), b)?;
-            let nf = self.normal_form(&product)?;
+            let nf = self.normal_form(&product, control)?;
             let mut row: Vec<Vec<(Monomial, F::Elem)>> = vec![Vec::new(); r];
             for (m, c) in nf.terms() {
                 let (x, t) = self.split(m)?;
@@ -220,7 +270,7 @@ impl<'a, F: Field> Module<'a, F> {
     }
 
     /// The normal form of `f` modulo the proof's basis, term by term from the cache.
-    fn normal_form(&self, f: &Poly<F>) -> Result<Poly<F>> {
+    fn normal_form(&self, f: &Poly<F>, control: &Control) -> Result<Poly<F>> {
         let ring = &self.proof.ring;
         let mut cache = self.normal_forms.borrow_mut();
         // Most products e·b have one term: then the sum is that term's scaled normal form, with
@@ -229,7 +279,8 @@ impl<'a, F: Field> Module<'a, F> {
         for (m, c) in f.terms() {
             if !cache.contains_key(m) {
                 let term = ring.term(m.clone(), ring.field.one());
-                cache.insert(m.clone(), normal_form(ring, &term, &self.proof.basis)?);
+                let nf = normal_form(ring, &term, &self.proof.basis, control)?;
+                cache.insert(m.clone(), nf);
             }
             let scaled = ring.scale(&cache[m], c);
             sum = Some(match sum {
@@ -238,6 +289,24 @@ impl<'a, F: Field> Module<'a, F> {
             });
         }
         Ok(sum.unwrap_or_else(Poly::zero))
+    }
+
+    /// Whether Σ_k w_k·b_k, with w_k in k[T] and b_k the standard monomials, lies in the ideal.
+    pub(super) fn combination_is_zero(&self, w: &[Poly<F>], control: &Control) -> Result<bool> {
+        let ring = &self.proof.ring;
+        let n = ring.nvars();
+        let mut terms = Vec::new();
+        for (wk, b) in w.iter().zip(&self.standard) {
+            for (t, c) in wk.terms() {
+                let (e, params) = (t.exponents(), &self.proof.param_pos);
+                let lift = Monomial::from_exponent_fn(n, |i| {
+                    params.iter().position(|&p| p == i).map_or(0, |k| e[k])
+                })?;
+                terms.push((lift.mul(b)?, c.clone()));
+            }
+        }
+        let sum = ring.from_terms(terms);
+        Ok(normal_form(ring, &sum, &self.proof.basis, control)?.is_zero())
     }
 
     /// A basis element in k[T][x] monic in x, when `e` is the non-parameter variable x: it is an
@@ -301,152 +370,7 @@ fn single_variable<F: Field>(f: &Poly<F>) -> Option<usize> {
     }
 }
 
-/// Whether x^m + c_{m-1}(p) x^{m-1} + ... + c_0(p) lies in the ideal of the basis `gb`, by
-/// Horner's rule with a normal form after every step: NF(NF(a)·x + c) = NF(a·x + c), and the
-/// intermediate normal forms stay small where the expanded equation would not.
-fn reduces_to_zero<F: Field>(
-    gb: &crate::groebner::ReducedBasis<F>,
-    params: &Ring<F>,
-    parameters: &[Poly<F>],
-    variable: usize,
-    coefficients: &[Poly<F>],
-) -> Result<bool> {
-    let ring = &gb.ring;
-    let x = ring.var(variable);
-    let mut acc = Poly::zero();
-    for c in coefficients {
-        let c = params.substitute(c, parameters, ring)?;
-        acc = gb.reduce(&ring.add(&ring.mul(&acc, &x)?, &c))?;
-    }
-    Ok(acc.is_zero())
-}
-
 impl<F: Field> FiniteProjection<F> {
-    /// Re-checks the certificate from the ideal generated by `gens` alone, independently of the
-    /// search: every equation is monic and vanishes modulo I once t_j := p_j, the coordinates
-    /// and their inverse compose to the identity both ways, the first d coordinates are the
-    /// parameters, and d is the dimension of R/I. Monic equations for every variable make R/I
-    /// finite over k[p]; d = dim R/I then forces k[p] -> R/I to be injective. Returns the list
-    /// of problems found (empty when the certificate holds).
-    pub fn verify(&self, gens: &[Poly<F>], control: &Control) -> Result<Vec<String>> {
-        let mut problems = self.shape_problems();
-        if !problems.is_empty() {
-            return Ok(problems);
-        }
-        problems.extend(self.composition_problems()?);
-        let grevlex = self.ring.with_order(MonomialOrder::Grevlex)?;
-        let gens: Vec<Poly<F>> = gens.iter().map(|g| grevlex.adopt(g.clone())).collect();
-        let gb = groebner_basis(&grevlex, &gens, Engine::default(), control)?;
-        let dim = crate::dimension::krull_dimension(self.ring.nvars(), &gb.leading_monomials());
-        if dim < 0 {
-            problems.push("the ideal is the unit ideal: it has no Noether normalization".into());
-            return Ok(problems);
-        }
-        if dim != self.dimension as i64 {
-            problems.push(format!(
-                "d = {} but the ideal has dimension {dim}",
-                self.dimension
-            ));
-        }
-        for (i, coefficients) in self.equations.iter().enumerate() {
-            control.check()?;
-            let name = &self.ring.names()[i];
-            if !coefficients
-                .first()
-                .is_some_and(|c| *c == self.parameter_ring.one())
-            {
-                problems.push(format!(
-                    "the equation for {name} is not monic: its first coefficient must be 1"
-                ));
-                continue;
-            }
-            let params: Vec<Poly<F>> = self
-                .parameters
-                .iter()
-                .map(|p| grevlex.adopt(p.clone()))
-                .collect();
-            if !reduces_to_zero(&gb, &self.parameter_ring, &params, i, coefficients)? {
-                problems.push(format!("the equation for {name} does not lie in the ideal"));
-            }
-        }
-        if self.module_generators.is_empty() {
-            problems.push("no module generators".into());
-        } else if self.rank > self.module_generators.len() {
-            problems.push(format!(
-                "rank {} exceeds the number of module generators {}",
-                self.rank,
-                self.module_generators.len()
-            ));
-        }
-        Ok(problems)
-    }
-
-    /// Counts that must agree before anything is computed.
-    fn shape_problems(&self) -> Vec<String> {
-        let (n, d) = (self.ring.nvars(), self.dimension);
-        let mut problems = Vec::new();
-        if self.parameters.len() != d || self.parameter_ring.nvars() != d {
-            problems.push(format!(
-                "d = {d} but there are {} parameters and {} parameter symbols",
-                self.parameters.len(),
-                self.parameter_ring.nvars()
-            ));
-        }
-        if self.equations.len() != n {
-            problems.push(format!(
-                "{} equations for {n} variables: every variable needs one",
-                self.equations.len()
-            ));
-        }
-        if self.coordinates.len() != n
-            || self.inverse.len() != n
-            || self.coordinate_ring.nvars() != n
-        {
-            problems.push(format!(
-                "{} coordinates, {} inverse images and {} coordinate symbols for {n} variables",
-                self.coordinates.len(),
-                self.inverse.len(),
-                self.coordinate_ring.nvars()
-            ));
-        } else if self.coordinates[..d.min(n)]
-            != self.parameters[..d.min(n).min(self.parameters.len())]
-        {
-            problems.push("the first d coordinates are not the parameters".into());
-        }
-        problems
-    }
-
-    /// inverse ∘ coordinates = identity on the original variables, and the other way round.
-    fn composition_problems(&self) -> Result<Vec<String>> {
-        let mut problems = Vec::new();
-        for (i, g) in self.inverse.iter().enumerate() {
-            let back = self
-                .coordinate_ring
-                .substitute(g, &self.coordinates, &self.ring)?;
-            if back != self.ring.var(i) {
-                problems.push(format!(
-                    "inverse image of {} composed with the coordinates gives {}, not {}",
-                    self.ring.names()[i],
-                    self.ring.format(&back),
-                    self.ring.names()[i]
-                ));
-            }
-        }
-        for (j, y) in self.coordinates.iter().enumerate() {
-            let back = self
-                .ring
-                .substitute(y, &self.inverse, &self.coordinate_ring)?;
-            if back != self.coordinate_ring.var(j) {
-                problems.push(format!(
-                    "coordinate {} composed with the inverse gives {}",
-                    self.coordinate_ring.names()[j],
-                    self.coordinate_ring.format(&back)
-                ));
-            }
-        }
-        Ok(problems)
-    }
-
     /// Generators of the fiber over a point τ of k^d: I + (p_1 - τ_1, ..., p_d - τ_d).
     /// Its vector-space dimension is at most the number of module generators.
     pub fn fiber(&self, gens: &[Poly<F>], point: &[F::Elem]) -> Result<Vec<Poly<F>>> {
@@ -509,6 +433,12 @@ impl<F: Field> FiniteProjection<F> {
             .map_err(|_| format!("d = {} is negative", text.dimension))?;
         let rank =
             usize::try_from(text.rank).map_err(|_| format!("rank {} is negative", text.rank))?;
+        let strategy = Strategy::from_name(&text.strategy).ok_or_else(|| {
+            format!(
+                "strategy '{}' is not one of variables, linear, nonlinear",
+                text.strategy
+            )
+        })?;
         let symbols_ring = |names: &[String], what: &str| {
             Ring::new(ring.field.clone(), names.to_vec(), MonomialOrder::Grevlex)
                 .map_err(|e| format!("{what}: {e}"))
@@ -553,22 +483,8 @@ impl<F: Field> FiniteProjection<F> {
             parameter_ring,
             coordinate_ring,
             rank,
-            strategy: Strategy::from_name(&text.strategy).unwrap_or(Strategy::Nonlinear),
+            strategy,
             homogeneous: text.homogeneous,
         })
-    }
-}
-
-/// Checks a saved certificate against the ideal generated by `gens`: the list of problems
-/// (empty when it holds), unreadable entries included.
-pub fn check_certificate<F: Field>(
-    ring: &Ring<F>,
-    gens: &[Poly<F>],
-    text: &CertificateText,
-    control: &Control,
-) -> Result<Vec<String>> {
-    match FiniteProjection::from_text(ring, text) {
-        Ok(nn) => nn.verify(gens, control),
-        Err(problem) => Ok(vec![problem]),
     }
 }

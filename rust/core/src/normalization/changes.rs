@@ -9,6 +9,7 @@
 //! composition keeps this shape because each step only shifts the variables still to be
 //! parameters by powers of a variable that stops being one.
 
+use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
 use crate::order::MonomialOrder;
@@ -124,9 +125,10 @@ impl<F: Field> Coordinates<F> {
         ring: &Ring<F>,
         gens: &[Poly<F>],
         target: &Ring<F>,
+        control: &Control,
     ) -> Result<Vec<Poly<F>>> {
         gens.iter()
-            .map(|g| ring.substitute(g, &self.images, target))
+            .map(|g| ring.substitute_within(g, &self.images, target, control))
             .collect()
     }
 }
@@ -155,6 +157,53 @@ pub fn sparse_linear<F: Field>(
     }
 }
 
+/// Nonlinear changes x_{s_j} + Σ_b x_b^{e_jb} with b among `targets` and exponents
+/// 0 (absent) to `max_exponent`, smallest exponents first (by largest, then total exponent),
+/// at least one exponent above 1, at most `limit` of them: Nagata's substitutions with the
+/// small exponents that usually suffice tried before the large ones that always do.
+pub fn small_powers<F: Field>(
+    ring: &Ring<F>,
+    params: &[usize],
+    targets: &[usize],
+    max_exponent: u32,
+    limit: usize,
+) -> Vec<Change<F>> {
+    let n = ring.nvars();
+    let slots = params.len() * targets.len();
+    let base = u64::from(max_exponent) + 1;
+    let Some(count) = u32::try_from(slots).ok().and_then(|s| base.checked_pow(s)) else {
+        return Vec::new();
+    };
+    if count > ENUMERATION_LIMIT {
+        return Vec::new();
+    }
+    let mut patterns: Vec<Vec<u32>> = (0..count)
+        .map(|k| digits(k, base, slots).map(|e| e as u32).collect())
+        .filter(|p: &Vec<u32>| p.iter().any(|&e| e > 1))
+        .collect();
+    patterns.sort_by_key(|p| (p.iter().copied().max(), p.iter().sum::<u32>()));
+    patterns
+        .into_iter()
+        .take(limit)
+        .map(|p| {
+            let shifts = (0..params.len())
+                .map(|j| {
+                    let terms = targets.iter().enumerate().filter_map(|(k, &b)| {
+                        let e = p[j * targets.len() + k];
+                        (e > 0).then(|| (crate::Monomial::var_power(n, b, e), ring.field.one()))
+                    });
+                    ring.from_terms(terms)
+                })
+                .collect();
+            Change {
+                params: params.to_vec(),
+                nonparams: complement(params, n),
+                shifts,
+            }
+        })
+        .collect()
+}
+
 /// Dense random linear change: each parameter is x_{s_j} plus a random combination of all
 /// non-parameters.
 pub fn dense_linear<F: Field>(ring: &Ring<F>, params: &[usize], rng: &mut Rng) -> Change<F> {
@@ -177,4 +226,72 @@ pub fn dense_linear<F: Field>(ring: &Ring<F>, params: &[usize], rng: &mut Rng) -
         nonparams,
         shifts,
     }
+}
+
+/// Most coefficient vectors enumerated before sorting by weight.
+const ENUMERATION_LIMIT: u64 = 1 << 16;
+/// Fields up to this size are enumerated; larger ones draw random linear forms, which succeed
+/// with good probability there (Schwartz 1980, Zippel 1979).
+pub const TINY_FIELD: u64 = 16;
+
+/// Over a field of q ≤ [`TINY_FIELD`] elements with q^(d·(n - d)) small: the linear changes
+/// x_{s_j} + Σ_b c_jb x_b, fewest nonzero coefficients c first and coefficients 1 before others
+/// (the variables themselves left out), at most `limit` of them; `None` when the field is too large to enumerate.
+pub fn enumerated_linear<F: Field>(
+    ring: &Ring<F>,
+    params: &[usize],
+    limit: usize,
+) -> Option<Vec<Change<F>>> {
+    let n = ring.nvars();
+    let nonparams = complement(params, n);
+    let slots = params.len() * nonparams.len();
+    let q = field_size(&ring.field).filter(|&q| q <= TINY_FIELD)?;
+    let count = q.checked_pow(u32::try_from(slots).ok()?)?;
+    if count > ENUMERATION_LIMIT {
+        return None;
+    }
+    let elements = ring.field.small_elements(q as usize)?;
+    let mut vectors: Vec<Vec<usize>> = (1..count)
+        .map(|k| digits(k, q, slots).map(|x| x as usize).collect())
+        .collect();
+    // Fewest terms first, and among those the ones with coefficients 1 (index 1 is the
+    // element 1): a scaled shift rarely succeeds where the unscaled one failed.
+    vectors.sort_by_key(|v| {
+        let weight = v.iter().filter(|&&x| x != 0).count();
+        (weight, v.iter().filter(|&&x| x > 1).count())
+    });
+    let changes = vectors
+        .into_iter()
+        .take(limit)
+        .map(|v| {
+            let shifts = params
+                .iter()
+                .enumerate()
+                .map(|(j, _)| {
+                    let terms = nonparams.iter().enumerate().map(|(k, &b)| {
+                        (
+                            crate::Monomial::var_power(n, b, 1),
+                            elements[v[j * nonparams.len() + k]].clone(),
+                        )
+                    });
+                    ring.from_terms(terms)
+                })
+                .collect();
+            Change {
+                params: params.to_vec(),
+                nonparams: nonparams.clone(),
+                shifts,
+            }
+        })
+        .collect();
+    Some(changes)
+}
+
+/// The `len` lowest digits of k in base `base`, least significant first.
+fn digits(mut k: u64, base: u64, len: usize) -> impl Iterator<Item = u64> {
+    (0..len).map(move |_| {
+        let digit = k % base;
+        k /= base;
+        digit
+    })
 }

@@ -22,24 +22,31 @@
 pub mod certificate;
 pub mod changes;
 pub mod charpoly;
+pub mod check;
+pub mod division;
 pub mod finiteness;
 pub mod nagata;
 pub mod scalars;
 
 #[cfg(test)]
+mod check_tests;
+#[cfg(test)]
 mod tests;
 
-use crate::control::Control;
+use crate::control::{Control, Limits};
 use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
-use changes::{complement, dense_linear, field_size, sparse_linear, Change, Rng};
+use changes::{
+    complement, dense_linear, enumerated_linear, field_size, sparse_linear, Change, Rng,
+};
 use finiteness::{missing_pure_powers, proof_from_basis, test_change, Proof, Test};
 
-pub use certificate::{check_certificate, CertificateText};
+pub use certificate::{CertificateText, Projection};
+pub use check::check_certificate;
 
 /// The kind of coordinate change that produced the parameters.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -55,6 +62,16 @@ impl Strategy {
             Strategy::Variables => "variables",
             Strategy::Linear => "linear",
             Strategy::Nonlinear => "nonlinear",
+        }
+    }
+    /// The kind of a change: the variables themselves, linear forms, or anything else.
+    pub fn of_change<F: Field>(change: &Change<F>) -> Self {
+        if change.is_identity() {
+            Strategy::Variables
+        } else if change.is_linear() {
+            Strategy::Linear
+        } else {
+            Strategy::Nonlinear
         }
     }
     pub fn from_name(name: &str) -> Option<Self> {
@@ -133,8 +150,14 @@ const DENSE_TRIES: usize = 3;
 /// Extra random linear tries for homogeneous input over a field too small for the probability
 /// bound: homogeneous linear parameters are preferred when they exist over the field.
 const SMALL_FIELD_HOMOGENEOUS_TRIES: usize = 4;
-/// Independent sets tested with an elimination basis when the free test fails.
-const VARIABLE_SET_TRIES: usize = 2;
+/// A trial elimination basis may reach this multiple of the input's and grevlex basis's degree.
+const TRIAL_DEGREE_FACTOR: u32 = 2;
+/// Largest exponent of the cheap nonlinear shifts tried before Nagata's search.
+const SMALL_POWER_LIMIT: u32 = 4;
+/// Most of those shifts tried (each costs one grevlex basis).
+const SMALL_POWER_TRIES: usize = 400;
+/// Most linear changes enumerated over a small field (each costs a basis or two).
+const ENUMERATED_LINEAR_TRIES: usize = 32;
 /// Largest number of maximal independent sets examined by the free test.
 const INDEPENDENT_SET_LIMIT: usize = 64;
 
@@ -158,10 +181,24 @@ pub fn noether_normalization_from<F: Field>(
     options: &Options,
     control: &Control,
 ) -> Result<FiniteProjection<F>> {
+    project(ring, gens, grevlex_basis, options, control)?.into_certificate(control)
+}
+
+/// The projection without its equations: parameters, coordinates, rank, module generators and
+/// strategy from the grevlex basis and the basis that proves finiteness, about the cost of one
+/// basis when the variables or a linear change work. [`Projection::equations`] computes the
+/// monic equations from the same proof when they are wanted.
+pub fn project<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    grevlex_basis: Option<Vec<Poly<F>>>,
+    options: &Options,
+    control: &Control,
+) -> Result<Projection<F>> {
     let mut search = Search::new(ring, gens, grevlex_basis, options, control)?;
-    let (change, proof, strategy) = search.run()?;
+    let (change, proof) = search.run()?;
     let homogeneous = search.homogeneous && change.is_linear();
-    certificate::build(ring, &change, &proof, strategy, homogeneous, control)
+    certificate::summary(ring, &change, proof, homogeneous, control)
 }
 
 /// State shared by the stages of the search.
@@ -203,7 +240,8 @@ impl<'a, F: Field> Search<'a, F> {
                 "Noether normalization of the unit ideal: the system has no solutions over the algebraic closure",
             ));
         }
-        let homogeneous = gens.iter().all(|g| g.is_homogeneous());
+        // A property of the ideal, read off its reduced grevlex basis (generators need not show it).
+        let homogeneous = grevlex.polys.iter().all(|g| g.is_homogeneous());
         Ok(Search {
             ring,
             gens,
@@ -216,46 +254,52 @@ impl<'a, F: Field> Search<'a, F> {
         })
     }
 
-    fn run(&mut self) -> Result<(Change<F>, Proof<F>, Strategy)> {
+    fn run(&mut self) -> Result<(Change<F>, Proof<F>)> {
         let request = self.options.request;
         // With d = 0 or d = n the variables are the only sensible answer, whatever was asked,
         // and the free test always finds them.
         let trivial = self.dimension == 0 || self.dimension == self.ring.nvars();
         if request.allows(Strategy::Variables) || trivial {
-            if let Some((change, proof)) = self.free_variables() {
-                return Ok((change, proof, Strategy::Variables));
+            if let Some(found) = self.free_variables() {
+                return Ok(found);
             }
         }
-        let candidates = self.candidates();
         let gens = self.gens_grevlex();
         let ring = self.grevlex.ring.clone();
-        // Every candidate first in grevlex, where a proof costs one cheap basis; the
-        // elimination order, exact but often a thousand times dearer, only when all fail.
-        for (change, strategy) in &candidates {
-            if self.is_basis_at_hand(change) {
-                continue;
+        // The simplest kind first (the variables of every independent set, then linear
+        // changes); within a kind every candidate first in grevlex, where a proof costs one
+        // cheap basis, and in the elimination order, exact but often a thousand times dearer,
+        // only when all fail.
+        for group in self.candidates() {
+            for change in &group {
+                if self.is_basis_at_hand(change) {
+                    continue;
+                }
+                if let Some(proof) = test_change(&ring, &gens, change, Test::Grevlex, self.control)?
+                {
+                    return Ok((change.clone(), proof));
+                }
             }
-            if let Some(proof) = test_change(&ring, &gens, change, Test::Grevlex, self.control)? {
-                return Ok((change.clone(), proof, *strategy));
-            }
-        }
-        for (change, strategy) in &candidates {
-            if self.grevlex_decides(change) {
-                continue;
-            }
-            let test = Test::Elimination;
-            if let Some(proof) = test_change(&ring, &gens, change, test, self.control)? {
-                return Ok((change.clone(), proof, *strategy));
+            // A trial elimination basis may climb far above the degrees of the grevlex one;
+            // past a bound it is abandoned as a failed candidate (the next kind may be cheap).
+            let bounded = self.control.child(Limits {
+                max_degree: Some(self.trial_degree_bound()),
+                ..self.control.limits.clone()
+            });
+            for change in &group {
+                if self.grevlex_decides(change) {
+                    continue;
+                }
+                let test = Test::Elimination;
+                match test_change(&ring, &gens, change, test, &bounded) {
+                    Ok(Some(proof)) => return Ok((change.clone(), proof)),
+                    Ok(None) | Err(Error::ResourceLimit(_)) => {}
+                    Err(e) => return Err(e),
+                }
             }
         }
         if request.allows(Strategy::Nonlinear) {
-            let (change, proof) = self.by_nagata()?;
-            let strategy = if change.is_linear() {
-                Strategy::Linear
-            } else {
-                Strategy::Nonlinear
-            };
-            return Ok((change, proof, strategy));
+            return self.by_nagata();
         }
         Err(Error::invalid(format!(
             "no Noether normalization of kind '{}' was found; use strategy 'auto' or 'nonlinear'",
@@ -264,6 +308,23 @@ impl<'a, F: Field> Search<'a, F> {
                 Request::Auto => "auto",
             }
         )))
+    }
+
+    /// The highest degree a trial elimination basis may reach: twice the largest degree of
+    /// the input and of its grevlex basis (or the caller's own bound when lower).
+    fn trial_degree_bound(&self) -> u32 {
+        let largest = self
+            .gens
+            .iter()
+            .chain(&self.grevlex.polys)
+            .filter_map(|g| g.degree())
+            .max()
+            .unwrap_or(1);
+        let bound = largest.saturating_mul(TRIAL_DEGREE_FACTOR).max(2);
+        self.control
+            .limits
+            .max_degree
+            .map_or(bound, |own| own.min(bound))
     }
 
     fn leads(&self) -> Vec<crate::Monomial> {
@@ -294,40 +355,43 @@ impl<'a, F: Field> Search<'a, F> {
         Some((Change::variables(&set, n), proof))
     }
 
-    /// The changes the request allows, simplest first: the variables of the first independent
-    /// sets, then sparse linear shifts, then dense random linear forms.
-    fn candidates(&mut self) -> Vec<(Change<F>, Strategy)> {
+    /// The changes the request allows in two groups, simplest first: the variables of every
+    /// maximal independent set (they are few), then linear changes: sparse shifts and, over a
+    /// field small enough, every linear form by increasing number of terms (dense ones
+    /// included), else dense random linear forms when the field is large enough for them.
+    fn candidates(&mut self) -> Vec<Vec<Change<F>>> {
         let request = self.options.request;
         let (n, d) = (self.ring.nvars(), self.dimension);
-        let mut list = Vec::new();
         let sets = self.independent_sets();
+        let mut variables = Vec::new();
         if request.allows(Strategy::Variables) {
-            for set in sets.iter().take(VARIABLE_SET_TRIES) {
-                list.push((Change::variables(set, n), Strategy::Variables));
-            }
+            variables.extend(sets.iter().map(|set| Change::variables(set, n)));
         }
+        let mut linear = Vec::new();
         if !request.allows(Strategy::Linear) || d == 0 || d == n {
-            return list;
+            return vec![variables, linear];
         }
         let params = sets
             .into_iter()
             .next()
             .unwrap_or_else(|| ((n - d)..n).collect());
+        let ring = &self.grevlex.ring;
+        if let Some(all) = enumerated_linear(ring, &params, ENUMERATED_LINEAR_TRIES) {
+            linear.extend(all);
+            return vec![variables, linear];
+        }
         let nonparams = complement(&params, n);
         let mut targets = missing_pure_powers(&self.leads(), &nonparams);
         if targets.is_empty() {
             targets = nonparams;
         }
-        let ring = &self.grevlex.ring;
         for round in 0..SPARSE_TRIES.min(targets.len().max(1) + 1) {
-            let change = sparse_linear(ring, &params, &targets, round, &mut self.rng);
-            list.push((change, Strategy::Linear));
+            linear.push(sparse_linear(ring, &params, &targets, round, &mut self.rng));
         }
         for _ in 0..self.dense_tries() {
-            let change = dense_linear(ring, &params, &mut self.rng);
-            list.push((change, Strategy::Linear));
+            linear.push(dense_linear(ring, &params, &mut self.rng));
         }
-        list
+        vec![variables, linear]
     }
 
     /// The grevlex basis in the coordinates of `change` is the one at hand (the parameters are
@@ -375,12 +439,60 @@ impl<'a, F: Field> Search<'a, F> {
         }
     }
 
+    /// Nagata-like shifts with the smallest exponents first, x_{s_j} + Σ_b x_b^{e_jb} over the
+    /// non-parameters b lacking a pure power ([`changes::small_powers`]), each tested by one
+    /// grevlex basis: Nagata's search through elimination bases below can cost far more (its
+    /// exponents grow fast), and small exponents usually suffice.
+    fn small_powers(
+        &mut self,
+        ring: &Ring<F>,
+        gens: &[Poly<F>],
+    ) -> Result<Option<(Change<F>, Proof<F>)>> {
+        let (n, d) = (self.ring.nvars(), self.dimension);
+        if d == 0 || d == n {
+            return Ok(None);
+        }
+        let params = self
+            .independent_sets()
+            .into_iter()
+            .next()
+            .unwrap_or_else(|| ((n - d)..n).collect());
+        let nonparams = complement(&params, n);
+        let mut targets = missing_pure_powers(&self.leads(), &nonparams);
+        if targets.is_empty() {
+            targets = nonparams;
+        }
+        let candidates = changes::small_powers(
+            ring,
+            &params,
+            &targets,
+            SMALL_POWER_LIMIT,
+            SMALL_POWER_TRIES,
+        );
+        for change in candidates {
+            if let Some(proof) = test_change(ring, gens, &change, Test::Grevlex, self.control)? {
+                return Ok(Some((change, proof)));
+            }
+        }
+        Ok(None)
+    }
+
     /// Nagata's substitutions, proved in grevlex when it can, else in the elimination order.
     fn by_nagata(&mut self) -> Result<(Change<F>, Proof<F>)> {
         let ring = self.grevlex.ring.clone();
         let gens = self.gens_grevlex();
+        if let Some(found) = self.small_powers(&ring, &gens)? {
+            return Ok(found);
+        }
         let change =
             nagata::nagata_change(&ring, &gens, self.dimension, &mut self.rng, self.control)?;
+        if change.parameter_degree() > check::MAX_PARAMETER_DEGREE {
+            return Err(Error::ResourceLimit(format!(
+                "Noether normalization: Nagata's substitution needs parameters of degree {}, above {}",
+                change.parameter_degree(),
+                check::MAX_PARAMETER_DEGREE
+            )));
+        }
         for test in [Test::Grevlex, Test::Elimination] {
             if let Some(proof) = test_change(&ring, &gens, &change, test, self.control)? {
                 return Ok((change, proof));

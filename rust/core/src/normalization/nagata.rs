@@ -58,15 +58,18 @@ pub fn nagata_change<F: Field>(
         })?;
         let mut images: Vec<Poly<F>> = (0..n).map(|i| elim.var(i)).collect();
         for (u, c, e) in &step.shifts {
-            let power = elim.pow(&elim.var(step.v), u64::from(*e))?;
+            let power = elim.pow_within(&elim.var(step.v), u64::from(*e), control)?;
             images[*u] = elim.add(&images[*u], &elim.scale(&power, c));
-            let shift = ring.scale(&ring.pow(&coords[step.v], u64::from(*e))?, c);
+            let shift = ring.scale(
+                &ring.pow_within(&coords[step.v], u64::from(*e), control)?,
+                c,
+            );
             coords[*u] = ring.sub(&coords[*u], &shift);
         }
         current = gb
             .polys
             .iter()
-            .map(|g| elim.substitute(g, &images, &elim))
+            .map(|g| elim.substitute_within(g, &images, &elim, control))
             .collect::<Result<_>>()?;
         rest.retain(|&i| i != step.v);
         integral.push(step.v);

@@ -5,14 +5,14 @@ use super::*;
 use crate::field::PrimeField;
 use crate::parse::parse_poly;
 
-type P = Poly<PrimeField>;
+pub(super) type P = Poly<PrimeField>;
 
-fn ring(p: u64, vars: &[&str]) -> Ring<PrimeField> {
+pub(super) fn ring(p: u64, vars: &[&str]) -> Ring<PrimeField> {
     let names = vars.iter().map(|s| s.to_string()).collect();
     Ring::new(PrimeField::new(p).unwrap(), names, MonomialOrder::Grevlex).unwrap()
 }
 
-fn polys(r: &Ring<PrimeField>, texts: &[&str]) -> Vec<P> {
+pub(super) fn polys(r: &Ring<PrimeField>, texts: &[&str]) -> Vec<P> {
     texts.iter().map(|t| parse_poly(r, t).unwrap()).collect()
 }
 
@@ -38,15 +38,10 @@ fn over_variables(
     let proof = finiteness::test_change(r, gens, &change, test, &Control::new())
         .unwrap()
         .unwrap();
-    certificate::build(
-        r,
-        &change,
-        &proof,
-        Strategy::Variables,
-        false,
-        &Control::new(),
-    )
-    .unwrap()
+    certificate::summary(r, &change, proof, false, &Control::new())
+        .unwrap()
+        .into_certificate(&Control::new())
+        .unwrap()
 }
 
 fn vector_space_dimension(r: &Ring<PrimeField>, gens: &[P]) -> usize {
@@ -55,9 +50,15 @@ fn vector_space_dimension(r: &Ring<PrimeField>, gens: &[P]) -> usize {
         return 0;
     }
     let all: Vec<usize> = (0..r.nvars()).collect();
-    standard_monomials(&gb.leading_monomials(), &all, r.nvars(), &Control::new())
-        .unwrap()
-        .len()
+    standard_monomials(
+        &gb.leading_monomials(),
+        &all,
+        r.nvars(),
+        100_000,
+        &Control::new(),
+    )
+    .unwrap()
+    .len()
 }
 
 #[test]
@@ -354,4 +355,96 @@ fn random_ideals_verify_over_small_and_large_primes() {
     }
     assert!(seen_dims.len() >= 3, "{seen_dims:?}");
     assert!(strategies.len() >= 2, "{strategies:?}");
+}
+
+#[test]
+fn every_independent_set_is_tried_before_a_linear_change() {
+    // Over GF(2), f = (x^2 - x)(y^2 - y)z + xy - z^2 is monic in z of degree 2 over k[x, y]
+    // (its z-terms are -z^2 and a multiple of z), so the surface is finite over the (x, y)
+    // plane; the grevlex leading term x^2y^2z hides it, and {x, y} is the last of the three
+    // independent sets.
+    let r = ring(2, &["x", "y", "z"]);
+    let gens = polys(&r, &["(x^2 - x)*(y^2 - y)*z + x*y - z^2"]);
+    let nn = normalize(&r, &gens);
+    assert_eq!(nn.strategy, Strategy::Variables);
+    assert_eq!(nn.parameters, polys(&r, &["x", "y"]));
+    assert_eq!(nn.rank, 2);
+    assert_verifies(&nn, &gens);
+}
+
+#[test]
+fn tiny_fields_enumerate_linear_forms_before_going_nonlinear() {
+    // Over GF(2), (x^2 y - x y^2 + z, z^2 - x y) is a curve finite over k[x + y + z]: with
+    // p = x + y + z, z = p - x - y and the first equation becomes monic in x and y after
+    // elimination; no single variable works. A linear form must be found, not a nonlinear one.
+    let r = ring(2, &["x", "y", "z"]);
+    let gens = polys(&r, &["x^2*y - x*y^2 + z", "z^2 - x*y"]);
+    let nn = normalize(&r, &gens);
+    assert_eq!(nn.dimension, 1);
+    assert_eq!(nn.strategy, Strategy::Linear, "{:?}", nn.to_text());
+    assert_verifies(&nn, &gens);
+    // x + y + z itself is a finite parameter (the elimination-order test).
+    let change = changes::Change {
+        params: vec![2],
+        nonparams: vec![0, 1],
+        shifts: polys(&r, &["x + y"]),
+    };
+    let proof = finiteness::test_change(
+        &r,
+        &gens,
+        &change,
+        finiteness::Test::Elimination,
+        &Control::new(),
+    );
+    assert!(proof.unwrap().is_some());
+}
+
+#[test]
+fn small_exponents_first_on_a_sparse_system_over_gf7() {
+    // Two sparse equations in four variables over GF(7) (a random batch job) on which Nagata's
+    // search through elimination bases ran for minutes: no linear parameters are found over
+    // GF(7), a shift with exponents at most 4 is (each candidate one grevlex basis). The
+    // summary (no equations) is checked against the fibre over a point: at most as many
+    // points, with multiplicity, as module generators.
+    let r = ring(7, &["v0", "v1", "v2", "v3"]);
+    let gens = polys(
+        &r,
+        &[
+            "4*v2*v3^2 + 12*v0^3*v1^2*v3 + 26*v0^2*v1^3*v2^3",
+            "43*v1^2*v2^2*v3^3 + 4*v0^2*v1^3*v2*v3^2",
+        ],
+    );
+    let projection = project(&r, &gens, None, &Options::default(), &Control::new()).unwrap();
+    let summary = projection.summary();
+    assert_eq!(summary.dimension, 2);
+    assert_eq!(summary.strategy, Strategy::Nonlinear);
+    assert!(summary.parameters.iter().all(|p| p.degree().unwrap() <= 4));
+    assert!(summary.rank <= summary.module_generators.len());
+    let fiber = vector_space_dimension(&r, &summary.fiber(&gens, &[3, 5]).unwrap());
+    assert!(fiber <= summary.module_generators.len());
+}
+
+#[test]
+fn lazy_equations_equal_eager_ones() {
+    // The summary and the equations computed apart give the certificate computed at once.
+    let cases: [(u64, &[&str], &[&str]); 3] = [
+        (
+            32003,
+            &["x", "y", "z", "w"],
+            &["x*z - y^2", "y*w - z^2", "x*w - y*z"],
+        ),
+        (7, &["x", "y"], &["x^7*y - x*y^7"]),
+        (65521, &["x", "y", "z"], &["x*y - z^2 + 1", "x^2 - y*z"]),
+    ];
+    for (p, vars, texts) in cases {
+        let r = ring(p, vars);
+        let gens = polys(&r, texts);
+        let eager = normalize(&r, &gens);
+        let projection = project(&r, &gens, None, &Options::default(), &Control::new()).unwrap();
+        assert!(projection.summary().equations.is_empty());
+        let lazy = projection.equations(&Control::new()).unwrap();
+        assert_eq!(lazy, eager.equations);
+        let whole = projection.into_certificate(&Control::new()).unwrap();
+        assert_eq!(whole.to_text(), eager.to_text());
+    }
 }
