@@ -159,28 +159,33 @@ pub fn from_roots<F: Field>(field: &F, roots: &[F::Elem]) -> Univariate<F> {
 /// Polynomial text in `name`, highest degree first (`a^3 + 2*a + 1`, `0`), coefficients in the
 /// field's own notation (parenthesized when they are sums).
 pub fn format<F: Field>(field: &F, p: &[F::Elem], name: &str) -> String {
-    let mut parts = Vec::new();
-    for (i, c) in p.iter().enumerate().rev() {
-        if field.is_zero(c) {
-            continue;
-        }
-        let power = match i {
-            0 => String::new(),
-            1 => name.to_string(),
-            _ => format!("{name}^{i}"),
-        };
-        let text = field.format(c);
-        let text = if text.contains(' ') && i > 0 {
-            format!("({text})")
-        } else {
-            text
-        };
-        parts.push(match (i, field.is_one(c)) {
-            (0, _) => text,
-            (_, true) => power,
-            _ => format!("{text}*{power}"),
-        });
-    }
+    format_terms(
+        p.iter()
+            .enumerate()
+            .rev()
+            .filter(|(_, c)| !field.is_zero(c))
+            .map(|(i, c)| (i, field.format(c))),
+        name,
+    )
+}
+
+/// Polynomial text from (exponent, coefficient text) pairs, highest exponent first, zero
+/// coefficients left out; coefficient "1" is omitted before a power of `name`.
+pub fn format_terms(terms: impl Iterator<Item = (usize, String)>, name: &str) -> String {
+    let parts: Vec<String> = terms
+        .map(|(i, text)| {
+            let power = match i {
+                0 => return text,
+                1 => name.to_string(),
+                _ => format!("{name}^{i}"),
+            };
+            match text.as_str() {
+                "1" => power,
+                t if t.contains(' ') => format!("({t})*{power}"),
+                t => format!("{t}*{power}"),
+            }
+        })
+        .collect();
     if parts.is_empty() {
         "0".into()
     } else {

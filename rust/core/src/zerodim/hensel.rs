@@ -5,10 +5,10 @@
 //! the Bézout relation s·g + t·h ≡ 1 (mod p) does uniquely with deg δg < deg g. One p-adic
 //! digit per step (linear lifting); several factors are split off one at a time.
 
-use super::univariate::{bezout, divide, multiply, subtract};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::{Field, PrimeField};
+use crate::univariate::{bezout, divide, multiply, subtract};
 use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{ToPrimitive, Zero};

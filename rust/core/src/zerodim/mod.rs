@@ -18,7 +18,6 @@ pub mod linear;
 pub mod maximal;
 pub mod maximal_rational;
 pub mod radical;
-pub mod univariate;
 
 use crate::control::Control;
 use crate::dimension::krull_dimension;
@@ -28,10 +27,10 @@ use crate::groebner::ReducedBasis;
 use crate::hilbert::monomial_ideal_series;
 use crate::monomial::Monomial;
 use crate::poly::Poly;
+use crate::univariate::Univariate;
 use linear::Echelon;
 use std::collections::HashMap;
 use std::sync::OnceLock;
-use univariate::Univariate;
 
 /// An error unless the basis describes a zero-dimensional (or the unit) ideal.
 pub fn require_zero_dimensional<F: Field>(gb: &ReducedBasis<F>, what: &str) -> Result<()> {
