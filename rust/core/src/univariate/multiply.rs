@@ -19,7 +19,13 @@ pub fn multiply<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> Univariate
     if a.len().min(b.len()) >= TRANSFORM_THRESHOLD {
         if let Some(p) = field.word_modulus() {
             let words = |v: &[F::Elem]| v.iter().map(|c| field.to_word(c)).collect::<Vec<u64>>();
-            let product = ntt::multiply_words(&words(a), &words(b), p);
+            let wa = words(a);
+            // A square transforms its one factor once.
+            let product = if std::ptr::eq(a, b) {
+                ntt::multiply_words(&wa, &wa, p)
+            } else {
+                ntt::multiply_words(&wa, &words(b), p)
+            };
             return trimmed(
                 field,
                 product.into_iter().map(|w| field.from_word(w)).collect(),

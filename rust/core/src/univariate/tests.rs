@@ -217,7 +217,7 @@ fn planted_roots_are_found_over_large_fields() {
 
 /// Number of monic irreducible polynomials of degree n over GF(q): (1/n) Σ_{d | n} μ(d) q^(n/d)
 /// (Gauss; Lidl and Niederreiter 1983, Theorem 3.25, from memory).
-fn irreducible_count(q: u64, n: u64) -> u64 {
+pub(crate) fn irreducible_count(q: u64, n: u64) -> u64 {
     let mobius = |mut d: u64| {
         let mut sign = 1i64;
         let mut r = 2;

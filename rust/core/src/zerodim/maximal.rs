@@ -32,7 +32,7 @@ pub fn frobenius_coordinates<F: Field>(
 }
 
 /// Columns: coordinates of b^q for each standard monomial b, from b^q = (b / x_i)^q · x_i^q.
-fn frobenius_matrix<F: Field>(
+pub(crate) fn frobenius_matrix<F: Field>(
     quotient: &Quotient<F>,
     control: &Control,
 ) -> Result<Vec<Vec<F::Elem>>> {

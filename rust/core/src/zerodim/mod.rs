@@ -6,18 +6,23 @@
 //! theorem; Cox, Little, O'Shea, *Using Algebraic Geometry* 1998, §2.4). Minimal polynomials of
 //! elements come from the first linear dependence among their powers.
 //!
+//! - [`fglm`]: the reduced basis for another order (Faugère, Gianni, Lazard, Mora 1993), and
+//!   [`shape`]: lex bases in shape position and points from Krylov sequences (Faugère and Mou
+//!   2011).
 //! - [`radical`]: the radical and the number of distinct solutions (Seidenberg 1974).
 //! - [`maximal`]: whether R/I is a field, and its degree over k; over QQ by a primitive element
 //!   ([`maximal_rational`]) and an exact irreducibility test ([`irreducible`], with
 //!   [`berlekamp`] and [`hensel`]).
 
 pub mod berlekamp;
+pub mod fglm;
 pub mod hensel;
 pub mod irreducible;
 pub mod linear;
 pub mod maximal;
 pub mod maximal_rational;
 pub mod radical;
+pub mod shape;
 
 use crate::control::Control;
 use crate::dimension::krull_dimension;
@@ -251,6 +256,39 @@ impl<F: Field> Quotient<F> {
             }
         }
         out
+    }
+
+    /// x_i · v, for v given by its coordinates.
+    pub fn times_variable_coordinates(
+        &self,
+        i: usize,
+        v: &[F::Elem],
+        control: &Control,
+    ) -> Result<Vec<F::Elem>> {
+        Ok(self.times_variable(&self.variable_columns(control)?[i], v))
+    }
+
+    /// Σ_i c_i · M_i^T · w, M_i the matrix of multiplication by x_i and `form` the pairs
+    /// (i, c_i) of a linear form Σ c_i x_i: one step of a transposed Krylov sequence. Entry j
+    /// is the dot product of w with column j of M_ℓ.
+    pub fn transposed_times(
+        &self,
+        form: &[(usize, F::Elem)],
+        w: &[F::Elem],
+        control: &Control,
+    ) -> Result<Vec<F::Elem>> {
+        let field = &self.basis.ring.field;
+        let columns = self.variable_columns(control)?;
+        let mut out = vec![field.zero(); self.dimension()];
+        for (i, c) in form {
+            for (o, column) in out.iter_mut().zip(&columns[*i]) {
+                let dot = column.iter().fold(field.zero(), |acc, (k, m)| {
+                    field.add(&acc, &field.mul(m, &w[*k]))
+                });
+                *o = field.add(o, &field.mul(c, &dot));
+            }
+        }
+        Ok(out)
     }
 
     /// The products b_j · v for every standard monomial b_j (the columns of multiplication by
