@@ -32,18 +32,33 @@ pub fn divide<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> (Univariate<
     (quotient, remainder)
 }
 
-/// a mod b, for b ≠ 0.
+/// a mod b, for b ≠ 0 (without building the quotient when the division is short: this is the
+/// product reduction of every extension-field multiplication).
 pub fn remainder<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> Univariate<F> {
+    let db = degree::<F>(b).expect("division by the zero polynomial");
+    if a.len() <= db {
+        return trimmed(field, a.to_vec());
+    }
+    if a.len() - db < NEWTON_THRESHOLD || db < NEWTON_THRESHOLD {
+        let mut r = a.to_vec();
+        reduce_in_place(field, &mut r, b, |_, _| {});
+        r.truncate(db);
+        return trimmed(field, r);
+    }
     divide(field, a, b).1
 }
 
-/// The schoolbook division: one row operation per quotient coefficient.
-fn schoolbook<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> (Univariate<F>, Univariate<F>) {
+/// Cancels the coefficients of r from the top down to degree deg b with multiples of b,
+/// reporting each quotient coefficient (its degree and value) to `quotient`.
+fn reduce_in_place<F: Field>(
+    field: &F,
+    r: &mut [F::Elem],
+    b: &[F::Elem],
+    mut quotient: impl FnMut(usize, F::Elem),
+) {
     let db = b.len() - 1;
     let lead_inv = field.inv(&b[db]).expect("nonzero leading coefficient");
-    let mut r = a.to_vec();
-    let mut q = vec![field.zero(); a.len() - db];
-    for top in (db..a.len()).rev() {
+    for top in (db..r.len()).rev() {
         if field.is_zero(&r[top]) {
             continue;
         }
@@ -52,8 +67,16 @@ fn schoolbook<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> (Univariate<
             *x = field.sub(x, &field.mul(&c, y));
         }
         r[top] = field.zero();
-        q[top - db] = c;
+        quotient(top - db, c);
     }
+}
+
+/// The schoolbook division: one row operation per quotient coefficient.
+fn schoolbook<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> (Univariate<F>, Univariate<F>) {
+    let db = b.len() - 1;
+    let mut r = a.to_vec();
+    let mut q = vec![field.zero(); a.len() - db];
+    reduce_in_place(field, &mut r, b, |i, c| q[i] = c);
     r.truncate(db);
     (trimmed(field, q), trimmed(field, r))
 }
@@ -144,7 +167,7 @@ impl<F: Field> Modulo<F> {
             return trimmed(&self.field, a.to_vec());
         }
         if self.inverse.is_empty() || a.len() - d > d {
-            return divide(&self.field, a, &self.modulus).1;
+            return remainder(&self.field, a, &self.modulus);
         }
         let q = quotient_from_inverse(&self.field, a, d, &self.inverse);
         let mut qf = multiply(&self.field, &q, &self.modulus);

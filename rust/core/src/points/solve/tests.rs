@@ -88,7 +88,7 @@ fn listed_points_agree_with_brute_force_over_small_fields() {
 fn closed_points_of_the_field_of_q_to_the_n_elements() {
     // x^(q^n) = x has one closed point per monic irreducible polynomial of degree dividing n.
     for (spec, q, n) in [
-        ("GF(2)", 2i64, 4u32),
+        ("GF(2)", 2u64, 4u32),
         ("GF(3)", 3, 3),
         ("GF(4)", 4, 2),
         ("GF(5)", 5, 2),
