@@ -59,6 +59,27 @@ pub fn vector_space_dimension<F: Field>(gb: &ReducedBasis<F>, control: &Control)
 /// A sparse vector: (coordinate index, nonzero value).
 type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
 
+/// Σ m·w_k over a sparse column, for a word prime field: the products are summed in 128 bits
+/// and reduced only when the sum could leave the range of one Barrett reduction.
+fn lazy_dot<F: Field>(
+    prime: &crate::field::PrimeField,
+    field: &F,
+    column: &[(usize, F::Elem)],
+    w: &[F::Elem],
+) -> u64 {
+    let p = u128::from(prime.modulus());
+    // reduce_u128 needs x < p·2^64; each product is below p^2.
+    let limit = (p << 64) - p * p;
+    let mut acc: u128 = 0;
+    for (k, m) in column {
+        acc += u128::from(field.to_word(m)) * u128::from(field.to_word(&w[*k]));
+        if acc >= limit {
+            acc = u128::from(prime.reduce_u128(acc));
+        }
+    }
+    prime.reduce_u128(acc)
+}
+
 /// R/I for zero-dimensional I with its monomial basis. Elements are coordinate vectors;
 /// products are computed from the (sparse) matrices of multiplication by the variables, built
 /// on first use from the normal forms of the border monomials x_i·b.
@@ -277,16 +298,26 @@ impl<F: Field> Quotient<F> {
         w: &[F::Elem],
         control: &Control,
     ) -> Result<Vec<F::Elem>> {
+        use rayon::prelude::*;
         let field = &self.basis.ring.field;
         let columns = self.variable_columns(control)?;
+        let word = field
+            .word_modulus()
+            .and_then(|p| crate::field::PrimeField::new(p).ok());
         let mut out = vec![field.zero(); self.dimension()];
         for (i, c) in form {
-            for (o, column) in out.iter_mut().zip(&columns[*i]) {
-                let dot = column.iter().fold(field.zero(), |acc, (k, m)| {
-                    field.add(&acc, &field.mul(m, &w[*k]))
+            control.check()?;
+            out.par_iter_mut()
+                .zip(columns[*i].par_iter())
+                .for_each(|(o, column)| {
+                    let dot = match &word {
+                        Some(prime) => field.from_word(lazy_dot(prime, field, column, w)),
+                        None => column.iter().fold(field.zero(), |acc, (k, m)| {
+                            field.add(&acc, &field.mul(m, &w[*k]))
+                        }),
+                    };
+                    *o = field.add(o, &field.mul(c, &dot));
                 });
-                *o = field.add(o, &field.mul(c, &dot));
-            }
         }
         Ok(out)
     }
