@@ -56,7 +56,7 @@ impl<F: Field> ClosedPoint<F> {
     }
 }
 
-const SEED: u64 = 0xc105_ed;
+const SEED: u64 = 0x00c1_05ed;
 
 /// The closed points of V(gens) for a zero-dimensional system over a finite field.
 pub fn closed_points<F: Field>(

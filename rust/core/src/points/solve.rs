@@ -36,7 +36,7 @@ use crate::zerodim::Quotient;
 pub const FIBRE_LIMIT: u64 = 1 << 20;
 
 /// The seed of the random linear forms and functionals (the result does not depend on it).
-const SEED: u64 = 0x9017_75;
+const SEED: u64 = 0x0090_1775;
 
 /// The points of V(gens) in GF(q)^n, each a vector of coordinates in the ring's variable order;
 /// at most `limit` of them when given (then the first ones found).

@@ -7,6 +7,7 @@
 //!   probability (q − 1)/(2q));
 //! - q = 2^k: h = Tr(r) = r + r^2 + r^4 + ... + r^(2^(kd − 1)), the trace to GF(2) of every
 //!   component (von zur Gathen and Shoup 1992), which is 0 or 1 with probability 1/2 each.
+//!
 //! Failed draws are retried, so the result is always the complete factorization; only the
 //! running time is random, with a seeded generator so that runs repeat.
 

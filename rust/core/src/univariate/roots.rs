@@ -15,7 +15,7 @@ use crate::field::Field;
 use crate::rng::Rng;
 
 /// The seed of the random splitting steps: the results do not depend on it, only the time.
-const SPLITTING_SEED: u64 = 0x5eed_0f_2007;
+const SPLITTING_SEED: u64 = 0x005e_ed0f_2007;
 
 /// The distinct roots of f ≠ 0 in the (finite) field.
 pub fn roots<F: Field>(field: &F, f: &[F::Elem], control: &Control) -> Result<Vec<F::Elem>> {

@@ -222,9 +222,9 @@ pub(crate) fn irreducible_count(q: u64, n: u64) -> u64 {
         let mut sign = 1i64;
         let mut r = 2;
         while r * r <= d {
-            if d % r == 0 {
+            if d.is_multiple_of(r) {
                 d /= r;
-                if d % r == 0 {
+                if d.is_multiple_of(r) {
                     return 0;
                 }
                 sign = -sign;
@@ -237,7 +237,7 @@ pub(crate) fn irreducible_count(q: u64, n: u64) -> u64 {
         sign
     };
     let total: i64 = (1..=n)
-        .filter(|d| n % d == 0)
+        .filter(|d| n.is_multiple_of(*d))
         .map(|d| mobius(d) * (q as i64).pow((n / d) as u32))
         .sum();
     (total / n as i64) as u64

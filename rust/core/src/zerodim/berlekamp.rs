@@ -41,7 +41,7 @@ pub fn factor_squarefree<F: Field>(
                 continue;
             }
             for s in &elements {
-                let shifted = subtract(field, v, &vec![s.clone()]);
+                let shifted = subtract(field, v, std::slice::from_ref(s));
                 let g = gcd(field, &h, &shifted);
                 if degree::<F>(&g).unwrap_or(0) > 0 {
                     split.push(g);

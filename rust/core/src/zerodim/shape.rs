@@ -115,6 +115,9 @@ fn sparse<F: Field>(field: &F, v: &[F::Elem]) -> Vec<(usize, F::Elem)> {
         .collect()
 }
 
+/// The sequence r(ℓ^k), k < 2D, and for each variable the sequence r(x_i ℓ^k), k < D.
+type Sequences<F> = (Vec<<F as Field>::Elem>, Vec<Vec<<F as Field>::Elem>>);
+
 /// s_k = r(ℓ^k) for k < 2D and r(x_i ℓ^k) for k < D, from w_k = (M_ℓ^T)^k r.
 fn krylov_sequences<F: Field>(
     quotient: &Quotient<F>,
@@ -123,7 +126,7 @@ fn krylov_sequences<F: Field>(
     one: &[(usize, F::Elem)],
     variables: &[Vec<(usize, F::Elem)>],
     control: &Control,
-) -> Result<(Vec<F::Elem>, Vec<Vec<F::Elem>>)> {
+) -> Result<Sequences<F>> {
     let field = &quotient.basis.ring.field;
     let d = quotient.dimension();
     let dot = |w: &[F::Elem], v: &[(usize, F::Elem)]| {
