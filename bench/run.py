@@ -14,7 +14,14 @@ import time
 
 HERE = pathlib.Path(__file__).resolve().parent
 ROOT = HERE.parent
-RUST_BENCHES: list[str] = ["bench_f4", "bench_hilbert", "bench_boolean", "bench_projection"]
+RUST_BENCHES: list[str] = [
+    "bench_f4",
+    "bench_hilbert",
+    "bench_boolean",
+    "bench_projection",
+    "bench_univariate",
+    "bench_solutions",
+]
 
 
 def run(title: str, cmd: list[str]) -> bool:

@@ -627,7 +627,7 @@ impl Columns {
 /// (b the discrepancy B had) keeps a nonzero multiple of Massey's C, which changes neither the
 /// discrepancies' zero tests nor the lengths; one inverse at the end makes the constant term 1.
 /// An inverse costs as much as dozens of products, and the loop would need one per length change.
-fn berlekamp_massey<S: Scalars>(s: &S, sequence: &[S::E]) -> Vec<S::E> {
+pub(crate) fn berlekamp_massey<S: Scalars>(s: &S, sequence: &[S::E]) -> Vec<S::E> {
     let mut current = vec![s.one()];
     // The recurrence before the last length change, its discrepancy, and how many terms ago
     // that was.

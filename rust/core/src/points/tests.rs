@@ -138,3 +138,20 @@ fn projective_count_needs_homogeneous_input() {
     .unwrap_err();
     assert!(err.to_string().contains("not homogeneous"), "{err}");
 }
+
+#[test]
+fn huge_univariate_exponents_are_counted_by_their_residue() {
+    // x^e = 1 has gcd(e, q − 1) solutions in the cyclic group GF(q)^* (a handbook fact; Lidl and
+    // Niederreiter 1983, from memory). 4294967295 = 3·5·17·257·65537, 65520 = 2^4·3^2·5·7·13.
+    assert_eq!(affine(65521, &["x"], &["x^4294967295 - 1"]), 15);
+    // x^4294967295 − x: 0 and the solutions of x^(2·(2^31 − 1)) = 1, gcd(2^32 − 2, 65520) = 2
+    // (2^31 − 1 is prime, Euler; from memory).
+    assert_eq!(affine(65521, &["x"], &["x^4294967295 - x"]), 3);
+    let field = crate::field::AnyField::parse("GF(2^16)").unwrap();
+    crate::with_any_field!(field, f => {
+        let r = Ring::new(f, vec!["x".to_string()], MonomialOrder::Grevlex).unwrap();
+        let gens = vec![parse_poly(&r, "x^4294967295 - 1").unwrap()];
+        // 4294967295 = 65535 · 65537: every nonzero element is a root.
+        assert_eq!(count_affine_points(&r, &gens, Engine::default(), &Control::new()).unwrap(), 65535);
+    });
+}

@@ -6,12 +6,10 @@
 //! tries every s, so it is meant for small q (the primes the rational factorization uses).
 
 use super::linear::kernel;
-use super::univariate::{
-    degree, divide, gcd, monic, multiply_mod, power_mod, subtract, Univariate,
-};
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::Field;
+use crate::univariate::{degree, divide, gcd, monic, subtract, Modulo, Univariate};
 
 /// Largest field this splitting is used for (it tries every element).
 const ELEMENT_LIMIT: usize = 1 << 16;
@@ -43,7 +41,7 @@ pub fn factor_squarefree<F: Field>(
                 continue;
             }
             for s in &elements {
-                let shifted = subtract(field, v, &vec![s.clone()]);
+                let shifted = subtract(field, v, std::slice::from_ref(s));
                 let g = gcd(field, &h, &shifted);
                 if degree::<F>(&g).unwrap_or(0) > 0 {
                     split.push(g);
@@ -64,7 +62,8 @@ fn fixed_subalgebra<F: Field>(
     q: u64,
     control: &Control,
 ) -> Result<Vec<Univariate<F>>> {
-    let x_q = power_mod(field, &vec![field.zero(), field.one()], q, f);
+    let modulo = Modulo::new(field, f);
+    let x_q = modulo.x_power(&[q], control)?;
     let mut power = vec![field.one()];
     // Column i of the kernel matrix is (x^(iq) mod f) − x^i; rows index coefficients.
     let mut matrix = vec![vec![field.zero(); n]; n];
@@ -78,15 +77,19 @@ fn fixed_subalgebra<F: Field>(
                 c
             };
         }
-        power = multiply_mod(field, &power, &x_q, f);
+        power = modulo.multiply(&power, &x_q);
     }
     let mut basis = kernel(field, matrix, n);
     for v in &mut basis {
-        super::univariate::trim(field, v);
+        crate::univariate::trim(field, v);
     }
     debug_assert!(basis.iter().all(|v| divide(
         field,
-        &subtract(field, &power_mod(field, v, q, f), v),
+        &subtract(
+            field,
+            &modulo.power(v, &[q], control).expect("not interrupted"),
+            v
+        ),
         f
     )
     .1
@@ -98,7 +101,7 @@ fn fixed_subalgebra<F: Field>(
 mod tests {
     use super::*;
     use crate::field::PrimeField;
-    use crate::zerodim::univariate::multiply;
+    use crate::univariate::multiply;
 
     fn factor(p: u64, f: &[u64]) -> Vec<Vec<u64>> {
         let field = PrimeField::new(p).unwrap();

@@ -5,10 +5,10 @@
 //! the Bézout relation s·g + t·h ≡ 1 (mod p) does uniquely with deg δg < deg g. One p-adic
 //! digit per step (linear lifting); several factors are split off one at a time.
 
-use super::univariate::{bezout, divide, multiply, subtract};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::{Field, PrimeField};
+use crate::univariate::{bezout, divide, multiply, subtract};
 use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{ToPrimitive, Zero};
@@ -95,7 +95,7 @@ fn lift_pair(
     control: &Control,
 ) -> Result<(IntPoly, IntPoly)> {
     let p = field.word_modulus().expect("prime field");
-    let t = bezout(field, &g.to_vec(), &h.to_vec()).1;
+    let t = bezout(field, g, h).1;
     let (mut big_g, mut big_h) = (lift_words(g), lift_words(h));
     *big_h.last_mut().expect("nonzero") = f.last().expect("nonzero").clone();
     let mut power = BigInt::from(p);
@@ -106,11 +106,11 @@ fn lift_pair(
             .map(|i| (&f[i] - product.get(i).cloned().unwrap_or_default()) / &power)
             .collect();
         let e = reduce_mod(&error, p);
-        let delta_g = divide(field, &multiply(field, &t, &e), &g.to_vec()).1;
+        let delta_g = divide(field, &multiply(field, &t, &e), g).1;
         let delta_h = divide(
             field,
-            &subtract(field, &e, &multiply(field, &h.to_vec(), &delta_g)),
-            &g.to_vec(),
+            &subtract(field, &e, &multiply(field, h, &delta_g)),
+            g,
         )
         .0;
         for (i, c) in delta_g.iter().enumerate() {

@@ -23,10 +23,10 @@
 
 use super::berlekamp::factor_squarefree;
 use super::hensel::{lift_factors, multiply_integer, reduce_mod, IntPoly};
-use super::univariate::{degree, derivative, gcd, squarefree_part, Univariate};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::{integer_scale, primality, PrimeField, RationalField};
+use crate::univariate::{degree, derivative, gcd, squarefree_part, Univariate};
 use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, Signed, Zero};

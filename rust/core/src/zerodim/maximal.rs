@@ -10,7 +10,6 @@
 
 use super::linear::rank;
 use super::radical::variable_minimal_polynomials;
-use super::univariate::degree;
 use super::Quotient;
 use crate::control::Control;
 use crate::dimension::krull_dimension;
@@ -18,6 +17,7 @@ use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::frobenius::field_order_limbs;
 use crate::groebner::ReducedBasis;
+use crate::univariate::degree;
 
 /// The coordinates of x_i^q in R/I for each variable, q the field order.
 pub fn frobenius_coordinates<F: Field>(
@@ -32,7 +32,7 @@ pub fn frobenius_coordinates<F: Field>(
 }
 
 /// Columns: coordinates of b^q for each standard monomial b, from b^q = (b / x_i)^q · x_i^q.
-fn frobenius_matrix<F: Field>(
+pub(crate) fn frobenius_matrix<F: Field>(
     quotient: &Quotient<F>,
     control: &Control,
 ) -> Result<Vec<Vec<F::Elem>>> {

@@ -15,13 +15,13 @@
 
 use super::irreducible::is_irreducible;
 use super::maximal::reduced_quotient;
-use super::univariate::degree;
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::{Field, RationalField};
 use crate::groebner::ReducedBasis;
 use crate::monomial::Monomial;
 use crate::poly::{Poly, Ring};
+use crate::univariate::degree;
 use num_bigint::BigInt;
 use num_rational::BigRational;
 use std::any::Any;

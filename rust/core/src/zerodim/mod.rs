@@ -6,19 +6,23 @@
 //! theorem; Cox, Little, O'Shea, *Using Algebraic Geometry* 1998, §2.4). Minimal polynomials of
 //! elements come from the first linear dependence among their powers.
 //!
+//! - [`fglm`]: the reduced basis for another order (Faugère, Gianni, Lazard, Mora 1993), and
+//!   [`shape`]: lex bases in shape position and points from Krylov sequences (Faugère and Mou
+//!   2011).
 //! - [`radical`]: the radical and the number of distinct solutions (Seidenberg 1974).
 //! - [`maximal`]: whether R/I is a field, and its degree over k; over QQ by a primitive element
 //!   ([`maximal_rational`]) and an exact irreducibility test ([`irreducible`], with
 //!   [`berlekamp`] and [`hensel`]).
 
 pub mod berlekamp;
+pub mod fglm;
 pub mod hensel;
 pub mod irreducible;
 pub mod linear;
 pub mod maximal;
 pub mod maximal_rational;
 pub mod radical;
-pub mod univariate;
+pub mod shape;
 
 use crate::control::Control;
 use crate::dimension::krull_dimension;
@@ -28,10 +32,10 @@ use crate::groebner::ReducedBasis;
 use crate::hilbert::monomial_ideal_series;
 use crate::monomial::Monomial;
 use crate::poly::Poly;
+use crate::univariate::Univariate;
 use linear::Echelon;
 use std::collections::HashMap;
 use std::sync::OnceLock;
-use univariate::Univariate;
 
 /// An error unless the basis describes a zero-dimensional (or the unit) ideal.
 pub fn require_zero_dimensional<F: Field>(gb: &ReducedBasis<F>, what: &str) -> Result<()> {
@@ -54,6 +58,27 @@ pub fn vector_space_dimension<F: Field>(gb: &ReducedBasis<F>, control: &Control)
 
 /// A sparse vector: (coordinate index, nonzero value).
 type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
+
+/// Σ m·w_k over a sparse column, for a word prime field: the products are summed in 128 bits
+/// and reduced only when the sum could leave the range of one Barrett reduction.
+fn lazy_dot<F: Field>(
+    prime: &crate::field::PrimeField,
+    field: &F,
+    column: &[(usize, F::Elem)],
+    w: &[F::Elem],
+) -> u64 {
+    let p = u128::from(prime.modulus());
+    // reduce_u128 needs x < p·2^64; each product is below p^2.
+    let limit = (p << 64) - p * p;
+    let mut acc: u128 = 0;
+    for (k, m) in column {
+        acc += u128::from(field.to_word(m)) * u128::from(field.to_word(&w[*k]));
+        if acc >= limit {
+            acc = u128::from(prime.reduce_u128(acc));
+        }
+    }
+    prime.reduce_u128(acc)
+}
 
 /// R/I for zero-dimensional I with its monomial basis. Elements are coordinate vectors;
 /// products are computed from the (sparse) matrices of multiplication by the variables, built
@@ -252,6 +277,49 @@ impl<F: Field> Quotient<F> {
             }
         }
         out
+    }
+
+    /// x_i · v, for v given by its coordinates.
+    pub fn times_variable_coordinates(
+        &self,
+        i: usize,
+        v: &[F::Elem],
+        control: &Control,
+    ) -> Result<Vec<F::Elem>> {
+        Ok(self.times_variable(&self.variable_columns(control)?[i], v))
+    }
+
+    /// Σ_i c_i · M_i^T · w, M_i the matrix of multiplication by x_i and `form` the pairs
+    /// (i, c_i) of a linear form Σ c_i x_i: one step of a transposed Krylov sequence. Entry j
+    /// is the dot product of w with column j of M_ℓ.
+    pub fn transposed_times(
+        &self,
+        form: &[(usize, F::Elem)],
+        w: &[F::Elem],
+        control: &Control,
+    ) -> Result<Vec<F::Elem>> {
+        use rayon::prelude::*;
+        let field = &self.basis.ring.field;
+        let columns = self.variable_columns(control)?;
+        let word = field
+            .word_modulus()
+            .and_then(|p| crate::field::PrimeField::new(p).ok());
+        let mut out = vec![field.zero(); self.dimension()];
+        for (i, c) in form {
+            control.check()?;
+            out.par_iter_mut()
+                .zip(columns[*i].par_iter())
+                .for_each(|(o, column)| {
+                    let dot = match &word {
+                        Some(prime) => field.from_word(lazy_dot(prime, field, column, w)),
+                        None => column.iter().fold(field.zero(), |acc, (k, m)| {
+                            field.add(&acc, &field.mul(m, &w[*k]))
+                        }),
+                    };
+                    *o = field.add(o, &field.mul(c, &dot));
+                });
+        }
+        Ok(out)
     }
 
     /// The products b_j · v for every standard monomial b_j (the columns of multiplication by

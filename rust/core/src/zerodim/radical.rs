@@ -4,9 +4,8 @@
 //! a zero-dimensional I that contains, for every variable, a squarefree polynomial in that variable
 //! alone is radical; so √I = I + (squarefree parts of the minimal polynomials of the variables).
 //! Finite fields are perfect, and squarefree parts are taken with p-th roots where needed
-//! ([`super::univariate::squarefree_part`]), so this is correct in positive characteristic.
+//! ([`crate::univariate::squarefree_part`]), so this is correct in positive characteristic.
 
-use super::univariate::{degree, squarefree_part, Univariate};
 use super::{vector_space_dimension, Quotient};
 use crate::control::Control;
 use crate::error::Result;
@@ -14,6 +13,7 @@ use crate::field::Field;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::monomial::Monomial;
 use crate::poly::{Poly, Ring};
+use crate::univariate::{degree, squarefree_part, Univariate};
 
 /// The univariate polynomial g as a polynomial in variable `var` of `ring`.
 fn in_variable<F: Field>(ring: &Ring<F>, g: &Univariate<F>, var: usize) -> Poly<F> {

@@ -232,3 +232,86 @@ fn maximal_ideals_over_the_rationals() {
     let err = residue_field_degree(&rational_basis(&["x"], &["x^4 + 4"]), &c).unwrap_err();
     assert!(err.to_string().contains("not maximal"), "{err}");
 }
+
+/// The reduced basis computed directly in `order` by F4, as text.
+fn direct_basis_text<F: Field>(
+    field: F,
+    vars: &[&str],
+    gens: &[&str],
+    order: MonomialOrder,
+) -> Vec<String> {
+    let names: Vec<String> = vars.iter().map(|s| s.to_string()).collect();
+    let ring = Ring::new(field, names, order).unwrap();
+    let gens: Vec<_> = gens.iter().map(|g| parse_poly(&ring, g).unwrap()).collect();
+    let gb = groebner_basis(&ring, &gens, Engine::F4, &Control::new()).unwrap();
+    gb.polys.iter().map(|p| ring.format(p)).collect()
+}
+
+/// The same basis by a grevlex basis and a change of order.
+fn changed_basis_text<F: Field>(
+    field: F,
+    vars: &[&str],
+    gens: &[&str],
+    order: MonomialOrder,
+) -> Vec<String> {
+    let names: Vec<String> = vars.iter().map(|s| s.to_string()).collect();
+    let from = Ring::new(field, names, MonomialOrder::Grevlex).unwrap();
+    let to = from.with_order(order).unwrap();
+    let gens: Vec<_> = gens.iter().map(|g| parse_poly(&from, g).unwrap()).collect();
+    let gb = groebner_basis(&from, &gens, Engine::Buchberger, &Control::new()).unwrap();
+    let polys = fglm::change_order(&from, &gb.polys, &to, &Control::new()).unwrap();
+    polys.iter().map(|p| to.format(p)).collect()
+}
+
+#[test]
+fn change_of_order_agrees_with_the_reference_engine() {
+    // In and out of shape position, radical and not, several fields; the reference is the
+    // basis computed directly in the target order (F4 there, Buchberger for the grevlex input).
+    let systems: Vec<(&[&str], Vec<&str>)> = vec![
+        (&["x", "y"], vec!["x^2 - y^3", "x*y - 1"]),
+        (&["x", "y"], vec!["x^2", "x*y", "y^3 - y^2"]),
+        (&["x", "y", "z"], vec!["x^2 - 1", "y^2 - 1", "z^2 - x*y"]),
+        (
+            &["x", "y", "z"],
+            vec!["x*y + z - 2", "y^2 - x + 3", "z^3 - y*z - 1"],
+        ),
+        (&["x", "y"], vec!["x^3", "y^3", "x*y^2"]),
+    ];
+    for (vars, gens) in &systems {
+        for order in [MonomialOrder::Lex, MonomialOrder::Grlex] {
+            for spec in ["GF(32003)", "GF(7)", "GF(4)", "GF(9)", "QQ"] {
+                let any = crate::field::AnyField::parse(spec).unwrap();
+                crate::with_any_field!(any, field => {
+                    let expected = direct_basis_text(field.clone(), vars, gens, order.clone());
+                    let got = changed_basis_text(field, vars, gens, order.clone());
+                    assert_eq!(got, expected, "{spec} {order:?} {gens:?}");
+                });
+            }
+        }
+    }
+}
+
+#[test]
+fn shape_lex_basis_is_found_from_krylov_sequences() {
+    // Katsura-4 over GF(32003) is in shape position for u4 (16 simple solutions, Bézout's bound
+    // 2^4 reached; Katsura 1990, from memory): the lex basis is u_i − g_i(u4) and a degree-16
+    // eliminant, and the Krylov route must find it.
+    let gb = basis(32003, &["u0", "u1", "u2", "u3", "u4"], &KATSURA4);
+    let quotient = Quotient::new(gb.clone(), &Control::new()).unwrap();
+    let lex = gb.ring.with_order(MonomialOrder::Lex).unwrap();
+    let polys = shape::shape_lex_basis(&quotient, &lex, &Control::new())
+        .unwrap()
+        .expect("katsura-4 is in shape position");
+    assert_eq!(polys.last().unwrap().degree(), Some(16));
+    let reference = direct_basis_text(
+        PrimeField::new(32003).unwrap(),
+        &["u0", "u1", "u2", "u3", "u4"],
+        &KATSURA4,
+        MonomialOrder::Lex,
+    );
+    let mut got: Vec<String> = polys.iter().map(|p| lex.format(p)).collect();
+    got.sort();
+    let mut reference = reference;
+    reference.sort();
+    assert_eq!(got, reference);
+}

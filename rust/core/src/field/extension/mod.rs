@@ -12,6 +12,7 @@ mod table;
 
 pub use binary::BinaryField;
 pub use modulus::Modulus;
+pub(crate) use modulus::prime_divisors;
 pub use table::{TableField, MAX_TABLE_ORDER};
 
 use super::{Field, PrimeField};

@@ -1,19 +1,31 @@
-//! The defining polynomial of GF(p^k) = GF(p)[a]/(f): dense polynomials over GF(p), arithmetic
-//! modulo f, and Rabin's irreducibility test (Rabin 1980): a monic f of degree n is irreducible
-//! over GF(p) iff x^(p^n) ≡ x (mod f) and gcd(x^(p^(n/r)) − x, f) = 1 for every prime r | n.
+//! The defining polynomial of GF(p^k) = GF(p)[a]/(f): its irreducibility test, the default
+//! choice of f, and arithmetic modulo f (on the dense polynomials of [`crate::univariate`]).
+//!
+//! Irreducibility by Rabin's test (Rabin 1980): a monic f of degree n is irreducible over GF(p)
+//! iff x^(p^n) ≡ x (mod f) and gcd(x^(p^(n/r)) − x, f) = 1 for every prime r | n. The powers
+//! x^(p^i) come one from the other by the Frobenius map h ↦ h^p, which over GF(p) is
+//! h(x)^p = h(x^p): a spreading of the coefficients followed by one reduction modulo f, cheap
+//! when f = x^n + g with g of low degree (every default modulus is of that form, see below).
+//! Before the test, a candidate is divided by the monic irreducible polynomials of small degree
+//! (those with p^d ≤ 256), which rejects most reducible candidates at once.
 //!
 //! Default modulus: the first monic irreducible polynomial of degree k in the order of its
 //! integer representation Σ c_i p^i (coefficients compared from a^(k-1) down to a^0, each in
-//! 0..p). For GF(2^8) that is a^8 + a^4 + a^3 + a + 1.
+//! 0..p). For GF(2^8) that is a^8 + a^4 + a^3 + a + 1. Because the count runs up from the low
+//! coefficients, the default modulus is always sparse: a^k + g(a) with g of small degree (for
+//! GF(2^k), k ≤ 2000, deg g stays below 16 in practice; irreducibles of this form have density
+//! about 1/k, so about k candidates are tried), and reductions modulo it cost O(k·deg g).
 
+use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::{Field, PrimeField};
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::Ring;
+use crate::univariate::{self, gcd::inverse_mod, Modulo, Univariate};
 
-/// Dense polynomial over GF(p): coefficients low degree first, no trailing zeros (0 is empty).
-pub(crate) type Dense = Vec<u64>;
+/// A dense polynomial over GF(p) (coefficients in 0..p, low degree first, no trailing zeros).
+pub(crate) type Dense = Univariate<PrimeField>;
 
 /// A monic irreducible polynomial f over GF(p) of degree k ≥ 2, with arithmetic in GF(p)[a]/(f).
 #[derive(Clone, Debug)]
@@ -31,21 +43,14 @@ impl PartialEq for Modulus {
     }
 }
 
-fn trim(mut v: Dense) -> Dense {
-    while v.last() == Some(&0) {
-        v.pop();
-    }
-    v
-}
-
 /// Prime divisors of n by trial division (n is a degree or a table size: small).
 pub(crate) fn prime_divisors(mut n: u64) -> Vec<u64> {
     let mut out = Vec::new();
     let mut d = 2;
     while d * d <= n {
-        if n % d == 0 {
+        if n.is_multiple_of(d) {
             out.push(d);
-            while n % d == 0 {
+            while n.is_multiple_of(d) {
                 n /= d;
             }
         }
@@ -61,27 +66,26 @@ impl Modulus {
     /// f = Σ coeffs[i] a^i over GF(p); made monic. Errors if f has degree < 2 or is reducible.
     pub fn new(base: PrimeField, coeffs: Vec<u64>) -> Result<Self> {
         let p = base.modulus();
-        let coeffs = trim(coeffs.into_iter().map(|c| c % p).collect());
+        let coeffs = univariate::trimmed(&base, coeffs.into_iter().map(|c| c % p).collect());
         if coeffs.len() < 3 {
             return Err(Error::invalid(format!(
                 "the modulus must have degree at least 2 (got degree {})",
                 coeffs.len() as i64 - 1
             )));
         }
-        let lead_inv = base.inv(coeffs.last().unwrap()).expect("nonzero");
-        let coeffs = coeffs.iter().map(|c| base.mul(c, &lead_inv)).collect();
+        let coeffs = univariate::monic(&base, &coeffs);
         let mut m = Modulus {
             base,
             coeffs,
             is_default: false,
         };
-        if let Some(why) = m.reducibility_witness() {
+        if let Some(why) = m.reducibility_witness()? {
             return Err(Error::invalid(format!(
                 "the modulus {} is reducible over GF({p}){why}",
                 m.text()
             )));
         }
-        m.is_default = Modulus::first_irreducible(m.base.clone(), m.degree()).is_ok_and(|d| d == m);
+        m.is_default = m.is_first_irreducible()?;
         Ok(m)
     }
 
@@ -90,36 +94,33 @@ impl Modulus {
         if k < 2 {
             return Err(Error::invalid("an extension field needs degree k >= 2"));
         }
-        let p = base.modulus();
-        // Lower coefficients as base-p digits of a counter; density of irreducibles is ~1/k.
-        let mut lower = vec![0u64; k as usize];
-        loop {
-            let mut coeffs = lower.clone();
+        let sieve = SmallFactors::new(&base, k as usize);
+        let mut candidates = Candidates::new(base.modulus(), k as usize);
+        while let Some(lower) = candidates.next() {
+            let mut coeffs = lower.to_vec();
             coeffs.push(1);
             let m = Modulus {
                 base: base.clone(),
                 coeffs,
                 is_default: true,
             };
-            if lower[0] != 0 && m.reducibility_witness().is_none() {
+            if sieve.divides(&m) {
+                continue;
+            }
+            if m.reducibility_witness()?.is_none() {
                 return Ok(m);
             }
-            // Count up the integer Σ c_i p^i: c_0 is the fastest digit.
-            let mut i = 0;
-            loop {
-                lower[i] += 1;
-                if lower[i] < p {
-                    break;
-                }
-                lower[i] = 0;
-                i += 1;
-                if i == k as usize {
-                    return Err(Error::invalid(format!(
-                        "no irreducible polynomial of degree {k} over GF({p})"
-                    )));
-                }
-            }
         }
+        Err(Error::invalid(format!(
+            "no irreducible polynomial of degree {k} over GF({})",
+            base.modulus()
+        )))
+    }
+
+    /// Whether f is the first irreducible of its degree, i.e. no candidate before it in the
+    /// counting order is irreducible.
+    fn is_first_irreducible(&self) -> Result<bool> {
+        Ok(Modulus::first_irreducible(self.base.clone(), self.degree())? == *self)
     }
 
     /// The modulus written in `a` (e.g. `a^8+a^4+a^3+a+1`); its degree must be `k` if given.
@@ -163,192 +164,238 @@ impl Modulus {
     }
 
     /// None if irreducible; otherwise a short reason for the error message.
-    fn reducibility_witness(&self) -> Option<String> {
-        let n = self.degree() as u64;
-        if self.coeffs[0] == 0 {
-            return Some(" (a divides it)".into());
+    fn reducibility_witness(&self) -> Result<Option<String>> {
+        let f = &self.coeffs;
+        let n = self.degree() as usize;
+        if f[0] == 0 {
+            return Ok(Some(" (a divides it)".into()));
         }
-        let p = self.characteristic();
-        if p <= 1 << 16 {
-            if let Some(r) = (1..p).find(|&r| self.eval(r) == 0) {
-                return Some(format!(" (a = {r} is a root)"));
-            }
-        }
+        let control = Control::new();
+        let frobenius = Frobenius::new(self);
         let x: Dense = vec![0, 1];
-        // frob[i] = x^(p^i) mod f.
-        let mut frob = vec![x.clone()];
-        for _ in 0..n {
-            let next = self.pow_mod(frob.last().unwrap(), p);
-            frob.push(next);
-        }
-        if frob[n as usize] != x {
-            return Some(String::new());
-        }
-        for r in prime_divisors(n) {
-            let h = self.sub(&frob[(n / r) as usize], &x);
-            let g = self.gcd(&h, &self.coeffs);
-            if g.len() > 1 {
-                return Some(format!(" (it has a factor of degree dividing {})", n / r));
-            }
-        }
-        None
-    }
-
-    fn eval(&self, r: u64) -> u64 {
-        let b = &self.base;
-        self.coeffs
-            .iter()
-            .rev()
-            .fold(0, |acc, c| b.add(&b.mul(&acc, &r), c))
-    }
-
-    pub(crate) fn sub(&self, a: &[u64], b: &[u64]) -> Dense {
-        let b_ = &self.base;
-        let n = a.len().max(b.len());
-        trim(
-            (0..n)
-                .map(|i| b_.sub(a.get(i).unwrap_or(&0), b.get(i).unwrap_or(&0)))
-                .collect(),
-        )
-    }
-
-    /// Product of two dense polynomials (no reduction).
-    fn mul_full(&self, a: &[u64], b: &[u64]) -> Dense {
-        if a.is_empty() || b.is_empty() {
-            return Vec::new();
-        }
-        let f = &self.base;
-        let mut out = vec![0u64; a.len() + b.len() - 1];
-        for (i, x) in a.iter().enumerate() {
-            if *x == 0 {
-                continue;
-            }
-            for (j, y) in b.iter().enumerate() {
-                out[i + j] = f.add(&out[i + j], &f.mul(x, y));
-            }
-        }
-        trim(out)
-    }
-
-    /// Remainder of `a` by a polynomial `m` with invertible leading coefficient.
-    fn rem(&self, mut a: Dense, m: &[u64]) -> Dense {
-        let f = &self.base;
-        let dm = m.len() - 1;
-        let lead_inv = f
-            .inv(m.last().unwrap())
-            .expect("nonzero leading coefficient");
-        while a.len() > dm {
-            let top = a.len() - 1;
-            let c = f.mul(&a[top], &lead_inv);
-            if c != 0 {
-                for (j, mj) in m.iter().enumerate() {
-                    let k = top - dm + j;
-                    a[k] = f.sub(&a[k], &f.mul(&c, mj));
+        // powers[i] = x^(p^i) mod f, kept for i = n / r.
+        let wanted: Vec<usize> = prime_divisors(n as u64)
+            .into_iter()
+            .map(|r| n / r as usize)
+            .collect();
+        let mut h = x.clone();
+        let mut kept = Vec::new();
+        for i in 1..=n {
+            h = frobenius.apply(&h);
+            if i == 1 {
+                let roots =
+                    univariate::gcd(&self.base, &univariate::subtract(&self.base, &h, &x), f);
+                if roots.len() > 1 {
+                    let root = univariate::roots(&self.base, &roots, &control)?[0];
+                    return Ok(Some(format!(" (a = {root} is a root)")));
                 }
             }
-            a.pop();
-            a = trim(a);
+            if wanted.contains(&i) {
+                kept.push((i, h.clone()));
+            }
         }
-        a
+        if h != x {
+            return Ok(Some(String::new()));
+        }
+        for (i, power) in kept {
+            let g = univariate::gcd(&self.base, &univariate::subtract(&self.base, &power, &x), f);
+            if g.len() > 1 {
+                return Ok(Some(format!(" (it has a factor of degree dividing {i})")));
+            }
+        }
+        Ok(None)
     }
 
     /// a·b mod f, trimmed.
     pub(crate) fn mul_mod(&self, a: &[u64], b: &[u64]) -> Dense {
-        self.rem(self.mul_full(a, b), &self.coeffs)
+        univariate::remainder(
+            &self.base,
+            &univariate::multiply(&self.base, a, b),
+            &self.coeffs,
+        )
     }
 
-    pub(crate) fn pow_mod(&self, a: &[u64], mut e: u64) -> Dense {
-        let mut base = a.to_vec();
-        let mut acc: Dense = vec![1];
-        while e > 0 {
-            if e & 1 == 1 {
-                acc = self.mul_mod(&acc, &base);
-            }
-            e >>= 1;
-            if e > 0 {
-                base = self.mul_mod(&base, &base);
-            }
-        }
-        acc
+    /// a^e mod f.
+    pub(crate) fn pow_mod(&self, a: &[u64], e: u64) -> Dense {
+        Modulo::new(&self.base, &self.coeffs)
+            .power(&self.mul_mod(a, &[1]), &[e], &Control::new())
+            .expect("no limits and no interruption")
     }
 
-    /// Monic gcd by Euclid's algorithm.
-    fn gcd(&self, a: &[u64], b: &[u64]) -> Dense {
-        let (mut r0, mut r1) = (trim(a.to_vec()), trim(b.to_vec()));
-        while !r1.is_empty() {
-            let r = self.rem(r0, &r1);
-            r0 = r1;
-            r1 = r;
-        }
-        r0
-    }
-
-    /// Inverse of a nonzero reduced `a` modulo f, by the extended Euclidean algorithm.
+    /// Inverse of a nonzero `a` modulo f (f is irreducible).
     pub(crate) fn inv_mod(&self, a: &[u64]) -> Option<Dense> {
-        let f = &self.base;
-        let a = trim(a.to_vec());
-        if a.is_empty() {
-            return None;
-        }
-        let (mut r0, mut r1) = (self.coeffs.clone(), a);
-        let (mut t0, mut t1): (Dense, Dense) = (Vec::new(), vec![1]);
-        while !r1.is_empty() {
-            let (q, r) = self.divrem(&r0, &r1);
-            let t = self.sub(&t0, &self.mul_full(&q, &t1));
-            (r0, r1) = (r1, r);
-            (t0, t1) = (t1, t);
-        }
-        // r0 is a nonzero constant because f is irreducible.
-        let c = f.inv(&r0[0])?;
-        Some(trim(t0.iter().map(|x| f.mul(x, &c)).collect()))
-    }
-
-    fn divrem(&self, a: &[u64], m: &[u64]) -> (Dense, Dense) {
-        let f = &self.base;
-        let mut r = a.to_vec();
-        if r.len() < m.len() {
-            return (Vec::new(), r);
-        }
-        let dm = m.len() - 1;
-        let lead_inv = f.inv(m.last().unwrap()).expect("nonzero");
-        let mut q = vec![0u64; r.len() - dm];
-        while r.len() > dm {
-            let top = r.len() - 1;
-            let c = f.mul(&r[top], &lead_inv);
-            q[top - dm] = c;
-            for (j, mj) in m.iter().enumerate() {
-                let k = top - dm + j;
-                r[k] = f.sub(&r[k], &f.mul(&c, mj));
-            }
-            r.pop();
-        }
-        (trim(q), trim(r))
+        let a = univariate::trimmed(&self.base, a.to_vec());
+        inverse_mod(&self.base, &a, &self.coeffs)
     }
 }
 
-/// Dense polynomial as text in `name`, highest degree first (`a^3 + 2*a + 1`, `0`).
-pub(crate) fn format_dense(c: &[u64], name: &str) -> String {
-    let mut parts = Vec::new();
-    for (i, &ci) in c.iter().enumerate().rev() {
-        if ci == 0 {
-            continue;
+/// h ↦ h^p mod f over GF(p): h(x)^p = h(x^p) spread out and reduced, when p is small; else by
+/// repeated squaring.
+struct Frobenius<'a> {
+    modulus: &'a Modulus,
+    modulo: Modulo<PrimeField>,
+    /// The nonzero terms (j, c_j) of f − x^n, for the reduction x^n ≡ −(f − x^n).
+    tail: Vec<(usize, u64)>,
+}
+
+/// Up to this characteristic the Frobenius map spreads coefficients instead of squaring.
+const SPREAD_LIMIT: u64 = 64;
+
+impl<'a> Frobenius<'a> {
+    fn new(modulus: &'a Modulus) -> Self {
+        let n = modulus.degree() as usize;
+        Frobenius {
+            modulus,
+            modulo: Modulo::new(&modulus.base, &modulus.coeffs),
+            tail: (0..n)
+                .filter(|&j| modulus.coeffs[j] != 0)
+                .map(|j| (j, modulus.coeffs[j]))
+                .collect(),
         }
-        let power = match i {
-            0 => String::new(),
-            1 => name.to_string(),
-            _ => format!("{name}^{i}"),
-        };
-        parts.push(match (ci, i) {
-            (_, 0) => ci.to_string(),
-            (1, _) => power,
-            _ => format!("{ci}*{power}"),
-        });
     }
-    if parts.is_empty() {
-        "0".into()
-    } else {
-        parts.join(" + ")
+
+    fn apply(&self, h: &[u64]) -> Dense {
+        let p = self.modulus.characteristic();
+        if p > SPREAD_LIMIT || self.tail.len() * 4 > self.modulus.degree() as usize {
+            return self
+                .modulo
+                .power(h, &[p], &Control::new())
+                .expect("no limits and no interruption");
+        }
+        let mut spread = vec![0u64; (h.len().max(1) - 1) * p as usize + 1];
+        for (i, &c) in h.iter().enumerate() {
+            spread[i * p as usize] = c;
+        }
+        self.reduce_sparse(spread)
     }
+
+    /// a mod f for f = x^n + tail, one top coefficient at a time: O((deg a − n)·|tail|).
+    fn reduce_sparse(&self, mut a: Vec<u64>) -> Dense {
+        let base = &self.modulus.base;
+        let n = self.modulus.degree() as usize;
+        for top in (n..a.len()).rev() {
+            let c = a[top];
+            if c == 0 {
+                continue;
+            }
+            for &(j, t) in &self.tail {
+                let k = top - n + j;
+                a[k] = base.sub(&a[k], &base.mul(&c, &t));
+            }
+            a[top] = 0;
+        }
+        a.truncate(n);
+        univariate::trimmed(base, a)
+    }
+}
+
+/// The monic polynomials x^k + g in the counting order of the module doc, with g(0) ≠ 0.
+struct Candidates {
+    p: u64,
+    lower: Vec<u64>,
+    started: bool,
+}
+
+impl Candidates {
+    fn new(p: u64, k: usize) -> Self {
+        Candidates {
+            p,
+            lower: vec![0; k],
+            started: false,
+        }
+    }
+
+    /// The next lower coefficients c_0..c_(k−1) with c_0 ≠ 0, or None after the last.
+    fn next(&mut self) -> Option<&[u64]> {
+        loop {
+            if self.started && !self.count_up() {
+                return None;
+            }
+            self.started = true;
+            if self.lower[0] != 0 {
+                return Some(&self.lower);
+            }
+        }
+    }
+
+    /// Count up the integer Σ c_i p^i (c_0 is the fastest digit); false after the last.
+    fn count_up(&mut self) -> bool {
+        for digit in self.lower.iter_mut() {
+            *digit += 1;
+            if *digit < self.p {
+                return true;
+            }
+            *digit = 0;
+        }
+        false
+    }
+}
+
+/// The monic irreducible polynomials over GF(p) of degree d ≥ 1 with p^d ≤ 256 and 2d ≤ k,
+/// for trial division of the default-modulus candidates.
+struct SmallFactors {
+    base: PrimeField,
+    factors: Vec<Dense>,
+}
+
+/// Largest number of monic polynomials of one degree enumerated for trial division.
+const SIEVE_SIZE: u64 = 256;
+
+impl SmallFactors {
+    fn new(base: &PrimeField, k: usize) -> Self {
+        let p = base.modulus();
+        let mut factors: Vec<Dense> = Vec::new();
+        let mut d = 1;
+        while 2 * d <= k && p.checked_pow(d as u32).is_some_and(|n| n <= SIEVE_SIZE) {
+            for code in 0..p.pow(d as u32) {
+                let mut g: Dense = (0..d).map(|i| code / p.pow(i as u32) % p).collect();
+                g.push(1);
+                let reducible = factors
+                    .iter()
+                    .any(|h| h.len() < g.len() && univariate::remainder(base, &g, h).is_empty());
+                if !reducible {
+                    factors.push(g);
+                }
+            }
+            d += 1;
+        }
+        SmallFactors {
+            base: base.clone(),
+            factors,
+        }
+    }
+
+    /// Whether one of the small irreducibles divides f = x^k + g: x^k mod h by repeated
+    /// squaring modulo the small h, plus g mod h.
+    fn divides(&self, f: &Modulus) -> bool {
+        let k = f.degree() as u64;
+        let lower = &f.coeffs[..k as usize];
+        self.factors.iter().any(|h| {
+            let modulo = Modulo::new(&self.base, h);
+            let top = modulo
+                .x_power(&[k], &Control::new())
+                .expect("no limits and no interruption");
+            let low = univariate::remainder(
+                &self.base,
+                &univariate::trimmed(&self.base, lower.to_vec()),
+                h,
+            );
+            univariate::add(&self.base, &top, &low).is_empty()
+        })
+    }
+}
+
+/// Dense polynomial as text in `name`, highest degree first (`a^3 + 2*a + 1`, `0`), with
+/// coefficients in 0..p.
+pub(crate) fn format_dense(c: &[u64], name: &str) -> String {
+    univariate::format_terms(
+        c.iter()
+            .enumerate()
+            .rev()
+            .filter(|(_, &ci)| ci != 0)
+            .map(|(i, ci)| (i, ci.to_string())),
+        name,
+    )
 }
 
 impl Modulus {

@@ -1,0 +1,339 @@
+//! Products of polynomials with word-size coefficients modulo m by number-theoretic transforms
+//! (Pollard 1971; Schönhage and Strassen 1971): the integer product of the coefficient vectors
+//! is computed modulo a few primes p = c·2^32 + 1 just below 2^62, whose multiplicative groups
+//! hold roots of unity of order 2^32, and put together by the Chinese remainder theorem in
+//! Garner's mixed-radix form (Garner 1959) before the reduction modulo m. The exact integer
+//! coefficients are below n·(m − 1)^2, so the number of transform primes is chosen from m and n
+//! (one for small m, at most three for m < 2^63). Arithmetic modulo a transform prime uses
+//! Montgomery's reduction (Montgomery 1985). The transforms are decimation in frequency forward
+//! and decimation in time backward, so no bit reversal is needed between them.
+
+use crate::field::primality::is_prime;
+use crate::field::PrimeField;
+use std::sync::OnceLock;
+
+/// log2 of the largest transform length.
+const MAX_LOG: u32 = 32;
+
+/// A prime p < 2^62 with 2^32 | p − 1, with its Montgomery constants.
+#[derive(Debug)]
+pub struct TransformPrime {
+    p: u64,
+    /// −p^(−1) mod 2^64.
+    neg_inv: u64,
+    /// 2^128 mod p (converts into Montgomery form).
+    r2: u64,
+    /// A root of unity of order 2^32, in Montgomery form.
+    root: u64,
+}
+
+impl TransformPrime {
+    fn new(p: u64) -> Self {
+        let mut inv: u64 = 1;
+        for _ in 0..6 {
+            inv = inv.wrapping_mul(2u64.wrapping_sub(p.wrapping_mul(inv)));
+        }
+        let r = (1u128 << 64) % p as u128;
+        let r2 = (r * r % p as u128) as u64;
+        let mut prime = TransformPrime {
+            p,
+            neg_inv: inv.wrapping_neg(),
+            r2,
+            root: 0,
+        };
+        let odd = (p - 1) >> MAX_LOG;
+        let generator = (2..)
+            .find(|&g| prime.is_generator(g, odd))
+            .expect("a prime has a primitive root");
+        prime.root = prime.to_montgomery(prime.power(generator, odd));
+        prime
+    }
+
+    pub fn modulus(&self) -> u64 {
+        self.p
+    }
+
+    /// a·b·2^(−64) mod p for a, b < p.
+    #[inline(always)]
+    fn mont(&self, a: u64, b: u64) -> u64 {
+        let t = a as u128 * b as u128;
+        let m = (t as u64).wrapping_mul(self.neg_inv);
+        let u = ((t + m as u128 * self.p as u128) >> 64) as u64;
+        if u >= self.p {
+            u - self.p
+        } else {
+            u
+        }
+    }
+    #[inline(always)]
+    fn add(&self, a: u64, b: u64) -> u64 {
+        let s = a + b;
+        if s >= self.p {
+            s - self.p
+        } else {
+            s
+        }
+    }
+    #[inline(always)]
+    fn sub(&self, a: u64, b: u64) -> u64 {
+        if a >= b {
+            a - b
+        } else {
+            a + self.p - b
+        }
+    }
+    fn to_montgomery(&self, a: u64) -> u64 {
+        self.mont(a % self.p, self.r2)
+    }
+    /// a·b mod p for plain residues.
+    fn mul(&self, a: u64, b: u64) -> u64 {
+        self.mont(self.to_montgomery(a), b)
+    }
+    fn power(&self, a: u64, mut e: u64) -> u64 {
+        let (mut base, mut acc) = (a % self.p, 1u64);
+        while e > 0 {
+            if e & 1 == 1 {
+                acc = self.mul(acc, base);
+            }
+            base = self.mul(base, base);
+            e >>= 1;
+        }
+        acc
+    }
+    fn inverse(&self, a: u64) -> u64 {
+        self.power(a, self.p - 2)
+    }
+    /// Whether g generates the multiplicative group; p − 1 = odd · 2^32.
+    fn is_generator(&self, g: u64, odd: u64) -> bool {
+        let mut factors = vec![2];
+        factors.extend(crate::field::extension::prime_divisors(odd));
+        factors
+            .iter()
+            .all(|&r| self.power(g, (self.p - 1) / r) != 1)
+    }
+
+    /// Roots w^0, ..., w^(n/2 − 1) of a primitive n-th root of unity w (or its inverse), in
+    /// Montgomery form.
+    fn roots(&self, log_n: u32, inverse: bool) -> Vec<u64> {
+        let mut w = self.root;
+        for _ in log_n..MAX_LOG {
+            w = self.mont(w, w);
+        }
+        if inverse {
+            // w^(-1) = w^(n − 1).
+            w = self.to_montgomery(self.inverse(self.mont(w, 1)));
+        }
+        let half = (1usize << log_n) / 2;
+        let mut out = Vec::with_capacity(half);
+        let mut x = self.to_montgomery(1);
+        for _ in 0..half {
+            out.push(x);
+            x = self.mont(x, w);
+        }
+        out
+    }
+
+    /// Forward transform in place (decimation in frequency; output in bit-reversed order).
+    fn forward(&self, a: &mut [u64], roots: &[u64]) {
+        let n = a.len();
+        let mut len = n;
+        while len >= 2 {
+            let half = len / 2;
+            let step = n / len;
+            for block in a.chunks_mut(len) {
+                let (lo, hi) = block.split_at_mut(half);
+                for (j, (u, v)) in lo.iter_mut().zip(hi.iter_mut()).enumerate() {
+                    let (x, y) = (*u, *v);
+                    *u = self.add(x, y);
+                    *v = self.mont(self.sub(x, y), roots[j * step]);
+                }
+            }
+            len = half;
+        }
+    }
+
+    /// Inverse transform in place (decimation in time; input in bit-reversed order), without
+    /// the division by n.
+    fn backward(&self, a: &mut [u64], inverse_roots: &[u64]) {
+        let n = a.len();
+        let mut len = 2;
+        while len <= n {
+            let half = len / 2;
+            let step = n / len;
+            for block in a.chunks_mut(len) {
+                let (lo, hi) = block.split_at_mut(half);
+                for (j, (u, v)) in lo.iter_mut().zip(hi.iter_mut()).enumerate() {
+                    let (x, y) = (*u, self.mont(*v, inverse_roots[j * step]));
+                    *u = self.add(x, y);
+                    *v = self.sub(x, y);
+                }
+            }
+            len *= 2;
+        }
+    }
+
+    /// The cyclic convolution of a and b of length n = 2^log_n (both zero-padded to n), exact
+    /// modulo p.
+    fn convolve(&self, a: &[u64], b: &[u64], log_n: u32) -> Vec<u64> {
+        let n = 1usize << log_n;
+        let roots = self.roots(log_n, false);
+        let load = |v: &[u64]| {
+            let mut out: Vec<u64> = v.iter().map(|&x| x % self.p).collect();
+            out.resize(n, 0);
+            out
+        };
+        let mut fa = load(a);
+        self.forward(&mut fa, &roots);
+        let same = std::ptr::eq(a, b);
+        let fb = if same {
+            None
+        } else {
+            let mut fb = load(b);
+            self.forward(&mut fb, &roots);
+            Some(fb)
+        };
+        match &fb {
+            Some(fb) => fa
+                .iter_mut()
+                .zip(fb)
+                .for_each(|(x, y)| *x = self.mont(*x, *y)),
+            None => fa.iter_mut().for_each(|x| *x = self.mont(*x, *x)),
+        }
+        self.backward(&mut fa, &self.roots(log_n, true));
+        // The pointwise Montgomery products left a factor 2^(−64); undo it with 1/n.
+        let n_inv = self.inverse(n as u64 % self.p);
+        let scale = self.mont(self.to_montgomery(n_inv), self.r2);
+        fa.iter_mut().for_each(|x| *x = self.mont(*x, scale));
+        fa
+    }
+}
+
+/// The transform primes, largest first.
+pub fn transform_primes() -> &'static [TransformPrime] {
+    static PRIMES: OnceLock<Vec<TransformPrime>> = OnceLock::new();
+    PRIMES.get_or_init(|| {
+        (1..1u64 << 30)
+            .rev()
+            .map(|c| (c << MAX_LOG) + 1)
+            .filter(|&p| is_prime(p))
+            .take(3)
+            .map(TransformPrime::new)
+            .collect()
+    })
+}
+
+/// The product of the polynomials a and b (coefficients in 0..m, m < 2^63 prime or not),
+/// coefficients reduced modulo m; length a.len() + b.len() − 1, not trimmed.
+pub fn multiply_words(a: &[u64], b: &[u64], m: u64) -> Vec<u64> {
+    let len = a.len() + b.len() - 1;
+    let log_n = len.next_power_of_two().trailing_zeros();
+    assert!(log_n <= MAX_LOG, "a product longer than 2^32 coefficients");
+    // The integer coefficients are below min(|a|, |b|)·(m − 1)^2.
+    let bits = 2 * (64 - (m - 1).leading_zeros()) + (64 - a.len().min(b.len()).leading_zeros());
+    let primes = &transform_primes()[..(bits as usize).div_ceil(61).clamp(1, 3)];
+    let same = std::ptr::eq(a, b);
+    let residues: Vec<Vec<u64>> = rayon_map(primes, |prime| {
+        prime.convolve(a, if same { a } else { b }, log_n)
+    });
+    let crt = Garner::new(primes, m);
+    (0..len).map(|i| crt.combine(&residues, i)).collect()
+}
+
+fn rayon_map<T: Sync, R: Send>(items: &[T], f: impl Fn(&T) -> R + Sync + Send) -> Vec<R> {
+    use rayon::prelude::*;
+    items.par_iter().map(f).collect()
+}
+
+/// Arithmetic modulo m < 2^63 (prime or not) for the final reduction.
+enum Target {
+    Prime(PrimeField),
+    Composite(u64),
+}
+
+impl Target {
+    fn new(m: u64) -> Self {
+        PrimeField::new(m).map_or(Target::Composite(m), Target::Prime)
+    }
+    fn modulus(&self) -> u64 {
+        match self {
+            Target::Prime(f) => f.modulus(),
+            Target::Composite(m) => *m,
+        }
+    }
+    fn reduce(&self, a: u64) -> u64 {
+        a % self.modulus()
+    }
+    fn mul(&self, a: u64, b: u64) -> u64 {
+        match self {
+            Target::Prime(f) => f.mul_u64(a, b),
+            Target::Composite(m) => (a as u128 * b as u128 % *m as u128) as u64,
+        }
+    }
+    fn add(&self, a: u64, b: u64) -> u64 {
+        let m = self.modulus();
+        let s = a + b;
+        if s >= m {
+            s - m
+        } else {
+            s
+        }
+    }
+}
+
+/// The Chinese remainder step from residues modulo the transform primes to a residue modulo m,
+/// by Garner's mixed-radix digits: x = v0 + v1·p0 + v2·p0·p1 with 0 ≤ v_i < p_i.
+struct Garner<'a> {
+    primes: &'a [TransformPrime],
+    target: Target,
+    /// p0^(−1) mod p1, p0 mod p2, (p0·p1)^(−1) mod p2 (in Montgomery form where multiplied).
+    inv_p0_mod_p1: u64,
+    p0_mod_p2: u64,
+    inv_p01_mod_p2: u64,
+    /// p0 mod m and p0·p1 mod m.
+    p0_mod_m: u64,
+    p01_mod_m: u64,
+}
+
+impl<'a> Garner<'a> {
+    fn new(primes: &'a [TransformPrime], m: u64) -> Self {
+        let target = Target::new(m);
+        let p0 = primes[0].p;
+        let (mut inv_p0_mod_p1, mut p0_mod_p2, mut inv_p01_mod_p2) = (0, 0, 0);
+        if let Some(p1) = primes.get(1) {
+            inv_p0_mod_p1 = p1.to_montgomery(p1.inverse(p0 % p1.p));
+        }
+        if let Some(p2) = primes.get(2) {
+            p0_mod_p2 = p2.to_montgomery(p0 % p2.p);
+            let p01 = p2.mul(p0 % p2.p, primes[1].p % p2.p);
+            inv_p01_mod_p2 = p2.to_montgomery(p2.inverse(p01));
+        }
+        let p0_mod_m = target.reduce(p0);
+        let p01_mod_m = target.mul(p0_mod_m, primes.get(1).map_or(0, |p1| target.reduce(p1.p)));
+        Garner {
+            primes,
+            target,
+            inv_p0_mod_p1,
+            p0_mod_p2,
+            inv_p01_mod_p2,
+            p0_mod_m,
+            p01_mod_m,
+        }
+    }
+
+    /// Coefficient i modulo m.
+    fn combine(&self, residues: &[Vec<u64>], i: usize) -> u64 {
+        let t = &self.target;
+        let v0 = residues[0][i];
+        let mut x = t.reduce(v0);
+        if let Some(p1) = self.primes.get(1) {
+            let v1 = p1.mont(p1.sub(residues[1][i], v0 % p1.p), self.inv_p0_mod_p1);
+            x = t.add(x, t.mul(t.reduce(v1), self.p0_mod_m));
+            if let Some(p2) = self.primes.get(2) {
+                let partial = p2.add(v0 % p2.p, p2.mont(v1 % p2.p, self.p0_mod_p2));
+                let v2 = p2.mont(p2.sub(residues[2][i], partial), self.inv_p01_mod_p2);
+                x = t.add(x, t.mul(t.reduce(v2), self.p01_mod_m));
+            }
+        }
+        x
+    }
+}
