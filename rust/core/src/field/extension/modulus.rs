@@ -126,9 +126,9 @@ impl Modulus {
     pub fn parse(base: PrimeField, k: Option<u32>, text: &str) -> Result<Self> {
         let ring = Ring::new(base.clone(), vec!["a".to_string()], MonomialOrder::Lex)?;
         let f = parse_poly(&ring, text).map_err(|e| match e {
-            Error::Parse { message, column } => {
-                Error::invalid(format!("modulus '{text}': column {column}: {message}"))
-            }
+            Error::Parse {
+                message, column, ..
+            } => Error::invalid(format!("modulus '{text}': column {column}: {message}")),
             other => other,
         })?;
         let degree = f.degree().unwrap_or(0) as usize;
@@ -368,7 +368,7 @@ impl Modulus {
         if self.is_default {
             format!("GF({p}^{k})")
         } else {
-            format!("GF({p}^{k}, modulus='{}')", self.text())
+            format!("GF({p})[a]/({})", self.text())
         }
     }
 }
