@@ -86,7 +86,15 @@ impl AnyField {
             Ok(t.parse().expect("digits"))
         };
         let evaluated;
-        let order = if order.contains(['+', '-', '*', '(']) {
+        if !order
+            .chars()
+            .all(|c| c.is_ascii_digit() || "+-*^() ".contains(c))
+        {
+            return Err(Error::invalid(format!(
+                "unknown field spec '{spec}': expected {SPEC_FORMS}"
+            )));
+        }
+        let order = if order.contains(['+', '-', '*', '(']) || order.matches('^').count() > 1 {
             evaluated = integer_expression(spec, order)?.to_string();
             evaluated.as_str()
         } else {
@@ -452,7 +460,7 @@ mod tests {
             err("GF((2+1)")
         );
         assert!(err("ZZ").contains("unknown field spec 'ZZ'"));
-        assert!(err("GF(x)").contains("'x' is not a positive integer"));
+        assert!(err("GF(x)").contains("unknown field spec 'GF(x)'"));
         assert!(err("GF(2^0)").contains("exponent"));
         let big =
             "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949^2)";

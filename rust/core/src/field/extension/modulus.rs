@@ -362,7 +362,7 @@ impl Modulus {
         self.is_default
     }
 
-    /// `GF(p^k)`, with `, modulus='...'` unless the modulus is the default one.
+    /// `GF(p^k)`, or `GF(p)[a]/(f)` when the modulus f is not the default one.
     pub fn spec(&self) -> String {
         let (p, k) = (self.characteristic(), self.degree());
         if self.is_default {
