@@ -21,9 +21,10 @@ README = (ROOT / "README.md").read_text(encoding="utf-8")
 # package under these names.
 PENDING = {"points", "closed_points", "guess_plan", "curve", "fiber_points"}
 
-# Names of the first edition, gone everywhere (no aliases).
+# Names of the first edition, gone everywhere (no aliases). Two of them are the names another
+# program uses, so they are spelled here in pieces: the tree must not contain them at all.
 OLD_NAMES = [
-    "PolynomialRing", "Ideal", "groebner_basis", "noether_normalization", "vector_space_dimension",
+    "Polynomial" + "Ring", "Ideal", "groebner_basis", "noether_normalization", "vector_space" + "_dimension",
     "is_maximal", "residue_field_degree", "hilbert_series", "is_subset", "QQ", "read_system",
     "parse_system", "normal_form_of", "NativeRing",
 ]
