@@ -7,7 +7,7 @@ PY     := $(VENV)/bin/python
 STAMP  := $(VENV)/.installed-$(shell sha1sum requirements-dev.txt | cut -c1-12)
 export VIRTUAL_ENV := $(abspath $(VENV))
 
-.PHONY: all build test test-rust test-python demo bench clean
+.PHONY: all build wheel test test-rust test-python demo bench clean
 
 all: test
 
@@ -19,6 +19,10 @@ $(STAMP): requirements-dev.txt
 
 build: $(STAMP)
 	$(VENV)/bin/maturin develop --release --quiet
+
+# One abi3 wheel (CPython 3.10 and later) in dist/: pip install dist/fibrewise-*.whl
+wheel: $(STAMP)
+	$(VENV)/bin/maturin build --release --quiet --interpreter $(PY) --out dist
 
 test-rust:
 	cargo test --quiet -p fibrewise-core
@@ -44,4 +48,4 @@ bench: build
 	$(PY) bench/run.py
 
 clean:
-	rm -rf $(VENV) target
+	rm -rf $(VENV) target dist

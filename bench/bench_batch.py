@@ -67,20 +67,20 @@ def overhead(repeats: int = 2000) -> dict:
     """Microseconds per call outside the core, median over ``repeats`` tiny systems."""
     import fibrewise as fw
 
-    R = fw.PolynomialRing(f"GF({P})", "x, y, z, w")
+    R = fw.Space(f"GF({P})", "x, y, z, w")
     texts = ["x*y - 1", "z - w + 3", "x^2 - z"]
-    gens = [R(t) for t in texts]
+    gens = [R.parse(t) for t in texts]
     calls, cores = [], []
     for _ in range(repeats):
-        ideal = R.ideal(gens)  # a fresh ideal: no cached basis
+        system = R.system(gens)  # a fresh system: no cached basis
         start = time.perf_counter()
-        gb = ideal.groebner_basis()
+        gb = system.basis()
         calls.append(time.perf_counter() - start)
         cores.append(gb.stats.seconds)
     parse = []
     for _ in range(repeats):
         start = time.perf_counter()
-        R.ideal(texts)
+        R.system(texts)
         parse.append(time.perf_counter() - start)
     call, core = statistics.median(calls), statistics.median(cores)
     return {"call_us": round(call * 1e6, 1), "core_us": round(core * 1e6, 1),

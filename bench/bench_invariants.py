@@ -43,18 +43,18 @@ def main() -> None:
     print(header)
     print("-" * len(header))
     for name, spec, names, eqs in systems():
-        I = fw.PolynomialRing(spec, names).ideal(eqs)
-        gb, t_gb = timed(I.groebner_basis)
+        I = fw.Space(spec, names).system(eqs)
+        gb, t_gb = timed(I.basis)
         d, t_dim = timed(I.dimension)
-        hs, t_hs = timed(I.hilbert_series)
+        hs, t_hs = timed(I.hilbert)
         if d == 0:
-            vs, t_vs = timed(I.vector_space_dimension)
+            vs, t_vs = timed(I.quotient_dimension)
         else:
             vs, t_vs = None, float("nan")
         # Point counts over a small field: GF(101) for finite sets, GF(7) for positive dimension
         # (the count is then about 7^dim, all of it in one zero-dimensional basis).
         q = 101 if d == 0 else 7
-        pts, t_pts = timed(fw.PolynomialRing(q, names).ideal(eqs).count_points)
+        pts, t_pts = timed(fw.Space(q, names).system(eqs).count_points)
         ratio = max(t_dim, t_hs, 0 if vs is None else t_vs) / max(t_gb, 1e-9)
         result = f"dim {d}, degree {hs.degree}, GF({q})-points {pts}"
         print(f"{name:28} {t_gb:8.3f} {t_dim:8.4f} {t_hs:8.4f} {t_vs:8.4f} {t_pts:8.3f} {ratio:7.3f}  {result}", flush=True)

@@ -63,10 +63,10 @@ def timed(f):
 
 
 def measure(title: str, field: int, names: list[str], polys: list[str], strategy: str = "auto") -> None:
-    ring = fw.PolynomialRing(field, names)
-    _, basis_s = timed(lambda: ring.ideal(polys).groebner_basis("grevlex"))
-    I = ring.ideal(polys)
-    nn, norm_s = timed(lambda: I.noether_normalization(strategy=strategy))
+    space = fw.Space(field, names)
+    _, basis_s = timed(lambda: space.system(polys).basis("grevlex"))
+    I = space.system(polys)
+    nn, norm_s = timed(lambda: I.projection(strategy=strategy))
     _, verify_s = timed(nn.verify)
     ratio = norm_s / basis_s if basis_s > 0 else float("inf")
     eq_deg = max(len(e) - 1 for e in nn.equations)

@@ -34,9 +34,9 @@ def instances():
 
 
 def ours(names, texts):
-    ring = fw.PolynomialRing(P, names, order="grevlex")
+    space = fw.Space(P, names, order="grevlex")
     start = time.perf_counter()
-    basis = ring.ideal(texts).groebner_basis(engine="f4", threads=1)
+    basis = space.system(texts).basis(engine="f4", threads=1)
     seconds = time.perf_counter() - start
     leads = sorted(tuple(g.terms()[0][0]) for g in basis)
     return seconds, leads

@@ -27,8 +27,8 @@ def sympy_basis(texts, nvars, p, order):
 
 
 def our_basis(texts, nvars, p, order):
-    R = fw.PolynomialRing(p, NAMES[:nvars], order=order)
-    gb = R.ideal(texts).groebner_basis()
+    R = fw.Space(p, NAMES[:nvars], order=order)
+    gb = R.system(texts).basis()
     return {frozenset((tuple(e), c % p) for e, c in g.terms()) for g in gb}
 
 
@@ -52,8 +52,8 @@ def test_sampled_engine_on_katsura_matches_sympy_and_the_published_count():
     from systems import katsura
 
     names, eqs = katsura(4)
-    R = fw.PolynomialRing(32003, names, order="grevlex")
-    gb = R.ideal(eqs).groebner_basis(engine="f4-sampled")
+    R = fw.Space(32003, names, order="grevlex")
+    gb = R.system(eqs).basis(engine="f4-sampled")
     assert gb.stats.engine == "f4-sampled"
     ours = {frozenset((tuple(e), c % 32003) for e, c in g.terms()) for g in gb}
     gens = sympy.symbols(names)
@@ -62,18 +62,18 @@ def test_sampled_engine_on_katsura_matches_sympy_and_the_published_count():
                     for g in theirs.exprs}
 
     names, eqs = katsura(7)
-    ideal = fw.PolynomialRing(32003, names, order="grevlex").ideal(eqs)
-    sampled = ideal.groebner_basis(engine="f4-sampled")
-    exact = ideal.groebner_basis(engine="f4")
+    ideal = fw.Space(32003, names, order="grevlex").system(eqs)
+    sampled = ideal.basis(engine="f4-sampled")
+    exact = ideal.basis(engine="f4")
     assert list(map(str, sampled)) == list(map(str, exact))
     assert sampled.stats.zero_reductions < exact.stats.zero_reductions
     assert ideal.degree() == 2**7
 
 
 def test_unknown_engine_is_refused_with_the_choices():
-    R = fw.PolynomialRing(7, "x, y")
+    R = fw.Space(7, "x, y")
     with pytest.raises(ValueError, match="f4-sampled"):
-        R.ideal(["x*y - 1"]).groebner_basis(engine="f5")
+        R.system(["x*y - 1"]).basis(engine="f5")
 
 
 @pytest.mark.parametrize("seed", range(0, 300, 3))
@@ -83,8 +83,8 @@ def test_signature_engine_matches_sympy_in_degree_orders(seed):
     p, nvars = PRIMES[seed % len(PRIMES)], 2 + seed % 3
     order = ["grlex", "grevlex"][seed % 2]
     texts = [random_poly(rng, NAMES[:nvars], p) for _ in range(rng.randint(1, 3))]
-    R = fw.PolynomialRing(p, NAMES[:nvars], order=order)
-    gb = R.ideal(texts).groebner_basis(engine="f4-signature")
+    R = fw.Space(p, NAMES[:nvars], order=order)
+    gb = R.system(texts).basis(engine="f4-signature")
     assert gb.stats.engine == "f4-signature"
     ours = {frozenset((tuple(e), c % p) for e, c in g.terms()) for g in gb}
     assert ours == sympy_basis(texts, nvars, p, order), f"{texts} over GF({p}), {order}"
@@ -96,11 +96,11 @@ def test_signature_engine_on_katsura_skips_zero_reductions_and_refuses_lex():
     from systems import katsura
 
     names, eqs = katsura(7)
-    ideal = fw.PolynomialRing(32003, names, order="grevlex").ideal(eqs)
-    signature = ideal.groebner_basis(engine="f4-signature")
-    exact = ideal.groebner_basis(engine="f4")
+    ideal = fw.Space(32003, names, order="grevlex").system(eqs)
+    signature = ideal.basis(engine="f4-signature")
+    exact = ideal.basis(engine="f4")
     assert list(map(str, signature)) == list(map(str, exact))
     assert signature.stats.zero_reductions * 4 < exact.stats.zero_reductions
-    lex = fw.PolynomialRing(32003, names, order="lex").ideal(eqs)
+    lex = fw.Space(32003, names, order="lex").system(eqs)
     with pytest.raises(ValueError, match="compares degrees first"):
-        lex.groebner_basis(engine="f4-signature")
+        lex.basis(engine="f4-signature")

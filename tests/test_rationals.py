@@ -1,8 +1,8 @@
-"""Maximal ideals over QQ: ``is_maximal`` and ``residue_field_degree`` against handbook facts
-and against sympy (reference library from PyPI): sympy's ``groebner`` gives dim_QQ R/I and, by
+"""Maximal ideals over Q: ``is_closed_point`` and ``closed_point_degree`` against handbook facts
+and against sympy (reference library from PyPI): sympy's ``groebner`` gives dim_Q R/I and, by
 eliminating all variables from I + (t - u) in lex order, the minimal polynomial of a linear form
 u; sympy's ``Poly.is_irreducible`` decides whether it is irreducible. When that polynomial has
-degree dim R/I, R/I = QQ[t]/(m) is a field iff m is irreducible; a reducible one always means
+degree dim R/I, R/I = Q[t]/(m) is a field iff m is irreducible; a reducible one always means
 "not a field"."""
 
 import random
@@ -42,27 +42,27 @@ def standard_monomial_count(basis, xs):
     )
 
 
-# (variables, generators, maximal, [R/I : QQ] when maximal), each with its outside source.
+# (variables, generators, maximal, [R/I : Q] when maximal), each with its outside source.
 CASES = [
-    # QQ(√2, √3) has degree 4 over QQ (handbook fact).
+    # Q(√2, √3) has degree 4 over Q (handbook fact).
     (["x", "y"], ["x^2 - 2", "y^2 - 3"], True, 4),
     # (y - x)(y + x) = y^2 - x^2 = 0 in R/I: a zero divisor.
     (["x", "y"], ["x^2 - 2", "y^2 - 2"], False, None),
     # y = ±2x: again two components.
     (["x", "y"], ["x^2 - 2", "y^2 - 8"], False, None),
-    # QQ(i) has degree 2.
+    # Q(i) has degree 2.
     (["x"], ["x^2 + 1"], True, 2),
     # x^4 + 4 = (x^2 + 2x + 2)(x^2 - 2x + 2) (Sophie Germain's identity).
     (["x"], ["x^4 + 4"], False, None),
-    # The minimal polynomial of √2 + √3 (Swinnerton-Dyer): irreducible over QQ, reducible
+    # The minimal polynomial of √2 + √3 (Swinnerton-Dyer): irreducible over Q, reducible
     # modulo every prime.
     (["x"], ["x^4 - 10*x^2 + 1"], True, 4),
     # The same field with y = (x^3 - 9x)/2 = √2 adjoined again (expand (√2 + √3)^3).
     (["x", "y"], ["x^4 - 10*x^2 + 1", "y - x^3/2 + 9/2*x"], True, 4),
-    # QQ(√2, √3, √5) has degree 8 (handbook fact: square roots of distinct squarefree integers
+    # Q(√2, √3, √5) has degree 8 (handbook fact: square roots of distinct squarefree integers
     # are linearly independent).
     (["x", "y", "z"], ["x^2 - 2", "y^2 - 3", "z^2 - 5"], True, 8),
-    # The splitting field of x^3 - 2, QQ(∛2, ω), has degree 6 (handbook fact); y = ωx.
+    # The splitting field of x^3 - 2, Q(∛2, ω), has degree 6 (handbook fact); y = ωx.
     (["x", "y"], ["x^3 - 2", "y^2 + x*y + x^2"], True, 6),
     # A rational point is maximal of degree 1; a double point is not.
     (["x", "y"], ["x - 3/4", "y + 2"], True, 1),
@@ -72,14 +72,14 @@ CASES = [
 
 @pytest.mark.parametrize("names, gens, maximal, degree", CASES)
 def test_known_maximal_and_non_maximal_ideals(names, gens, maximal, degree, rng):
-    I = fw.PolynomialRing("QQ", names).ideal(gens)
-    assert I.is_maximal() == maximal
-    assert sympy_verdict(names, gens, rng) == (maximal, I.vector_space_dimension())
+    I = fw.Space("Q", names).system(gens)
+    assert I.is_closed_point() == maximal
+    assert sympy_verdict(names, gens, rng) == (maximal, I.quotient_dimension())
     if maximal:
-        assert I.residue_field_degree() == degree
+        assert I.closed_point_degree() == degree
     else:
         with pytest.raises(ValueError, match="not maximal"):
-            I.residue_field_degree()
+            I.closed_point_degree()
 
 
 def random_univariate(rng, degree):
@@ -88,9 +88,9 @@ def random_univariate(rng, degree):
 
 
 def test_random_simple_extensions_against_sympy(rng):
-    # (f(x), y - x^2 + 1): R/I = QQ[x]/(f), a field iff f is irreducible (sympy decides).
+    # (f(x), y - x^2 + 1): R/I = Q[x]/(f), a field iff f is irreducible (sympy decides).
     # Half of the f are products, so both answers occur.
-    R = fw.PolynomialRing("QQ", "x, y")
+    R = fw.Space("Q", "x, y")
     x = sympy.Symbol("x")
     seen = set()
     for k in range(16):
@@ -100,17 +100,17 @@ def test_random_simple_extensions_against_sympy(rng):
         poly = sympy.Poly(sympy.sympify(f.replace("^", "**")), x)
         if poly.degree() < 1 or not sympy.Poly(sympy.gcd(poly, poly.diff(x)), x).degree() == 0:
             continue  # keep squarefree f of positive degree
-        I = R.ideal([f, "y - x^2 + 1"])
-        assert I.is_maximal() == poly.is_irreducible, f
+        I = R.system([f, "y - x^2 + 1"])
+        assert I.is_closed_point() == poly.is_irreducible, f
         if poly.is_irreducible:
-            assert I.residue_field_degree() == poly.degree()
+            assert I.closed_point_degree() == poly.degree()
         seen.add(poly.is_irreducible)
     assert seen == {True, False}
 
 
 def test_positive_dimensional_and_unit_ideals_are_not_maximal():
-    R = fw.PolynomialRing("QQ", "x, y")
-    assert not R.ideal(["x*y - 1"]).is_maximal()
-    assert not R.ideal(["1"]).is_maximal()
+    R = fw.Space("Q", "x, y")
+    assert not R.system(["x*y - 1"]).is_closed_point()
+    assert not R.system(["1"]).is_closed_point()
     with pytest.raises(ValueError, match="not maximal"):
-        R.ideal(["x*y - 1"]).residue_field_degree()
+        R.system(["x*y - 1"]).closed_point_degree()

@@ -3,34 +3,46 @@
 The algorithms live in a Rust core (``fibrewise._native``); this package is the user-facing API:
 
 >>> import fibrewise as fw
->>> R = fw.PolynomialRing("GF(7)", "x, y", order="grevlex")
->>> I = R.ideal(["x*y - 1", "x^2 - y"])
->>> list(I.groebner_basis())
-[R('x^2 - y'), R('x*y - 1'), R('y^2 - x')]
+>>> V = fw.Space("GF(7)", "x, y", order="grevlex")
+>>> S = V.system(["x*y - 1", "x^2 - y"])
+>>> [str(g) for g in S.basis()]
+['x^2 - y', 'x*y - 1', 'y^2 - x']
 """
 
-from ._native import ResourceLimit
+from importlib.metadata import PackageNotFoundError, version as _version
+
+from ._native import ParseError, ResourceLimit
 from .fields import Field, field
-from .ideals import ReducedBasis, GroebnerStats, Ideal
 from .invariants import HilbertSeries
-from .normalization import IntegralEquation, FiniteProjection
+from .names import Engine, OrderName, Strategy
+from .normalization import CertificateError, FiniteProjection, IntegralEquation
 from .orders import BlockOrder, WeightOrder
-from .rings import Polynomial, PolynomialRing
+from .spaces import Polynomial, Space
+from .systems import GroebnerStats, ReducedBasis, StepStats, System
 
 __all__ = [
     "BlockOrder",
+    "CertificateError",
+    "Engine",
     "Field",
-    "ReducedBasis",
+    "FiniteProjection",
     "GroebnerStats",
     "HilbertSeries",
-    "Ideal",
     "IntegralEquation",
-    "FiniteProjection",
+    "OrderName",
+    "ParseError",
     "Polynomial",
-    "PolynomialRing",
+    "ReducedBasis",
     "ResourceLimit",
+    "Space",
+    "StepStats",
+    "Strategy",
+    "System",
     "WeightOrder",
     "field",
 ]
 
-__version__ = "0.1.0"
+try:
+    __version__ = _version("fibrewise")
+except PackageNotFoundError:  # pragma: no cover - running from a source tree without metadata
+    __version__ = "unknown"

@@ -21,9 +21,9 @@ CHEAP_POINTS = 20_000
 
 
 def _system(args: argparse.Namespace):
-    from .systemfile import read_system
+    from .systems import System
 
-    return read_system(args.file)
+    return System.read(args.file)
 
 
 def _timed(call: Callable[[], Any]) -> tuple[Any, float]:
@@ -33,9 +33,9 @@ def _timed(call: Callable[[], Any]) -> tuple[Any, float]:
 
 
 def _header(system) -> dict:
-    ring = system.ring
-    return {"file": system.path, "field": str(ring.field), "variables": list(ring.variables),
-            "order": str(ring.order), "polynomials": len(system.ideal.generators)}
+    space = system.space
+    return {"file": system.path, "field": str(space.field), "variables": list(space.names),
+            "order": str(space.order), "polynomials": len(system.equations)}
 
 
 # ----------------------------------------------------------------------------------------------
@@ -44,9 +44,9 @@ def _header(system) -> dict:
 
 def _basis(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
-    order = args.order or system.ring.order
+    order = args.order or system.space.order
     activity.set_step("Groebner basis")
-    gb, seconds = _timed(lambda: system.ideal.groebner_basis(order, engine=args.engine))
+    gb, seconds = _timed(lambda: system.basis(order, engine=args.engine))
     return {**_header(system), "order": str(order), "basis": [str(g) for g in gb],
             "seconds": seconds, "stats": gb.stats.to_dict()}
 
@@ -57,7 +57,6 @@ def _basis(args: argparse.Namespace, activity) -> dict:
 
 def _analyze(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
-    ideal = system.ideal
     result: dict[str, Any] = _header(system)
     failed: dict[str, str] = {}
 
@@ -73,17 +72,17 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
         return value
 
     activity.set_step("Groebner basis")
-    gb, result["seconds_basis"] = _timed(ideal.groebner_basis)
+    gb, result["seconds_basis"] = _timed(system.basis)
     result["basis"] = {"size": len(gb), "max_degree": gb.stats.max_degree, "engine": gb.stats.engine}
-    dim = part("dimension", "dimension", ideal.dimension)
+    dim = part("dimension", "dimension", system.dimension)
     if dim is not None and dim >= 0:
         part("independent_variables", "independent variables",
-             lambda: [str(v) for v in ideal.independent_variables()])
-        part("degree", "degree", ideal.degree)
-        part("hilbert_series", "Hilbert series", lambda: _hilbert(ideal))
+             lambda: [str(v) for v in system.independent_variables()])
+        part("degree", "degree", system.degree)
+        part("hilbert", "Hilbert series", lambda: _hilbert(system))
         if dim == 0:
-            part("vector_space_dimension", "dim_k R/I", ideal.vector_space_dimension)
-        part("normalization", "Noether normalization", lambda: _normalization_summary(ideal))
+            part("quotient_dimension", "quotient dimension", system.quotient_dimension)
+        part("projection", "finite projection", lambda: _projection_summary(system))
         points = _cheap_points(system, args, result)
         if points is not None:
             part("points", "points", points)
@@ -99,9 +98,10 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
     return result
 
 
-def _hilbert(ideal) -> dict:
-    series = ideal.hilbert_series()
+def _hilbert(system) -> dict:
+    series = system.hilbert()
     return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent,
+            "graded": series.graded,
             "polynomial": [_json_number(c) for c in series.polynomial()],
             "regularity_index": series.regularity_index()}
 
@@ -111,20 +111,20 @@ def _json_number(c) -> int | str:
     return int(c) if int(c) == c else str(c)
 
 
-def _normalization_summary(ideal) -> dict:
-    cert = ideal.noether_normalization().to_dict()
+def _projection_summary(system) -> dict:
+    cert = system.projection().to_dict()
     return {key: cert[key] for key in ("dimension", "parameters", "rank", "strategy")}
 
 
 def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
     """The point count when it is cheap (the count bounds the size of the work), else None with
     the reason in ``result["points_skipped"]``."""
-    q = system.ring.field.order
+    q = system.space.field.size
     if q is None:
         result["points_skipped"] = "the field is infinite"
         return None
     dim, degree = result.get("dimension"), result.get("degree")
-    homogeneous = all(g.is_homogeneous() for g in system.ideal.generators)
+    homogeneous = all(g.is_homogeneous() for g in system.equations)
     if args.points is None and dim != 0:
         bound = None if degree is None else degree * q ** dim
         if bound is None or bound > CHEAP_POINTS:
@@ -136,9 +136,9 @@ def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
         return None
 
     def count() -> dict:
-        counts = {"affine": system.ideal.count_points()}
+        counts = {"affine": system.count_points()}
         if homogeneous and dim is not None and dim > 0:
-            counts["projective"] = system.ideal.count_points(projective=True)
+            counts["projective"] = system.count_points(projective=True)
         return counts
 
     return count
@@ -152,11 +152,11 @@ def _summary(result: dict) -> str:
 
         return f"reduced Groebner basis of {plural(result['basis']['size'], 'polynomial')} (dimension not available in this build)"
     if dim < 0:
-        return "no solutions: the ideal is the whole ring (dimension -1)"
+        return "no solutions: the equations generate the unit ideal (dimension -1)"
     text = f"dimension {dim}"
     if result.get("degree") is not None:
         text += f", degree {result['degree']}"
-    norm = result.get("normalization")
+    norm = result.get("projection")
     if norm is not None:
         from .report import finite_over
 
@@ -170,8 +170,8 @@ def _summary(result: dict) -> str:
 
 def _normalize(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
-    activity.set_step("Noether normalization")
-    nn, seconds = _timed(lambda: system.ideal.noether_normalization(strategy=args.strategy, seed=args.seed))
+    activity.set_step("finite projection")
+    nn, seconds = _timed(lambda: system.projection(strategy=args.strategy, seed=args.seed))
     result = {**_header(system), "certificate": nn.to_dict(), "seconds": seconds}
     if not args.no_verify:
         activity.set_step("verifying the certificate")
@@ -192,11 +192,10 @@ def _normalize(args: argparse.Namespace, activity) -> dict:
 
 def _integral(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
-    ideal, ring = system.ideal, system.ring
-    element = _polynomial(ring, args.element, "--element")
-    over = [_polynomial(ring, g, "--over") for g in args.over]
+    element = _polynomial(system.space, args.element, "--element")
+    over = [_polynomial(system.space, g, "--over") for g in args.over]
     activity.set_step("integral equation")
-    equation, seconds = _timed(lambda: ideal.integral_equation(element, over=over))
+    equation, seconds = _timed(lambda: system.integral_equation(element, over=over))
     result = {**_header(system), "element": str(element), "over": [str(g) for g in over],
               "integral": equation is not None, "seconds": seconds}
     if equation is not None:
@@ -204,19 +203,19 @@ def _integral(args: argparse.Namespace, activity) -> dict:
     return result
 
 
-def _polynomial(ring, text: str, option: str):
+def _polynomial(space, text: str, option: str):
     try:
-        return ring(text)
+        return space.parse(text)
     except ValueError as e:
         raise ValueError(f"{option} {text!r}: {e}") from None
 
 
 def _points(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
-    if system.ring.field.order is None:
-        raise ValueError(f"{system.path}: points are counted over a finite field, not {system.ring.field}")
+    if system.space.field.size is None:
+        raise ValueError(f"{system.path}: points are counted over a finite field, not {system.space.field}")
     activity.set_step("counting points")
-    count, seconds = _timed(lambda: system.ideal.count_points(projective=args.projective))
+    count, seconds = _timed(lambda: system.count_points(projective=args.projective))
     return {**_header(system), "points": count, "projective": args.projective, "seconds": seconds}
 
 
@@ -230,7 +229,7 @@ def _check(args: argparse.Namespace, activity) -> dict:
 
     activity.set_step("checking the certificate")
     try:
-        outcome, seconds = _timed(lambda: check_certificate(certificate, system.ideal))
+        outcome, seconds = _timed(lambda: check_certificate(certificate, system))
         valid, problems = verdict(outcome)
     except ValueError as e:  # an unreadable certificate
         valid, problems, seconds = False, [str(e)], None
@@ -272,22 +271,20 @@ def _batch(args: argparse.Namespace, activity) -> dict:
 # Parser and main
 
 
-# The engine names the native layer accepts (rust/python/src/ideal.rs, engine_by_name).
-ENGINES = ("auto", "f4", "f4-sampled", "f4-signature", "buchberger")
 FILE_HELP = "system file (field:, variables:, order: headers, then one polynomial a line)"
 
 SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
-    "analyze": ("dimension, degree, Hilbert series, Noether normalization and, where cheap, the point count",
+    "analyze": ("dimension, degree, Hilbert series, a finite projection and, where cheap, the point count",
                 "example: fibrewise analyze examples/curve_code_gf7.txt --plot steps.png", _analyze),
     "basis": ("reduced Groebner basis of a system file",
               "example: fibrewise basis examples/toy_cipher_gf101.txt --order lex", _basis),
-    "normalize": ("Noether normalization with its certificate",
+    "normalize": ("finite projection (Noether normalization) with its certificate",
                   "example: fibrewise normalize examples/curve_code_gf7.txt -o cert.json", _normalize),
     "integral": ("is an element integral over a subalgebra, and its monic equation",
                  "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
     "points": ("number of points with coordinates in the (finite) field",
                "example: fibrewise points examples/curve_code_gf7.txt --projective", _points),
-    "check": ("verify a saved normalization certificate against the system file",
+    "check": ("verify a saved projection certificate against the system file",
               "example: fibrewise check cert.json examples/curve_code_gf7.txt", _check),
     "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
               "example: fibrewise batch examples/batch.jsonl -o results.jsonl --timeout 10", _batch),
@@ -308,6 +305,7 @@ def _positive(kind: type) -> Callable[[str], Any]:
 
 
 def _add_options(name: str, p: argparse.ArgumentParser) -> None:
+    from . import _native
     from .jobs import TASK_NAMES
 
     if name == "batch":
@@ -327,7 +325,7 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
     p.add_argument("file", help=FILE_HELP)
     if name == "basis":
         p.add_argument("--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)")
-        p.add_argument("--engine", choices=list(ENGINES), default="auto",
+        p.add_argument("--engine", choices=list(_native.ENGINE_NAMES), default="auto",
                        help="f4 (the default), f4-sampled (faster on large systems over finite fields; "
                             "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
                             "only; skips most rows that reduce to zero) or buchberger (the reference)")
@@ -338,7 +336,7 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
                            help="count the points even when the count may be large")
         group.add_argument("--no-points", dest="points", action="store_const", const=False, help="do not count points")
     elif name == "normalize":
-        p.add_argument("--strategy", choices=["auto", "variables", "linear", "nonlinear"], default="auto",
+        p.add_argument("--strategy", choices=list(_native.STRATEGY_NAMES), default="auto",
                        help="the kind of change of coordinates to use (default: the simplest that works)")
         p.add_argument("--seed", type=int, help="seed for random changes of coordinates (reproducible runs)")
         p.add_argument("--no-verify", action="store_true", help="skip re-checking the certificate")

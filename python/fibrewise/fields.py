@@ -1,8 +1,10 @@
-"""Coefficient fields: ``field(spec)`` and the ``Field`` object.
+"""Coefficient fields: ``field(spec, modulus=None)`` and the ``Field`` object.
 
-Specs: a prime ``7`` or ``"GF(7)"`` (any size; multi-precision above 2^63), ``"GF(2^8)"``,
-``"GF(9)"``, ``"GF(3^2)"``, ``"GF(2^8, modulus='a^8+a^4+a^3+a+1')"``, ``"QQ"``, or a
-``galois.GF(...)`` class (its irreducible polynomial becomes the modulus).
+Specs: a prime ``7`` or ``"GF(7)"`` (any size; multi-precision above 2^63; expressions such as
+``"GF(2^255-19)"`` inside GF(...)), ``"GF(2^8)"``, ``"GF(9)"``, ``"GF(3^2)"``, ``"Q"`` for the
+rational numbers, or a ``galois.GF(...)`` class (its irreducible polynomial becomes the
+modulus). ``field("GF(2^8)", modulus="a^8 + a^4 + a^3 + a^2 + 1")`` picks the modulus; such a
+field prints (and reads back) as ``GF(2)[a]/(a^8 + a^4 + a^3 + a^2 + 1)``.
 
 GF(p^k) is GF(p)[a]/(f). The default modulus f is the first monic irreducible polynomial of
 degree k in the order of its integer representation (for GF(2^8): a^8 + a^4 + a^3 + a + 1);
@@ -14,7 +16,9 @@ them; ``Field.to_galois`` and ``Field.from_galois`` convert.
 
 from __future__ import annotations
 
-from typing import Any, Iterable, Union
+import re
+from numbers import Integral
+from typing import Any, Iterable, Optional, Union
 
 from . import _native
 
@@ -35,18 +39,18 @@ class Field:
         return int(self._native.characteristic)
 
     @property
-    def order(self) -> int | None:
-        """Number of elements; ``None`` for an infinite field."""
-        o = self._native.order
-        return None if o is None else int(o)
+    def size(self) -> Optional[int]:
+        """Number of elements q; ``None`` for Q."""
+        q = self._native.size
+        return None if q is None else int(q)
 
     @property
     def degree(self) -> int:
-        """Degree k over the prime field (q = p^k)."""
+        """Degree k over the prime field (q = p^k); 1 for prime fields and Q."""
         return self._native.degree
 
     @property
-    def modulus(self) -> str | None:
+    def modulus(self) -> Optional[str]:
         """The modulus of GF(p^k) as text in ``a`` (``a^8 + a^4 + a^3 + a + 1``); None otherwise."""
         coeffs = _native.field_modulus(self._native)
         if coeffs is None:
@@ -60,20 +64,28 @@ class Field:
             terms.append(str(c) if i == 0 else power if c == 1 else f"{c}*{power}")
         return " + ".join(terms)
 
+    def contains(self, other: FieldSpec) -> bool:
+        """Whether ``other`` is (isomorphic to) a subfield of this field: GF(p^j) lies in
+        GF(p^k) exactly when j divides k; Q contains only itself."""
+        other = field(other)
+        if self.size is None or other.size is None:
+            return self.size is None and other.size is None
+        return self.characteristic == other.characteristic and self.degree % other.degree == 0
+
     def galois_field(self) -> Any:
-        """The same field as a ``galois.GF`` class (same modulus); ValueError for QQ."""
+        """The same field as a ``galois.GF`` class (same modulus); ValueError for Q."""
         if self._galois is None:
             import galois
 
-            if self.order is None:
-                raise ValueError("QQ has no galois counterpart: galois handles finite fields only")
+            if self.size is None:
+                raise ValueError("Q has no galois counterpart: galois handles finite fields only")
             coeffs = _native.field_modulus(self._native)
             if coeffs is None:
                 self._galois = galois.GF(self.characteristic)
             else:
                 p = self.characteristic
                 code = sum(c * p**i for i, c in enumerate(coeffs))
-                self._galois = galois.GF(self.order, irreducible_poly=code)
+                self._galois = galois.GF(self.size, irreducible_poly=code)
         return self._galois
 
     def to_galois(self, values: Union[int, Iterable[int]]) -> Any:
@@ -81,7 +93,7 @@ class Field:
         gf = self.galois_field()
         if self.degree == 1:
             p = self.characteristic
-            values = values % p if isinstance(values, int) else [v % p for v in values]
+            values = values % p if isinstance(values, Integral) else [v % p for v in values]
         return gf(values)
 
     def from_galois(self, array: Any) -> Union[int, list[int]]:
@@ -90,7 +102,9 @@ class Field:
 
         theirs = getattr(type(array), "irreducible_poly", None)
         gf = self.galois_field()
-        if theirs is None or int(theirs) != int(gf.irreducible_poly) or type(array).order != gf.order:
+        if theirs is None:
+            raise TypeError(f"expected a galois FieldArray over {self}, not {type(array).__name__}")
+        if int(theirs) != int(gf.irreducible_poly) or type(array).order != gf.order:
             raise ValueError(f"{array!r} is not an array over {self}")
         flat = [int(x) for x in np.ravel(np.asarray(array.view(np.ndarray)))]
         return flat[0] if np.ndim(array) == 0 else flat
@@ -101,11 +115,28 @@ class Field:
     def __repr__(self) -> str:
         return f"field({self._native.spec!r})"
 
+    def _repr_latex_(self) -> str:
+        return "$" + latex_field(str(self)) + "$"
+
     def __eq__(self, other: object) -> bool:
         return isinstance(other, Field) and self._native == other._native
 
     def __hash__(self) -> int:
         return hash(self._native.spec)
+
+
+_GF = re.compile(r"GF\((\d+)(?:\^(\d+))?\)")
+
+
+def latex_field(spec: str) -> str:
+    """``GF(7)`` -> ``\\mathbb{F}_{7}``, ``GF(2^8)`` -> ``\\mathbb{F}_{2^{8}}``, ``Q`` -> ``\\mathbb{Q}``."""
+    if spec == "Q":
+        return r"\mathbb{Q}"
+
+    def gf(m: re.Match) -> str:
+        return r"\mathbb{F}_{" + m.group(1) + (f"^{{{m.group(2)}}}" if m.group(2) else "") + "}"
+
+    return _GF.sub(gf, spec)
 
 
 def _is_galois_class(spec: object) -> bool:
@@ -114,19 +145,24 @@ def _is_galois_class(spec: object) -> bool:
     )
 
 
-def field(spec: FieldSpec) -> Field:
-    """The field named by ``spec`` (see the module doc), or a ``Field`` as it is.
+def field(spec: FieldSpec, modulus: Optional[str] = None) -> Field:
+    """The field named by ``spec`` (see the module doc), or a ``Field`` as it is. ``modulus``
+    (text in ``a``) picks the modulus of GF(p^k).
 
     Raises ``ValueError`` for a composite number, a reducible modulus or an unknown spec,
-    naming what is wrong.
+    naming what is wrong, and ``TypeError`` for a spec or modulus of the wrong type.
     """
-    if isinstance(spec, Field):
-        return spec
-    if _is_galois_class(spec):
+    if modulus is not None and not isinstance(modulus, str):
+        raise TypeError(f"modulus must be a str (a polynomial in a), not {type(modulus).__name__}")
+    if isinstance(spec, Field) or _is_galois_class(spec):
+        if modulus is not None:
+            raise ValueError(f"{spec} already has its modulus: pass the field spec text with modulus=")
+        if isinstance(spec, Field):
+            return spec
         coeffs = [int(c) for c in spec.irreducible_poly.coeffs[::-1]]
         return Field(_native.field_from_modulus(int(spec.characteristic), coeffs))
-    if isinstance(spec, bool) or not isinstance(spec, (int, str)):
-        raise ValueError(
-            f"a field spec must be an int, a str, a galois.GF class or a Field, not {type(spec).__name__}"
+    if isinstance(spec, bool) or not isinstance(spec, (Integral, str)):
+        raise TypeError(
+            f"a field spec is an int, a str, a galois.GF class or a Field, not {type(spec).__name__}"
         )
-    return Field(_native.NativeField(str(spec)))
+    return Field(_native.NativeField(str(int(spec)) if isinstance(spec, Integral) else spec, modulus))

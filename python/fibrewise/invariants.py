@@ -1,38 +1,41 @@
-"""Invariants of an ideal I in R = k[x1..xn]: Krull dimension, Hilbert series and degree, the
-finite-dimensional algebra R/I of a zero-dimensional ideal, and point counts over finite fields.
+"""Invariants of a system's ideal I in R = k[x1..xn]: Krull dimension, Hilbert series and
+degree, the finite-dimensional quotient R/I of a zero-dimensional system, and point counts over
+finite fields.
 
-The ``Ideal`` methods of the same names call these functions; everything is computed in the
-Rust core from the ideal's cached Gröbner basis.
+The ``System`` methods of the same names call these functions; everything is computed in the
+Rust core from the system's cached reduced Gröbner basis.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, Optional
 
 import numpy
 
 from . import _native
-from .rings import Coercible, Polynomial
+from .spaces import Coercible, Polynomial
 
 if TYPE_CHECKING:
-    from .ideals import Ideal
+    from .fields import FieldSpec
+    from .systems import System
 
 
 @dataclass(frozen=True)
 class HilbertSeries:
-    """The Hilbert series h(t) / (1 - t)^d of R/I.
+    """The Hilbert series h(t) / (1 - t)^d of the quotient ring R/I.
 
     ``numerator`` lists the coefficients of h (the coefficient of t^i at index i) and
     ``denominator_exponent`` is d, with h(1) != 0 (the unit ideal has the empty numerator).
-    For a non-homogeneous ideal (``affine``) it is the series of the affine Hilbert function
-    s -> dim_k R_{<=s} / I_{<=s}, and d = dim R/I + 1.
+    ``graded`` says which Hilbert function it is: True for homogeneous equations (the graded
+    function s -> dim_k R_s / I_s, d = dim R/I), False otherwise: the affine function
+    s -> dim_k R_{<=s} / I_{<=s}, whose series has d = dim R/I + 1.
     """
 
     numerator: list[int]
     denominator_exponent: int
-    affine: bool = False
+    graded: bool = True
 
     @property
     def degree(self) -> int:
@@ -44,7 +47,7 @@ class HilbertSeries:
         """Krull dimension of R/I; -1 for the unit ideal."""
         if not self.numerator:
             return -1
-        return self.denominator_exponent - int(self.affine)
+        return self.denominator_exponent - int(not self.graded)
 
     def polynomial(self) -> list[Fraction]:
         """Coefficients of the Hilbert polynomial, constant term first (empty when it is 0)."""
@@ -68,89 +71,137 @@ class HilbertSeries:
             return top
         return f"({top}) / (1 - t)" + (f"^{d}" if d > 1 else "")
 
+    def __repr__(self) -> str:
+        kind = "graded" if self.graded else "affine"
+        return f"<HilbertSeries ({kind}) {self}>"
 
-def _basis(ideal: "Ideal") -> tuple:
-    gb = ideal.groebner_basis()
-    return gb.ring._native, [g._native for g in gb]
+    def _repr_latex_(self) -> str:
+        from .interop import latex_polynomial
 
-
-def dimension(ideal: "Ideal") -> int:
-    """Krull dimension of R/I (maximal independent sets of the leading ideal); -1 for the unit ideal."""
-    return _native.krull_dimension(*_basis(ideal))
-
-
-def independent_variables(ideal: "Ideal") -> list[str]:
-    """Names of a maximal set of variables independent modulo I (none for the unit ideal)."""
-    names = _native.independent_variables(*_basis(ideal))
-    return [] if names is None else names
+        top = latex_polynomial(str(self).split(" / ")[0].strip("()"))
+        d = self.denominator_exponent
+        if d == 0:
+            return f"${top}$"
+        return rf"$rac{{{top}}}{{(1 - t)^{{{d}}}}}$"
 
 
-def hilbert_series(ideal: "Ideal") -> HilbertSeries:
-    """Hilbert series of R/I: graded for homogeneous generators, affine otherwise (computed
-    from a grevlex basis when the ring's order does not compare degrees first)."""
-    homogeneous = all(g._native.is_homogeneous() for g in ideal.generators)
-    if homogeneous or _native.is_degree_compatible(ideal.ring._native):
-        gb = ideal.groebner_basis()
+def _basis(system: "System") -> tuple:
+    gb = system.basis()
+    return gb.space._native, [g._native for g in gb]
+
+
+def dimension(system: "System") -> int:
+    """Krull dimension (maximal independent sets of the leading ideal); -1 for the unit ideal."""
+    return _native.dimension(*_basis(system))
+
+
+def independent_variables(system: "System") -> list[Polynomial]:
+    """A maximal set of variables independent modulo I (none for the unit ideal)."""
+    names = _native.independent_variables(*_basis(system)) or []
+    space = system.space
+    return [space.variables[space.names.index(n)] for n in names]
+
+
+def hilbert(system: "System") -> HilbertSeries:
+    """Hilbert series of R/I: graded for homogeneous equations, affine otherwise (computed
+    from a grevlex basis when the space's order does not compare degrees first)."""
+    homogeneous = all(g.is_homogeneous() for g in system.equations)
+    if homogeneous or _native.is_degree_compatible(system.space._native):
+        gb = system.basis()
     else:
-        gb = ideal.groebner_basis("grevlex")
-    numerator, d, affine = _native.hilbert_series(gb.ring._native, [g._native for g in gb])
-    return HilbertSeries(list(numerator), d, affine)
+        gb = system.basis("grevlex")
+    numerator, d, affine = _native.hilbert(gb.space._native, [g._native for g in gb])
+    return HilbertSeries(list(numerator), d, graded=not affine)
 
 
-def degree(ideal: "Ideal") -> int:
+def degree(system: "System") -> int:
     """The degree (multiplicity) of R/I."""
-    return hilbert_series(ideal).degree
+    return hilbert(system).degree
 
 
-def vector_space_dimension(ideal: "Ideal") -> int:
-    """dim_k R/I for zero-dimensional I (the number of solutions over the algebraic closure,
-    counted with multiplicity); ``ValueError`` for a positive-dimensional ideal."""
-    return _native.vector_space_dimension(*_basis(ideal))
+def quotient_dimension(system: "System") -> int:
+    """dim_k R/I for a zero-dimensional system (the number of solutions over the algebraic
+    closure, counted with multiplicity); ``ValueError`` for a positive-dimensional one."""
+    return _native.quotient_dimension(*_basis(system))
 
 
-def standard_monomials(ideal: "Ideal") -> list[Polynomial]:
-    """The monomials outside the leading ideal, a k-basis of R/I (zero-dimensional I only),
-    increasing in the ring's order."""
-    ring = ideal.ring
-    return [ring.from_terms([(e, 1)]) for e in _native.standard_monomials(*_basis(ideal))]
+def standard_monomials(system: "System") -> list[Polynomial]:
+    """The monomials outside the leading ideal, a k-basis of R/I (zero-dimensional systems
+    only), increasing in the space's order."""
+    space = system.space
+    return [space.from_terms([(e, 1)]) for e in _native.standard_monomials(*_basis(system))]
 
 
-def multiplication_matrix(ideal: "Ideal", element: Coercible) -> numpy.ndarray:
-    """The matrix of multiplication by ``element`` (e.g. a variable name) on the basis
-    ``standard_monomials()``: column j holds the coordinates of element * b_j. A numpy array
-    (int64 residues for GF(p)), or a galois array for GF(p^k)."""
-    ring_native, basis = _basis(ideal)
-    rows = _native.multiplication_matrix(ring_native, basis, ideal.ring(element)._native)
+def multiplication_matrix(system: "System", element: Coercible) -> numpy.ndarray:
+    """The matrix of multiplication by ``element`` on the basis ``standard_monomials()``:
+    column j holds the coordinates of element * b_j. A numpy int64 array of residues for GF(p)
+    with p < 2^63, a galois array for GF(p^k), and an object array of exact ints or Fractions
+    for larger primes and Q."""
+    space_native, basis = _basis(system)
+    rows = _native.multiplication_matrix(space_native, basis, system.space.polynomial(element)._native)
     size = len(rows)
-    k = ideal.ring.field
+    k = system.space.field
     if k.degree > 1:
         # GF(p^k): a galois array over the same field (entries are integer representations).
         return k.to_galois([x for row in rows for x in row]).reshape(size, size)
-    try:
+    if k.size is not None and k.size < 2**63:
         return numpy.array(rows, dtype=numpy.int64).reshape(size, size)
-    except (OverflowError, TypeError):
-        # Residues above 2^63 or exact rationals: Python objects.
-        return numpy.array(rows, dtype=object).reshape(size, size)
+    # Exact values (Fractions over Q, residues above 2^63): numpy must not convert them.
+    matrix = numpy.empty((size, size), dtype=object)
+    for i, row in enumerate(rows):
+        for j, x in enumerate(row):
+            matrix[i, j] = x
+    return matrix
 
 
-def count_solutions(ideal: "Ideal") -> int:
-    """Number of distinct solutions over the algebraic closure (zero-dimensional I), through the
-    radical; correct in positive characteristic."""
-    return _native.count_solutions(*_basis(ideal))
+def count_solutions(system: "System") -> int:
+    """Number of distinct solutions over the algebraic closure (zero-dimensional systems),
+    through the radical; correct in positive characteristic."""
+    return _native.count_solutions(*_basis(system))
 
 
-def is_maximal(ideal: "Ideal") -> bool:
-    """Whether R/I is a field: over GF(q) by the Frobenius fixed space, over QQ by a primitive
-    element whose minimal polynomial is tested for irreducibility exactly."""
-    return _native.is_maximal(*_basis(ideal))
+def is_closed_point(system: "System") -> bool:
+    """Whether R/I is a field (the solutions are one Galois orbit): over GF(q) by the Frobenius
+    fixed space, over Q by a primitive element whose minimal polynomial is tested for
+    irreducibility exactly."""
+    return _native.is_closed_point(*_basis(system))
 
 
-def residue_field_degree(ideal: "Ideal") -> int:
-    """[R/I : k] for a maximal ideal; ``ValueError`` if I is not maximal."""
-    return _native.residue_field_degree(*_basis(ideal))
+def closed_point_degree(system: "System") -> int:
+    """[R/I : k] when R/I is a field; ``ValueError`` otherwise."""
+    return _native.closed_point_degree(*_basis(system))
 
 
-def count_points(ideal: "Ideal", projective: bool = False) -> int:
-    """Number of points of V(I) with coordinates in the finite field k: in k^n, or for
-    homogeneous I in projective space P^(n-1)(k)."""
-    return _native.count_points(ideal.ring._native, [g._native for g in ideal.generators], projective)
+def count_points(system: "System", over: Optional["FieldSpec"] = None, projective: bool = False) -> int:
+    """Number of points of V(I) with coordinates in the finite field k, or in the extension
+    ``over`` of k: in affine space, or for homogeneous I in projective space P^(n-1)."""
+    if not isinstance(projective, bool):
+        raise TypeError(f"projective must be a bool, not {type(projective).__name__}")
+    if over is not None:
+        system = _in_extension(system, over)
+    if system.space.field.size is None:
+        raise ValueError(f"points are counted over a finite field, not {system.space.field}")
+    space = system.space
+    return _native.count_points(space._native, [g._native for g in system.equations], projective)
+
+
+def _in_extension(system: "System", over: "FieldSpec") -> "System":
+    """The same equations over the extension field ``over`` of the system's field. Over a prime
+    field every coefficient is an integer, so the equations read the same in any extension;
+    embedding GF(p^j) with j > 1 into GF(p^k) needs the image of its generator and is not done
+    here."""
+    from .fields import field
+    from .spaces import Space
+    from .systems import System
+
+    base, target = system.space.field, field(over)
+    if target.size is None or not target.contains(base):
+        raise ValueError(f"{target} is not a finite extension of {base}")
+    if target == base:
+        return system
+    if base.degree > 1:
+        raise ValueError(
+            f"counting points over {target} for a system over {base} needs an embedding of {base} "
+            f"into {target}, which is not available yet: write the system over {target} instead")
+    space = Space(target, system.space.names, order=system.space.order)
+    return System(space, [str(g) for g in system.equations])

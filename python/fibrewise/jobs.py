@@ -12,6 +12,8 @@ from __future__ import annotations
 import time
 from typing import Any, Callable
 
+from .names import expand_names
+
 TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis")
 DEFAULT_TASKS = ("dimension",)
 JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order")
@@ -39,10 +41,14 @@ def check_job(obj: Any) -> dict:
     if not isinstance(obj.get("field"), (str, int)) or isinstance(obj.get("field"), bool):
         raise JobError('"field" must be a field spec such as "GF(7)"')
     variables = obj.get("variables")
-    if isinstance(variables, str):
-        variables = [v for v in variables.replace(",", " ").split() if v]
-    if not isinstance(variables, list) or not variables or not all(isinstance(v, str) for v in variables):
-        raise JobError('"variables" must be a non-empty list of names')
+    if not isinstance(variables, (str, list)) or not all(isinstance(v, str) for v in variables):
+        raise JobError('"variables" must be a non-empty list of names (ranges such as "x0..x63" allowed)')
+    try:
+        variables = expand_names(variables)
+    except ValueError as e:
+        raise JobError(f'"variables": {e}') from None
+    if not variables:
+        raise JobError('"variables" must be a non-empty list of names (ranges such as "x0..x63" allowed)')
     polys = obj.get("polynomials")
     if not isinstance(polys, list) or not all(isinstance(p, str) for p in polys):
         raise JobError('"polynomials" must be a list of strings')
@@ -59,16 +65,17 @@ def check_job(obj: Any) -> dict:
             "tasks": tasks, "order": order}
 
 
-def _hilbert(ideal) -> dict:
-    series = ideal.hilbert_series()
-    return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent}
+def _hilbert(system) -> dict:
+    series = system.hilbert()
+    return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent,
+            "graded": series.graded}
 
 
-def _points(ideal) -> int:
-    return ideal.count_points()
+def _points(system) -> int:
+    return system.count_points()
 
 
-def _normalize(ideal) -> dict | None:
+def _normalize(system) -> dict | None:
     """The certificate; ``None`` for a system without solutions (the unit ideal, dimension -1),
     which has nothing to normalize, so that its other tasks still get their answers.
 
@@ -77,37 +84,37 @@ def _normalize(ideal) -> dict | None:
     Finiteness itself is proved by the pure powers in the leading ideal of the basis that the
     equations come from; the batch does not re-check the certificate (``fibrewise check``
     does, from the ideal alone) and does not claim that it did."""
-    basis = ideal.groebner_basis()
+    basis = system.basis()
     if len(basis) == 1 and basis[0].degree() == 0:
         return None
-    return ideal.noether_normalization().to_dict()
+    return system.projection().to_dict()
 
 
 TASKS: dict[str, Callable[[Any], Any]] = {
-    "dimension": lambda I: I.dimension(),
-    "independent_variables": lambda I: [str(v) for v in I.independent_variables()],
-    "degree": lambda I: I.degree(),
+    "dimension": lambda S: S.dimension(),
+    "independent_variables": lambda S: [str(v) for v in S.independent_variables()],
+    "degree": lambda S: S.degree(),
     "hilbert": _hilbert,
     "normalize": _normalize,
     "points": _points,
-    "basis": lambda I: [str(g) for g in I.groebner_basis()],
+    "basis": lambda S: [str(g) for g in S.basis()],
 }
 
 
 def compute_tasks(job: dict) -> dict:
     """The results of a checked job's tasks, by task name; raises on bad input."""
-    from .rings import PolynomialRing
+    from .spaces import Space
 
-    ring = PolynomialRing(job["field"], job["variables"], order=job["order"])
-    ideal = ring.ideal(_polynomials(ring, job["polynomials"]))
-    return {task: TASKS[task](ideal) for task in job["tasks"]}
+    space = Space(job["field"], job["variables"], order=job["order"])
+    system = space.system(_polynomials(space, job["polynomials"]))
+    return {task: TASKS[task](system) for task in job["tasks"]}
 
 
-def _polynomials(ring, texts: list[str]) -> list:
+def _polynomials(space, texts: list[str]) -> list:
     polys = []
     for number, text in enumerate(texts, 1):
         try:
-            polys.append(ring(text))
+            polys.append(space.parse(text))
         except ValueError as e:
             raise ValueError(f"polynomial {number}: {e}") from None
     return polys

@@ -1,9 +1,10 @@
-"""Noether normalization with a checkable certificate, and integrality over subalgebras.
+"""Finite projections (Noether normalization) with a checkable certificate, and integrality
+over subalgebras.
 
-``Ideal.noether_normalization()`` returns a :class:`FiniteProjection`: parameters
-p1..pd (d = dim R/I) such that k[p1..pd] -> R/I is injective and R/I is a finite module over it,
-with a monic equation over k[p] for every variable. ``verify()`` re-checks the certificate from
-the ideal alone; ``to_dict()`` / :func:`check_certificate` save and re-check it.
+``System.projection()`` returns a :class:`FiniteProjection`: parameters p1..pd (d = dim R/I)
+such that k[p1..pd] -> R/I is injective and R/I is a finite module over it, with a monic
+equation over k[p] for every variable. ``verify()`` re-checks the certificate from the ideal
+alone; ``to_dict()`` / :func:`check_certificate` save and re-check it.
 """
 
 from __future__ import annotations
@@ -13,10 +14,11 @@ from functools import cached_property
 from typing import TYPE_CHECKING, Optional, Sequence
 
 from . import _native
-from .rings import Coercible, Polynomial
+from .names import STRATEGY_NAMES, Strategy, check_name
+from .spaces import Coercible, Polynomial
 
 if TYPE_CHECKING:
-    from .ideals import Ideal
+    from .systems import System
 
 _IDENTIFIER = re.compile(r"[A-Za-z_][A-Za-z0-9_]*")
 
@@ -56,10 +58,10 @@ def _monic_text(variable: str, coefficients: Sequence[str]) -> str:
 
 
 class FiniteProjection:
-    """A Noether normalization of an ideal and its certificate.
+    """A finite projection (Noether normalization) of a system's solution set and its certificate.
 
     Attributes (also the keys of :meth:`to_dict`): ``dimension``, ``parameters`` (polynomials in
-    the ring), ``parameter_symbols`` (names t1..td standing for the parameters), ``coordinates``
+    the space), ``parameter_symbols`` (names t1..td standing for the parameters), ``coordinates``
     (an invertible change of coordinates y1..yn, y1..yd the parameters), ``coordinate_symbols``
     (names of y1..yn), ``inverse`` (each variable written in y1..yn, as text), ``equations``
     (for every variable, coefficient texts [1, c_{m-1}, ..., c_0] in the parameter symbols),
@@ -67,8 +69,8 @@ class FiniteProjection:
     "linear" or "nonlinear") and ``homogeneous``.
     """
 
-    def __init__(self, ideal: "Ideal", certificate: dict):
-        self.ideal = ideal
+    def __init__(self, system: "System", certificate: dict):
+        self.system = system
         self._certificate = {k: certificate[k] for k in CERTIFICATE_KEYS}
         self.dimension: int = certificate["dimension"]
         self.parameter_symbols: list[str] = list(certificate["parameter_symbols"])
@@ -83,37 +85,37 @@ class FiniteProjection:
 
     @cached_property
     def parameters(self) -> list[Polynomial]:
-        return [self.ideal.ring(p) for p in self._certificate["parameters"]]
+        return [self.system.space.parse(p) for p in self._certificate["parameters"]]
 
     @cached_property
     def coordinates(self) -> list[Polynomial]:
-        return [self.ideal.ring(p) for p in self._certificate["coordinates"]]
+        return [self.system.space.parse(p) for p in self._certificate["coordinates"]]
 
     @cached_property
     def module_generators(self) -> list[Polynomial]:
-        return [self.ideal.ring(p) for p in self._certificate["module_generators"]]
+        return [self.system.space.parse(p) for p in self._certificate["module_generators"]]
 
     @classmethod
-    def from_dict(cls, certificate: dict, ideal: "Ideal") -> "FiniteProjection":
-        """A saved certificate (from :meth:`to_dict`) for ``ideal``; raises ``ValueError`` when an
+    def from_dict(cls, certificate: dict, system: "System") -> "FiniteProjection":
+        """A saved certificate (from :meth:`to_dict`) for ``system``; raises ``ValueError`` when an
         entry is missing or unreadable. Use :meth:`verify` to check it."""
         missing = [k for k in CERTIFICATE_KEYS if k not in certificate]
         if missing:
             raise ValueError(f"certificate entry '{missing[0]}' is missing")
-        projection = cls(ideal, certificate)
+        projection = cls(system, certificate)
         for name in ("parameters", "coordinates", "module_generators"):
             getattr(projection, name)  # read now, so that an unreadable entry raises here
         return projection
 
     def to_dict(self) -> dict:
         """The certificate as plain JSON-ready data (texts, ints, bools)."""
-        d = {"field": str(self.ideal.ring.field), "variables": list(self.ideal.ring.variables)}
+        d = {"field": str(self.system.space.field), "variables": list(self.system.space.names)}
         d.update(self._certificate)
         return d
 
     def problems(self) -> list[str]:
         """What is wrong with the certificate, checked from the ideal alone (empty: it holds)."""
-        return check_certificate(self._certificate, self.ideal)
+        return check_certificate(self._certificate, self.system)
 
     def verify(self) -> bool:
         """Re-checks the whole certificate from the ideal alone, independently of how it was
@@ -126,68 +128,73 @@ class FiniteProjection:
         return True
 
     def equation(self, variable: str) -> Polynomial:
-        """The monic equation of ``variable`` as a polynomial of the ring (parameters
+        """The monic equation of ``variable`` (a name) as a polynomial of the space (parameters
         substituted for their symbols); it lies in the ideal."""
-        ring = self.ideal.ring
-        if variable not in ring.variables:
-            raise ValueError(f"unknown variable '{variable}' (the ring has {', '.join(ring.variables)})")
-        coefficients = self.equations[ring.variables.index(variable)]
+        space = self.system.space
+        if not isinstance(variable, str):
+            raise TypeError(f"equation takes a variable name, not {type(variable).__name__}")
+        if variable not in space.names:
+            raise ValueError(f"unknown variable '{variable}' (the variables are {', '.join(space.names)})")
+        coefficients = self.equations[space.names.index(variable)]
         images = {s: str(p) for s, p in zip(self.parameter_symbols, self.parameters)}
-        return ring(_monic_text(variable, [_substitute_symbols(c, images) for c in coefficients]))
+        return space.parse(_monic_text(variable, [_substitute_symbols(c, images) for c in coefficients]))
 
-    def fiber(self, point: Sequence[int]) -> "Ideal":
-        """The zero-dimensional ideal I + (p1 - a1, ..., pd - ad) of the fiber over a point of k^d.
+    def fiber(self, point: Sequence[int]) -> "System":
+        """The zero-dimensional system I + (p1 - a1, ..., pd - ad) of the fibre over a point of k^d.
         Its vector-space dimension is at most ``len(module_generators)``."""
         point = list(point)
         if len(point) != self.dimension:
-            raise ValueError(f"the fiber needs a point with {self.dimension} coordinates, got {len(point)}")
-        ring = self.ideal.ring
-        return ring.ideal(list(self.ideal.generators) + [p - ring(a) for p, a in zip(self.parameters, point)])
+            raise ValueError(f"the fibre needs a point with {self.dimension} coordinates, got {len(point)}")
+        space = self.system.space
+        return space.system(list(self.system.equations) + [p - space.polynomial(a) for p, a in zip(self.parameters, point)])
 
     def __repr__(self) -> str:
         params = ", ".join(str(p) for p in self.parameters)
         return f"FiniteProjection(dimension={self.dimension}, parameters=[{params}], rank={self.rank}, strategy={self.strategy!r})"
 
 
-def noether_normalization(ideal: "Ideal", strategy: str = "auto", seed: Optional[int] = None) -> FiniteProjection:
-    """Noether normalization of ``ideal``: the simplest kind of change that works (``strategy``
+def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optional[int] = None) -> FiniteProjection:
+    """A finite projection of ``system``: the simplest kind of change that works (``strategy``
     "auto"), or only "variables", "linear" or "nonlinear". ``seed`` fixes every random choice.
-    The unit ideal raises ``ValueError`` (no solutions over the algebraic closure)."""
-    if seed is not None and (not isinstance(seed, int) or isinstance(seed, bool) or seed < 0):
-        raise ValueError(f"seed must be a non-negative int, got {seed!r}")
-    ring = ideal.ring
+    A system without solutions (the unit ideal) raises ``ValueError``."""
+    check_name("strategy", strategy, STRATEGY_NAMES)
+    if seed is not None and (not isinstance(seed, int) or isinstance(seed, bool)):
+        raise TypeError(f"seed must be an int, not {type(seed).__name__}")
+    if seed is not None and seed < 0:
+        raise ValueError(f"seed must be non-negative, got {seed}")
+    space = system.space
     # The search starts from the grevlex basis: hand over the one already computed, if any.
-    grevlex = ideal.cached_basis("grevlex")
-    certificate = _native.noether_normalization(
-        ring._native, [g._native for g in ideal.generators], strategy=strategy, seed=(seed or 0) % 2**64,
+    grevlex = system._cached_basis("grevlex")
+    certificate = _native.finite_projection(
+        space._native, [g._native for g in system.equations], strategy=strategy, seed=(seed or 0) % 2**64,
         grevlex_basis=None if grevlex is None else [g._native for g in grevlex],
     )
-    return FiniteProjection(ideal, certificate)
+    return FiniteProjection(system, certificate)
 
 
-def check_certificate(certificate: dict, ideal: "Ideal") -> list[str]:
-    """The problems of a saved certificate against ``ideal`` (empty when it holds): unreadable
+def check_certificate(certificate: dict, system: "System") -> list[str]:
+    """The problems of a saved certificate against ``system`` (empty when it holds): unreadable
     entries, equations that are not monic or not in the ideal, coordinates that do not invert,
     a wrong dimension. Used by ``fibrewise check CERT.json SYSTEM``."""
     if not isinstance(certificate, dict):
         return [f"a certificate is a dict, not {type(certificate).__name__}"]
-    ring = ideal.ring
+    space = system.space
     problems = []
-    if "field" in certificate and str(certificate["field"]) != str(ring.field):
-        problems.append(f"the certificate is over {certificate['field']}, the system over {ring.field}")
-    if "variables" in certificate and list(certificate["variables"]) != list(ring.variables):
-        problems.append(f"the certificate has variables {certificate['variables']}, the system {list(ring.variables)}")
+    if "field" in certificate and str(certificate["field"]) != str(space.field):
+        problems.append(f"the certificate is over {certificate['field']}, the system over {space.field}")
+    if "variables" in certificate and list(certificate["variables"]) != list(space.names):
+        problems.append(f"the certificate has variables {certificate['variables']}, the system {list(space.names)}")
     if problems:
         return problems
     try:
-        return _native.check_certificate(ring._native, [g._native for g in ideal.generators], certificate)
+        return _native.check_certificate(space._native, [g._native for g in system.equations], certificate)
     except ValueError as e:
         return [str(e)]
 
 
 class IntegralEquation:
     """A monic relation u^m + c_{m-1} u^{m-1} + ... + c_0 = 0 of an element u over k[g1..gr]
-    modulo an ideal. ``coefficients`` are texts [1, c_{m-1}, ..., c_0] in ``symbols`` (t1..tr,
+    modulo a system's ideal. ``coefficients`` are texts [1, c_{m-1}, ..., c_0] in ``symbols`` (t1..tr,
     standing for g1..gr)."""
 
     def __init__(self, element: Polynomial, over: list[Polynomial], symbols: list[str], coefficients: list[str]):
@@ -204,7 +211,7 @@ class IntegralEquation:
         """The relation with g_j and the element substituted: an element of the ideal."""
         images = {s: str(g) for s, g in zip(self.symbols, self.over)}
         coefficients = [_substitute_symbols(c, images) for c in self.coefficients]
-        return self.element.ring(_monic_text(str(self.element), coefficients))
+        return self.element.space.parse(_monic_text(str(self.element), coefficients))
 
     def __str__(self) -> str:
         m = self.degree
@@ -224,34 +231,34 @@ class IntegralEquation:
         return f"IntegralEquation({str(self)!r})"
 
 
-def _over(ideal: "Ideal", over: Sequence[Coercible]) -> list[Polynomial]:
+def _over(system: "System", over: Sequence[Coercible]) -> list[Polynomial]:
     if isinstance(over, (str, Polynomial)):
         over = [over]
-    return [ideal.ring(g) for g in over]
+    return [system.space.polynomial(g) for g in over]
 
 
-def integral_equation(ideal: "Ideal", f: Coercible, over: Sequence[Coercible]) -> Optional[IntegralEquation]:
+def integral_equation(system: "System", f: Coercible, over: Sequence[Coercible]) -> Optional[IntegralEquation]:
     """The monic relation of least degree of ``f`` over k[over] in R/I, or None when ``f`` is not
     integral over it (elimination with tag variables)."""
-    ring = ideal.ring
-    element, gs = ring(f), _over(ideal, over)
-    found = _native.integral_equation(ring._native, [g._native for g in ideal.generators], element._native, [g._native for g in gs])
+    space = system.space
+    element, gs = space.polynomial(f), _over(system, over)
+    found = _native.integral_equation(space._native, [g._native for g in system.equations], element._native, [g._native for g in gs])
     if found is None:
         return None
     symbols, coefficients = found
     return IntegralEquation(element, gs, symbols, coefficients)
 
 
-def is_integral(ideal: "Ideal", f: Coercible, over: Sequence[Coercible]) -> bool:
+def is_integral(system: "System", f: Coercible, over: Sequence[Coercible]) -> bool:
     """Whether ``f`` is integral over k[over] inside R/I."""
-    return integral_equation(ideal, f, over) is not None
+    return integral_equation(system, f, over) is not None
 
 
-def is_finite_over(ideal: "Ideal", over: Sequence[Coercible]) -> bool:
+def is_finite_over(system: "System", over: Sequence[Coercible]) -> bool:
     """Whether R/I is a finitely generated k[over]-module."""
-    ring = ideal.ring
-    gs = _over(ideal, over)
-    return _native.is_finite_over(ring._native, [g._native for g in ideal.generators], [g._native for g in gs])
+    space = system.space
+    gs = _over(system, over)
+    return _native.is_finite_over(space._native, [g._native for g in system.equations], [g._native for g in gs])
 
 
 __all__ = [
@@ -262,5 +269,5 @@ __all__ = [
     "integral_equation",
     "is_finite_over",
     "is_integral",
-    "noether_normalization",
+    "finite_projection",
 ]

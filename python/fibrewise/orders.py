@@ -2,20 +2,30 @@
 
 from __future__ import annotations
 
+from numbers import Integral
 from typing import Sequence, Union
 
-BASIC_ORDERS = ("lex", "grlex", "grevlex")
+from .names import ORDER_NAMES, OrderName, check_name
 
 
 class BlockOrder:
     """Product order: blocks compared in turn, each with its own order on its own variables.
 
     ``BlockOrder([("grevlex", ["x", "y"]), ("grevlex", ["z"])])``: every monomial with a larger
-    (x, y)-part is larger, whatever z does. The blocks must partition the ring's variables.
+    (x, y)-part is larger, whatever z does. The blocks must partition the space's variables.
     """
 
-    def __init__(self, blocks: Sequence[tuple[Union[str, "WeightOrder"], Sequence[str]]]):
-        self.blocks = [(order, list(names)) for order, names in blocks]
+    def __init__(self, blocks: Sequence[tuple[Union[OrderName, "WeightOrder"], Sequence[str]]]):
+        if isinstance(blocks, (str, bytes)) or not isinstance(blocks, Sequence):
+            raise TypeError(f"a block order takes a list of (order, variable names), not {type(blocks).__name__}")
+        self.blocks = []
+        for block in blocks:
+            if not isinstance(block, (tuple, list)) or len(block) != 2:
+                raise TypeError(f"each block is a pair (order, variable names), not {block!r}")
+            order, names = block
+            if isinstance(names, str) or not all(isinstance(n, str) for n in names):
+                raise TypeError(f"the variables of a block are a list of names, not {names!r}")
+            self.blocks.append((order, list(names)))
         if not self.blocks:
             raise ValueError("a block order needs at least one block")
 
@@ -32,11 +42,16 @@ class BlockOrder:
 class WeightOrder:
     """Order by the weighted degree sum(w_i * e_i) first, ties broken by ``tie``."""
 
-    def __init__(self, weights: Sequence[int], tie: str = "grevlex"):
+    def __init__(self, weights: Sequence[int], tie: OrderName = "grevlex"):
+        for w in weights:
+            if isinstance(w, bool) or not isinstance(w, Integral):
+                raise TypeError(f"weights must be ints, got {w!r}")
         self.weights = [int(w) for w in weights]
         if any(w < 0 for w in self.weights):
             raise ValueError(f"weights must be non-negative, got {self.weights}")
-        self.tie = tie
+        self.tie = check_name("tie order", tie, ORDER_NAMES)
+        if tie not in ORDER_NAMES:
+            raise ValueError(f"unknown monomial order '{tie}': expected lex, grlex or grevlex")
 
     def __repr__(self) -> str:
         return f"WeightOrder({self.weights!r}, tie={self.tie!r})"
@@ -48,13 +63,13 @@ class WeightOrder:
         return hash(repr(self))
 
 
-Order = Union[str, BlockOrder, WeightOrder]
+Order = Union[OrderName, BlockOrder, WeightOrder]
 
 
 def native_order(order: Order, names: Sequence[str]):
     """The form the native module reads: a name, ("weight", w, tie) or ("block", [(o, idx)])."""
     if isinstance(order, str):
-        if order not in BASIC_ORDERS:
+        if order not in ORDER_NAMES:
             raise ValueError(f"unknown monomial order '{order}': expected lex, grlex or grevlex")
         return order
     if isinstance(order, WeightOrder):
@@ -65,9 +80,9 @@ def native_order(order: Order, names: Sequence[str]):
             idx = []
             for n in block_names:
                 if n not in names:
-                    raise ValueError(f"block order: unknown variable '{n}' (the ring has {', '.join(names)})")
+                    raise ValueError(f"block order: unknown variable '{n}' (the variables are {', '.join(names)})")
                 idx.append(list(names).index(n))
             sub = [names[i] for i in idx]
             blocks.append((native_order(inner, sub), idx))
         return ("block", blocks)
-    raise ValueError(f"not a monomial order: {order!r}")
+    raise TypeError(f"a monomial order is 'lex', 'grlex', 'grevlex', a BlockOrder or a WeightOrder, not {order!r}")

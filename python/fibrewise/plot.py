@@ -20,7 +20,7 @@ def series_coefficients(numerator: list[int], denominator_exponent: int, count: 
 
 
 def draw_analysis(path: str, result: dict) -> None:
-    """Writes the picture of an ``analyze`` result (its ``stats`` and ``hilbert_series``) to ``path``."""
+    """Writes the picture of an ``analyze`` result (its ``stats`` and ``hilbert``) to ``path``."""
     try:
         import matplotlib
     except ImportError:
@@ -30,7 +30,7 @@ def draw_analysis(path: str, result: dict) -> None:
     from matplotlib.ticker import MaxNLocator
 
     steps = result["stats"]["steps"]
-    series = result.get("hilbert_series")
+    series = result.get("hilbert")
     fig, (left, right) = plt.subplots(1, 2, figsize=(10, 4))
     _draw_steps(left, steps)
     _draw_hilbert(right, series)

@@ -101,15 +101,16 @@ def render_analyze(result: dict) -> str:
     if "independent_variables" in result:
         rows.append(("independent variables", ", ".join(result["independent_variables"]) or "(none)"))
     rows.append(("degree", result.get("degree")))
-    if "vector_space_dimension" in result:
-        rows.append(("dim_k R/I", f"{result['vector_space_dimension']}  (solutions over the algebraic closure, with multiplicity)"))
-    series = result.get("hilbert_series")
+    if "quotient_dimension" in result:
+        rows.append(("quotient dimension", f"{result['quotient_dimension']}  (solutions over the algebraic closure, with multiplicity)"))
+    series = result.get("hilbert")
     if series:
-        rows += [("Hilbert series", hilbert_series_text(series)),
+        kind = "graded" if series.get("graded", True) else "affine"
+        rows += [("Hilbert series", f"{hilbert_series_text(series)}  ({kind})"),
                  ("Hilbert polynomial", polynomial_in(series["polynomial"], "s")),
                  ("regularity index", series["regularity_index"])]
-    if result.get("normalization"):
-        rows.append(("normalization", finite_over(result["normalization"])))
+    if result.get("projection"):
+        rows.append(("projection", finite_over(result["projection"])))
     rows.append((f"points over {result['field']}", _points_text(result)))
     basis = result["basis"]
     rows.append(("Groebner basis", f"{plural(basis['size'], 'polynomial')}, highest degree reached "

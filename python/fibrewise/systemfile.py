@@ -1,46 +1,40 @@
 """The system file format: plain UTF-8 text.
 
-``#`` starts a comment; header lines ``field: GF(7)``, ``variables: x, y, z`` and the optional
-``order: grevlex``; every other non-empty line is one polynomial. Errors name the file, the line
+``#`` starts a comment; header lines ``field: GF(7)``, ``variables: x, y, z`` (ranges such as
+``x0..x63`` allowed) and the optional ``order: grevlex``; every other non-empty line is one
+polynomial. Errors are ``SystemFileError`` (a ``fibrewise.ParseError``) naming the file, the line
 and the column.
 """
 
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
 from typing import Iterable
 
-from .ideals import Ideal
-from .rings import PolynomialRing
+from ._native import ParseError
+from .fields import field
+from .spaces import Space
+from .systems import System
 
 HEADERS = ("field", "variables", "order")
 _HEADER = re.compile(r"^\s*([A-Za-z_]+)\s*:(.*)$")
-_COLUMN = re.compile(r"^column (\d+): (.*)$")
 
 
-class SystemFileError(ValueError):
-    """A problem in a system file, located by file, line and column."""
+class SystemFileError(ParseError):
+    """A problem in a system file: ``.path``, ``.line``, ``.column`` and ``.message``."""
 
     def __init__(self, path: str, line: int, column: int, message: str):
         super().__init__(f"{path}:{line}:{column}: {message}")
         self.path, self.line, self.column, self.message = path, line, column, message
 
 
-@dataclass
-class System:
-    ring: PolynomialRing
-    ideal: Ideal
-    path: str
-
-
-def read_system(path: str) -> System:
+def read_system_file(path: str) -> System:
     """Reads a system file; raises ``SystemFileError`` (a ``ValueError``) or ``OSError``."""
     with open(path, encoding="utf-8") as handle:
-        return parse_system(handle, path)
+        return parse_system_text(handle, path)
 
 
-def parse_system(lines: Iterable[str], path: str = "<text>") -> System:
+def parse_system_text(lines: Iterable[str], path: str = "<text>") -> System:
     headers: dict[str, tuple[str, int, int]] = {}
     polys: list[tuple[str, int, int]] = []
     for number, raw in enumerate(lines, 1):
@@ -60,41 +54,41 @@ def parse_system(lines: Iterable[str], path: str = "<text>") -> System:
     for key in ("field", "variables"):
         if key not in headers:
             raise SystemFileError(path, 1, 1, f"missing header '{key}:'")
-    ring = _make_ring(headers, path)
-    generators = []
+    space = _make_space(headers, path)
+    equations = []
     for text, number, col in polys:
         try:
-            generators.append(ring(text))
+            equations.append(space.parse(text))
+        except ParseError as e:
+            # The text is one line of the file: its column counts from the polynomial's start.
+            raise SystemFileError(path, number + e.line - 1, col + e.column - 1, e.message) from None
         except ValueError as e:
-            inner = _COLUMN.match(str(e))
-            if inner:
-                raise SystemFileError(path, number, col + int(inner.group(1)) - 1, inner.group(2)) from None
             raise SystemFileError(path, number, col, str(e)) from None
-    return System(ring, ring.ideal(generators), path)
+    system = System(space, equations)
+    system.path = path
+    return system
 
 
 def _header(text: str, path: str, number: int) -> tuple[str, str, int]:
     m = _HEADER.match(text)
     if not m or m.group(1) not in HEADERS:
         name = m.group(1) if m else text.split(":", 1)[0].strip()
-        raise SystemFileError(path, number, 1, f"unknown header '{name}:' (expected field, variables or order)")
+        raise SystemFileError(path, number, 1, f"unknown header '{name}:' (expected {', '.join(HEADERS)})")
     value = m.group(2)
     col = m.start(2) + 1 + len(value) - len(value.lstrip())
     return m.group(1), value.strip(), col
 
 
-def _make_ring(headers: dict[str, tuple[str, int, int]], path: str) -> PolynomialRing:
+def _make_space(headers: dict[str, tuple[str, int, int]], path: str) -> Space:
     field_spec, field_line, field_col = headers["field"]
     names, var_line, var_col = headers["variables"]
     order, order_line, order_col = headers.get("order", ("grevlex", 0, 0))
-    from .fields import field
-
     try:
         f = field(field_spec)
     except ValueError as e:
         raise SystemFileError(path, field_line, field_col, str(e)) from None
     try:
-        return PolynomialRing(f, names, order=order)
+        return Space(f, names, order=order)
     except ValueError as e:
         line, col = (order_line, order_col) if "order" in str(e) else (var_line, var_col)
         raise SystemFileError(path, line, col, str(e)) from None

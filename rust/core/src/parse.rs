@@ -9,7 +9,11 @@
 //! atom    := INTEGER | NAME | '(' sum ')'
 //! ```
 //! Names are ring variables, or the field generator (`a` in GF(p^k)). Errors carry the 1-based
-//! column of the offending character.
+//! line and column of the offending character.
+//!
+//! Time is linear in the length of the text for sums (up to the sort of the terms): the
+//! summands of a sum are collected and combined once, never added one by one to a growing
+//! polynomial.
 
 use crate::error::{Error, Result};
 use crate::field::Field;
@@ -29,6 +33,17 @@ enum Tok {
     End,
 }
 
+/// Where a token starts: 1-based line and column (in characters).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+struct Pos {
+    line: usize,
+    column: usize,
+}
+
+fn error_at(message: impl Into<String>, pos: Pos) -> Error {
+    Error::parse(message, pos.line, pos.column)
+}
+
 fn describe(t: &Tok) -> String {
     match t {
         Tok::Int(s) => format!("number '{s}'"),
@@ -44,14 +59,17 @@ fn describe(t: &Tok) -> String {
     }
 }
 
-/// Tokens with their 1-based columns.
-fn tokenize(text: &str) -> Result<Vec<(Tok, usize)>> {
+/// Tokens with their positions.
+fn tokenize(text: &str) -> Result<Vec<(Tok, Pos)>> {
     let chars: Vec<char> = text.chars().collect();
     let mut out = Vec::new();
-    let mut i = 0;
+    let (mut i, mut line, mut line_start) = (0, 1, 0);
     while i < chars.len() {
         let c = chars[i];
-        let col = i + 1;
+        let pos = Pos {
+            line,
+            column: i - line_start + 1,
+        };
         let take_while = |i: &mut usize, pred: &dyn Fn(char) -> bool| {
             let start = *i;
             while *i < chars.len() && pred(chars[*i]) {
@@ -60,7 +78,13 @@ fn tokenize(text: &str) -> Result<Vec<(Tok, usize)>> {
             chars[start..*i].iter().collect::<String>()
         };
         let tok = match c {
-            ' ' | '\t' | '\r' | '\n' => {
+            '\n' => {
+                i += 1;
+                line += 1;
+                line_start = i;
+                continue;
+            }
+            ' ' | '\t' | '\r' => {
                 i += 1;
                 continue;
             }
@@ -82,21 +106,23 @@ fn tokenize(text: &str) -> Result<Vec<(Tok, usize)>> {
                     '^' => Tok::Caret,
                     '(' => Tok::LParen,
                     ')' => Tok::RParen,
-                    other => {
-                        return Err(Error::parse(format!("unexpected character '{other}'"), col))
-                    }
+                    other => return Err(error_at(format!("unexpected character '{other}'"), pos)),
                 }
             }
         };
-        out.push((tok, col));
+        out.push((tok, pos));
     }
-    out.push((Tok::End, chars.len() + 1));
+    let end = Pos {
+        line,
+        column: chars.len() - line_start + 1,
+    };
+    out.push((Tok::End, end));
     Ok(out)
 }
 
 struct Parser<'a, F: Field> {
     ring: &'a Ring<F>,
-    toks: Vec<(Tok, usize)>,
+    toks: Vec<(Tok, Pos)>,
     pos: usize,
     depth: usize,
 }
@@ -113,20 +139,17 @@ pub fn parse_poly<F: Field>(ring: &Ring<F>, text: &str) -> Result<Poly<F>> {
         depth: 0,
     };
     if p.peek() == &Tok::End {
-        return Err(Error::parse("empty polynomial text", 1));
+        return Err(error_at("empty polynomial text", p.at()));
     }
     let f = p.sum()?;
     match p.peek() {
         Tok::End => Ok(f),
-        Tok::RParen => Err(Error::parse(
-            "unbalanced parenthesis: ')' without '('",
-            p.col(),
-        )),
-        Tok::Int(_) | Tok::Name(_) | Tok::LParen => Err(Error::parse(
+        Tok::RParen => Err(error_at("unbalanced parenthesis: ')' without '('", p.at())),
+        Tok::Int(_) | Tok::Name(_) | Tok::LParen => Err(error_at(
             format!("expected an operator before {}", describe(p.peek())),
-            p.col(),
+            p.at(),
         )),
-        t => Err(Error::parse(format!("unexpected {}", describe(t)), p.col())),
+        t => Err(error_at(format!("unexpected {}", describe(t)), p.at())),
     }
 }
 
@@ -134,10 +157,10 @@ impl<F: Field> Parser<'_, F> {
     fn peek(&self) -> &Tok {
         &self.toks[self.pos].0
     }
-    fn col(&self) -> usize {
+    fn at(&self) -> Pos {
         self.toks[self.pos].1
     }
-    fn bump(&mut self) -> (Tok, usize) {
+    fn bump(&mut self) -> (Tok, Pos) {
         let t = self.toks[self.pos].clone();
         if t.0 != Tok::End {
             self.pos += 1;
@@ -145,21 +168,30 @@ impl<F: Field> Parser<'_, F> {
         t
     }
 
+    /// The summands are collected and combined in one pass: adding each to a growing sum
+    /// would cost time quadratic in the number of terms.
     fn sum(&mut self) -> Result<Poly<F>> {
-        let mut acc = self.product()?;
+        let mut summands = vec![self.product()?];
         loop {
             match self.peek() {
                 Tok::Plus => {
                     self.bump();
-                    acc = self.ring.add(&acc, &self.product()?);
+                    summands.push(self.product()?);
                 }
                 Tok::Minus => {
                     self.bump();
-                    acc = self.ring.sub(&acc, &self.product()?);
+                    let f = self.product()?;
+                    summands.push(self.ring.neg(&f));
                 }
-                _ => return Ok(acc),
+                _ => break,
             }
         }
+        if summands.len() == 1 {
+            return Ok(summands.pop().expect("one summand"));
+        }
+        Ok(self
+            .ring
+            .from_terms(summands.into_iter().flat_map(Poly::into_terms)))
     }
 
     fn product(&mut self) -> Result<Poly<F>> {
@@ -171,18 +203,18 @@ impl<F: Field> Parser<'_, F> {
                     acc = self.ring.mul(&acc, &self.unary()?)?;
                 }
                 Tok::Slash => {
-                    let col = self.bump().1;
+                    let at = self.bump().1;
                     let d = self.unary()?;
-                    acc = self.divide(&acc, &d, col)?;
+                    acc = self.divide(&acc, &d, at)?;
                 }
                 _ => return Ok(acc),
             }
         }
     }
 
-    fn divide(&self, f: &Poly<F>, d: &Poly<F>, col: usize) -> Result<Poly<F>> {
+    fn divide(&self, f: &Poly<F>, d: &Poly<F>, at: Pos) -> Result<Poly<F>> {
         if !d.is_constant() {
-            return Err(Error::parse("division by a non-constant polynomial", col));
+            return Err(error_at("division by a non-constant polynomial", at));
         }
         let field = &self.ring.field;
         let c = d
@@ -191,9 +223,9 @@ impl<F: Field> Parser<'_, F> {
             .unwrap_or_else(|| field.zero());
         match field.inv(&c) {
             Some(ci) => Ok(self.ring.scale(f, &ci)),
-            None => Err(Error::parse(
+            None => Err(error_at(
                 format!("division by zero (the divisor is 0 in {})", field.spec()),
-                col,
+                at,
             )),
         }
     }
@@ -216,7 +248,7 @@ impl<F: Field> Parser<'_, F> {
     fn nested(&mut self, inner: impl FnOnce(&mut Self) -> Result<Poly<F>>) -> Result<Poly<F>> {
         self.depth += 1;
         if self.depth > MAX_DEPTH {
-            return Err(Error::parse("expression nested too deeply", self.col()));
+            return Err(error_at("expression nested too deeply", self.at()));
         }
         let r = inner(self);
         self.depth -= 1;
@@ -229,64 +261,64 @@ impl<F: Field> Parser<'_, F> {
             return Ok(base);
         }
         self.bump();
-        let (tok, col) = self.bump();
+        let (tok, at) = self.bump();
         let Tok::Int(digits) = tok else {
-            return Err(Error::parse(
+            return Err(error_at(
                 format!(
                     "expected a non-negative integer exponent, found {}",
                     describe(&tok)
                 ),
-                col,
+                at,
             ));
         };
         let e: u32 = digits.parse().map_err(|_| {
-            Error::parse(
+            error_at(
                 format!("exponent {digits} is too large (at most 2^32 - 1)"),
-                col,
+                at,
             )
         })?;
         if self.peek() == &Tok::Caret {
-            return Err(Error::parse(
+            return Err(error_at(
                 "chained exponents are ambiguous: use parentheses",
-                self.col(),
+                self.at(),
             ));
         }
         self.ring
             .pow(&base, e as u64)
-            .map_err(|e| Error::parse(e.to_string(), col))
+            .map_err(|e| error_at(e.to_string(), at))
     }
 
     fn atom(&mut self) -> Result<Poly<F>> {
-        let (tok, col) = self.bump();
+        let (tok, at) = self.bump();
         match tok {
             Tok::Int(digits) => Ok(self.ring.constant(self.ring.field.from_decimal(&digits))),
-            Tok::Name(name) => self.name(&name, col),
+            Tok::Name(name) => self.name(&name, at),
             Tok::LParen => {
                 let f = self.nested(|p| p.sum())?;
                 match self.bump() {
                     (Tok::RParen, _) => Ok(f),
-                    (Tok::End, c) => Err(Error::parse("unbalanced parenthesis: missing ')'", c)),
-                    (t, c) => Err(Error::parse(
+                    (Tok::End, end) => Err(error_at("unbalanced parenthesis: missing ')'", end)),
+                    (t, other) => Err(error_at(
                         format!("expected ')' but found {}", describe(&t)),
-                        c,
+                        other,
                     )),
                 }
             }
-            Tok::End => Err(Error::parse(
+            Tok::End => Err(error_at(
                 "unexpected end of input: expected a number, a variable or '('",
-                col,
+                at,
             )),
-            t => Err(Error::parse(
+            t => Err(error_at(
                 format!(
                     "expected a number, a variable or '(' but found {}",
                     describe(&t)
                 ),
-                col,
+                at,
             )),
         }
     }
 
-    fn name(&self, name: &str, col: usize) -> Result<Poly<F>> {
+    fn name(&self, name: &str, at: Pos) -> Result<Poly<F>> {
         if let Some(i) = self.ring.var_index(name) {
             return Ok(self.ring.var(i));
         }
@@ -294,12 +326,12 @@ impl<F: Field> Parser<'_, F> {
         if field.generator_name() == Some(name) {
             return Ok(self.ring.constant(field.generator().expect("generator")));
         }
-        Err(Error::parse(
+        Err(error_at(
             format!(
-                "unknown variable '{name}' (the ring has {})",
+                "unknown variable '{name}' (the variables are {})",
                 self.ring.names().join(", ")
             ),
-            col,
+            at,
         ))
     }
 }
@@ -318,7 +350,11 @@ mod tests {
 
     fn err(text: &str) -> (String, usize) {
         match parse_poly(&ring(7), text) {
-            Err(Error::Parse { message, column }) => (message, column),
+            Err(Error::Parse {
+                message,
+                line: 1,
+                column,
+            }) => (message, column),
             other => panic!("expected a parse error for {text:?}, got {other:?}"),
         }
     }
@@ -341,7 +377,7 @@ mod tests {
     fn errors_name_what_and_where() {
         assert_eq!(
             err("x + w"),
-            ("unknown variable 'w' (the ring has x, y, z)".into(), 5)
+            ("unknown variable 'w' (the variables are x, y, z)".into(), 5)
         );
         assert_eq!(
             err("(x + y"),
@@ -371,6 +407,73 @@ mod tests {
         assert_eq!(err("x ? y"), ("unexpected character '?'".into(), 3));
         assert_eq!(err("").0, "empty polynomial text");
         assert!(err("x^99999999999").0.contains("too large"));
+    }
+
+    #[test]
+    fn errors_give_the_line_of_multi_line_text() {
+        let r = ring(7);
+        let text = "x^2 + y\n  + 3*z\n  - w + 1";
+        match parse_poly(&r, text) {
+            Err(Error::Parse { line, column, .. }) => assert_eq!((line, column), (3, 5)),
+            other => panic!("expected a parse error, got {other:?}"),
+        }
+        match parse_poly(&r, "x +\n") {
+            Err(Error::Parse { line, column, .. }) => assert_eq!((line, column), (2, 1)),
+            other => panic!("expected a parse error, got {other:?}"),
+        }
+        assert_eq!(
+            r.format(&parse_poly(&r, "x\n+ y\r\n+ z").unwrap()),
+            "x + y + z"
+        );
+    }
+
+    /// A long sum comes out term for term: 30,000 distinct monomials x^i y^j with known
+    /// coefficients, then the same sum minus itself, which must cancel to zero. (A sum is
+    /// combined once, so this also runs in time linear in its length; the time itself is
+    /// measured in bench/bench_fields.py, not asserted here.)
+    #[test]
+    fn long_sums_are_read_term_for_term() {
+        let r = ring(65521);
+        let n = 30_000u32;
+        let term = |i: u32| format!("{}*x^{}*y^{}", i % 65520 + 1, i / 200, i % 200);
+        let text: Vec<String> = (0..n).map(term).collect();
+        let f = parse_poly(&r, &text.join(" + ")).unwrap();
+        assert_eq!(f.len(), n as usize);
+        for (m, c) in f.terms() {
+            let (a, b) = (m.exponents()[0], m.exponents()[1]);
+            assert_eq!(m.exponents()[2], 0);
+            let i = a * 200 + b;
+            assert_eq!(*c, (i % 65520 + 1) as u64, "x^{a}*y^{b}");
+        }
+        let back = format!("{} - ({})", text.join(" + "), text.join(" + "));
+        assert!(parse_poly(&r, &back).unwrap().is_zero());
+        let alternating: Vec<&str> = (0..n)
+            .map(|i| if i % 2 == 0 { "x" } else { "-x" })
+            .collect();
+        assert!(parse_poly(&r, &alternating.join(" + ")).unwrap().is_zero());
+    }
+
+    /// A linear form in 1,000 variables: every variable appears with its own coefficient.
+    #[test]
+    fn linear_forms_in_many_variables() {
+        let names: Vec<String> = (0..1000).map(|i| format!("v{i}")).collect();
+        let r = Ring::new(
+            PrimeField::new(32003).unwrap(),
+            names.clone(),
+            MonomialOrder::Grevlex,
+        )
+        .unwrap();
+        let text: Vec<String> = names
+            .iter()
+            .enumerate()
+            .map(|(i, v)| format!("{}*{v}", i + 1))
+            .collect();
+        let f = parse_poly(&r, &(text.join(" + ") + " + 7")).unwrap();
+        assert_eq!(f.len(), 1001);
+        for (i, (m, c)) in f.terms().iter().take(1000).enumerate() {
+            assert_eq!(m.exponents()[i], 1);
+            assert_eq!(*c, (i + 1) as u64);
+        }
     }
 
     fn random_poly() -> impl Strategy<Value = Vec<(Vec<u32>, i64)>> {

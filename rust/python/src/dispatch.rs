@@ -6,13 +6,13 @@ use fibrewise_core::field::{
     BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
 };
 use fibrewise_core::{Field, Poly, PrimeField, Ring};
-use pyo3::exceptions::PyValueError;
+use pyo3::exceptions::PyTypeError;
 use pyo3::prelude::*;
 use std::sync::Arc;
 
 /// The field kinds, as the core's field-spec reader produces them (`fibrewise_core::field::AnyField`):
 /// Prime (p < 2^63), BigPrime2/4/8 (larger primes on 2, 4, 8 limbs), Table (GF(p^k), q <= 2^16),
-/// Binary (GF(2^k), 2^16 < q <= 2^64), Extension (other GF(p^k)), Rational (QQ).
+/// Binary (GF(2^k), 2^16 < q <= 2^64), Extension (other GF(p^k)), Rational (Q).
 pub use fibrewise_core::field::AnyField;
 
 #[derive(Clone, Debug)]
@@ -94,7 +94,7 @@ impl Kind for PrimeField {
     }
     fn coefficient_from_py(&self, v: &Bound<'_, PyAny>) -> PyResult<u64> {
         if v.is_instance_of::<pyo3::types::PyBool>() || !v.is_instance_of::<pyo3::types::PyInt>() {
-            return Err(PyValueError::new_err(format!(
+            return Err(PyTypeError::new_err(format!(
                 "a coefficient of {} must be an int, not {}",
                 self.spec(),
                 v.get_type().name()?
@@ -123,8 +123,12 @@ pub fn same_variables_and_field(a: &AnyRing, b: &AnyRing) -> bool {
     }
 }
 
-/// Field specs (`7`, `GF(7)`, `GF(2^8)`, `GF(9)`, `GF(2^8, modulus='...')`, big primes, `QQ`),
+/// Field specs (`7`, `GF(7)`, `GF(2^8)`, `GF(9)`, `GF(2)[a]/(a^2 + a + 1)`, big primes, `Q`),
 /// read by the core.
 pub fn parse_field_spec(spec: &str) -> PyResult<AnyField> {
     AnyField::parse(spec).map_err(crate::errors::to_py)
+}
+
+pub fn with_modulus(spec: &str, modulus: &str) -> PyResult<AnyField> {
+    AnyField::with_modulus(spec, modulus).map_err(crate::errors::to_py)
 }

@@ -1,13 +1,13 @@
-//! Field kinds beyond word-size prime fields: multi-precision primes, GF(p^k) and QQ.
+//! Field kinds beyond word-size prime fields: multi-precision primes, GF(p^k) and Q.
 //! Coefficient conversion (Python side):
 //! - big primes: `int` both ways (values in [0, p));
-//! - QQ: `int` or `fractions.Fraction` in, `Fraction` out;
+//! - Q: `int` or `fractions.Fraction` in, `Fraction` out;
 //! - GF(p^k): the integer representation Σ c_i p^i of c_0 + c_1 a + ... (galois's convention),
 //!   both ways: an `int` in [0, q), or a galois element of a field with the same modulus.
 //!   (Ring constants such as `R(3)` or `f + 3` are integers; the Python layer reads them as text.)
 
 use crate::dispatch::{AnyField, AnyPoly, AnyRing, Kind};
-use crate::ring::{IntoAny, NativeField};
+use crate::space::{IntoAny, NativeField};
 use fibrewise_core::field::{
     BigPrimeField, BinaryField, ExtensionField, Modulus, RationalField, TableField,
 };
@@ -15,7 +15,7 @@ use fibrewise_core::{Field, Poly, Ring};
 use num_bigint::{BigInt, BigUint};
 use num_rational::BigRational;
 use num_traits::{ToPrimitive, Zero};
-use pyo3::exceptions::PyValueError;
+use pyo3::exceptions::{PyTypeError, PyValueError};
 use pyo3::prelude::*;
 use pyo3::types::{PyBool, PyInt};
 use std::sync::Arc;
@@ -54,7 +54,7 @@ fn not_a_coefficient(spec: &str, v: &Bound<'_, PyAny>, expected: &str) -> PyErr 
         .name()
         .map(|n| n.to_string())
         .unwrap_or_default();
-    PyValueError::new_err(format!(
+    PyTypeError::new_err(format!(
         "a coefficient of {spec} must be {expected}, not {ty}"
     ))
 }
@@ -120,7 +120,7 @@ impl Kind for RationalField {
         }
         let fraction = v.py().import("fractions")?.getattr("Fraction")?;
         if !v.is_instance(&fraction)? {
-            return Err(not_a_coefficient("QQ", v, "an int or a fractions.Fraction"));
+            return Err(not_a_coefficient("Q", v, "an int or a fractions.Fraction"));
         }
         let (num, den): (BigInt, BigInt) = (
             v.getattr("numerator")?.extract()?,

@@ -2,13 +2,13 @@
 //! dispatch to `fibrewise_core::{dimension, hilbert, zerodim, points}`.
 //!
 //! Functions taking `basis` expect the reduced Gröbner basis of the ideal for the order of
-//! `ring` (the Python `Ideal` passes its cached basis), so no basis is computed twice.
+//! `space` (the Python `System` passes its cached basis), so no basis is computed twice.
 
+use crate::basis::{engine_by_name, polys_in};
 use crate::dispatch::{with_ring, Kind};
 use crate::errors::IntoPy;
-use crate::ideal::{engine_by_name, polys_in};
 use crate::long_run;
-use crate::ring::{NativePoly, NativeRing};
+use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::control::Limits;
 use fibrewise_core::groebner::{ReducedBasis, Stats};
 use fibrewise_core::hilbert::{series_of_basis, HilbertSeries};
@@ -25,69 +25,71 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(hilbert_series, m)?)?;
     m.add_function(wrap_pyfunction!(hilbert_polynomial, m)?)?;
     m.add_function(wrap_pyfunction!(regularity_index, m)?)?;
-    m.add_function(wrap_pyfunction!(vector_space_dimension, m)?)?;
+    m.add_function(wrap_pyfunction!(quotient_dimension, m)?)?;
     m.add_function(wrap_pyfunction!(standard_monomials, m)?)?;
     m.add_function(wrap_pyfunction!(multiplication_matrix, m)?)?;
     m.add_function(wrap_pyfunction!(count_solutions, m)?)?;
-    m.add_function(wrap_pyfunction!(is_maximal, m)?)?;
-    m.add_function(wrap_pyfunction!(residue_field_degree, m)?)?;
+    m.add_function(wrap_pyfunction!(is_closed_point, m)?)?;
+    m.add_function(wrap_pyfunction!(closed_point_degree, m)?)?;
     m.add_function(wrap_pyfunction!(count_points, m)?)?;
     Ok(())
 }
 
 fn basis_of<F: Kind>(
-    ring: &NativeRing,
+    space: &NativeSpace,
     r: &Ring<F>,
     basis: &[PyRef<'_, NativePoly>],
 ) -> PyResult<ReducedBasis<F>> {
     Ok(ReducedBasis {
         ring: r.clone(),
-        polys: polys_in(ring, r, basis)?,
+        polys: polys_in(space, r, basis)?,
         stats: Stats::default(),
     })
 }
 
 fn leading_monomials<F: Kind>(
-    ring: &NativeRing,
+    space: &NativeSpace,
     r: &Ring<F>,
     basis: &[PyRef<'_, NativePoly>],
 ) -> PyResult<Vec<fibrewise_core::Monomial>> {
-    Ok(basis_of(ring, r, basis)?.leading_monomials())
+    Ok(basis_of(space, r, basis)?.leading_monomials())
 }
 
 /// Krull dimension of R/I from the basis; -1 for the unit ideal.
 #[pyfunction]
-fn krull_dimension(ring: &NativeRing, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<i64> {
-    with_ring!(&ring.ring, r => Ok(dimension::krull_dimension(r.nvars(), &leading_monomials(ring, r, &basis)?)))
+#[pyo3(name = "dimension")]
+fn krull_dimension(space: &NativeSpace, basis: Vec<PyRef<'_, NativePoly>>) -> PyResult<i64> {
+    with_ring!(&space.ring, r => Ok(dimension::krull_dimension(r.nvars(), &leading_monomials(space, r, &basis)?)))
 }
 
 /// Names of a maximal independent set of variables; `None` for the unit ideal.
 #[pyfunction]
 fn independent_variables(
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<Option<Vec<String>>> {
-    with_ring!(&ring.ring, r => {
-        let set = dimension::independent_variables(r.nvars(), &leading_monomials(ring, r, &basis)?);
+    with_ring!(&space.ring, r => {
+        let set = dimension::independent_variables(r.nvars(), &leading_monomials(space, r, &basis)?);
         Ok(set.map(|s| s.into_iter().map(|i| r.names()[i].clone()).collect()))
     })
 }
 
 /// Whether the ring's order compares total degrees first (needed for affine Hilbert series).
 #[pyfunction]
-fn is_degree_compatible(ring: &NativeRing) -> bool {
-    with_ring!(&ring.ring, r => r.order.is_degree_compatible())
+fn is_degree_compatible(space: &NativeSpace) -> bool {
+    with_ring!(&space.ring, r => r.order.is_degree_compatible())
 }
 
 /// (numerator, denominator exponent, affine) of the Hilbert series of R/I.
 #[pyfunction]
+#[pyo3(name = "hilbert")]
 fn hilbert_series(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<(Vec<i128>, u32, bool)> {
-    with_ring!(&ring.ring, r => {
-        let gb = basis_of(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let gb = basis_of(space, r, &basis)?;
         let s = long_run::run(py, Limits::default(), |control| series_of_basis(&gb, control))?;
         Ok((s.numerator, s.denominator_exponent, s.affine))
     })
@@ -121,13 +123,13 @@ fn regularity_index(numerator: Vec<i128>, denominator_exponent: u32) -> PyResult
 }
 
 #[pyfunction]
-fn vector_space_dimension(
+fn quotient_dimension(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<u128> {
-    with_ring!(&ring.ring, r => {
-        let gb = basis_of(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let gb = basis_of(space, r, &basis)?;
         long_run::run(py, Limits::default(), |control| core_vs_dimension(&gb, control))
     })
 }
@@ -136,11 +138,11 @@ fn vector_space_dimension(
 #[pyfunction]
 fn standard_monomials(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<Vec<Vec<u32>>> {
-    with_ring!(&ring.ring, r => {
-        let gb = basis_of(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let gb = basis_of(space, r, &basis)?;
         let q = long_run::run(py, Limits::default(), |control| Quotient::new(gb, control))?;
         Ok(q.standard_monomials().iter().map(|m| m.exponents().to_vec()).collect())
     })
@@ -150,12 +152,12 @@ fn standard_monomials(
 #[pyfunction]
 fn multiplication_matrix(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
     f: PyRef<'_, NativePoly>,
 ) -> PyResult<Vec<Vec<PyObject>>> {
-    with_ring!(&ring.ring, r => {
-        let gb = basis_of(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let gb = basis_of(space, r, &basis)?;
         let f = f.other_in(r, &f)?;
         let matrix = long_run::run(py, Limits::default(), |control| {
             Quotient::new(gb, control)?.multiplication_matrix(&f, control)
@@ -169,57 +171,57 @@ fn multiplication_matrix(
 
 /// Number of distinct solutions over the algebraic closure (zero-dimensional ideals).
 #[pyfunction]
-#[pyo3(signature = (ring, basis, engine="auto"))]
+#[pyo3(signature = (space, basis, engine="auto"))]
 fn count_solutions(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
     engine: &str,
 ) -> PyResult<u128> {
     let engine = engine_by_name(engine)?;
-    with_ring!(&ring.ring, r => {
-        let gb = basis_of(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let gb = basis_of(space, r, &basis)?;
         long_run::run(py, Limits::default(), |control| radical::count_solutions(&gb, engine, control))
     })
 }
 
 #[pyfunction]
-fn is_maximal(
+fn is_closed_point(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<bool> {
-    with_ring!(&ring.ring, r => {
-        let gb = basis_of(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let gb = basis_of(space, r, &basis)?;
         long_run::run(py, Limits::default(), |control| maximal::is_maximal(&gb, control))
     })
 }
 
 #[pyfunction]
-fn residue_field_degree(
+fn closed_point_degree(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<u128> {
-    with_ring!(&ring.ring, r => {
-        let gb = basis_of(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let gb = basis_of(space, r, &basis)?;
         long_run::run(py, Limits::default(), |control| maximal::residue_field_degree(&gb, control))
     })
 }
 
 /// Points of V(gens) with coordinates in the finite field: affine, or projective.
 #[pyfunction]
-#[pyo3(signature = (ring, gens, projective=false, engine="auto"))]
+#[pyo3(signature = (space, gens, projective=false, engine="auto"))]
 fn count_points(
     py: Python<'_>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     gens: Vec<PyRef<'_, NativePoly>>,
     projective: bool,
     engine: &str,
 ) -> PyResult<u128> {
     let engine = engine_by_name(engine)?;
-    with_ring!(&ring.ring, r => {
-        let gens = polys_in(ring, r, &gens)?;
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
         long_run::run(py, Limits::default(), |control| {
             if projective {
                 points::count_projective_points(r, &gens, engine, control)

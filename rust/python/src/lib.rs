@@ -4,23 +4,32 @@
 
 use pyo3::prelude::*;
 
+mod basis;
 mod convert;
 mod dispatch;
 mod errors;
 mod field_kinds;
-mod ideal;
 mod invariants;
 mod long_run;
 mod normalization;
-mod ring;
+mod space;
 
 #[pymodule]
 fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     errors::register(m)?;
-    m.add_class::<ring::NativeField>()?;
-    m.add_class::<ring::NativeRing>()?;
-    m.add_class::<ring::NativePoly>()?;
-    ideal::register(m)?;
+    m.add_class::<space::NativeField>()?;
+    m.add_class::<space::NativeSpace>()?;
+    m.add_class::<space::NativePoly>()?;
+    // The names the front ends accept, from the core's one list of each.
+    m.add(
+        "ENGINE_NAMES",
+        fibrewise_core::groebner::ENGINE_NAMES.to_vec(),
+    )?;
+    m.add(
+        "STRATEGY_NAMES",
+        fibrewise_core::normalization::STRATEGY_NAMES.to_vec(),
+    )?;
+    basis::register(m)?;
     field_kinds::register(m)?;
     invariants::register(m)?;
     normalization::register(m)?;

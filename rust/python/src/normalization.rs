@@ -1,11 +1,11 @@
 //! Noether normalization, certificate checks and integrality: conversion and dispatch to
 //! `fibrewise_core::normalization` and `fibrewise_core::integrality`.
 
+use crate::basis::polys_in;
 use crate::convert::limits;
 use crate::dispatch::with_ring;
-use crate::ideal::polys_in;
 use crate::long_run;
-use crate::ring::{NativePoly, NativeRing};
+use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::integrality;
 use fibrewise_core::normalization::{self, CertificateText, Options, Request};
 use pyo3::exceptions::PyValueError;
@@ -13,7 +13,7 @@ use pyo3::prelude::*;
 use pyo3::types::PyDict;
 
 pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
-    m.add_function(wrap_pyfunction!(noether_normalization, m)?)?;
+    m.add_function(wrap_pyfunction!(finite_projection, m)?)?;
     m.add_function(wrap_pyfunction!(check_certificate, m)?)?;
     m.add_function(wrap_pyfunction!(integral_equation, m)?)?;
     m.add_function(wrap_pyfunction!(is_finite_over, m)?)?;
@@ -71,10 +71,10 @@ fn text_from_py(d: &Bound<'_, PyDict>) -> PyResult<CertificateText> {
 /// texts (the keys of `FiniteProjection.to_dict()`). `grevlex_basis`: the reduced grevlex basis
 /// of `gens` when the caller already computed it (trusted, not recomputed).
 #[pyfunction]
-#[pyo3(signature = (ring, gens, strategy="auto", seed=0, grevlex_basis=None))]
-fn noether_normalization<'py>(
+#[pyo3(signature = (space, gens, strategy="auto", seed=0, grevlex_basis=None))]
+fn finite_projection<'py>(
     py: Python<'py>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     gens: Vec<PyRef<'py, NativePoly>>,
     strategy: &str,
     seed: u64,
@@ -82,9 +82,9 @@ fn noether_normalization<'py>(
 ) -> PyResult<Bound<'py, PyDict>> {
     let request = Request::from_name(strategy).map_err(crate::errors::to_py)?;
     let options = Options { request, seed };
-    let text = with_ring!(&ring.ring, r => {
-        let gens = polys_in(ring, r, &gens)?;
-        let basis = grevlex_basis.map(|b| polys_in(ring, r, &b)).transpose()?;
+    let text = with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
+        let basis = grevlex_basis.map(|b| polys_in(space, r, &b)).transpose()?;
         long_run::run(py, limits(None, None, None)?, |control| {
             normalization::noether_normalization_from(r, &gens, basis, &options, control)
                 .map(|nn| nn.to_text())
@@ -97,13 +97,13 @@ fn noether_normalization<'py>(
 #[pyfunction]
 fn check_certificate<'py>(
     py: Python<'py>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     gens: Vec<PyRef<'py, NativePoly>>,
     certificate: &Bound<'py, PyDict>,
 ) -> PyResult<Vec<String>> {
     let text = text_from_py(certificate)?;
-    with_ring!(&ring.ring, r => {
-        let gens = polys_in(ring, r, &gens)?;
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
         long_run::run(py, limits(None, None, None)?, |control| normalization::check_certificate(r, &gens, &text, control))
     })
 }
@@ -113,14 +113,14 @@ fn check_certificate<'py>(
 #[pyfunction]
 fn integral_equation<'py>(
     py: Python<'py>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     gens: Vec<PyRef<'py, NativePoly>>,
     f: PyRef<'py, NativePoly>,
     over: Vec<PyRef<'py, NativePoly>>,
 ) -> PyResult<Option<(Vec<String>, Vec<String>)>> {
-    with_ring!(&ring.ring, r => {
-        let gens = polys_in(ring, r, &gens)?;
-        let over = polys_in(ring, r, &over)?;
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
+        let over = polys_in(space, r, &over)?;
         let f = f.other_in(r, &f)?;
         let eq = long_run::run(py, limits(None, None, None)?, |control| {
             integrality::integral_equation(r, &gens, &f, &over, control)
@@ -136,13 +136,13 @@ fn integral_equation<'py>(
 #[pyfunction]
 fn is_finite_over<'py>(
     py: Python<'py>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     gens: Vec<PyRef<'py, NativePoly>>,
     over: Vec<PyRef<'py, NativePoly>>,
 ) -> PyResult<bool> {
-    with_ring!(&ring.ring, r => {
-        let gens = polys_in(ring, r, &gens)?;
-        let over = polys_in(ring, r, &over)?;
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
+        let over = polys_in(space, r, &over)?;
         long_run::run(py, limits(None, None, None)?, |control| integrality::is_finite_over(r, &gens, &over, control))
     })
 }

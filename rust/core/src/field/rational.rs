@@ -63,7 +63,7 @@ impl Field for RationalField {
         None
     }
     fn spec(&self) -> String {
-        "QQ".into()
+        "Q".into()
     }
     /// `3`, `-3/4`: the parser reads `3/4*x` as (3/4)·x.
     fn format(&self, a: &BigRational) -> String {

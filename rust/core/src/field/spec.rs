@@ -1,10 +1,11 @@
-//! Field specs: the text that names a field (`GF(7)`, `GF(2^8)`, `GF(9)`,
-//! `GF(2^8, modulus='a^8+a^4+a^3+a+1')`, `QQ`) read into [`AnyField`], one variant per concrete
-//! field type. Every field's `spec()` reads back to an equal field.
+//! Field specs: the text that names a field (`GF(7)`, `GF(2^8)`, `GF(9)`, `Q`, and
+//! `GF(2)[a]/(a^8 + a^4 + a^3 + a^2 + 1)` for GF(p^k) on a modulus other than the default) read
+//! into [`AnyField`], one variant per concrete field type. Every field's `spec()` reads back to
+//! an equal field. A modulus may also come separately ([`AnyField::with_modulus`]).
 //!
 //! Which type serves which field: primes below 2^63 → [`PrimeField`]; larger primes →
 //! [`BigPrimeField`] on 2, 4 or 8 limbs (up to 2^512); p^k with k ≥ 2 → [`TableField`] when
-//! q ≤ 2^16, [`BinaryField`] for GF(2^k) up to k = 64, else [`ExtensionField`]; `QQ` → [`RationalField`].
+//! q ≤ 2^16, [`BinaryField`] for GF(2^k) up to k = 64, else [`ExtensionField`]; `Q` → [`RationalField`].
 
 use super::bpsw;
 use super::{
@@ -44,31 +45,33 @@ macro_rules! with_any_field {
     };
 }
 
-const SPEC_FORMS: &str = "GF(p), GF(p^k), GF(q), GF(p^k, modulus='...') or QQ";
+const SPEC_FORMS: &str = "GF(p), GF(p^k), GF(q), GF(p)[a]/(modulus) or Q";
 
 impl AnyField {
     /// Reads a field spec (see the module doc); errors name what is wrong.
     pub fn parse(spec: &str) -> Result<Self> {
         let text = spec.trim();
-        if text == "QQ" {
+        if text == "Q" {
             return Ok(AnyField::Rational(RationalField));
         }
         if !text.is_empty() && text.bytes().all(|b| b.is_ascii_digit()) {
             return AnyField::from_order(spec, text, None);
         }
-        let inner = text
-            .strip_prefix("GF(")
-            .and_then(|t| t.strip_suffix(')'))
-            .ok_or_else(|| {
-                Error::invalid(format!(
-                    "unknown field spec '{spec}': expected {SPEC_FORMS}"
-                ))
-            })?;
-        let (order, modulus) = match inner.split_once(',') {
-            None => (inner.trim(), None),
-            Some((order, rest)) => (order.trim(), Some(parse_modulus_option(spec, rest)?)),
-        };
-        AnyField::from_order(spec, order, modulus)
+        if let Some((base, modulus)) = quotient_form(text) {
+            return AnyField::from_quotient(spec, base, modulus);
+        }
+        AnyField::from_order(spec, gf_inner(spec, text)?, None)
+    }
+
+    /// The field named by `spec` (`GF(q)` or `GF(p^k)`, k ≥ 2) on the modulus written in `a`.
+    pub fn with_modulus(spec: &str, modulus: &str) -> Result<Self> {
+        AnyField::from_order(spec, gf_inner(spec, spec.trim())?, Some(modulus))
+    }
+
+    /// `GF(p)[a]/(f)`: GF(p^k) with k the degree of f.
+    fn from_quotient(spec: &str, base: &str, modulus: &str) -> Result<Self> {
+        let prime = small_prime(spec, &parse_prime(spec, base)?)?;
+        extension_field(Modulus::parse(prime, None, modulus).map_err(|e| prefixed(spec, e))?)
     }
 
     /// The field of order `order` (`q` or `p^k`), optionally on a given modulus text.
@@ -81,6 +84,21 @@ impl AnyField {
                 )));
             }
             Ok(t.parse().expect("digits"))
+        };
+        let evaluated;
+        if !order
+            .chars()
+            .all(|c| c.is_ascii_digit() || "+-*^() ".contains(c))
+        {
+            return Err(Error::invalid(format!(
+                "unknown field spec '{spec}': expected {SPEC_FORMS}"
+            )));
+        }
+        let order = if order.contains(['+', '-', '*', '(']) || order.matches('^').count() > 1 {
+            evaluated = integer_expression(spec, order)?.to_string();
+            evaluated.as_str()
+        } else {
+            order
         };
         let (p, k) = match order.split_once('^') {
             Some((base, exp)) => {
@@ -110,6 +128,9 @@ impl AnyField {
         };
         match (k, modulus) {
             (1, None) => prime_field(&p),
+            (1, Some(_)) => Err(Error::invalid(format!(
+                "field spec '{spec}': a modulus is given only for GF(p^k) with k >= 2"
+            ))),
             (_, Some(text)) => {
                 let base = small_prime(spec, &p)?;
                 extension_field(Modulus::parse(base, Some(k), text).map_err(|e| prefixed(spec, e))?)
@@ -169,30 +190,129 @@ fn factor_note(n: &BigUint) -> String {
     }
 }
 
-/// `modulus='...'` (or double quotes) after the comma; returns the quoted text.
-fn parse_modulus_option<'a>(spec: &str, rest: &'a str) -> Result<&'a str> {
-    let bad = || {
-        Error::invalid(format!(
-            "field spec '{spec}': expected modulus='...' after the comma"
-        ))
-    };
-    let (key, value) = rest.split_once('=').ok_or_else(bad)?;
-    if key.trim() != "modulus" {
-        return Err(Error::invalid(format!(
-            "field spec '{spec}': unknown option '{}' (the only option is modulus)",
-            key.trim()
+/// Results of field-size expressions above this many bits are refused before they are built.
+const MAX_EXPRESSION_BITS: u64 = 4096;
+
+/// The value of an integer expression such as `2^255-19` (`+ - * ^`, parentheses; `^` binds
+/// tightest and to the right), for field sizes written as expressions.
+fn integer_expression(spec: &str, text: &str) -> Result<BigUint> {
+    let bad = |what: &str| Error::invalid(format!("field spec '{spec}': {what}"));
+    let tokens: Vec<char> = text.chars().filter(|c| !c.is_whitespace()).collect();
+    let mut pos = 0;
+    let value = expression_sum(&tokens, &mut pos, &bad)?;
+    if pos != tokens.len() {
+        return Err(bad(&format!(
+            "unexpected '{}' in the field size",
+            tokens[pos]
         )));
     }
-    let value = value.trim();
-    let quote = value
-        .chars()
-        .next()
-        .filter(|c| *c == '\'' || *c == '"')
-        .ok_or_else(bad)?;
-    value
-        .strip_prefix(quote)
-        .and_then(|v| v.strip_suffix(quote))
-        .ok_or_else(bad)
+    Ok(value)
+}
+
+type Bad<'a> = &'a dyn Fn(&str) -> Error;
+
+fn expression_sum(t: &[char], pos: &mut usize, bad: Bad) -> Result<BigUint> {
+    let mut acc = expression_product(t, pos, bad)?;
+    while let Some(&op @ ('+' | '-')) = t.get(*pos) {
+        *pos += 1;
+        let rhs = expression_product(t, pos, bad)?;
+        acc = if op == '+' {
+            acc + rhs
+        } else if rhs <= acc {
+            acc - rhs
+        } else {
+            return Err(bad("the field size is negative"));
+        };
+    }
+    Ok(acc)
+}
+
+fn expression_product(t: &[char], pos: &mut usize, bad: Bad) -> Result<BigUint> {
+    let mut acc = expression_power(t, pos, bad)?;
+    while t.get(*pos) == Some(&'*') {
+        *pos += 1;
+        acc *= expression_power(t, pos, bad)?;
+        if acc.bits() > MAX_EXPRESSION_BITS {
+            return Err(bad("the field size is too large"));
+        }
+    }
+    Ok(acc)
+}
+
+fn expression_power(t: &[char], pos: &mut usize, bad: Bad) -> Result<BigUint> {
+    let base = expression_atom(t, pos, bad)?;
+    if t.get(*pos) != Some(&'^') {
+        return Ok(base);
+    }
+    *pos += 1;
+    let exponent = expression_power(t, pos, bad)?;
+    let small = exponent
+        .to_u64()
+        .filter(|&e| e.saturating_mul(base.bits()) <= MAX_EXPRESSION_BITS);
+    match small {
+        Some(e) => Ok(base.pow(e as u32)),
+        None if base <= BigUint::from(1u8) => Ok(base),
+        None => Err(bad("the field size is too large")),
+    }
+}
+
+fn expression_atom(t: &[char], pos: &mut usize, bad: Bad) -> Result<BigUint> {
+    if t.get(*pos) == Some(&'(') {
+        *pos += 1;
+        let inner = expression_sum(t, pos, bad)?;
+        if t.get(*pos) != Some(&')') {
+            return Err(bad("missing ')' in the field size"));
+        }
+        *pos += 1;
+        return Ok(inner);
+    }
+    let start = *pos;
+    while t.get(*pos).is_some_and(|c| c.is_ascii_digit()) {
+        *pos += 1;
+    }
+    if start == *pos {
+        return Err(bad("expected a number in the field size"));
+    }
+    Ok(t[start..*pos]
+        .iter()
+        .collect::<String>()
+        .parse()
+        .expect("digits"))
+}
+
+/// The text inside `GF(...)`.
+fn gf_inner<'a>(spec: &str, text: &'a str) -> Result<&'a str> {
+    text.strip_prefix("GF(")
+        .and_then(|t| t.strip_suffix(')'))
+        .map(str::trim)
+        .ok_or_else(|| {
+            Error::invalid(format!(
+                "unknown field spec '{spec}': expected {SPEC_FORMS}"
+            ))
+        })
+}
+
+/// `GF(p)[a]/(f)` split into the text of p and the text of f.
+fn quotient_form(text: &str) -> Option<(&str, &str)> {
+    let (base, modulus) = text.split_once("[a]")?;
+    let modulus = modulus.trim().strip_prefix('/')?.trim();
+    let modulus = modulus.strip_prefix('(')?.strip_suffix(')')?;
+    Some((base.trim(), modulus))
+}
+
+/// The prime p of `GF(p)` (or of a plain number).
+fn parse_prime(spec: &str, base: &str) -> Result<BigUint> {
+    let inner = gf_inner(spec, base).unwrap_or(base);
+    let p: BigUint = inner
+        .parse()
+        .map_err(|_| Error::invalid(format!("field spec '{spec}': '{inner}' is not a prime")))?;
+    if !bpsw::is_probable_prime(&p) {
+        return Err(Error::invalid(format!(
+            "field spec '{spec}': {p} is not a prime{}",
+            factor_note(&p)
+        )));
+    }
+    Ok(p)
 }
 
 /// The prime field of an extension: word-size only.
@@ -253,11 +373,12 @@ mod tests {
             ("GF(2^65)", "Extension", "GF(2^65)"),
             ("GF(3^11)", "Extension", "GF(3^11)"),
             (
-                "GF(2^8, modulus='a^8+a^4+a^3+a^2+1')",
+                "GF(2)[a]/(a^8+a^4+a^3+a^2+1)",
                 "Table",
-                "GF(2^8, modulus='a^8 + a^4 + a^3 + a^2 + 1')",
+                "GF(2)[a]/(a^8 + a^4 + a^3 + a^2 + 1)",
             ),
-            ("GF(2^8, modulus=\"a^8+a^4+a^3+a+1\")", "Table", "GF(2^8)"),
+            ("GF(2) [a] / (a^8+a^4+a^3+a+1)", "Table", "GF(2^8)"),
+            ("GF(3)[a]/(a^2 + 1)", "Table", "GF(3^2)"),
             (
                 "GF(9223372036854775837)",
                 "BigPrime2",
@@ -268,7 +389,7 @@ mod tests {
                 "BigPrime4",
                 "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)",
             ),
-            ("QQ", "Rational", "QQ"),
+            ("Q", "Rational", "Q"),
         ] {
             let f = AnyField::parse(spec).unwrap();
             assert!(format!("{f:?}").starts_with(kind), "{spec}: {f:?}");
@@ -280,7 +401,26 @@ mod tests {
             (f.characteristic(), f.order(), f.degree()),
             ("3".into(), Some("243".into()), 5)
         );
-        assert_eq!(AnyField::parse("QQ").unwrap().order(), None);
+        assert_eq!(AnyField::parse("Q").unwrap().order(), None);
+        // Sizes written as expressions: 2^255 - 19 is the prime of Curve25519 (from memory).
+        let p25519 = AnyField::parse("GF(2^255-19)").unwrap();
+        assert_eq!(
+            p25519.spec(),
+            "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)"
+        );
+        assert_eq!(
+            AnyField::parse("GF((2^3 + 1) * 1)").unwrap().spec(),
+            "GF(3^2)"
+        );
+        assert_eq!(AnyField::parse("GF(2^2^2)").unwrap().spec(), "GF(2^4)");
+        let f = AnyField::with_modulus("GF(2^8)", "a^8+a^4+a^3+a^2+1").unwrap();
+        assert_eq!(f.spec(), "GF(2)[a]/(a^8 + a^4 + a^3 + a^2 + 1)");
+        assert_eq!(
+            AnyField::with_modulus("GF(256)", "a^8+a^4+a^3+a+1")
+                .unwrap()
+                .spec(),
+            "GF(2^8)"
+        );
     }
 
     #[test]
@@ -297,19 +437,30 @@ mod tests {
         );
         assert!(err("GF(1)").contains("not a prime"), "{}", err("GF(1)"));
         assert!(
-            err("GF(2^8, modulus='a^8+1')").contains("reducible over GF(2)"),
+            err("GF(2)[a]/(a^8+1)").contains("reducible over GF(2)"),
             "{}",
-            err("GF(2^8, modulus='a^8+1')")
+            err("GF(2)[a]/(a^8+1)")
         );
+        let wrong_degree = AnyField::with_modulus("GF(2^8)", "a^5+a^2+1").unwrap_err();
         assert!(
-            err("GF(2^8, modulus='a^5+a^2+1')").contains("degree 5"),
-            "{}",
-            err("GF(2^8, modulus='a^5+a^2+1')")
+            wrong_degree.to_string().contains("degree 5"),
+            "{wrong_degree}"
         );
-        assert!(err("GF(2^8, poly='a^8+1')").contains("unknown option 'poly'"));
-        assert!(err("GF(2^8, modulus=a^8+1)").contains("expected modulus='...'"));
+        let prime = AnyField::with_modulus("GF(7)", "a+1").unwrap_err();
+        assert!(prime.to_string().contains("only for GF(p^k)"), "{prime}");
+        assert!(err("GF(4)[a]/(a^2+a+1)").contains("4 is not a prime"));
+        assert!(err("GF(2^8, modulus='a^8+1')").contains("unknown field spec"));
+        assert!(err("QQ").contains("unknown field spec 'QQ'"));
+        assert!(err("GF(2-3)").contains("negative"), "{}", err("GF(2-3)"));
+        assert!(err("GF(2^100000-1)").contains("too large"));
+        assert!(err("GF(2^255-20)").contains("is not a prime"));
+        assert!(
+            err("GF((2+1)").contains("missing ')'"),
+            "{}",
+            err("GF((2+1)")
+        );
         assert!(err("ZZ").contains("unknown field spec 'ZZ'"));
-        assert!(err("GF(x)").contains("'x' is not a positive integer"));
+        assert!(err("GF(x)").contains("unknown field spec 'GF(x)'"));
         assert!(err("GF(2^0)").contains("exponent"));
         let big =
             "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949^2)";

@@ -38,7 +38,25 @@ pub enum Engine {
     F4Signature,
 }
 
+/// The names callers may give for an engine (the command line, the Python API, batch jobs):
+/// the one list every front end reads. `auto` lets the library choose.
+pub const ENGINE_NAMES: &[&str] = &["auto", "f4", "f4-sampled", "f4-signature", "buchberger"];
+
 impl Engine {
+    /// The engine named `name` (one of [`ENGINE_NAMES`]).
+    pub fn from_name(name: &str) -> Result<Self> {
+        match name {
+            "auto" => Ok(Engine::default()),
+            "buchberger" => Ok(Engine::Buchberger),
+            "f4" => Ok(Engine::F4),
+            "f4-sampled" => Ok(Engine::F4Sampled),
+            "f4-signature" => Ok(Engine::F4Signature),
+            other => Err(crate::Error::invalid(format!(
+                "unknown engine '{other}': expected one of {}",
+                ENGINE_NAMES.join(", ")
+            ))),
+        }
+    }
     pub fn name(&self) -> &'static str {
         match self {
             Engine::Buchberger => "buchberger",

@@ -84,6 +84,9 @@ impl Strategy {
     }
 }
 
+/// The names callers may give for a strategy: the one list every front end reads.
+pub const STRATEGY_NAMES: &[&str] = &["auto", "variables", "linear", "nonlinear"];
+
 /// What the caller asks for: `Auto` tries variables, linear, nonlinear in turn; the others try
 /// only that kind (and fail with a clear error when it does not work).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
@@ -97,11 +100,14 @@ impl Request {
     pub fn from_name(name: &str) -> Result<Self> {
         match name {
             "auto" => Ok(Request::Auto),
-            other => Strategy::from_name(other).map(Request::Only).ok_or_else(|| {
-                Error::invalid(format!(
-                    "unknown normalization strategy '{other}': expected auto, variables, linear or nonlinear"
-                ))
-            }),
+            other => Strategy::from_name(other)
+                .map(Request::Only)
+                .ok_or_else(|| {
+                    Error::invalid(format!(
+                        "unknown normalization strategy '{other}': expected one of {}",
+                        STRATEGY_NAMES.join(", ")
+                    ))
+                }),
         }
     }
     fn allows(&self, s: Strategy) -> bool {

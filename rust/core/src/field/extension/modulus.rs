@@ -127,9 +127,9 @@ impl Modulus {
     pub fn parse(base: PrimeField, k: Option<u32>, text: &str) -> Result<Self> {
         let ring = Ring::new(base.clone(), vec!["a".to_string()], MonomialOrder::Lex)?;
         let f = parse_poly(&ring, text).map_err(|e| match e {
-            Error::Parse { message, column } => {
-                Error::invalid(format!("modulus '{text}': column {column}: {message}"))
-            }
+            Error::Parse {
+                message, column, ..
+            } => Error::invalid(format!("modulus '{text}': column {column}: {message}")),
             other => other,
         })?;
         let degree = f.degree().unwrap_or(0) as usize;
@@ -409,13 +409,13 @@ impl Modulus {
         self.is_default
     }
 
-    /// `GF(p^k)`, with `, modulus='...'` unless the modulus is the default one.
+    /// `GF(p^k)`, or `GF(p)[a]/(f)` when the modulus f is not the default one.
     pub fn spec(&self) -> String {
         let (p, k) = (self.characteristic(), self.degree());
         if self.is_default {
             format!("GF({p}^{k})")
         } else {
-            format!("GF({p}^{k}, modulus='{}')", self.text())
+            format!("GF({p})[a]/({})", self.text())
         }
     }
 }

@@ -192,7 +192,7 @@ fn f_spec<F: Field>(f: &F) -> String {
 #[test]
 fn spec_names_non_default_moduli() {
     let t = TableField::new(modulus(2, "a^8+a^4+a^3+a^2+1")).unwrap();
-    assert_eq!(t.spec(), "GF(2^8, modulus='a^8 + a^4 + a^3 + a^2 + 1')");
+    assert_eq!(t.spec(), "GF(2)[a]/(a^8 + a^4 + a^3 + a^2 + 1)");
     assert_eq!(
         TableField::new(default_modulus(2, 8)).unwrap().spec(),
         "GF(2^8)"

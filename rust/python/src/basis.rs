@@ -1,41 +1,31 @@
-//! Gröbner bases and normal forms: conversion and dispatch to `fibrewise_core::groebner`.
+//! Reduced Gröbner bases and normal forms: conversion and dispatch to `fibrewise_core::groebner`.
 
 use crate::convert::limits;
 use crate::dispatch::{with_ring, Kind};
 use crate::long_run;
-use crate::ring::{NativePoly, NativeRing};
-use fibrewise_core::groebner::{groebner_basis as core_basis, reduce::normal_form, Engine, Stats};
+use crate::space::{NativePoly, NativeSpace};
+use fibrewise_core::groebner::{groebner_basis as core_basis, reduce, Engine, Stats};
 use fibrewise_core::{Poly, Ring};
-use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
 use pyo3::types::{PyDict, PyList};
 
 pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
-    m.add_function(wrap_pyfunction!(groebner_basis, m)?)?;
-    m.add_function(wrap_pyfunction!(normal_form_of, m)?)?;
+    m.add_function(wrap_pyfunction!(reduced_basis, m)?)?;
+    m.add_function(wrap_pyfunction!(normal_form, m)?)?;
     Ok(())
 }
 
 pub fn engine_by_name(name: &str) -> PyResult<Engine> {
-    match name {
-        "buchberger" => Ok(Engine::Buchberger),
-        "f4" => Ok(Engine::F4),
-        "f4-sampled" => Ok(Engine::F4Sampled),
-        "f4-signature" => Ok(Engine::F4Signature),
-        "auto" => Ok(Engine::default()),
-        other => Err(PyValueError::new_err(format!(
-            "unknown engine '{other}': expected auto, f4, f4-sampled, f4-signature or buchberger"
-        ))),
-    }
+    Engine::from_name(name).map_err(crate::errors::to_py)
 }
 
-/// The polynomials as elements of `ring` (sorted for its order).
+/// The polynomials as elements of `r`, the ring of `space` (sorted for its order).
 pub fn polys_in<F: Kind>(
-    ring: &NativeRing,
+    space: &NativeSpace,
     r: &Ring<F>,
     polys: &[PyRef<'_, NativePoly>],
 ) -> PyResult<Vec<Poly<F>>> {
-    let _ = ring;
+    let _ = space;
     polys.iter().map(|p| p.other_in(r, p)).collect()
 }
 
@@ -62,12 +52,12 @@ pub fn stats_to_py<'py>(py: Python<'py>, stats: &Stats) -> PyResult<Bound<'py, P
     Ok(d)
 }
 
-/// Reduced Gröbner basis of `gens` for the order of `ring`; returns (basis, stats dict).
+/// Reduced Gröbner basis of `gens` for the order of `space`; returns (basis, stats dict).
 #[pyfunction]
-#[pyo3(signature = (ring, gens, engine="auto", max_degree=None, max_matrix=None, threads=None))]
-fn groebner_basis<'py>(
+#[pyo3(signature = (space, gens, engine="auto", max_degree=None, max_matrix=None, threads=None))]
+fn reduced_basis<'py>(
     py: Python<'py>,
-    ring: &NativeRing,
+    space: &NativeSpace,
     gens: Vec<PyRef<'py, NativePoly>>,
     engine: &str,
     max_degree: Option<u32>,
@@ -76,25 +66,25 @@ fn groebner_basis<'py>(
 ) -> PyResult<(Vec<NativePoly>, Bound<'py, PyDict>)> {
     let engine = engine_by_name(engine)?;
     let limits = limits(max_degree, max_matrix, threads)?;
-    with_ring!(&ring.ring, r => {
-        let gens = polys_in(ring, r, &gens)?;
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
         let gb = long_run::run(py, limits, |control| core_basis(r, &gens, engine, control))?;
-        let polys = gb.polys.into_iter().map(|p| ring.poly(p)).collect();
+        let polys = gb.polys.into_iter().map(|p| space.poly(p)).collect();
         Ok((polys, stats_to_py(py, &gb.stats)?))
     })
 }
 
-/// Normal form of `f` modulo `basis` (a Gröbner basis for the order of `ring`).
+/// Normal form of `f` modulo `basis` (a Gröbner basis for the order of `space`).
 #[pyfunction]
-fn normal_form_of(
-    ring: &NativeRing,
+fn normal_form(
+    space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
     f: PyRef<'_, NativePoly>,
 ) -> PyResult<NativePoly> {
-    with_ring!(&ring.ring, r => {
-        let basis = polys_in(ring, r, &basis)?;
+    with_ring!(&space.ring, r => {
+        let basis = polys_in(space, r, &basis)?;
         let f = f.other_in(r, &f)?;
-        let nf = normal_form(r, &f, &basis).map_err(crate::errors::to_py)?;
-        Ok(ring.poly(nf))
+        let nf = reduce::normal_form(r, &f, &basis).map_err(crate::errors::to_py)?;
+        Ok(space.poly(nf))
     })
 }

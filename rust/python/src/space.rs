@@ -1,10 +1,11 @@
-//! Native field, ring and polynomial handles. Python's `fibrewise.Field`, `PolynomialRing` and
-//! `Polynomial` wrap these.
+//! Native field, space and polynomial handles. Python's `fibrewise.Field`, `Space` and
+//! `Polynomial` wrap these. A space is k^n with named coordinates and a monomial order; its
+//! polynomials live in the core's `Ring`.
 
 use crate::convert::order_from_py;
 use crate::dispatch::{
-    parse_field_spec, same_variables_and_field, with_field, with_ring, AnyField, AnyPoly, AnyRing,
-    Kind,
+    parse_field_spec, same_variables_and_field, with_field, with_modulus, with_ring, AnyField,
+    AnyPoly, AnyRing, Kind,
 };
 use crate::errors::{internal, IntoPy};
 use fibrewise_core::parse::parse_poly;
@@ -20,18 +21,23 @@ pub struct NativeField {
 
 #[pymethods]
 impl NativeField {
+    /// The field named by `spec`; with `modulus`, GF(p^k) on that modulus (text in `a`).
     #[new]
-    fn new(spec: &str) -> PyResult<Self> {
-        Ok(NativeField {
-            field: parse_field_spec(spec)?,
-        })
+    #[pyo3(signature = (spec, modulus=None))]
+    fn new(spec: &str, modulus: Option<&str>) -> PyResult<Self> {
+        let field = match modulus {
+            None => parse_field_spec(spec)?,
+            Some(text) => with_modulus(spec, text)?,
+        };
+        Ok(NativeField { field })
     }
     #[getter]
     fn characteristic(&self) -> String {
         with_field!(&self.field, f => f.characteristic())
     }
+    /// Number of elements; None for Q.
     #[getter]
-    fn order(&self) -> Option<String> {
+    fn size(&self) -> Option<String> {
         with_field!(&self.field, f => f.order())
     }
     #[getter]
@@ -48,7 +54,7 @@ impl NativeField {
 }
 
 #[pyclass(frozen, module = "fibrewise._native")]
-pub struct NativeRing {
+pub struct NativeSpace {
     pub ring: AnyRing,
 }
 
@@ -59,7 +65,7 @@ fn new_ring<F: Kind>(field: &F, names: Vec<String>, order: &Bound<'_, PyAny>) ->
     )))
 }
 
-impl NativeRing {
+impl NativeSpace {
     pub fn poly<F: Kind>(&self, p: Poly<F>) -> NativePoly {
         NativePoly {
             ring: self.ring.clone(),
@@ -69,11 +75,11 @@ impl NativeRing {
 }
 
 #[pymethods]
-impl NativeRing {
+impl NativeSpace {
     #[new]
     fn new(field: &NativeField, names: Vec<String>, order: &Bound<'_, PyAny>) -> PyResult<Self> {
         let ring = with_field!(&field.field, f => new_ring(f, names, order)?);
-        Ok(NativeRing { ring })
+        Ok(NativeSpace { ring })
     }
     #[getter]
     fn names(&self) -> Vec<String> {
@@ -83,10 +89,10 @@ impl NativeRing {
     fn field(&self) -> NativeField {
         with_ring!(&self.ring, r => NativeField { field: r.field.clone().into_any() })
     }
-    /// The same ring with another order.
-    fn with_order(&self, order: &Bound<'_, PyAny>) -> PyResult<NativeRing> {
+    /// The same space with another order.
+    fn with_order(&self, order: &Bound<'_, PyAny>) -> PyResult<NativeSpace> {
         let ring = with_ring!(&self.ring, r => new_ring(&r.field, r.names().to_vec(), order)?);
-        Ok(NativeRing { ring })
+        Ok(NativeSpace { ring })
     }
     fn parse(&self, text: &str) -> PyResult<NativePoly> {
         with_ring!(&self.ring, r => Ok(self.poly(parse_poly(r, text).py_err()?)))
@@ -118,7 +124,7 @@ impl NativeRing {
     }
 }
 
-/// Moving a concrete field back into the enum (for `NativeRing::field`).
+/// Moving a concrete field back into the enum (for `NativeSpace::field`).
 pub(crate) trait IntoAny {
     fn into_any(self) -> AnyField;
 }
@@ -152,7 +158,7 @@ impl NativePoly {
     pub fn other_in<F: Kind>(&self, ring: &Ring<F>, other: &NativePoly) -> PyResult<Poly<F>> {
         if !same_variables_and_field(&self.ring, &other.ring) {
             return Err(PyValueError::new_err(
-                "the polynomials belong to different rings",
+                "the polynomials belong to different spaces",
             ));
         }
         let p = other.inner::<F>()?.clone();
@@ -203,7 +209,7 @@ impl NativePoly {
             .collect())
     }
     /// Exponents of the leading monomial for the order of `ring` (None for zero).
-    fn leading_monomial(&self, ring: &NativeRing) -> PyResult<Option<Vec<u32>>> {
+    fn leading_monomial(&self, ring: &NativeSpace) -> PyResult<Option<Vec<u32>>> {
         with_ring!(&ring.ring, r => {
             let p = self.other_in(r, self)?;
             Ok(p.leading_monomial().map(|m| m.exponents().to_vec()))

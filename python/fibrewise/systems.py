@@ -1,0 +1,340 @@
+"""Systems of polynomial equations in a space, and their reduced Gröbner bases.
+
+A ``System`` is a list of equations f = 0 in a ``Space``; what it says about its solution set
+(dimension, degree, point counts, finite projections, ...) is computed in the Rust core from the
+reduced Gröbner basis of the ideal the equations generate, computed once per order and engine.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field as dataclass_field
+from numbers import Integral
+from typing import TYPE_CHECKING, Iterable, Iterator, Optional, Sequence, Union, overload
+
+from . import _native, invariants
+from .names import ENGINE_NAMES, Engine, Strategy, check_name
+from .orders import Order
+from .spaces import Coercible, Polynomial, Space
+
+if TYPE_CHECKING:
+    import numpy
+    from .fields import FieldSpec
+    from .invariants import HilbertSeries
+    from .normalization import FiniteProjection, IntegralEquation
+
+
+@dataclass(frozen=True)
+class StepStats:
+    """One step of an engine: the degree handled, the pairs, the matrix and the time spent."""
+
+    degree: int
+    pairs: int
+    rows: int
+    columns: int
+    nonzeros: int
+    new_elements: int
+    seconds_symbolic: float
+    seconds_linear_algebra: float
+
+
+@dataclass(frozen=True)
+class GroebnerStats:
+    """What the engine did. ``max_degree`` is the highest degree reached (the solving degree)."""
+
+    engine: str
+    seconds: float
+    zero_reductions: int
+    max_degree: int
+    steps: list[StepStats] = dataclass_field(default_factory=list)
+
+    @classmethod
+    def _from_native(cls, d: dict) -> "GroebnerStats":
+        steps = [StepStats(**s) for s in d["steps"]]
+        return cls(d["engine"], d["seconds"], d["zero_reductions"], d["max_degree"], steps)
+
+    def to_dict(self) -> dict:
+        return {
+            "engine": self.engine,
+            "seconds": self.seconds,
+            "zero_reductions": self.zero_reductions,
+            "max_degree": self.max_degree,
+            "steps": [s.__dict__ for s in self.steps],
+        }
+
+
+class ReducedBasis(Sequence[Polynomial]):
+    """The reduced Gröbner basis of a system's ideal: monic, sorted by decreasing leading
+    monomial. The unit ideal has basis ``[1]``, the zero ideal the empty basis."""
+
+    def __init__(self, space: Space, polys: list[Polynomial], stats: GroebnerStats):
+        self.space = space
+        self.polys = polys
+        self.stats = stats
+
+    @property
+    def order(self) -> Order:
+        return self.space.order
+
+    @overload
+    def __getitem__(self, i: int) -> Polynomial: ...
+    @overload
+    def __getitem__(self, i: slice) -> list[Polynomial]: ...
+    def __getitem__(self, i):
+        return self.polys[i]
+
+    def __len__(self) -> int:
+        return len(self.polys)
+
+    def __iter__(self) -> Iterator[Polynomial]:
+        return iter(self.polys)
+
+    def normal_form(self, f: Coercible) -> Polynomial:
+        """Normal form of ``f``: the remainder, unique since this is a Gröbner basis."""
+        p = self.space.polynomial(f)
+        native = _native.normal_form(self.space._native, [g._native for g in self.polys], p._native)
+        return Polynomial(self.space, native)
+
+    def leading_monomials(self) -> list[Polynomial]:
+        return [g.leading_monomial() for g in self.polys]
+
+    def __str__(self) -> str:
+        return "[" + ", ".join(str(g) for g in self.polys) + "]"
+
+    def __repr__(self) -> str:
+        return f"<ReducedBasis of {len(self.polys)} polynomials over {self.space}, order {self.order!r}: {self}>"
+
+    def _repr_latex_(self) -> str:
+        from .interop import latex_polynomial
+
+        return r"$\left[" + r",\ ".join(latex_polynomial(str(g)) for g in self.polys) + r"\right]$"
+
+
+def _split_equations(text: str) -> list[str]:
+    body = text.strip()
+    if body.startswith("(") and body.endswith(")") and _balanced(body[1:-1]):
+        body = body[1:-1]
+    return [part for part in (p.strip() for p in body.split(",")) if part]
+
+
+def _balanced(text: str) -> bool:
+    depth = 0
+    for ch in text:
+        depth += {"(": 1, ")": -1}.get(ch, 0)
+        if depth < 0:
+            return False
+    return depth == 0
+
+
+def _optional_count(name: str, value: Optional[int], least: int, most: int) -> Optional[int]:
+    """A limit argument: None, or an int in [least, most] (TypeError, ValueError otherwise)."""
+    if value is None:
+        return None
+    if isinstance(value, bool) or not isinstance(value, Integral):
+        raise TypeError(f"{name} must be an int, not {type(value).__name__}")
+    if not least <= value <= most:
+        raise ValueError(f"{name} must be between {least} and {most}, got {value}")
+    return int(value)
+
+
+class System:
+    """A system of polynomial equations f = 0 in a ``Space``. Bases are computed on demand and
+    kept per monomial order and engine."""
+
+    def __init__(self, space: Space, equations: Union[str, Iterable[Coercible]]):
+        if not isinstance(space, Space):
+            raise TypeError(f"a system lives in a Space, not {type(space).__name__}")
+        if isinstance(equations, str):
+            equations = _split_equations(equations)
+        elif not isinstance(equations, Iterable):
+            raise TypeError(f"equations are a list of polynomials or texts, not {type(equations).__name__}")
+        self.space = space
+        self.equations: tuple[Polynomial, ...] = tuple(space.polynomial(g) for g in equations)
+        self.path: Optional[str] = None
+        self._bases: dict[str, ReducedBasis] = {}
+
+    @classmethod
+    def read(cls, path: str) -> "System":
+        """Reads a system file (``field:``, ``variables:``, optional ``order:`` headers, then one
+        polynomial a line). Errors are ``fibrewise.ParseError`` naming file, line and column."""
+        from .systemfile import read_system_file
+
+        return read_system_file(path)
+
+    # --- bases ------------------------------------------------------------------------------
+
+    def basis(
+        self,
+        order: Order | None = None,
+        engine: Engine = "auto",
+        *,
+        max_degree: int | None = None,
+        max_matrix: int | None = None,
+        threads: int | None = None,
+    ) -> ReducedBasis:
+        """The reduced Gröbner basis for ``order`` (default: the space's order).
+
+        ``engine``: ``"auto"`` (the library's choice), ``"f4"``, ``"f4-sampled"`` — F4 that
+        reduces random combinations of each matrix's new rows instead of every row, much faster
+        when most rows are dependent; over a finite field its basis is the exact one except with
+        probability at most 2^-80 per matrix, and over Q it is checked exactly like the others —
+        ``"f4-signature"`` — F4 with signatures (exact; grlex and grevlex only), which skips most
+        rows that would reduce to zero: faster on systems whose degrees do not fall, such as
+        katsura-n, slower on most others — or ``"buchberger"``, the reference engine.
+
+        ``max_degree`` and ``max_matrix`` (rows × columns) bound the work: going over raises
+        ``fibrewise.ResourceLimit``. Ctrl-C raises ``KeyboardInterrupt`` promptly.
+        """
+        check_name("engine", engine, ENGINE_NAMES)
+        limits = (_optional_count("max_degree", max_degree, 0, 2**32 - 1),
+                  _optional_count("max_matrix", max_matrix, 1, 2**64 - 1))
+        threads = _optional_count("threads", threads, 1, 4096)
+        space = self.space if order is None else self.space.with_order(order)
+        key = self._basis_key(space.order, engine)
+        limited = limits != (None, None)
+        if not limited and key in self._bases:
+            return self._bases[key]
+        polys, stats = _native.reduced_basis(
+            space._native,
+            [g._native for g in self.equations],
+            engine=engine,
+            max_degree=limits[0],
+            max_matrix=limits[1],
+            threads=threads,
+        )
+        gb = ReducedBasis(space, [Polynomial(space, p) for p in polys], GroebnerStats._from_native(stats))
+        if not limited:
+            self._bases[key] = gb
+        return gb
+
+    @staticmethod
+    def _basis_key(order: Order, engine: str) -> str:
+        return f"{order!r}/{engine}"
+
+    def _cached_basis(self, order: Order) -> ReducedBasis | None:
+        """The basis for ``order`` if one was computed already (by the default engine), else
+        ``None``; never computes."""
+        return self._bases.get(self._basis_key(order, "auto"))
+
+    def normal_form(self, f: Coercible) -> Polynomial:
+        """Normal form of ``f`` modulo the ideal (for the space's order)."""
+        return self.basis().normal_form(f)
+
+    def __contains__(self, f: Coercible) -> bool:
+        """Whether ``f`` lies in the ideal the equations generate (which is more than vanishing
+        on the solutions)."""
+        return not self.normal_form(f)
+
+    def ideal_contains(self, other: "System") -> bool:
+        """Whether the ideal of this system contains the ideal of ``other``."""
+        self._check_same_space(other)
+        basis = self.basis()
+        return all(not basis.normal_form(g) for g in other.equations)
+
+    def same_ideal(self, other: "System") -> bool:
+        """Whether the two systems generate the same ideal."""
+        self._check_same_space(other)
+        ours = self.basis()
+        return list(map(str, ours)) == list(map(str, other.basis(ours.order)))
+
+    def _check_same_space(self, other: "System") -> None:
+        if not isinstance(other, System):
+            raise TypeError(f"expected a System, not {type(other).__name__}")
+        if not self.space.same_coordinates(other.space):
+            raise ValueError(f"the systems live in different spaces: {self.space} and {other.space}")
+
+    # --- invariants (python/fibrewise/invariants.py) ----------------------------------------
+
+    def dimension(self) -> int:
+        """Krull dimension of the solution set; -1 when there are no solutions over the
+        algebraic closure."""
+        return invariants.dimension(self)
+
+    def independent_variables(self) -> list[Polynomial]:
+        """A maximal set of variables independent on the solution set (as polynomials)."""
+        return invariants.independent_variables(self)
+
+    def hilbert(self) -> "HilbertSeries":
+        """Hilbert series (graded for homogeneous equations, affine otherwise: see ``.graded``)."""
+        return invariants.hilbert(self)
+
+    def degree(self) -> int:
+        """The degree of the solution set (of the ideal: with multiplicity)."""
+        return invariants.degree(self)
+
+    def quotient_dimension(self) -> int:
+        """dim_k of the quotient ring (zero-dimensional systems); ``ValueError`` otherwise."""
+        return invariants.quotient_dimension(self)
+
+    def standard_monomials(self) -> list[Polynomial]:
+        """A monomial k-basis of the quotient ring (zero-dimensional systems)."""
+        return invariants.standard_monomials(self)
+
+    def multiplication_matrix(self, f: Coercible) -> "numpy.ndarray":
+        """Matrix of multiplication by ``f`` on ``standard_monomials()`` (columns are images)."""
+        return invariants.multiplication_matrix(self, f)
+
+    def count_solutions(self) -> int:
+        """Number of distinct solutions over the algebraic closure (zero-dimensional systems)."""
+        return invariants.count_solutions(self)
+
+    def is_closed_point(self) -> bool:
+        """Whether the solutions form one Galois orbit, i.e. the ideal is maximal."""
+        return invariants.is_closed_point(self)
+
+    def closed_point_degree(self) -> int:
+        """The degree [k(P) : k] of the closed point; ``ValueError`` if the solutions are not one."""
+        return invariants.closed_point_degree(self)
+
+    def count_points(self, over: "FieldSpec | None" = None, projective: bool = False) -> int:
+        """Points with coordinates in the field, or in the extension ``over`` (affine, or for
+        homogeneous equations projective)."""
+        return invariants.count_points(self, over=over, projective=projective)
+
+    # --- finite projections (python/fibrewise/normalization.py) -----------------------------
+
+    def projection(self, strategy: Strategy = "auto", seed: int | None = None) -> "FiniteProjection":
+        """A finite projection onto d-space (Noether normalization) with its certificate."""
+        from .normalization import finite_projection
+
+        return finite_projection(self, strategy=strategy, seed=seed)
+
+    def is_integral(self, f: Coercible, over: Sequence[Coercible]) -> bool:
+        """Whether ``f`` is integral over k[over] in the quotient ring."""
+        from .normalization import is_integral
+
+        return is_integral(self, f, over)
+
+    def integral_equation(self, f: Coercible, over: Sequence[Coercible]) -> "IntegralEquation | None":
+        """The monic relation of least degree of ``f`` over k[over] in the quotient ring, or None."""
+        from .normalization import integral_equation
+
+        return integral_equation(self, f, over)
+
+    def is_finite_over(self, over: Sequence[Coercible]) -> bool:
+        """Whether the quotient ring is a finitely generated k[over]-module."""
+        from .normalization import is_finite_over
+
+        return is_finite_over(self, over)
+
+    # --- text -------------------------------------------------------------------------------
+
+    def __eq__(self, other: object) -> bool:
+        """The same equations in the same space (``same_ideal`` compares the ideals)."""
+        if not isinstance(other, System):
+            return NotImplemented
+        return self.space.same_coordinates(other.space) and self.equations == other.equations
+
+    def __hash__(self) -> int:
+        return hash((self.space.field, self.space.names, self.equations))
+
+    def __str__(self) -> str:
+        return "(" + ", ".join(str(g) for g in self.equations) + ")"
+
+    def __repr__(self) -> str:
+        n = len(self.equations)
+        return f"<System of {n} equation{'' if n == 1 else 's'} over {self.space}: {self}>"
+
+    def _repr_latex_(self) -> str:
+        from .interop import latex_equations
+
+        return "$" + latex_equations([str(g) for g in self.equations]) + "$"
