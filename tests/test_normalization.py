@@ -25,7 +25,7 @@ def ideal(p, names, gens):
     return fw.Space(p, names).system(gens)
 
 
-def zero_dim_vector_space_dimension(I):
+def zero_dim_quotient_dimension(I):
     """dim_k R/I for zero-dimensional I: standard monomials of its grevlex basis, counted here."""
     gb = I.basis("grevlex")
     leads = [g.leading_monomial().terms()[0][0] for g in gb]
@@ -112,7 +112,7 @@ def test_twisted_cubic_cone_has_rank_three():
     assert nn.verify()
     # Generic fiber: exactly rank points with multiplicity; every fiber at most #generators.
     fiber = nn.fiber([3, 5])
-    assert zero_dim_vector_space_dimension(fiber) == 3 <= len(nn.module_generators)
+    assert zero_dim_quotient_dimension(fiber) == 3 <= len(nn.module_generators)
 
 
 def test_the_cached_grevlex_basis_gives_the_same_certificate():
@@ -300,4 +300,4 @@ def test_random_ideals_against_sympy(seed, p, nvars):
         assert sympy.Poly(remainder, *gens, modulus=p).is_zero, (texts, str(v), coefficients)
     # A fiber is spanned by the module generators.
     point = [rng.randrange(p) for _ in range(nn.dimension)]
-    assert zero_dim_vector_space_dimension(nn.fiber(point)) <= len(nn.module_generators)
+    assert zero_dim_quotient_dimension(nn.fiber(point)) <= len(nn.module_generators)

@@ -32,7 +32,7 @@ use crate::univariate::distinct_degree::linear_part;
 use crate::univariate::{self, random_element};
 use crate::zerodim::linear::Echelon;
 use crate::zerodim::shape::shape_representation;
-use crate::zerodim::{maximal, vector_space_dimension, Quotient};
+use crate::zerodim::{maximal, quotient_dimension, Quotient};
 
 /// Number of points of V(gens) in GF(q)^n.
 pub fn count_affine_points<F: Field>(
@@ -59,7 +59,7 @@ pub fn count_affine_points<F: Field>(
         // The field equation of an independent variable cuts the dimension; once the ideal is
         // finite, the remaining equations cost only linear algebra in the quotient.
         let Some(var) = next_variable(&gb, &has_equation) else {
-            return vector_space_dimension(&gb, control);
+            return quotient_dimension(&gb, control);
         };
         has_equation[var] = true;
         let image = power_modulo(&gb, &r.var(var), &q, control)?;
@@ -102,7 +102,7 @@ fn count_zero_dimensional<F: Field>(gb: ReducedBasis<F>, control: &Control) -> R
     if gb.ring.nvars() == 1 {
         return count_univariate_roots(&gb.polys[0], &gb.ring, control);
     }
-    let d = vector_space_dimension(&gb, control)?;
+    let d = quotient_dimension(&gb, control)?;
     if d > QUOTIENT_LIMIT {
         return Err(Error::ResourceLimit(format!(
             "counting points needs the quotient R/I, of dimension {d} here (more than {QUOTIENT_LIMIT})"

@@ -44,7 +44,7 @@ fn over_variables(
         .unwrap()
 }
 
-fn vector_space_dimension(r: &Ring<PrimeField>, gens: &[P]) -> usize {
+fn quotient_dimension(r: &Ring<PrimeField>, gens: &[P]) -> usize {
     let gb = groebner_basis(r, gens, Engine::default(), &Control::new()).unwrap();
     if gb.is_unit_ideal() {
         return 0;
@@ -267,7 +267,7 @@ fn fiber_dimension_is_bounded_by_module_generators() {
     let gens = polys(&r, &["x*z - y^2", "y*w - z^2", "x*w - y*z"]);
     let nn = normalize(&r, &gens);
     let fiber = nn.fiber(&gens, &[5, 11]).unwrap();
-    let dim = vector_space_dimension(&r, &fiber);
+    let dim = quotient_dimension(&r, &fiber);
     assert!(dim <= nn.module_generators.len());
     assert_eq!(dim, 3);
     assert!(nn.fiber(&gens, &[1]).is_err());
@@ -347,7 +347,7 @@ fn random_ideals_verify_over_small_and_large_primes() {
         seen_dims.insert(dim);
         strategies.insert(nn.strategy.name());
         let point: Vec<u64> = (0..nn.dimension).map(|_| rng.nonzero(&r.field)).collect();
-        let fiber = vector_space_dimension(&r, &nn.fiber(&gens, &point).unwrap());
+        let fiber = quotient_dimension(&r, &nn.fiber(&gens, &point).unwrap());
         assert!(fiber <= nn.module_generators.len(), "case {case}");
         if p > 1 << 60 {
             assert_eq!(fiber, nn.rank, "case {case}: generic fiber");
@@ -420,7 +420,7 @@ fn small_exponents_first_on_a_sparse_system_over_gf7() {
     assert_eq!(summary.strategy, Strategy::Nonlinear);
     assert!(summary.parameters.iter().all(|p| p.degree().unwrap() <= 4));
     assert!(summary.rank <= summary.module_generators.len());
-    let fiber = vector_space_dimension(&r, &summary.fiber(&gens, &[3, 5]).unwrap());
+    let fiber = quotient_dimension(&r, &summary.fiber(&gens, &[3, 5]).unwrap());
     assert!(fiber <= summary.module_generators.len());
 }
 

@@ -103,5 +103,5 @@ pub fn residue_field_degree<F: Field>(gb: &ReducedBasis<F>, control: &Control) -
             "residue_field_degree needs a maximal ideal; this ideal is not maximal",
         ));
     }
-    super::vector_space_dimension(gb, control)
+    super::quotient_dimension(gb, control)
 }

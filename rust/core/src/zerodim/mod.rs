@@ -50,8 +50,8 @@ pub fn require_zero_dimensional<F: Field>(gb: &ReducedBasis<F>, what: &str) -> R
 
 /// dim_k R/I for zero-dimensional I (0 for the unit ideal), counted through the Hilbert series of
 /// the leading ideal, so that the standard monomials are never listed.
-pub fn vector_space_dimension<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<u128> {
-    require_zero_dimensional(gb, "vector_space_dimension")?;
+pub fn quotient_dimension<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Result<u128> {
+    require_zero_dimensional(gb, "quotient_dimension")?;
     let series = monomial_ideal_series(gb.ring.nvars(), &gb.leading_monomials(), false, control)?;
     Ok(series.degree()? as u128)
 }

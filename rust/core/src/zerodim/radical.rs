@@ -6,7 +6,7 @@
 //! Finite fields are perfect, and squarefree parts are taken with p-th roots where needed
 //! ([`crate::univariate::squarefree_part`]), so this is correct in positive characteristic.
 
-use super::{vector_space_dimension, Quotient};
+use super::{quotient_dimension, Quotient};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
@@ -75,5 +75,5 @@ pub fn count_solutions<F: Field>(
     control: &Control,
 ) -> Result<u128> {
     super::require_zero_dimensional(gb, "count_solutions")?;
-    vector_space_dimension(&zero_dimensional_radical(gb, engine, control)?, control)
+    quotient_dimension(&zero_dimensional_radical(gb, engine, control)?, control)
 }

@@ -38,7 +38,7 @@ fn cyclic5_has_70_solutions() {
     // Cyclic-5: 70 solutions, all simple (Björck and Fröberg 1991, from memory).
     let gb = basis(32003, &["a", "b", "c", "d", "e"], &CYCLIC5);
     let c = Control::new();
-    assert_eq!(vector_space_dimension(&gb, &c).unwrap(), 70);
+    assert_eq!(quotient_dimension(&gb, &c).unwrap(), 70);
     assert_eq!(Quotient::new(gb.clone(), &c).unwrap().dimension(), 70);
     assert_eq!(count_solutions(&gb, Engine::default(), &c).unwrap(), 70);
 }
@@ -48,7 +48,7 @@ fn katsura4_has_16_solutions() {
     // Katsura-n has 2^n solutions (Katsura 1990, from memory): the Bézout bound.
     let gb = basis(32003, &["u0", "u1", "u2", "u3", "u4"], &KATSURA4);
     let c = Control::new();
-    assert_eq!(vector_space_dimension(&gb, &c).unwrap(), 16);
+    assert_eq!(quotient_dimension(&gb, &c).unwrap(), 16);
     assert_eq!(count_solutions(&gb, Engine::default(), &c).unwrap(), 16);
 }
 
@@ -100,7 +100,7 @@ fn distinct_solutions_in_characteristic_three() {
     // (x+1)^3 = x^3 + 1 has zero derivative in characteristic 3.
     let gb = basis(3, &["x", "y"], &["(x + 1)^3*(x^2 + 1)^2", "y^3"]);
     let c = Control::new();
-    assert_eq!(vector_space_dimension(&gb, &c).unwrap(), 21);
+    assert_eq!(quotient_dimension(&gb, &c).unwrap(), 21);
     assert_eq!(count_solutions(&gb, Engine::default(), &c).unwrap(), 3);
     // The radical is ((x + 1)(x^2 + 1), y).
     let rad = radical::zero_dimensional_radical(&gb, Engine::default(), &c).unwrap();
@@ -138,7 +138,7 @@ fn maximal_ideals_and_residue_degrees() {
 #[test]
 fn positive_dimensional_ideals_are_rejected() {
     let gb = basis(7, &["x", "y", "z"], &["x*y - z"]);
-    let err = vector_space_dimension(&gb, &Control::new()).unwrap_err();
+    let err = quotient_dimension(&gb, &Control::new()).unwrap_err();
     assert!(
         matches!(err, crate::Error::InvalidInput(ref m) if m.contains("dimension 2")),
         "{err}"
@@ -146,7 +146,7 @@ fn positive_dimensional_ideals_are_rejected() {
     assert!(Quotient::new(gb, &Control::new()).is_err());
     // The unit ideal: R/I = 0.
     assert_eq!(
-        vector_space_dimension(&basis(7, &["x"], &["x", "x - 1"]), &Control::new()).unwrap(),
+        quotient_dimension(&basis(7, &["x"], &["x", "x - 1"]), &Control::new()).unwrap(),
         0
     );
 }
