@@ -274,6 +274,7 @@ pub fn rational_reconstruction(u: &BigInt, modulus: &BigInt) -> Option<BigRation
     Some(BigRational::new(num, den))
 }
 
+mod identities;
 pub mod integer_gcd;
 mod verify;
 
