@@ -7,8 +7,10 @@
 //! - more equations than unknowns: plain F4 from the start (the homogeneous parts of the
 //!   equations cannot form a regular sequence, degrees fall, on dense random systems only at the
 //!   last step, after the signature engine has paid for all the others);
-//! - otherwise the signature engine runs while degrees do not fall. After the first step that
-//!   finds an element of lower degree than its homogeneous degree, plain F4 goes on from the
+//! - otherwise the signature engine runs while degrees do not fall. When they fall at once (at
+//!   most one above the highest degree of the equations: eco-n), plain F4 starts afresh. After
+//!   a first fall later on (the first step that
+//!   finds an element of lower degree than its homogeneous degree), plain F4 goes on from the
 //!   elements found so far: they form a Gröbner basis of the homogenized ideal up to that
 //!   step's degree, so every pair of sugar up to that degree already has a standard
 //!   representation (dehomogenizing keeps leading monomials in an order that compares degrees
@@ -27,6 +29,12 @@ use crate::error::Result;
 use crate::field::Field;
 use crate::groebner::Stats;
 use crate::poly::Poly;
+
+/// The degree up to which a fall counts as one at the start: one above the highest degree of
+/// the generators.
+fn start_degree<F: Field>(gens: &[Poly<F>]) -> u32 {
+    gens.iter().filter_map(Poly::degree).max().unwrap_or(0) + 1
+}
 
 /// The reduced basis of `gens`, with the engine chosen as the module documentation says.
 pub(super) fn compute<F: Field, A: Arith<F>>(
@@ -52,6 +60,14 @@ pub(super) fn compute<F: Field, A: Arith<F>>(
     match signature::run(ring, run.arith, gens, control, true)? {
         SignatureEnd::Finished(polys, mut stats) => {
             stats.choice = "f4-signature: no degree fall".to_string();
+            Ok((polys, stats))
+        }
+        SignatureEnd::Fell(arith, fall) if fall.complete_degree <= start_degree(gens) => {
+            // Degrees fell at once: plain F4 from the generators costs less than going on from
+            // the homogenized elements (eco-10: 0.34 s against 0.16 s), and little is lost.
+            let degree = fall.complete_degree;
+            let (polys, mut stats) = F4Run::new(ring, arith, options).plain(gens, control)?;
+            stats.choice = format!("f4: degrees fell at degree {degree}, at the start");
             Ok((polys, stats))
         }
         SignatureEnd::Fell(arith, fall) => {
