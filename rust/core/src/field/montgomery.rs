@@ -221,10 +221,10 @@ impl<const N: usize> Montgomery<N> {
     pub fn mul_add_wide<const W: usize>(acc: &mut [u64; W], a: &Limbs<N>, b: &Limbs<N>) {
         debug_assert_eq!(W, 2 * N + 1);
         let mut product = [0u64; W];
-        for i in 0..N {
+        for (i, &bi) in b.iter().enumerate() {
             let mut carry = 0;
-            for j in 0..N {
-                (product[i + j], carry) = mac(product[i + j], a[j], b[i], carry);
+            for (j, &aj) in a.iter().enumerate() {
+                (product[i + j], carry) = mac(product[i + j], aj, bi, carry);
             }
             product[i + N] = carry;
         }

@@ -675,6 +675,9 @@ pub fn reduce_new_rows<F: Field, A: Arith<F>>(
     space.finish(control, back_substitute)
 }
 
+/// The multipliers of a combination of known pivots: (reducer index, multiplier).
+pub type Combination<C> = Vec<(u32, C)>;
+
 /// For each new row of `matrix`: the multipliers c_k with row = Σ c_k · reducers[k], found by
 /// reducing the row by the known pivots alone, or `None` when the row does not reduce to zero
 /// that way (the known pivots must be monic). Used to check a basis: a row reduces to zero
@@ -683,7 +686,7 @@ pub fn combinations<F: Field, A: Arith<F>>(
     arith: &A,
     matrix: &SymbolicMatrix<A::C>,
     control: &Control,
-) -> Result<Vec<Option<Vec<(u32, A::C)>>>> {
+) -> Result<Vec<Option<Combination<A::C>>>> {
     let width = matrix.columns.len();
     let mut pivot_index = vec![u32::MAX; width];
     for (i, r) in matrix.reducers.iter().enumerate() {
@@ -698,7 +701,8 @@ pub fn combinations<F: Field, A: Arith<F>>(
             control.check()?;
             dense.load(&row.cols, &row.coeffs);
             let mut used = Vec::new();
-            for k in row.cols[0] as usize..width {
+            let first = row.cols[0] as usize;
+            for (k, &i) in pivot_index.iter().enumerate().skip(first) {
                 if arith.acc_is_zero(&dense.acc[k]) {
                     continue;
                 }
@@ -707,7 +711,6 @@ pub fn combinations<F: Field, A: Arith<F>>(
                 if arith.is_zero(&c) {
                     continue;
                 }
-                let i = pivot_index[k];
                 if i == u32::MAX {
                     dense.extract(k, None, true);
                     return Ok(None);

@@ -283,8 +283,9 @@ impl<'a, F: Field, A: Arith<F>> F4Run<'a, F, A> {
         ring: &'a Ring<F>,
         arith: A,
         options: &'a F4Options,
-        fall: signature::Fall<A::C>,
+        fall: Box<signature::Fall<A::C>>,
     ) -> Self {
+        let fall = *fall;
         let mut run = F4Run::new(ring, arith, options);
         run.table = fall.table;
         run.stats = fall.stats;

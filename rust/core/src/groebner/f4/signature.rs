@@ -110,7 +110,7 @@ pub(super) enum SignatureEnd<F: Field, A: Arith<F>> {
     Finished(Vec<Poly<F>>, Stats),
     /// Stopped after the first step that found an element whose leading monomial has a lower
     /// degree than the element (a degree fall), with the arithmetic and what was found.
-    Fell(A, Fall<A::C>),
+    Fell(A, Box<Fall<A::C>>),
 }
 
 /// The state of the signature engine at its first degree fall: a Gröbner basis of the
@@ -276,7 +276,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             fallen: self.fallen,
             stats: self.stats,
         };
-        SignatureEnd::Fell(self.arith, fall)
+        SignatureEnd::Fell(self.arith, Box::new(fall))
     }
 
     /// One matrix: the J-pairs of degree `degree`.

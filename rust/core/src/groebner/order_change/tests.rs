@@ -29,7 +29,9 @@ fn as_reduced_basis(r: &Ring<PrimeField>, texts: &[&str]) -> Vec<Poly<PrimeField
 /// (-p/2, p/2)).
 #[test]
 fn lex_bases_agree_with_sympy() {
-    let cases: [(u64, &[&str], &[&str], &[&str]); 3] = [
+    // (p, variables, generators, sympy's basis)
+    type Case<'a> = (u64, &'a [&'a str], &'a [&'a str], &'a [&'a str]);
+    let cases: [Case; 3] = [
         (
             101,
             &["x", "y", "z"],
@@ -152,7 +154,8 @@ fn an_integral_equation_by_elimination() {
     let z = parse_poly(&r, "z").unwrap();
     let control = Control::new();
     let relation =
-        crate::integrality::integral_equation(&r, &gens, &f, &[z.clone()], &control).unwrap();
+        crate::integrality::integral_equation(&r, &gens, &f, std::slice::from_ref(&z), &control)
+            .unwrap();
     assert!(relation.is_none());
     assert!(!crate::integrality::is_finite_over(&r, &gens, &[z], &control).unwrap());
 }
