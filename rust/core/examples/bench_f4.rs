@@ -1,52 +1,73 @@
 //! Benchmark of the F4 engine over GF(65521) in grevlex on the standard systems of
 //! `fibrewise_core::systems`, plus this machine's peak rate of a plain modular multiply-add loop.
 //!
-//! Usage: `cargo run --release -p fibrewise-core --example bench_f4 [--quick] [--threads N] [SYSTEM...]`
-//! where SYSTEM is e.g. `cyclic-7`, `katsura-10`, `eco-10`, `noon-6`, `random-14-28`; a suffix
-//! `~s` runs it with the sampled linear algebra (engine f4-sampled), `~g` with signature-based
-//! F4 (engine f4-signature), `@k` on k threads.
-//! Each system runs in a fresh child process so that its peak memory is its own.
+//! Usage: `cargo run --release -p fibrewise-core --example bench_f4 [--quick] [--threads N]
+//! [--timeout SECONDS] [SYSTEM...]` where SYSTEM is e.g. `cyclic-7`, `katsura-10`, `eco-10`,
+//! `noon-6`, `random-14-28`; a suffix `~s` runs it with the sampled linear algebra (engine
+//! f4-sampled), `~g` with signature-based F4 (engine f4-signature), `~a` with the automatic
+//! engine, `@k` on k threads, `/p255` over GF(2^255 - 19) and `/q` over the rationals instead
+//! of GF(65521); `lex-suite` times the 200 small lex and elimination systems.
+//! Each system runs in a fresh child process so that its peak memory is its own; a run over
+//! the timeout (default 120 s) is stopped. The full run ends with a table of every engine's
+//! seconds per system and auto's ratio to the fastest.
 
-use fibrewise_core::groebner::{groebner_basis, Engine};
+use fibrewise_core::field::{BigPrimeField, RationalField};
+use fibrewise_core::groebner::{groebner_basis, Engine, Stats};
 use fibrewise_core::systems::{self, System};
-use fibrewise_core::{Control, MonomialOrder, PrimeField, Ring};
+use fibrewise_core::{Control, Field, MonomialOrder, PrimeField, Ring};
+use num_bigint::BigUint;
 use std::process::Command;
 use std::time::Instant;
 
 const PRIME: u64 = 65521;
 
-/// `name@k` runs on k threads, `name~s` with the sampled linear algebra (engine f4-sampled),
-/// `name~g` with signature-based F4 (engine f4-signature).
-/// Random quadratics: m = n + 1 (n = 10, 11; n = 14 takes minutes) and m = 2n (n = 14).
-const DEFAULT: [&str; 18] = [
+/// The systems of the full run; each runs with every engine (`~s`: f4-sampled, `~g`:
+/// f4-signature, `~a`: auto, no suffix: f4). Random quadratics: m = n + 1 (n = 10, 11) and
+/// m = 2n (n = 14, 16); cyclic-9 is positive-dimensional.
+const SYSTEMS: [&str; 16] = [
     "cyclic-6",
     "cyclic-7",
     "cyclic-8",
-    "cyclic-8@2",
-    "cyclic-8~s",
+    "cyclic-9",
     "katsura-10",
-    "katsura-10~s",
-    "katsura-10~g",
     "katsura-11",
-    "katsura-11~s",
-    "katsura-11~g",
+    "katsura-12",
     "eco-10",
     "eco-11",
+    "eco-12",
     "noon-6",
     "noon-7",
     "random-10-11",
     "random-11-12",
     "random-14-28",
+    "random-16-32",
 ];
-const QUICK: [&str; 7] = [
+/// Engine suffixes of the full run, in table order.
+const ENGINES: [&str; 4] = ["", "~s", "~g", "~a"];
+/// Extra runs of the full list: two threads, and the fields whose ratios to GF(65521) have
+/// targets (at most 4 for GF(2^255 - 19), at most 40 for the rationals).
+const EXTRA: [&str; 8] = [
+    "cyclic-8@2",
+    "katsura-11~a@2",
+    "cyclic-7~a",
+    "cyclic-7~a/p255",
+    "katsura-9~a",
+    "katsura-9~a/p255",
+    "katsura-8~a",
+    "katsura-8~a/q",
+];
+const QUICK: [&str; 8] = [
     "cyclic-6",
     "cyclic-7",
     "katsura-9",
+    "katsura-9~a",
     "eco-9",
     "noon-5",
     "random-8-9",
     "random-10-20",
 ];
+/// Seconds after which a run is stopped and reported as over the limit (`--timeout`).
+const TIMEOUT: f64 = 120.0;
 
 fn system(name: &str) -> Option<System> {
     let (family, size) = name.split_once('-')?;
@@ -77,26 +98,40 @@ fn peak_memory_mb() -> f64 {
     kb / 1024.0
 }
 
+/// The system name and engine of a label (`name`, `name~s`, `name~g`, `name~a`).
+fn engine_of(label: &str) -> (&str, Engine) {
+    for (suffix, engine) in [
+        ("~s", Engine::F4Sampled),
+        ("~g", Engine::F4Signature),
+        ("~a", Engine::Auto),
+    ] {
+        if let Some(name) = label.strip_suffix(suffix) {
+            return (name, engine);
+        }
+    }
+    (label, Engine::F4)
+}
+
 /// Runs one system and prints one tab-separated result line.
 fn run_one(label: &str, threads: usize) -> Result<(), String> {
-    let (name, engine) = if let Some(name) = label.strip_suffix("~s") {
-        (name, Engine::F4Sampled)
-    } else if let Some(name) = label.strip_suffix("~g") {
-        (name, Engine::F4Signature)
-    } else {
-        (label, Engine::F4)
-    };
+    if label == "lex-suite" {
+        return lex_suite();
+    }
+    // `name/field`: over GF(2^255 - 19) (`p255`) or the rationals (`q`) instead of GF(65521).
+    let (label_engine, field) = label.split_once('/').unwrap_or((label, ""));
+    let (name, engine) = engine_of(label_engine);
     let sys = system(name).ok_or_else(|| format!("unknown system {name}"))?;
-    let field = PrimeField::new(PRIME).map_err(|e| e.to_string())?;
-    let ring =
-        Ring::new(field, sys.vars.clone(), MonomialOrder::Grevlex).map_err(|e| e.to_string())?;
-    let gens = sys.polys(&ring).map_err(|e| e.to_string())?;
-    let mut control = Control::new();
-    control.limits.threads = Some(threads);
-    let clock = Instant::now();
-    let gb = groebner_basis(&ring, &gens, engine, &control).map_err(|e| e.to_string())?;
-    let seconds = clock.elapsed().as_secs_f64();
-    let s = &gb.stats;
+    let (seconds, s, basis) = match field {
+        "" => solve(PrimeField::new(PRIME).map_err(|e| e.to_string())?, &sys, engine, threads)?,
+        "p255" => {
+            let p = (BigUint::from(1u8) << 255u32) - 19u32;
+            let field = BigPrimeField::<4>::new(&p).map_err(|e| e.to_string())?;
+            solve(field, &sys, engine, threads)?
+        }
+        "q" => solve(RationalField::new(), &sys, engine, threads)?,
+        other => return Err(format!("unknown field {other}: expected p255 or q")),
+    };
+    let s = &s;
     if std::env::var_os("BENCH_VERBOSE").is_some() {
         for st in &s.steps {
             eprintln!(
@@ -113,6 +148,9 @@ fn run_one(label: &str, threads: usize) -> Result<(), String> {
             );
         }
         eprintln!("  zero reductions {}", s.zero_reductions);
+    }
+    if !s.choice.is_empty() && std::env::var_os("BENCH_VERBOSE").is_some() {
+        eprintln!("  {label}: {}", s.choice);
     }
     let largest = s
         .steps
@@ -132,9 +170,26 @@ fn run_one(label: &str, threads: usize) -> Result<(), String> {
         largest.nonzeros,
         100.0 * la / seconds,
         madds as f64 / la.max(1e-9),
-        gb.polys.len(),
+        basis,
     );
     Ok(())
+}
+
+/// The basis of `sys` over `field` in grevlex: seconds, statistics and number of elements.
+fn solve<F: Field>(
+    field: F,
+    sys: &System,
+    engine: Engine,
+    threads: usize,
+) -> Result<(f64, Stats, usize), String> {
+    let ring =
+        Ring::new(field, sys.vars.clone(), MonomialOrder::Grevlex).map_err(|e| e.to_string())?;
+    let gens = sys.polys(&ring).map_err(|e| e.to_string())?;
+    let mut control = Control::new();
+    control.limits.threads = Some(threads);
+    let clock = Instant::now();
+    let gb = groebner_basis(&ring, &gens, engine, &control).map_err(|e| e.to_string())?;
+    Ok((clock.elapsed().as_secs_f64(), gb.stats, gb.polys.len()))
 }
 
 /// Multiply-adds per second of the plain loop `acc[i] += m · x[i]` on u64 accumulators with
@@ -157,6 +212,72 @@ fn peak_rate() -> f64 {
     (len * rounds) as f64 / seconds
 }
 
+/// The 200 small systems of the lex and elimination suite (`systems::lex_suite_case`, the
+/// same cases as the Rust test that checks them against the reference engine), each in its
+/// order with the automatic engine: the slowest case and the total. Target: no case over 1 s.
+fn lex_suite() -> Result<(), String> {
+    let mut slowest = (0.0f64, 0u64);
+    let mut total = 0.0;
+    for k in 0..200u64 {
+        let sys = systems::lex_suite_case(k);
+        let n = sys.vars.len();
+        let order = match k % 2 {
+            0 => MonomialOrder::Lex,
+            _ => MonomialOrder::elimination(&[0], n),
+        };
+        let p = [7u64, 101, 32003, 65521][(k / 2 % 4) as usize];
+        let field = PrimeField::new(p).map_err(|e| e.to_string())?;
+        let ring = Ring::new(field, sys.vars.clone(), order).map_err(|e| e.to_string())?;
+        let gens = sys.polys(&ring).map_err(|e| e.to_string())?;
+        let clock = Instant::now();
+        groebner_basis(&ring, &gens, Engine::Auto, &Control::new()).map_err(|e| e.to_string())?;
+        let seconds = clock.elapsed().as_secs_f64();
+        total += seconds;
+        if seconds > slowest.0 {
+            slowest = (seconds, k);
+        }
+    }
+    println!(
+        "lex-suite\t1\t{total:.3}\tslowest case {} in {:.3} s (target: every case under 1 s: {})",
+        slowest.1,
+        slowest.0,
+        if slowest.0 < 1.0 { "met" } else { "missed" }
+    );
+    Ok(())
+}
+
+/// Runs `label` in a child process; its seconds, or `None` when it failed or ran out of time.
+fn run_child(label: &str, threads: usize, timeout: f64) -> Option<f64> {
+    let exe = std::env::current_exe().expect("own path");
+    let mut child = Command::new(&exe)
+        .args(["--one", label, &threads.to_string()])
+        .stdout(std::process::Stdio::piped())
+        .spawn()
+        .ok()?;
+    let clock = Instant::now();
+    loop {
+        match child.try_wait() {
+            Ok(Some(_)) => break,
+            Ok(None) if clock.elapsed().as_secs_f64() > timeout => {
+                let _ = child.kill();
+                let _ = child.wait();
+                println!("{label}\t{threads}\t> {timeout:.0} (stopped)");
+                return None;
+            }
+            Ok(None) => std::thread::sleep(std::time::Duration::from_millis(20)),
+            Err(_) => return None,
+        }
+    }
+    let output = child.wait_with_output().ok()?;
+    let line = String::from_utf8_lossy(&output.stdout).trim().to_string();
+    if !output.status.success() || line.is_empty() {
+        println!("{label}\t{threads}\tfailed");
+        return None;
+    }
+    println!("{line}");
+    line.split('\t').nth(2)?.parse().ok()
+}
+
 fn main() {
     let args: Vec<String> = std::env::args().skip(1).collect();
     if args.first().map(String::as_str) == Some("--one") {
@@ -168,35 +289,78 @@ fn main() {
         return;
     }
     let mut threads = 1;
+    let mut timeout = TIMEOUT;
     let mut names: Vec<String> = Vec::new();
     let mut it = args.iter();
     while let Some(a) = it.next() {
         match a.as_str() {
             "--quick" => names.extend(QUICK.iter().map(|s| s.to_string())),
             "--threads" => threads = it.next().and_then(|t| t.parse().ok()).unwrap_or(1),
+            "--timeout" => timeout = it.next().and_then(|t| t.parse().ok()).unwrap_or(TIMEOUT),
             other => names.push(other.to_string()),
         }
     }
-    if names.is_empty() {
-        names.extend(DEFAULT.iter().map(|s| s.to_string()));
+    let full = names.is_empty();
+    if full {
+        for sys in SYSTEMS {
+            names.extend(ENGINES.iter().map(|e| format!("{sys}{e}")));
+        }
+        names.extend(EXTRA.iter().map(|s| s.to_string()));
+        names.push("lex-suite".to_string());
     }
     println!(
         "F4 over GF({PRIME}), grevlex; peak multiply-add rate of this machine: {:.2e}/s",
         peak_rate()
     );
     println!("system\tthreads\tseconds\tpeak_MB\tsteps\tmax_deg\tlargest_matrix\tnonzeros\tlin_alg\tmadds/s\tbasis");
-    let exe = std::env::current_exe().expect("own path");
+    let mut seconds: Vec<(String, Option<f64>)> = Vec::new();
     for name in names {
         // `name@k` runs with k threads.
-        let (sys, t) = match name.split_once('@') {
+        let (label, t) = match name.split_once('@') {
             Some((s, t)) => (s.to_string(), t.parse().unwrap_or(threads)),
             None => (name.clone(), threads),
         };
-        let status = Command::new(&exe)
-            .args(["--one", &sys, &t.to_string()])
-            .status();
-        if !matches!(status, Ok(s) if s.success()) {
-            println!("{sys}\t{t}\tfailed");
+        let result = run_child(&label, t, timeout);
+        if t == 1 {
+            seconds.push((label, result));
         }
+    }
+    print_engine_table(&seconds, timeout);
+}
+
+/// One line per system: the seconds of each engine on one thread, and auto's time over the
+/// fastest engine's (target: at most 1.2).
+fn print_engine_table(seconds: &[(String, Option<f64>)], timeout: f64) {
+    let systems: Vec<&str> = SYSTEMS
+        .iter()
+        .copied()
+        .filter(|sys| seconds.iter().any(|(l, _)| engine_of(l).0 == *sys))
+        .collect();
+    if systems.is_empty() {
+        return;
+    }
+    println!("\nsystem\tf4\tf4-sampled\tf4-signature\tauto\tauto/fastest");
+    for sys in systems {
+        let time = |suffix: &str| {
+            let label = format!("{sys}{suffix}");
+            seconds.iter().find(|(l, _)| *l == label).map(|(_, s)| *s)
+        };
+        let cells: Vec<String> = ENGINES
+            .iter()
+            .map(|e| match time(e) {
+                Some(Some(s)) => format!("{s:.3}"),
+                Some(None) => format!("> {timeout:.0}"),
+                None => "-".into(),
+            })
+            .collect();
+        let fastest = ENGINES
+            .iter()
+            .filter_map(|e| time(e).flatten())
+            .fold(f64::INFINITY, f64::min);
+        let ratio = match time("~a").flatten() {
+            Some(auto) if fastest.is_finite() => format!("{:.2}", auto / fastest),
+            _ => "-".into(),
+        };
+        println!("{sys}\t{}\t{ratio}", cells.join("\t"));
     }
 }

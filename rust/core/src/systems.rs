@@ -5,7 +5,9 @@
 //! - katsura-n: the magnetism model of Katsura (1990), n + 1 unknowns u_0..u_n;
 //! - eco-n: the economic model of Morgan (1987);
 //! - noon-n: the neural network model of Noonburg (1989), with coefficient 1.1 scaled to integers;
-//! - random quadratic: m dense quadrics in n variables with pseudo-random coefficients.
+//! - random quadratic: m dense quadrics in n variables with pseudo-random coefficients;
+//! - random sparse: small systems of a few random terms each, of our own making, for the
+//!   suites of lex and elimination bases (one generator for their tests and benchmarks).
 
 use crate::error::Result;
 use crate::field::Field;
@@ -156,6 +158,67 @@ pub fn random_quadratic(n: usize, m: usize, seed: u64) -> System {
     }
 }
 
+/// The shape of a random sparse system: unknowns, equations, terms per equation and the
+/// highest exponent of a variable in a term.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub struct SparseShape {
+    pub unknowns: usize,
+    pub equations: usize,
+    pub terms: usize,
+    pub max_exponent: u32,
+}
+
+/// A system of `shape.equations` polynomials in `shape.unknowns` variables, each with 1 to
+/// `shape.terms` terms whose exponents are at most `shape.max_exponent`, and pseudo-random
+/// coefficients in [1, 2^31) from `seed`.
+pub fn random_sparse(shape: SparseShape, seed: u64) -> System {
+    let vars = names("x", 0..shape.unknowns);
+    let mut rng = Rng::new(seed);
+    let equations = (0..shape.equations)
+        .map(|_| {
+            let count = 1 + rng.below(shape.terms as u64) as usize;
+            let terms: Vec<String> = (0..count)
+                .map(|_| {
+                    let coefficient = 1 + (rng.next_u64() >> 33);
+                    let factors: Vec<String> = vars
+                        .iter()
+                        .filter_map(|v| match rng.below(u64::from(shape.max_exponent) + 1) {
+                            0 => None,
+                            1 => Some(v.clone()),
+                            e => Some(format!("{v}^{e}")),
+                        })
+                        .collect();
+                    std::iter::once(coefficient.to_string())
+                        .chain(factors)
+                        .collect::<Vec<_>>()
+                        .join("*")
+                })
+                .collect();
+            terms.join(" + ")
+        })
+        .collect();
+    System {
+        name: format!(
+            "random-sparse-{}-{}-{seed}",
+            shape.unknowns, shape.equations
+        ),
+        vars,
+        equations,
+    }
+}
+
+/// The suite of small random systems for lex and elimination bases: case `k` of 200, in two to
+/// four unknowns, exponents at most two, seeded by `k`.
+pub fn lex_suite_case(k: u64) -> System {
+    let shape = SparseShape {
+        unknowns: 2 + (k % 3) as usize,
+        equations: 2 + (k / 3 % 2) as usize,
+        terms: 4,
+        max_exponent: 2,
+    };
+    random_sparse(shape, 1000 + k)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -184,5 +247,16 @@ mod tests {
         assert_eq!(q.equations.len(), 4);
         assert_eq!(q.equations[0].matches('+').count(), 9);
         assert_ne!(q.equations[0], q.equations[1]);
+        let shape = SparseShape {
+            unknowns: 3,
+            equations: 2,
+            terms: 4,
+            max_exponent: 2,
+        };
+        let sparse = random_sparse(shape, 5);
+        assert_eq!(sparse.equations.len(), 2);
+        assert!(sparse.equations.iter().all(|e| e.matches('+').count() < 4));
+        assert!(!sparse.equations.iter().any(|e| e.contains("^3")));
+        assert_eq!(sparse, random_sparse(shape, 5));
     }
 }

@@ -165,6 +165,17 @@ impl<const N: usize> Field for BigPrimeField<N> {
     fn pth_root(&self, a: &Limbs<N>) -> Option<Limbs<N>> {
         Some(*a)
     }
+    fn montgomery_modulus(&self) -> Option<Vec<u64>> {
+        Some(self.mont.modulus().to_vec())
+    }
+    fn to_montgomery_limbs(&self, a: &Limbs<N>, out: &mut [u64]) {
+        out.copy_from_slice(a);
+    }
+    fn from_montgomery_limbs(&self, limbs: &[u64]) -> Limbs<N> {
+        let mut a = [0u64; N];
+        a.copy_from_slice(limbs);
+        a
+    }
 }
 
 #[cfg(test)]

@@ -122,6 +122,20 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     fn from_word(&self, _w: u64) -> Self::Elem {
         self.zero()
     }
+    /// `Some(limbs of p)` (little-endian, 2, 4 or 8 of them) when this is GF(p) for a prime
+    /// beyond a machine word whose elements are Montgomery residues on that many limbs (see
+    /// [`montgomery`]): F4 then sums products on wider limbs and reduces once per entry.
+    fn montgomery_modulus(&self) -> Option<Vec<u64>> {
+        None
+    }
+    /// The Montgomery residue of `a` into `out` (only meaningful when
+    /// [`Field::montgomery_modulus`] is `Some`; `out` has that many limbs).
+    fn to_montgomery_limbs(&self, _a: &Self::Elem, _out: &mut [u64]) {}
+    /// The element with Montgomery residue `limbs` (canonical; only meaningful when
+    /// [`Field::montgomery_modulus`] is `Some`).
+    fn from_montgomery_limbs(&self, _limbs: &[u64]) -> Self::Elem {
+        self.zero()
+    }
 }
 
 #[cfg(test)]

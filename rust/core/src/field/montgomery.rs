@@ -3,6 +3,12 @@
 //! Acar and Kaliski 1996). Residues are kept canonical (< n) so equal values are equal limbs.
 //!
 //! Limbs are little-endian. Everything here is constant-size: no allocation per operation.
+//!
+//! For sums of many products (the rows of F4's matrices) there is also *delayed reduction*
+//! on W = 2N + 1 limbs ([`Montgomery::mul_add_wide`], [`Montgomery::reduce_wide`]): products
+//! of residues are added as plain integers, and the sum is reduced once, by W one-limb
+//! Montgomery steps and one multiplication. A product is below n^2 < 2^(128N), so the extra
+//! limb lets 2^64 - 2 of them be added to a loaded value before anything can overflow.
 
 use num_bigint::BigUint;
 
@@ -17,6 +23,8 @@ pub struct Montgomery<const N: usize> {
     /// R mod n (the Montgomery form of 1) and R^2 mod n (to enter Montgomery form).
     r1: Limbs<N>,
     r2: Limbs<N>,
+    /// 2^(64(2N + 1)) mod n: brings a wide sum back to Montgomery form (see `reduce_wide`).
+    wide: Limbs<N>,
 }
 
 #[inline]
@@ -98,6 +106,7 @@ impl<const N: usize> Montgomery<N> {
             n_inv_neg: inv.wrapping_neg(),
             r1: [0; N],
             r2: [0; N],
+            wide: [0; N],
         };
         // 2^(64N) and 2^(128N) mod n by doubling from 1: no division needed.
         let mut x = [0u64; N];
@@ -110,6 +119,10 @@ impl<const N: usize> Montgomery<N> {
             x = m.add(&x, &x);
         }
         m.r2 = x;
+        for _ in 0..64 {
+            x = m.add(&x, &x);
+        }
+        m.wide = x;
         Some(m)
     }
 
@@ -189,6 +202,67 @@ impl<const N: usize> Montgomery<N> {
         } else {
             t
         }
+    }
+
+    /// The wide value of a residue a (Montgomery form): a·R, so that [`Montgomery::reduce_wide`]
+    /// gives a back. W must be 2N + 1.
+    #[inline]
+    pub fn widen<const W: usize>(&self, a: &Limbs<N>) -> [u64; W] {
+        debug_assert_eq!(W, 2 * N + 1);
+        let mut out = [0u64; W];
+        out[N..2 * N].copy_from_slice(a);
+        out
+    }
+
+    /// acc += a·b as integers (a, b < n, Montgomery forms). W must be 2N + 1; the sum must stay
+    /// below 2^(64W), which holds for fewer than 2^64 - 1 products added to a widened residue.
+    /// The product is formed apart and added in one carry chain: no branch on carries.
+    #[inline(always)]
+    pub fn mul_add_wide<const W: usize>(acc: &mut [u64; W], a: &Limbs<N>, b: &Limbs<N>) {
+        debug_assert_eq!(W, 2 * N + 1);
+        let mut product = [0u64; W];
+        for (i, &bi) in b.iter().enumerate() {
+            let mut carry = 0;
+            for (j, &aj) in a.iter().enumerate() {
+                (product[i + j], carry) = mac(product[i + j], aj, bi, carry);
+            }
+            product[i + N] = carry;
+        }
+        let mut carry = false;
+        for k in 0..W {
+            let (s1, c1) = acc[k].overflowing_add(product[k]);
+            let (s2, c2) = s1.overflowing_add(carry as u64);
+            acc[k] = s2;
+            carry = c1 | c2;
+        }
+    }
+
+    /// The residue (Montgomery form) that a wide sum of products of Montgomery forms stands
+    /// for: acc·R^(−1) mod n. W one-limb Montgomery steps divide by 2^(64W) and leave a value
+    /// at most n; one multiplication by 2^(64W) mod n then corrects the power of R.
+    pub fn reduce_wide<const W: usize>(&self, acc: &[u64; W]) -> Limbs<N> {
+        debug_assert_eq!(W, 2 * N + 1);
+        // t < 2^(64W) throughout: each step maps t to (t + m·n) / 2^64 < t / 2^64 + n.
+        let mut t = *acc;
+        for _ in 0..W {
+            let m = t[0].wrapping_mul(self.n_inv_neg);
+            let (_, mut carry) = mac(t[0], m, self.n[0], 0);
+            for j in 1..N {
+                (t[j - 1], carry) = mac(t[j], m, self.n[j], carry);
+            }
+            for j in N..W {
+                let (sum, overflow) = t[j].overflowing_add(carry);
+                t[j - 1] = sum;
+                carry = overflow as u64;
+            }
+            t[W - 1] = carry;
+        }
+        let mut low = [0u64; N];
+        low.copy_from_slice(&t[..N]);
+        if t[N..].iter().any(|&w| w != 0) || geq(&low, &self.n) {
+            low = sub_with_borrow(&low, &self.n).0;
+        }
+        self.mul(&low, &self.wide)
     }
 
     /// Montgomery form of x < n.

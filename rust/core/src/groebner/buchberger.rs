@@ -3,7 +3,7 @@
 //! at a time, reduced by the division algorithm. The reference engine: simple enough to trust,
 //! and the yardstick that faster engines are tested against.
 
-use super::pairs::{Pair, PairSet};
+use super::pairs::{Pair, PairSet, Selection};
 use super::reduce::{normal_form, reduced_basis};
 use super::stats::{Stats, StepStats};
 use crate::control::Control;
@@ -49,11 +49,22 @@ pub fn compute<F: Field>(
             .collect()
     };
     let mut active = active_of(&pairs, &basis);
-    while let Some(pair) = next_pair(&mut pairs) {
+    // Sugar under degree orders; under the others, the least lcm in the order among the pairs
+    // of least sugar (the pairs of one sugar can have lcms far up in the order).
+    let selection = if ring.order.is_degree_compatible() {
+        Selection::LeastSugar
+    } else {
+        Selection::LeastLcm
+    };
+    while let Some(pair) = pairs.take(selection, &ring.order, Some(1)).pop() {
         control.check()?;
         control.check_degree(pair.sugar, stats.steps.len())?;
         record_step(&mut stats, pair.sugar);
-        let h = normal_form(ring, &s_polynomial(ring, &basis, &pair)?, &active)?;
+        let s = s_polynomial(ring, &basis, &pair)?;
+        // No matrices here: the matrix limit bounds each S-polynomial as a one-row matrix.
+        control.check_matrix(1, s.len(), stats.steps.len())?;
+        stats.reached(s.degree().unwrap_or(0));
+        let h = normal_form(ring, &s, &active)?;
         if h.is_zero() {
             stats.zero_reductions += 1;
             continue;
@@ -68,13 +79,6 @@ pub fn compute<F: Field>(
         active = active_of(&pairs, &basis);
     }
     Ok((reduced_basis(ring, active)?, stats))
-}
-
-/// The pair of least sugar, ties broken by the smaller lcm in total degree.
-fn next_pair(pairs: &mut PairSet) -> Option<Pair> {
-    let k = (0..pairs.pairs.len())
-        .min_by_key(|&k| (pairs.pairs[k].sugar, pairs.pairs[k].lcm.degree()))?;
-    Some(pairs.pairs.swap_remove(k))
 }
 
 /// One stats entry per sugar degree: consecutive pairs of equal sugar are counted together.

@@ -3,13 +3,15 @@
 //!
 //! Engines: [`buchberger`] (Buchberger 1965 with the Gebauer–Möller criteria, 1988, and the
 //! sugar strategy of Giovini et al. 1991) is the reference; [`f4`] (Faugère 1999, with the
-//! linear algebra of Faugère and Lachartre 2010) is the default and is checked against it;
+//! linear algebra of Faugère and Lachartre 2010; its signature variant and the automatic choice
+//! between the two, the default) is checked against it;
 //! [`modular`] lifts bases over QQ from prime fields. All engines return the *reduced* basis, so
 //! two bases of the same ideal in the same order are equal as lists.
 
 pub mod buchberger;
 pub mod f4;
 pub mod modular;
+pub mod order_change;
 pub mod pairs;
 pub mod reduce;
 pub mod stats;
@@ -23,10 +25,13 @@ pub use stats::{Stats, StepStats};
 /// Which engine computes a basis.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
 pub enum Engine {
+    /// The engine chosen per system and per step (see [`f4::auto`]): exact; the choice is in
+    /// [`Stats::choice`].
+    #[default]
+    Auto,
     /// One S-polynomial at a time by the division algorithm: the reference.
     Buchberger,
     /// Many S-polynomials at once as rows of a sparse matrix.
-    #[default]
     F4,
     /// F4 reducing random combinations of each matrix's new rows instead of every row: over a
     /// finite field the basis is the exact one except with probability at most 2^-80 per
@@ -59,10 +64,22 @@ impl Engine {
     }
     pub fn name(&self) -> &'static str {
         match self {
+            Engine::Auto => "auto",
             Engine::Buchberger => "buchberger",
             Engine::F4 => "f4",
             Engine::F4Sampled => "f4-sampled",
             Engine::F4Signature => "f4-signature",
+        }
+    }
+
+    /// The variant of F4 this engine runs (`None` for the reference engine).
+    fn f4_variant(&self) -> Option<f4::Variant> {
+        match self {
+            Engine::Auto => Some(f4::Variant::Auto),
+            Engine::Buchberger => None,
+            Engine::F4 => Some(f4::Variant::Exact),
+            Engine::F4Sampled => Some(f4::Variant::Sampled(f4::Sampling::default())),
+            Engine::F4Signature => Some(f4::Variant::Signatures),
         }
     }
 }
@@ -83,23 +100,18 @@ pub fn groebner_basis<F: Field>(
     engine: Engine,
     control: &Control,
 ) -> Result<ReducedBasis<F>> {
-    if let Some(result) = modular::route(ring, gens, engine, control) {
+    if let Some(result) = modular::route_rationals(ring, gens, engine, control) {
+        return result;
+    }
+    if let Some(result) = order_change::route_change_of_order(ring, gens, engine, control) {
         return result;
     }
     let start = std::time::Instant::now();
-    let (polys, mut stats) = match engine {
-        Engine::Buchberger => buchberger::compute(ring, gens, control)?,
-        Engine::F4 => f4::compute(ring, gens, control)?,
-        Engine::F4Sampled => {
-            let options = f4::Options {
-                linear_algebra: f4::LinearAlgebra::Sampled(f4::Sampling::default()),
-                ..Default::default()
-            };
-            f4::compute_with(ring, gens, control, &options)?
-        }
-        Engine::F4Signature => {
-            let options = f4::Options {
-                signatures: true,
+    let (polys, mut stats) = match engine.f4_variant() {
+        None => buchberger::compute(ring, gens, control)?,
+        Some(variant) => {
+            let options = f4::F4Options {
+                variant,
                 ..Default::default()
             };
             f4::compute_with(ring, gens, control, &options)?
@@ -107,6 +119,9 @@ pub fn groebner_basis<F: Field>(
     };
     stats.engine = engine.name().to_string();
     stats.seconds = start.elapsed().as_secs_f64();
+    for f in gens.iter().chain(&polys) {
+        stats.reached(f.degree().unwrap_or(0));
+    }
     Ok(ReducedBasis {
         ring: ring.clone(),
         polys,

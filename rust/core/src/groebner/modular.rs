@@ -32,7 +32,7 @@ use std::any::Any;
 use std::collections::{BTreeMap, HashMap};
 
 /// Routes `groebner_basis` over QQ to the multi-modular method; `None` for other fields.
-pub(crate) fn route<F: Field>(
+pub(crate) fn route_rationals<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
     engine: Engine,
@@ -274,6 +274,7 @@ pub fn rational_reconstruction(u: &BigInt, modulus: &BigInt) -> Option<BigRation
     Some(BigRational::new(num, den))
 }
 
+mod identities;
 pub mod integer_gcd;
 mod verify;
 

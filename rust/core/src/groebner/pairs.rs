@@ -3,6 +3,34 @@
 //! Shared by every engine: engines differ in how they reduce pairs, not in which they keep.
 
 use crate::monomial::{MaskLayout, Monomial};
+use crate::order::MonomialOrder;
+
+/// Which pending pairs an engine reduces next: one rule shared by every engine.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Selection {
+    /// All pairs whose lcm has the least total degree: the normal strategy (Buchberger 1985;
+    /// as used by Faugère 1999 for F4), right for orders that compare degrees first.
+    LeastDegree,
+    /// All pairs of least sugar (Giovini, Mora, Niesi, Robbiano and Traverso 1991).
+    LeastSugar,
+    /// Among the pairs of least sugar, those whose lcm is least in the monomial order: the
+    /// normal strategy of the order itself, with sugar first. Under lex and block orders the
+    /// whole sugar degree at once can run far above the degrees the basis needs (all pairs of
+    /// one sugar may include lcms that are large in the order, whose S-polynomials reduce to
+    /// dense high-degree remainders before the small ones have been found).
+    LeastLcm,
+}
+
+impl Selection {
+    /// The rule for a batch engine (F4) under `order`.
+    pub fn for_order(order: &MonomialOrder) -> Selection {
+        if order.is_degree_compatible() {
+            Selection::LeastDegree
+        } else {
+            Selection::LeastLcm
+        }
+    }
+}
 
 #[derive(Clone, Debug)]
 pub struct Pair {
@@ -91,32 +119,66 @@ impl PairSet {
         t
     }
 
-    /// Removes and returns the pairs of least sugar (ties: all of that sugar), for engines that
-    /// handle a whole degree at once; `limit` caps how many.
-    pub fn take_lowest(&mut self, limit: Option<usize>) -> Vec<Pair> {
-        self.take_lowest_by(limit, |p| p.sugar)
-    }
-
-    /// The normal selection strategy (Buchberger 1985; as used by Faugère 1999 for F4): removes
-    /// and returns all pairs whose lcm has the least total degree; `limit` caps how many, the
-    /// rest wait for the next step.
-    pub fn take_lowest_degree(&mut self, limit: Option<usize>) -> Vec<Pair> {
-        self.take_lowest_by(limit, |p| p.lcm.degree())
+    /// Removes and returns the next pairs to reduce by `selection`; `limit` caps how many (the
+    /// others wait for the next call).
+    pub fn take(
+        &mut self,
+        selection: Selection,
+        order: &MonomialOrder,
+        limit: Option<usize>,
+    ) -> Vec<Pair> {
+        match selection {
+            Selection::LeastDegree => self.take_lowest_by(limit, |p| p.lcm.degree()),
+            Selection::LeastSugar => self.take_lowest_by(limit, |p| p.sugar),
+            Selection::LeastLcm => self.take_least_lcm(order, limit),
+        }
     }
 
     fn take_lowest_by(&mut self, limit: Option<usize>, key: impl Fn(&Pair) -> u32) -> Vec<Pair> {
         let Some(min) = self.pairs.iter().map(&key).min() else {
             return vec![];
         };
-        let (mut now, later): (Vec<Pair>, Vec<Pair>) =
+        let (now, later): (Vec<Pair>, Vec<Pair>) =
             self.pairs.drain(..).partition(|p| key(p) == min);
         self.pairs = later;
+        self.keep_at_most(now, limit)
+    }
+
+    /// The pairs of least sugar whose lcm is the least in `order` among them.
+    fn take_least_lcm(&mut self, order: &MonomialOrder, limit: Option<usize>) -> Vec<Pair> {
+        let Some(sugar) = self.pairs.iter().map(|p| p.sugar).min() else {
+            return vec![];
+        };
+        let least = self
+            .pairs
+            .iter()
+            .filter(|p| p.sugar == sugar)
+            .map(|p| &p.lcm)
+            .min_by(|a, b| order.cmp(a, b))
+            .expect("a pair of that sugar")
+            .clone();
+        let (now, later): (Vec<Pair>, Vec<Pair>) = self
+            .pairs
+            .drain(..)
+            .partition(|p| p.sugar == sugar && p.lcm == least);
+        self.pairs = later;
+        self.keep_at_most(now, limit)
+    }
+
+    /// The first `limit` of `now` (at least one); the rest go back to the pending pairs.
+    fn keep_at_most(&mut self, mut now: Vec<Pair>, limit: Option<usize>) -> Vec<Pair> {
         if let Some(limit) = limit {
             if now.len() > limit.max(1) {
                 self.pairs.extend(now.drain(limit.max(1)..));
             }
         }
         now
+    }
+
+    /// Drops the pending pairs of sugar at most `degree`: for a basis that is complete up to
+    /// that (homogeneous) degree, their S-polynomials have standard representations already.
+    pub fn drop_up_to_sugar(&mut self, degree: u32) {
+        self.pairs.retain(|p| p.sugar > degree);
     }
 
     /// Indices of the elements still needed for the final basis.

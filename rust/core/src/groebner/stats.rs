@@ -15,20 +15,34 @@ pub struct StepStats {
     pub seconds_linear_algebra: f64,
     /// Multiply-adds performed by the linear algebra of this step (0 for engines without matrices).
     pub multiply_adds: u64,
+    /// Whether the rows of this step were chosen by the signature criteria.
+    pub signatures: bool,
 }
 
 #[derive(Clone, Debug, Default, PartialEq)]
 pub struct Stats {
     pub engine: String,
+    /// What the automatic engine chose and why (empty for the other engines).
+    pub choice: String,
     pub steps: Vec<StepStats>,
     /// Pairs whose S-polynomial reduced to zero (wasted work).
     pub zero_reductions: usize,
     pub seconds: f64,
+    /// Highest total degree of a polynomial the engine built or was given: a row of any of its
+    /// matrices (the final interreduction's included), an S-polynomial, an input or an output.
+    pub highest_degree: u32,
 }
 
 impl Stats {
-    /// Highest degree reached: what is often called the solving degree.
+    /// The highest degree of any matrix the run built, inputs and outputs included (see
+    /// [`Stats::highest_degree`]): what is often called the solving degree. Step degrees can
+    /// differ from it: the signature engine's are the degrees of the homogenized system.
     pub fn max_degree(&self) -> u32 {
-        self.steps.iter().map(|s| s.degree).max().unwrap_or(0)
+        self.highest_degree
+    }
+
+    /// Counts polynomials of degree `degree` as built by the run.
+    pub fn reached(&mut self, degree: u32) {
+        self.highest_degree = self.highest_degree.max(degree);
     }
 }

@@ -92,3 +92,76 @@ fn degree_limit_and_interrupt() {
     let err = groebner_basis(&r, &gens, Engine::Buchberger, &stop).unwrap_err();
     assert_eq!(err, crate::Error::Interrupted);
 }
+
+#[test]
+fn the_highest_degree_is_that_of_the_largest_polynomial_handled() {
+    // (x^3 + y, y^3 + x): coprime leading monomials, no pair to reduce, no step; the highest
+    // degree of the run is still 3 (the inputs, and the final interreduction's matrix).
+    let r = ring(&["x", "y"], MonomialOrder::Grevlex);
+    let gens: Vec<_> = ["x^3 + y", "y^3 + x"]
+        .iter()
+        .map(|g| parse_poly(&r, g).unwrap())
+        .collect();
+    for engine in [
+        Engine::Auto,
+        Engine::Buchberger,
+        Engine::F4,
+        Engine::F4Sampled,
+        Engine::F4Signature,
+    ] {
+        let gb = groebner_basis(&r, &gens, engine, &Control::new()).unwrap();
+        assert_eq!(gb.stats.max_degree(), 3, "{}", engine.name());
+    }
+}
+
+/// The matrix limit is checked while symbolic preprocessing builds a matrix, not after: on
+/// katsura-9 the first matrix over 100,000 entries is 512 x 741 (F4's step of degree 4), and
+/// the limit must fire before a matrix twice the limit exists. The reference engine, which
+/// builds no matrix, applies it to each S-polynomial as a one-row matrix.
+#[test]
+fn the_matrix_limit_fires_before_the_matrix_is_built() {
+    let s = crate::systems::katsura(9);
+    let r = Ring::new(
+        PrimeField::new(32003).unwrap(),
+        s.vars.clone(),
+        MonomialOrder::Grevlex,
+    )
+    .unwrap();
+    let gens = s.polys(&r).unwrap();
+    let limit = 100_000u64;
+    let limited = Control::new().with_limits(crate::control::Limits {
+        max_matrix_entries: Some(limit),
+        ..Default::default()
+    });
+    for engine in [Engine::F4, Engine::F4Signature, Engine::Auto] {
+        let err = groebner_basis(&r, &gens, engine, &limited).unwrap_err();
+        let crate::Error::ResourceLimit(message) = err else {
+            panic!("{}: {err}", engine.name());
+        };
+        let shape: Vec<u64> = message
+            .split("needs a ")
+            .nth(1)
+            .and_then(|rest| rest.split(" matrix").next())
+            .map(|m| m.split(" x ").map(|v| v.parse().unwrap()).collect())
+            .unwrap();
+        assert!(
+            shape[0] * shape[1] <= 2 * limit,
+            "{}: {message}",
+            engine.name()
+        );
+    }
+    let small = crate::systems::katsura(4);
+    let r = Ring::new(
+        PrimeField::new(32003).unwrap(),
+        small.vars.clone(),
+        MonomialOrder::Grevlex,
+    )
+    .unwrap();
+    let gens = small.polys(&r).unwrap();
+    let tiny = Control::new().with_limits(crate::control::Limits {
+        max_matrix_entries: Some(4),
+        ..Default::default()
+    });
+    let err = groebner_basis(&r, &gens, Engine::Buchberger, &tiny).unwrap_err();
+    assert!(matches!(err, crate::Error::ResourceLimit(_)), "{err}");
+}

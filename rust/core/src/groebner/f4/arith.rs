@@ -10,8 +10,11 @@
 //! - p < 2^31, stored as u32, u64 accumulator kept below p^2 by one branch-free conditional
 //!   subtraction of p^2 per multiply-add;
 //! - p < 2^63, stored as u64, u128 accumulator kept below p^2 the same way;
+//! - larger p, on 2, 4 or 8 limbs: Montgomery residues, products summed as plain integers on
+//!   2N + 1 limbs and reduced once per entry read (see `Montgomery::reduce_wide`);
 //! - any other field: the field's own elements and operations.
 
+use crate::field::montgomery::{from_limbs, Montgomery};
 use crate::field::Field;
 use crate::rng::field_size;
 use crate::vector_unit::VectorUnit;
@@ -418,18 +421,141 @@ impl<F: Field> Arith<F> for LargePrime {
     }
 }
 
-/// Any field, through its own operations (no delayed reduction).
-pub struct Generic<F: Field> {
-    field: F,
+/// GF(p) for a prime beyond a machine word on N limbs: coefficients are Montgomery residues,
+/// an accumulator entry a sum of their products on W = 2N + 1 limbs, reduced when read.
+pub struct BigPrime<const N: usize, const W: usize> {
+    mont: Montgomery<N>,
+    /// p − 2, for inverses by Fermat's little theorem.
+    p_minus_2: Vec<u64>,
 }
 
-impl<F: Field> Generic<F> {
-    pub fn new(field: F) -> Self {
-        Generic { field }
+impl<const N: usize, const W: usize> BigPrime<N, W> {
+    /// The kernel for the prime whose limbs are `modulus`; `None` unless it has N limbs and
+    /// W = 2N + 1.
+    pub fn new(modulus: &[u64]) -> Option<Self> {
+        if modulus.len() != N || W != 2 * N + 1 {
+            return None;
+        }
+        let p = from_limbs(modulus);
+        let mont = Montgomery::<N>::new(&p)?;
+        let p_minus_2 = (p - 2u32).to_u64_digits();
+        Some(BigPrime { mont, p_minus_2 })
     }
 }
 
-impl<F: Field> Arith<F> for Generic<F> {
+impl<F: Field, const N: usize, const W: usize> Arith<F> for BigPrime<N, W> {
+    type C = [u64; N];
+    type A = [u64; W];
+    fn import(&self, field: &F, e: &F::Elem) -> [u64; N] {
+        let mut limbs = [0u64; N];
+        field.to_montgomery_limbs(e, &mut limbs);
+        limbs
+    }
+    fn export(&self, field: &F, c: &[u64; N]) -> F::Elem {
+        field.from_montgomery_limbs(c)
+    }
+    #[inline]
+    fn acc_zero(&self) -> [u64; W] {
+        [0; W]
+    }
+    #[inline]
+    fn acc_is_zero(&self, a: &[u64; W]) -> bool {
+        a.iter().all(|&w| w == 0)
+    }
+    #[inline]
+    fn load(&self, c: &[u64; N]) -> [u64; W] {
+        self.mont.widen(c)
+    }
+    #[inline]
+    fn settle(&self, a: &[u64; W]) -> [u64; N] {
+        self.mont.reduce_wide(a)
+    }
+    #[inline]
+    fn is_zero(&self, c: &[u64; N]) -> bool {
+        c.iter().all(|&w| w == 0)
+    }
+    fn zero(&self) -> [u64; N] {
+        [0; N]
+    }
+    fn one(&self) -> [u64; N] {
+        self.mont.one()
+    }
+    #[inline]
+    fn mul(&self, a: &[u64; N], b: &[u64; N]) -> [u64; N] {
+        self.mont.mul(a, b)
+    }
+    fn inv(&self, a: &[u64; N]) -> [u64; N] {
+        self.mont.pow(a, &self.p_minus_2)
+    }
+    #[inline]
+    fn neg(&self, a: &[u64; N]) -> [u64; N] {
+        self.mont.neg(a)
+    }
+    #[inline]
+    fn axpy(&self, acc: &mut [[u64; W]], cols: &[u32], coeffs: &[[u64; N]], m: &[u64; N]) {
+        check_row(acc, 1, cols, coeffs);
+        for (&c, x) in cols.iter().zip(coeffs) {
+            // SAFETY: columns increase and the last is inside `acc` (checked above).
+            let slot = unsafe { acc.get_unchecked_mut(c as usize) };
+            Montgomery::<N>::mul_add_wide(slot, m, x);
+        }
+    }
+    fn axpy_lanes(
+        &self,
+        acc: &mut [[u64; W]],
+        cols: &[u32],
+        coeffs: &[[u64; N]],
+        m: &[[u64; N]; LANES],
+    ) {
+        check_row(acc, LANES, cols, coeffs);
+        let mut used = [0usize; LANES];
+        let mut count = 0;
+        for (j, mj) in m.iter().enumerate() {
+            if *mj != [0; N] {
+                used[count] = j;
+                count += 1;
+            }
+        }
+        let base = acc.as_mut_ptr();
+        for (&c, x) in cols.iter().zip(coeffs) {
+            // SAFETY: (c + 1)·LANES ≤ acc.len() (checked above); one slot at a time.
+            let slot = unsafe { &mut *(base.add(c as usize * LANES) as *mut [[u64; W]; LANES]) };
+            for &j in &used[..count] {
+                Montgomery::<N>::mul_add_wide(&mut slot[j], &m[j], x);
+            }
+        }
+    }
+    /// A sum stays below 2^(64W) for 2^64 − 2 products on top of a loaded residue.
+    fn headroom(&self) -> u64 {
+        u64::MAX - 2
+    }
+    fn normalize(&self, acc: &mut [[u64; W]]) {
+        for a in acc {
+            *a = self.mont.widen(&self.mont.reduce_wide(a));
+        }
+    }
+    fn sample_space(&self) -> Option<u64> {
+        Some(1 << 63)
+    }
+    fn element(&self, i: u64) -> [u64; N] {
+        let mut x = [0u64; N];
+        x[0] = i;
+        self.mont.enter(&x)
+    }
+}
+
+/// Any field, through its own operations (no delayed reduction).
+pub struct FieldOps<F: Field> {
+    field: F,
+}
+
+impl<F: Field> FieldOps<F> {
+    pub fn new(field: F) -> Self {
+        FieldOps { field }
+    }
+}
+
+impl<F: Field> Arith<F> for FieldOps<F> {
     type C = F::Elem;
     type A = F::Elem;
     fn import(&self, _field: &F, e: &F::Elem) -> F::Elem {
@@ -503,7 +629,8 @@ impl<F: Field> Arith<F> for Generic<F> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::field::PrimeField;
+    use crate::field::{BigPrimeField, PrimeField};
+    use num_bigint::BigUint;
 
     /// Each kernel, fed many multiply-adds onto one entry, agrees with exact integer arithmetic.
     fn check<A: Arith<PrimeField>>(a: &A, p: u64) {
@@ -534,6 +661,79 @@ mod tests {
         assert_eq!(a.export(&f, &a.mul(&x, &a.inv(&x))), 1);
     }
 
+    /// The kernel as arithmetic of `BigPrimeField<N>` (so that calls name the field).
+    fn over_field<const N: usize, const W: usize>(
+        kernel: &BigPrime<N, W>,
+    ) -> &impl Arith<BigPrimeField<N>, C = [u64; N], A = [u64; W]> {
+        kernel
+    }
+
+    /// The big-prime kernel against the field's own arithmetic: sums of many products, with
+    /// and without a normalization on the way, and the eight-lane form.
+    fn check_big<const N: usize, const W: usize>(field: &BigPrimeField<N>) {
+        let kernel = BigPrime::<N, W>::new(&field.montgomery_modulus().unwrap()).unwrap();
+        let a = over_field(&kernel);
+        let mut rng = crate::rng::Rng::new(N as u64);
+        let mut random = || {
+            let i = rng.next_u64();
+            field.pow(&field.element_from_index(i | 1), 1 + i % 7)
+        };
+        for normalize_at in [None, Some(100)] {
+            let start = random();
+            let mut acc = vec![a.load(&a.import(field, &start))];
+            let mut lanes = vec![a.acc_zero(); LANES];
+            let mut expected = start;
+            let mut expected_lanes = vec![field.zero(); LANES];
+            for k in 0..300 {
+                let (x, m) = (random(), random());
+                let (xs, ms) = (a.import(field, &x), a.import(field, &m));
+                a.axpy(&mut acc, &[0], &[xs], &ms);
+                expected = field.add(&expected, &field.mul(&x, &m));
+                // Lane 3 gets a zero multiplier, the others m + j.
+                let ml: [[u64; N]; LANES] = std::array::from_fn(|j| match j {
+                    3 => a.zero(),
+                    _ => a.import(field, &field.add(&m, &field.from_i64(j as i64))),
+                });
+                a.axpy_lanes(&mut lanes, &[0], &[xs], &ml);
+                for (j, e) in expected_lanes.iter_mut().enumerate() {
+                    *e = field.add(e, &field.mul(&x, &a.export(field, &ml[j])));
+                }
+                if normalize_at == Some(k) {
+                    a.normalize(&mut acc);
+                    a.normalize(&mut lanes);
+                }
+            }
+            assert_eq!(a.export(field, &a.settle(&acc[0])), expected);
+            for (lane, e) in lanes.iter().zip(&expected_lanes) {
+                assert_eq!(a.export(field, &a.settle(lane)), *e);
+            }
+        }
+        let x = a.import(field, &random());
+        assert_eq!(a.mul(&x, &a.inv(&x)), a.one());
+    }
+
+    #[test]
+    fn big_prime_kernels_agree_with_the_field() {
+        let two = |k: u32| BigUint::from(2u8).pow(k);
+        // 2^127 − 1 (a Mersenne prime), 2^255 − 19 (Bernstein 2006) and the NIST P-384 prime
+        // (FIPS 186-4), all from memory, as in the field's own tests.
+        check_big::<2, 5>(&BigPrimeField::<2>::new(&(two(127) - 1u32)).unwrap());
+        check_big::<4, 9>(&BigPrimeField::<4>::new(&(two(255) - 19u32)).unwrap());
+        let p384 = two(384) - two(128) - two(96) + two(32) - 1u32;
+        check_big::<8, 17>(&BigPrimeField::<8>::new(&p384).unwrap());
+        // The largest residue everywhere: 1000 products p − 1 times p − 1 on a loaded p − 1.
+        let f = BigPrimeField::<4>::new(&(two(255) - 19u32)).unwrap();
+        let kernel = BigPrime::<4, 9>::new(&f.montgomery_modulus().unwrap()).unwrap();
+        let a = over_field(&kernel);
+        let top = a.import(&f, &f.from_i64(-1));
+        let mut acc = vec![a.load(&top)];
+        for _ in 0..1000 {
+            a.axpy(&mut acc, &[0], &[top], &top);
+        }
+        let expected = (0..1000).fold(f.from_i64(-1), |s, _| f.add(&s, &f.one()));
+        assert_eq!(a.export(&f, &a.settle(&acc[0])), expected);
+    }
+
     #[test]
     fn kernels_agree_with_exact_arithmetic() {
         // Primes from the field tests' list (2^31 - 1 and 2^63 - 25 are the largest primes below
@@ -544,6 +744,6 @@ mod tests {
         check(&SmallPrime::<u32>::new(2147483647), 2147483647);
         check(&LargePrime::new((1 << 31) + 11), (1 << 31) + 11);
         check(&LargePrime::new((1 << 63) - 25), (1 << 63) - 25);
-        check(&Generic::new(PrimeField::new(65521).unwrap()), 65521);
+        check(&FieldOps::new(PrimeField::new(65521).unwrap()), 65521);
     }
 }

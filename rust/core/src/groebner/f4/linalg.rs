@@ -30,7 +30,7 @@ pub struct Echelon<C> {
     pub multiply_adds: u64,
 }
 
-/// What a column of an accumulator holds after `Dense::eliminate`.
+/// What a column of an accumulator holds after `DenseRow::eliminate`.
 #[derive(PartialEq, Eq)]
 enum Entry {
     Zero,
@@ -42,7 +42,7 @@ enum Entry {
 type Entries<C> = (Vec<u32>, Vec<C>);
 
 /// One worker's dense accumulator.
-pub(super) struct Dense<'a, F: Field, A: Arith<F>> {
+pub(super) struct DenseRow<'a, F: Field, A: Arith<F>> {
     arith: &'a A,
     acc: Vec<A::A>,
     /// Multiply-adds the accumulator can still take before it must be normalized.
@@ -51,10 +51,10 @@ pub(super) struct Dense<'a, F: Field, A: Arith<F>> {
     _f: PhantomData<F>,
 }
 
-impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
+impl<'a, F: Field, A: Arith<F>> DenseRow<'a, F, A> {
     pub(super) fn new(arith: &'a A, width: usize) -> Self {
         let acc = vec![arith.acc_zero(); width];
-        Dense {
+        DenseRow {
             arith,
             acc,
             budget: arith.headroom(),
@@ -119,6 +119,17 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
         self.multiply_adds
     }
 
+    /// Adds m times the row (`cols`, `coeffs`, all after column `k`) to the accumulator.
+    fn add_multiple(&mut self, cols: &[u32], coeffs: &[A::C], m: &A::C, k: usize) {
+        self.arith.axpy(&mut self.acc, cols, coeffs, m);
+        self.multiply_adds += cols.len() as u64;
+        self.budget -= 1;
+        if self.budget == 0 {
+            self.arith.normalize(&mut self.acc[k + 1..]);
+            self.budget = self.arith.headroom();
+        }
+    }
+
     /// Clears column `k` with its pivot if it has one; says what the column holds afterwards.
     #[inline(always)]
     fn eliminate<'r>(
@@ -143,19 +154,8 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
             return Entry::Free;
         };
         // Pivots are monic: adding -c times the pivot's tail clears column k.
-        arith.axpy(
-            &mut self.acc,
-            &pivot.cols[1..],
-            &pivot.coeffs[1..],
-            &arith.neg(&c),
-        );
         self.acc[k] = arith.acc_zero();
-        self.multiply_adds += (pivot.cols.len() - 1) as u64;
-        self.budget -= 1;
-        if self.budget == 0 {
-            arith.normalize(&mut self.acc[k + 1..]);
-            self.budget = arith.headroom();
-        }
+        self.add_multiple(&pivot.cols[1..], &pivot.coeffs[1..], &arith.neg(&c), k);
         Entry::Zero
     }
 
@@ -192,7 +192,7 @@ impl<'a, F: Field, A: Arith<F>> Dense<'a, F, A> {
 /// entry of column k in lane j sits at k·LANES + j. Each pivot row is then read once per block
 /// rather than once per row, and each of its entries updates all lanes in one cache line (the
 /// pivot rows of a large matrix are many megabytes, far more than a core's cache).
-pub(super) struct Block<'a, F: Field, A: Arith<F>> {
+pub(super) struct LaneBlock<'a, F: Field, A: Arith<F>> {
     arith: &'a A,
     acc: Vec<A::A>,
     /// `axpy_lanes` calls the accumulator can still take before it must be normalized.
@@ -201,9 +201,9 @@ pub(super) struct Block<'a, F: Field, A: Arith<F>> {
     _f: PhantomData<F>,
 }
 
-impl<'a, F: Field, A: Arith<F>> Block<'a, F, A> {
+impl<'a, F: Field, A: Arith<F>> LaneBlock<'a, F, A> {
     pub(super) fn new(arith: &'a A, width: usize) -> Self {
-        Block {
+        LaneBlock {
             arith,
             acc: vec![arith.acc_zero(); width * LANES],
             budget: arith.headroom(),
@@ -316,7 +316,7 @@ fn reduce_by_known<F: Field, A: Arith<F>>(
         &blocks,
         PARALLEL_MIN_ROWS / LANES,
         control,
-        || Block::new(arith, width),
+        || LaneBlock::new(arith, width),
         |acc, block| {
             control.check()?;
             let pivot_of = |k: usize| pivots[k].map(|p| (p, ALL_LANES));
@@ -341,7 +341,7 @@ pub(super) const ALL_LANES: LaneMask = (1 << LANES) - 1;
 /// the pivots `pivot_of` gives, each only in the lanes of its mask; returns what is left of
 /// each row, sparse.
 pub(super) fn reduce_block<'r, F: Field, A: Arith<F>>(
-    acc: &mut Block<'_, F, A>,
+    acc: &mut LaneBlock<'_, F, A>,
     rows: &[&Row<A::C>],
     skip: usize,
     pivot_of: impl Fn(usize) -> Option<(&'r Row<A::C>, LaneMask)>,
@@ -389,7 +389,7 @@ fn echelonize<F: Field, A: Arith<F>>(
         rows,
         PARALLEL_MIN_ROWS,
         control,
-        || Dense::new(arith, width),
+        || DenseRow::new(arith, width),
         |dense, row| {
             control.check()?;
             dense.load(&row.cols, &row.coeffs);
@@ -548,7 +548,7 @@ impl<'m, F: Field, A: Arith<F>> NewPivots<'m, F, A> {
             .collect();
         let mut done: Vec<Option<Row<A::C>>> = (0..width).map(|_| None).collect();
         let work = AtomicU64::new(0);
-        let mut dense = Dense::new(arith, width);
+        let mut dense = DenseRow::new(arith, width);
         for (number, chunk) in leads.rchunks(BACK_SUBSTITUTION_CHUNK).enumerate() {
             let rows: Vec<(usize, Row<A::C>)> = chunk
                 .iter()
@@ -563,7 +563,7 @@ impl<'m, F: Field, A: Arith<F>> NewPivots<'m, F, A> {
                     &rows,
                     2,
                     control,
-                    || Dense::new(arith, width),
+                    || DenseRow::new(arith, width),
                     |dense, (lead, row)| {
                         control.check()?;
                         let reduced = reduce_fully(dense, *lead, row, &done);
@@ -621,7 +621,7 @@ const BACK_SUBSTITUTION_CHUNK: usize = 32;
 /// `row` (monic, leading column `lead`) with every entry after its lead that has a pivot in
 /// `pivots` eliminated.
 fn reduce_fully<F: Field, A: Arith<F>>(
-    dense: &mut Dense<'_, F, A>,
+    dense: &mut DenseRow<'_, F, A>,
     lead: usize,
     row: &Row<A::C>,
     pivots: &[Option<Row<A::C>>],
@@ -637,7 +637,7 @@ fn reduce_fully<F: Field, A: Arith<F>>(
 /// has none at the columns of the pivots after it: one pass over `later` suffices, where
 /// [`reduce_fully`] would sweep every column.
 fn reduce_within_chunk<F: Field, A: Arith<F>>(
-    dense: &mut Dense<'_, F, A>,
+    dense: &mut DenseRow<'_, F, A>,
     lead: usize,
     row: &Row<A::C>,
     later: &[usize],
@@ -653,7 +653,7 @@ fn reduce_within_chunk<F: Field, A: Arith<F>>(
 
 /// The row with leading entry one at `lead` and the accumulator's entries after it as tail
 /// (which it clears).
-fn monic_row<F: Field, A: Arith<F>>(dense: &mut Dense<'_, F, A>, lead: usize) -> Row<A::C> {
+fn monic_row<F: Field, A: Arith<F>>(dense: &mut DenseRow<'_, F, A>, lead: usize) -> Row<A::C> {
     let (cols, coeffs) = dense.extract(lead + 1, None, true);
     Row {
         cols: std::iter::once(lead as u32).chain(cols).collect(),
@@ -673,6 +673,57 @@ pub fn reduce_new_rows<F: Field, A: Arith<F>>(
     let rows: Vec<&Row<A::C>> = matrix.new_rows.iter().collect();
     space.add(&rows, control)?;
     space.finish(control, back_substitute)
+}
+
+/// The multipliers of a combination of known pivots: (reducer index, multiplier).
+pub type Combination<C> = Vec<(u32, C)>;
+
+/// For each new row of `matrix`: the multipliers c_k with row = Σ c_k · reducers[k], found by
+/// reducing the row by the known pivots alone, or `None` when the row does not reduce to zero
+/// that way (the known pivots must be monic). Used to check a basis: a row reduces to zero
+/// exactly when it is such a combination.
+pub fn combinations<F: Field, A: Arith<F>>(
+    arith: &A,
+    matrix: &SymbolicMatrix<A::C>,
+    control: &Control,
+) -> Result<Vec<Option<Combination<A::C>>>> {
+    let width = matrix.columns.len();
+    let mut pivot_index = vec![u32::MAX; width];
+    for (i, r) in matrix.reducers.iter().enumerate() {
+        pivot_index[r.cols[0] as usize] = i as u32;
+    }
+    map_items(
+        &matrix.new_rows,
+        PARALLEL_MIN_ROWS,
+        control,
+        || DenseRow::new(arith, width),
+        |dense, row| {
+            control.check()?;
+            dense.load(&row.cols, &row.coeffs);
+            let mut used = Vec::new();
+            let first = row.cols[0] as usize;
+            for (k, &i) in pivot_index.iter().enumerate().skip(first) {
+                if arith.acc_is_zero(&dense.acc[k]) {
+                    continue;
+                }
+                let c = arith.settle(&dense.acc[k]);
+                dense.acc[k] = arith.acc_zero();
+                if arith.is_zero(&c) {
+                    continue;
+                }
+                if i == u32::MAX {
+                    dense.extract(k, None, true);
+                    return Ok(None);
+                }
+                let pivot = &matrix.reducers[i as usize];
+                dense.add_multiple(&pivot.cols[1..], &pivot.coeffs[1..], &arith.neg(&c), k);
+                used.push((i, c));
+            }
+            Ok(Some(used))
+        },
+    )
+    .into_iter()
+    .collect()
 }
 
 /// Fully reduces the tails of the first `count` known pivots by all known pivots: with the
@@ -732,7 +783,7 @@ mod tests {
                 [(vec![1, 2], vec![1, 4]), (vec![1, 2], vec![1, 4])],
             ),
         ] {
-            let mut acc = Block::<PrimeField, _>::new(&arith, 3);
+            let mut acc = LaneBlock::<PrimeField, _>::new(&arith, 3);
             let pivot_of = |k: usize| (k == 0).then_some((&pivot, mask));
             assert_eq!(
                 reduce_block(&mut acc, &rows, 0, pivot_of, &work),

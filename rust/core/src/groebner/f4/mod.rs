@@ -11,6 +11,7 @@
 //! identical to the reference engine's.
 
 pub mod arith;
+pub mod auto;
 pub mod hash;
 pub mod linalg;
 pub mod parallel;
@@ -21,16 +22,17 @@ pub mod symbolic;
 #[cfg(test)]
 mod tests;
 
-use super::pairs::{Pair, PairSet};
+use super::pairs::{Pair, PairSet, Selection};
 use super::reduce::minimal_indices;
 use super::stats::{Stats, StepStats};
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::Field;
+use crate::hilbert::{monomial_ideal_series, HilbertSeries};
 use crate::monomial::Monomial;
 use crate::poly::{Poly, Ring};
 use crate::rng::Rng;
-use arith::{Arith, Generic, LargePrime, SmallPrime};
+use arith::{Arith, BigPrime, FieldOps, LargePrime, SmallPrime};
 use hash::MonomialTable;
 use std::collections::HashMap;
 use std::time::Instant;
@@ -38,20 +40,18 @@ use symbolic::{Divisor, Element, Multiple, Row, SymbolicMatrix};
 
 /// Tuning of the F4 engine.
 #[derive(Clone, Debug, Default, PartialEq, Eq)]
-pub struct Options {
+pub struct F4Options {
     /// At most this many pairs per step (the others wait for the next step); `None`: all pairs
-    /// of the lowest degree.
+    /// the selection rule gives.
     pub max_pairs_per_step: Option<usize>,
-    pub linear_algebra: LinearAlgebra,
-    /// Signature-based F4 (see [`signature`]): exact, needs a degree-compatible order, and
-    /// skips most rows that would reduce to zero.
-    pub signatures: bool,
+    pub variant: Variant,
 }
 
-/// How the new rows of each matrix are reduced.
+/// Which rows each matrix gets and how its new rows are reduced: one choice, so that settings
+/// that exclude each other cannot be combined.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
-pub enum LinearAlgebra {
-    /// Every new row is reduced: the result is certain.
+pub enum Variant {
+    /// Every pair's rows, every new row reduced: the result is certain.
     #[default]
     Exact,
     /// Random combinations of the new rows are reduced (see [`sampled`]): over a finite field
@@ -59,6 +59,11 @@ pub enum LinearAlgebra {
     /// that do not compare degrees first (lex, block orders) stay exact: there the dense rows
     /// that combinations give would raise the degrees of later pairs without bound.
     Sampled(Sampling),
+    /// Signature-based F4 (see [`signature`]): exact, needs an order that compares degrees
+    /// first, and skips most rows that would reduce to zero.
+    Signatures,
+    /// Signatures while degrees do not fall, plain F4 from the first fall on (see [`auto`]).
+    Auto,
 }
 
 /// Settings of the sampled linear algebra.
@@ -83,21 +88,12 @@ impl Default for Sampling {
     }
 }
 
-/// Reduced Gröbner basis of `gens` and the run's statistics, with default options.
-pub fn compute<F: Field>(
-    ring: &Ring<F>,
-    gens: &[Poly<F>],
-    control: &Control,
-) -> Result<(Vec<Poly<F>>, Stats)> {
-    compute_with(ring, gens, control, &Options::default())
-}
-
 /// Reduced Gröbner basis of `gens`; runs on `control.limits.threads` threads (default: all cores).
 pub fn compute_with<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
     control: &Control,
-    options: &Options,
+    options: &F4Options,
 ) -> Result<(Vec<Poly<F>>, Stats)> {
     let run = || dispatch(ring, gens, control, options);
     match control.limits.threads {
@@ -112,36 +108,108 @@ pub fn compute_with<F: Field>(
     }
 }
 
-/// Picks the coefficient kernel: packed words for GF(p), the field's own arithmetic otherwise.
+/// Runs `$body` with `$arith` bound to the coefficient kernel for `$ring`'s field: packed words
+/// for word-size GF(p), packed limbs for larger primes, the field's own arithmetic otherwise.
+macro_rules! with_arith {
+    ($ring:expr, $arith:ident => $body:expr) => {
+        match $ring.field.word_modulus() {
+            Some(p) if p < 1 << 16 => {
+                let $arith = SmallPrime::<u16>::new(p);
+                $body
+            }
+            Some(p) if p < 1 << 31 => {
+                let $arith = SmallPrime::<u32>::new(p);
+                $body
+            }
+            Some(p) => {
+                let $arith = LargePrime::new(p);
+                $body
+            }
+            None => match $ring.field.montgomery_modulus().as_deref() {
+                Some(limbs) if limbs.len() == 2 => {
+                    let $arith = BigPrime::<2, 5>::new(limbs).expect("two limbs");
+                    $body
+                }
+                Some(limbs) if limbs.len() == 4 => {
+                    let $arith = BigPrime::<4, 9>::new(limbs).expect("four limbs");
+                    $body
+                }
+                Some(limbs) if limbs.len() == 8 => {
+                    let $arith = BigPrime::<8, 17>::new(limbs).expect("eight limbs");
+                    $body
+                }
+                _ => {
+                    let $arith = FieldOps::new($ring.field.clone());
+                    $body
+                }
+            },
+        }
+    };
+}
+
 fn dispatch<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
     control: &Control,
-    options: &Options,
+    options: &F4Options,
 ) -> Result<(Vec<Poly<F>>, Stats)> {
-    match ring.field.word_modulus() {
-        Some(p) if p < 1 << 16 => {
-            Engine::new(ring, SmallPrime::<u16>::new(p), options).run(gens, control)
-        }
-        Some(p) if p < 1 << 31 => {
-            Engine::new(ring, SmallPrime::<u32>::new(p), options).run(gens, control)
-        }
-        Some(_) => {
-            let p = ring.field.word_modulus().unwrap();
-            Engine::new(ring, LargePrime::new(p), options).run(gens, control)
-        }
-        None => compute_generic(ring, gens, control, options),
-    }
+    with_arith!(ring, arith => F4Run::new(ring, arith, options).run(gens, control))
 }
 
-/// F4 through the field's own operations (every field; used directly by tests on prime fields).
+/// The reduced basis of the ideal generated by `basis`, which must be a Gröbner basis for the
+/// order of `ring` (nonzero polynomials): one matrix, as at the end of every F4 run.
+pub fn interreduce<F: Field>(
+    ring: &Ring<F>,
+    basis: &[Poly<F>],
+    control: &Control,
+) -> Result<Vec<Poly<F>>> {
+    let options = F4Options::default();
+    with_arith!(ring, arith => {
+        let mut run = F4Run::new(ring, arith, &options);
+        if let Outcome::Unit = run.import_all(basis) {
+            return Ok(vec![ring.one()]);
+        }
+        let all: Vec<usize> = (0..run.basis.len()).collect();
+        reduced_basis(ring, &run.arith, &mut run.table, &run.basis, &all, 0, control)
+    })
+}
+
+/// The reduced basis of the homogeneous ideal generated by `gens` (homogeneous), knowing its
+/// Hilbert series `target` in advance: a degree whose Hilbert function the leading monomials
+/// found so far already give is complete, so its pairs are dropped unreduced; once the whole
+/// series is reached the run stops (Traverso 1996).
+pub fn compute_driven<F: Field>(
+    ring: &Ring<F>,
+    gens: &[Poly<F>],
+    control: &Control,
+    target: &HilbertSeries,
+) -> Result<(Vec<Poly<F>>, Stats)> {
+    let options = F4Options::default();
+    with_arith!(ring, arith => {
+        let mut run = F4Run::new(ring, arith, &options);
+        run.target = Some(target);
+        run.plain(gens, control)
+    })
+}
+
+/// F4 through the field's own operations (every field; tests compare it with the packed kernels).
+#[cfg(test)]
 pub(crate) fn compute_generic<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
     control: &Control,
-    options: &Options,
+    options: &F4Options,
 ) -> Result<(Vec<Poly<F>>, Stats)> {
-    Engine::new(ring, Generic::new(ring.field.clone()), options).run(gens, control)
+    F4Run::new(ring, FieldOps::new(ring.field.clone()), options).run(gens, control)
+}
+
+/// How far the leading monomials found are from a known Hilbert series.
+enum Progress {
+    /// They give the whole series: the basis is complete.
+    Complete,
+    /// They give the Hilbert function in the degree of the next pairs, which reduce to zero.
+    DegreeComplete,
+    Open,
 }
 
 /// Result of a run before conversion: the reduced basis, or the unit ideal.
@@ -150,10 +218,11 @@ enum Outcome {
     Unit,
 }
 
-struct Engine<'a, F: Field, A: Arith<F>> {
+/// One run of F4: the basis so far, its pairs and the run's statistics.
+struct F4Run<'a, F: Field, A: Arith<F>> {
     ring: &'a Ring<F>,
     arith: A,
-    options: &'a Options,
+    options: &'a F4Options,
     table: MonomialTable,
     basis: Vec<Element<A::C>>,
     pairs: PairSet,
@@ -162,11 +231,16 @@ struct Engine<'a, F: Field, A: Arith<F>> {
     sampler: Option<(Sampling, Rng)>,
     /// Share of the last matrix's new rows that were independent.
     rank_share: Option<f64>,
+    /// Whether every generator is homogeneous (then sugar is the degree, and every step stays
+    /// in one degree whatever the order).
+    homogeneous: bool,
+    /// The Hilbert series of the ideal, when known in advance (see [`compute_driven`]).
+    target: Option<&'a HilbertSeries>,
 }
 
-impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
-    fn new(ring: &'a Ring<F>, arith: A, options: &'a Options) -> Self {
-        Engine {
+impl<'a, F: Field, A: Arith<F>> F4Run<'a, F, A> {
+    fn new(ring: &'a Ring<F>, arith: A, options: &'a F4Options) -> Self {
+        F4Run {
             ring,
             arith,
             options,
@@ -174,53 +248,101 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             basis: Vec::new(),
             pairs: PairSet::default(),
             stats: Stats::default(),
-            sampler: match options.linear_algebra {
-                LinearAlgebra::Exact => None,
-                LinearAlgebra::Sampled(sampling) => Some((
+            sampler: match options.variant {
+                Variant::Sampled(sampling) => Some((
                     sampling,
                     sampling.seed.map_or_else(Rng::from_entropy, Rng::new),
                 )),
+                _ => None,
             },
             rank_share: None,
+            homogeneous: true,
+            target: None,
         }
     }
 
-    fn run(mut self, gens: &[Poly<F>], control: &Control) -> Result<(Vec<Poly<F>>, Stats)> {
-        if self.options.signatures {
-            return signature::compute(self.ring, self.arith, gens, control);
+    fn run(self, gens: &[Poly<F>], control: &Control) -> Result<(Vec<Poly<F>>, Stats)> {
+        match self.options.variant {
+            Variant::Signatures => return signature::compute(self.ring, self.arith, gens, control),
+            Variant::Auto => return auto::compute(self, gens, control),
+            Variant::Exact | Variant::Sampled(_) => {}
         }
-        if let Outcome::Unit = self.main_loop(gens, control)? {
+        self.plain(gens, control)
+    }
+
+    /// Plain F4 from the generators.
+    fn plain(mut self, gens: &[Poly<F>], control: &Control) -> Result<(Vec<Poly<F>>, Stats)> {
+        if let Outcome::Unit = self.import_all(gens) {
+            return Ok((vec![self.ring.one()], self.stats));
+        }
+        self.finish(control)
+    }
+
+    /// Plain F4 going on from the state of the signature engine at a degree fall.
+    fn resume(
+        ring: &'a Ring<F>,
+        arith: A,
+        options: &'a F4Options,
+        fall: Box<signature::Fall<A::C>>,
+    ) -> Self {
+        let fall = *fall;
+        let mut run = F4Run::new(ring, arith, options);
+        run.table = fall.table;
+        run.stats = fall.stats;
+        let mut elements = fall.elements;
+        // Larger leading monomials first, as in the main loop.
+        elements.sort_by(|(a, _), (b, _)| run.table.cmp(b.lead(), a.lead()));
+        for (element, sugar) in elements {
+            run.add_element(element, sugar);
+        }
+        run.pairs.drop_up_to_sugar(fall.complete_degree);
+        run
+    }
+
+    /// Runs the main loop from the current basis and pairs to the reduced basis.
+    fn finish(mut self, control: &Control) -> Result<(Vec<Poly<F>>, Stats)> {
+        if let Outcome::Unit = self.main_loop(control)? {
             return Ok((vec![self.ring.one()], self.stats));
         }
         let polys = self.final_basis(control)?;
         Ok((polys, self.stats))
     }
 
-    fn main_loop(&mut self, gens: &[Poly<F>], control: &Control) -> Result<Outcome> {
+    /// Adds the nonzero generators to the basis (the unit ideal if one is constant).
+    fn import_all(&mut self, gens: &[Poly<F>]) -> Outcome {
+        self.homogeneous = gens.iter().all(Poly::is_homogeneous);
         for f in gens.iter().filter(|f| !f.is_zero()) {
             if f.is_constant() {
-                return Ok(Outcome::Unit);
+                return Outcome::Unit;
             }
             let element = self.import(f);
             self.add_element(element, 0);
         }
+        Outcome::Basis
+    }
+
+    fn main_loop(&mut self, control: &Control) -> Result<Outcome> {
         let degree_order = self.ring.order.is_degree_compatible();
         loop {
             control.check()?;
-            // Pairs of least lcm degree (the normal strategy) under orders that compare degrees
-            // first; of least sugar under the others, where the normal strategy can run far
-            // above the degrees the basis needs (a block order on three variables climbed to
-            // degree 38 and beyond where degree 10 suffices).
             let limit = self.options.max_pairs_per_step;
-            let selected = if degree_order {
-                self.pairs.take_lowest_degree(limit)
-            } else {
-                self.pairs.take_lowest(limit)
+            // Homogeneous input: sugar is the degree, a whole degree at a time in any order.
+            let selection = match self.homogeneous {
+                true => Selection::LeastSugar,
+                false => Selection::for_order(&self.ring.order),
             };
+            let selected = self.pairs.take(selection, &self.ring.order, limit);
             let Some(degree) = selected.iter().map(|p| p.lcm.degree()).max() else {
                 break;
             };
             let sugar = selected.iter().map(|p| p.sugar).max().unwrap_or(0);
+            if let Some(target) = self.target {
+                match self.hilbert_progress(target, sugar, control)? {
+                    Progress::Complete => break,
+                    Progress::DegreeComplete => continue,
+                    Progress::Open => {}
+                }
+            }
             let step = self.stats.steps.len();
             control.check_degree(degree, step)?;
             let mut stats = StepStats {
@@ -234,6 +356,7 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             let divisors = self.divisors(&self.pairs.active_indices());
             let matrix = symbolic::preprocess(
                 control,
+                step,
                 &mut self.table,
                 &self.basis,
                 &divisors,
@@ -243,12 +366,12 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
             stats.seconds_symbolic = clock.elapsed().as_secs_f64();
             (stats.rows, stats.columns, stats.nonzeros) =
                 (matrix.rows(), matrix.columns.len(), matrix.nonzeros());
-            control.check_matrix(stats.rows, stats.columns, step)?;
+            self.stats.reached(matrix.max_degree(&self.table));
 
             let clock = Instant::now();
             // Fully reduced new elements only where that cannot raise degrees (see linalg); for
             // the same reason no sampling under other orders: combinations give dense tails.
-            let back_substitute = degree_order;
+            let back_substitute = degree_order || self.homogeneous;
             let echelon = match &mut self.sampler {
                 Some((sampling, rng)) if degree_order => sampled::reduce_new_rows_sampled(
                     &self.arith,
@@ -287,28 +410,39 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
         Ok(Outcome::Basis)
     }
 
-    /// Both halves u·g of every selected S-polynomial, once each. Per lcm, the first half seen
-    /// is the known pivot of that column; all other halves with the same lcm are new rows.
     fn pair_rows(&mut self, selected: &[Pair]) -> (Vec<Multiple>, Vec<Multiple>) {
-        let mut lcm_seen: HashMap<u32, ()> = HashMap::new();
-        let mut row_seen: HashMap<Multiple, ()> = HashMap::new();
-        let (mut known, mut new) = (Vec::new(), Vec::new());
-        for pair in selected {
-            let lcm = self.table.insert(&pair.lcm);
-            for element in [pair.i, pair.j] {
-                let mult = self.table.div(lcm, self.basis[element].lead());
-                let row = Multiple { mult, element };
-                if row_seen.insert(row, ()).is_some() {
-                    continue;
-                }
-                if lcm_seen.insert(lcm, ()).is_none() {
-                    known.push(row);
-                } else {
-                    new.push(row);
-                }
-            }
+        pair_rows(&mut self.table, &self.basis, selected)
+    }
+
+    /// Where the leading monomials found so far stand against the known Hilbert series, for
+    /// the pairs of degree `degree` (homogeneous input).
+    fn hilbert_progress(
+        &self,
+        target: &HilbertSeries,
+        degree: u32,
+        control: &Control,
+    ) -> Result<Progress> {
+        let leads: Vec<Monomial> = self
+            .pairs
+            .active_indices()
+            .into_iter()
+            .map(|k| self.table.monomial(self.basis[k].lead()).clone())
+            .collect();
+        // A series too large for 128-bit coefficients only loses the shortcut.
+        let series = match monomial_ideal_series(self.ring.nvars(), &leads, false, control) {
+            Err(Error::Overflow(_)) => return Ok(Progress::Open),
+            other => other?,
+        };
+        if series == *target {
+            return Ok(Progress::Complete);
         }
-        (known, new)
+        let count = degree as usize + 1;
+        let value = |s: &HilbertSeries| s.coefficients(count).map(|c| c[degree as usize]);
+        let complete = matches!((value(&series), value(target)), (Ok(a), Ok(b)) if a == b);
+        Ok(match complete {
+            true => Progress::DegreeComplete,
+            false => Progress::Open,
+        })
     }
 
     fn divisors(&self, indices: &[usize]) -> Vec<Divisor> {
@@ -337,12 +471,53 @@ impl<'a, F: Field, A: Arith<F>> Engine<'a, F, A> {
     fn final_basis(&mut self, control: &Control) -> Result<Vec<Poly<F>>> {
         let active = self.pairs.active_indices();
         let (ring, arith) = (self.ring, &self.arith);
-        reduced_basis(ring, arith, &mut self.table, &self.basis, &active, control)
+        let step = self.stats.steps.len();
+        reduced_basis(
+            ring,
+            arith,
+            &mut self.table,
+            &self.basis,
+            &active,
+            step,
+            control,
+        )
     }
 }
 
+/// Both halves u·g of every pair of `selected`, once each. Per lcm, the first half seen is the
+/// known pivot of that column; all other halves with the same lcm are new rows.
+pub(crate) fn pair_rows<C>(
+    table: &mut MonomialTable,
+    basis: &[Element<C>],
+    selected: &[Pair],
+) -> (Vec<Multiple>, Vec<Multiple>) {
+    let mut lcm_seen: HashMap<u32, ()> = HashMap::new();
+    let mut row_seen: HashMap<Multiple, ()> = HashMap::new();
+    let (mut known, mut new) = (Vec::new(), Vec::new());
+    for pair in selected {
+        let lcm = table.insert(&pair.lcm);
+        for element in [pair.i, pair.j] {
+            let mult = table.div(lcm, basis[element].lead());
+            let row = Multiple { mult, element };
+            if row_seen.insert(row, ()).is_some() {
+                continue;
+            }
+            if lcm_seen.insert(lcm, ()).is_none() {
+                known.push(row);
+            } else {
+                new.push(row);
+            }
+        }
+    }
+    (known, new)
+}
+
 /// The elements `indices` as reducers: leading monomial, its mask, index.
-fn divisors_of<C>(table: &MonomialTable, basis: &[Element<C>], indices: &[usize]) -> Vec<Divisor> {
+pub(crate) fn divisors_of<C>(
+    table: &MonomialTable,
+    basis: &[Element<C>],
+    indices: &[usize],
+) -> Vec<Divisor> {
     indices
         .iter()
         .map(|&element| {
@@ -357,7 +532,7 @@ fn divisors_of<C>(table: &MonomialTable, basis: &[Element<C>], indices: &[usize]
 }
 
 /// A nonzero polynomial as a monic element.
-fn import_poly<F: Field, A: Arith<F>>(
+pub(crate) fn import_poly<F: Field, A: Arith<F>>(
     ring: &Ring<F>,
     arith: &A,
     table: &mut MonomialTable,
@@ -398,6 +573,7 @@ fn reduced_basis<F: Field, A: Arith<F>>(
     table: &mut MonomialTable,
     basis: &[Element<A::C>],
     candidates: &[usize],
+    step: usize,
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
     let leads: Vec<&Monomial> = candidates
@@ -414,7 +590,7 @@ fn reduced_basis<F: Field, A: Arith<F>>(
         .map(|&element| Multiple { mult: one, element })
         .collect();
     let divisors = divisors_of(table, basis, &minimal);
-    let matrix = symbolic::preprocess(control, table, basis, &divisors, &known, &[])?;
+    let matrix = symbolic::preprocess(control, step, table, basis, &divisors, &known, &[])?;
     let rows = linalg::reduce_tails(arith, &matrix, known.len(), control)?;
     let mut polys: Vec<Poly<F>> = rows
         .into_iter()

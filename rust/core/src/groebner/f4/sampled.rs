@@ -20,7 +20,7 @@
 //! pivots already found.
 
 use super::arith::{Arith, LANES};
-use super::linalg::{reduce_new_rows, Block, Echelon, NewPivots};
+use super::linalg::{reduce_new_rows, Echelon, LaneBlock, NewPivots};
 use super::parallel::map_items;
 use super::symbolic::{Row, SymbolicMatrix};
 use super::Sampling;
@@ -196,7 +196,7 @@ fn combinations<F: Field, A: Arith<F>>(
         &multipliers,
         2,
         control,
-        || Block::new(arith, width),
+        || LaneBlock::new(arith, width),
         |block, multipliers| {
             control.check()?;
             for (row, m) in matrix.new_rows.iter().zip(multipliers) {

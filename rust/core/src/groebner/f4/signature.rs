@@ -28,7 +28,7 @@
 use super::arith::Arith;
 use super::arith::LANES;
 use super::hash::MonomialTable;
-use super::linalg::{reduce_block, Block, Dense, LaneMask, ALL_LANES};
+use super::linalg::{reduce_block, DenseRow, LaneBlock, LaneMask, ALL_LANES};
 use super::symbolic::{self, Divisor, Element, Multiple, Row};
 use super::{element_of, import_poly, reduced_basis};
 use crate::control::Control;
@@ -98,6 +98,46 @@ pub(super) fn compute<F: Field, A: Arith<F>>(
     gens: &[Poly<F>],
     control: &Control,
 ) -> Result<(Vec<Poly<F>>, Stats)> {
+    match run(ring, arith, gens, control, false)? {
+        SignatureEnd::Finished(polys, stats) => Ok((polys, stats)),
+        SignatureEnd::Fell(..) => unreachable!("the run goes on after a degree fall"),
+    }
+}
+
+/// How a run of the signature engine ended.
+pub(super) enum SignatureEnd<F: Field, A: Arith<F>> {
+    /// The reduced basis.
+    Finished(Vec<Poly<F>>, Stats),
+    /// Stopped after the first step that found an element whose leading monomial has a lower
+    /// degree than the element (a degree fall), with the arithmetic and what was found.
+    Fell(A, Box<Fall<A::C>>),
+}
+
+/// The state of the signature engine at its first degree fall: a Gröbner basis of the
+/// homogenized ideal up to the degree of that step, dehomogenized.
+pub(super) struct Fall<C> {
+    pub table: MonomialTable,
+    /// The elements with their homogeneous degrees (their sugar): the active elements, and the
+    /// input polynomials of higher degree, which no step has reached yet.
+    pub elements: Vec<(Element<C>, u32)>,
+    /// Every S-polynomial of homogeneous degree up to this one has a standard representation
+    /// by `elements`.
+    pub complete_degree: u32,
+    /// Elements of lower degree than their homogeneous degree, and all elements, found by the
+    /// last step.
+    pub fallen: (usize, usize),
+    pub stats: Stats,
+}
+
+/// Runs the signature engine; with `stop_at_fall`, stops after the first step with a degree
+/// fall and hands over its state.
+pub(super) fn run<F: Field, A: Arith<F>>(
+    ring: &Ring<F>,
+    arith: A,
+    gens: &[Poly<F>],
+    control: &Control,
+    stop_at_fall: bool,
+) -> Result<SignatureEnd<F, A>> {
     if !ring.order.is_degree_compatible() {
         return Err(Error::invalid(
             "signature-based F4 needs an order that compares degrees first (grevlex, deglex)",
@@ -114,9 +154,13 @@ pub(super) fn compute<F: Field, A: Arith<F>>(
         syzygies: Vec::new(),
         pending: BTreeMap::new(),
         stats: Stats::default(),
+        stop_at_fall,
+        fallen: (0, 0),
     };
-    if engine.main_loop(gens, control)? {
-        return Ok((vec![ring.one()], engine.stats));
+    match engine.main_loop(gens, control)? {
+        Progress::Unit => return Ok(SignatureEnd::Finished(vec![ring.one()], engine.stats)),
+        Progress::Fell(degree) => return Ok(engine.hand_over(degree)),
+        Progress::Going => {}
     }
     let active: Vec<usize> = (0..engine.basis.len())
         .filter(|&k| engine.labels[k].active)
@@ -127,9 +171,19 @@ pub(super) fn compute<F: Field, A: Arith<F>>(
         &mut engine.table,
         &engine.basis,
         &active,
+        engine.stats.steps.len(),
         control,
     )?;
-    Ok((polys, engine.stats))
+    Ok(SignatureEnd::Finished(polys, engine.stats))
+}
+
+/// What a step or the main loop came to.
+enum Progress {
+    Going,
+    /// A unit was found: the ideal is the whole ring.
+    Unit,
+    /// The step of this degree found a degree fall (and the run stops at falls).
+    Fell(u32),
 }
 
 struct SignatureEngine<'a, F: Field, A: Arith<F>> {
@@ -147,6 +201,11 @@ struct SignatureEngine<'a, F: Field, A: Arith<F>> {
     /// J-pairs by degree, one per signature (position, t).
     pending: BTreeMap<u32, PairQueue>,
     stats: Stats,
+    /// Whether the run stops after the first step with a degree fall.
+    stop_at_fall: bool,
+    /// Elements of lower degree than their homogeneous degree, and all elements, found by the
+    /// step where the run stopped.
+    fallen: (usize, usize),
 }
 
 /// A row of one step's matrix: its signature, and where it comes from.
@@ -159,12 +218,12 @@ struct Slot {
 }
 
 impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
-    /// Runs until no J-pair is left; `true` when the ideal turned out to be the unit ideal.
-    fn main_loop(&mut self, gens: &[Poly<F>], control: &Control) -> Result<bool> {
+    /// Runs until no J-pair is left, or to the first degree fall when the run stops there.
+    fn main_loop(&mut self, gens: &[Poly<F>], control: &Control) -> Result<Progress> {
         let one = self.table.insert(&Monomial::one(self.ring.nvars()));
         for f in gens.iter().filter(|f| !f.is_zero()) {
             if f.is_constant() {
-                return Ok(true);
+                return Ok(Progress::Unit);
             }
             let index = self.input_degrees.len() as u32;
             let degree = f.degree().unwrap_or(0);
@@ -188,15 +247,40 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         }
         while let Some((degree, pairs)) = self.pending.pop_first() {
             control.check()?;
-            if self.step(degree, pairs, control)? {
-                return Ok(true);
+            match self.step(degree, pairs, control)? {
+                Progress::Going => {}
+                end => return Ok(end),
             }
         }
-        Ok(false)
+        Ok(Progress::Going)
     }
 
-    /// One matrix: the J-pairs of degree `degree`; `true` when a unit was found.
-    fn step(&mut self, degree: u32, pairs: PairQueue, control: &Control) -> Result<bool> {
+    /// The state after the complete step of degree `degree`, for plain F4 to go on from.
+    fn hand_over(self, degree: u32) -> SignatureEnd<F, A> {
+        let labels = self.labels;
+        let input_degrees = self.input_degrees;
+        let elements = self
+            .basis
+            .into_iter()
+            .zip(&labels)
+            .filter(|(_, label)| {
+                let index = label.sig.index as usize;
+                label.active || input_degrees[index] > degree
+            })
+            .map(|(element, label)| (element, label.sig.degree))
+            .collect();
+        let fall = Fall {
+            table: self.table,
+            elements,
+            complete_degree: degree,
+            fallen: self.fallen,
+            stats: self.stats,
+        };
+        SignatureEnd::Fell(self.arith, Box::new(fall))
+    }
+
+    /// One matrix: the J-pairs of degree `degree`.
+    fn step(&mut self, degree: u32, pairs: PairQueue, control: &Control) -> Result<Progress> {
         let step = self.stats.steps.len();
         control.check_degree(degree, step)?;
         let mut selected: Vec<(Sig, JPair)> = pairs
@@ -212,12 +296,13 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             .filter(|(sig, pair)| !self.is_syzygy(sig) && !self.is_rewritable(sig, pair.element))
             .collect();
         if selected.is_empty() {
-            return Ok(false);
+            return Ok(Progress::Going);
         }
         selected.sort_by(|a, b| self.cmp_sig(&a.0, &b.0));
         let mut stats = StepStats {
             degree,
             pairs: selected.len(),
+            signatures: true,
             ..Default::default()
         };
 
@@ -238,7 +323,15 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
                 &self.table,
                 degree,
             );
-            symbolic::preprocess_with(control, &mut self.table, &self.basis, &pick, &[], &new)?
+            symbolic::preprocess_with(
+                control,
+                step,
+                &mut self.table,
+                &self.basis,
+                &pick,
+                &[],
+                &new,
+            )?
         };
         let mut slots: Vec<Slot> = selected
             .iter()
@@ -264,11 +357,11 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         stats.seconds_symbolic = clock.elapsed().as_secs_f64();
         (stats.rows, stats.columns, stats.nonzeros) =
             (matrix.rows(), matrix.columns.len(), matrix.nonzeros());
-        control.check_matrix(stats.rows, stats.columns, step)?;
+        self.stats.reached(matrix.max_degree(&self.table));
 
         let clock = Instant::now();
         let mut pivots: Vec<Option<Row<A::C>>> = (0..matrix.columns.len()).map(|_| None).collect();
-        let mut dense = Dense::new(&self.arith, matrix.columns.len());
+        let mut dense = DenseRow::new(&self.arith, matrix.columns.len());
         let mut found: Vec<(Sig, usize)> = Vec::new();
         let lane_work = AtomicU64::new(0);
         let mut started: HashMap<usize, Row<A::C>> = HashMap::new();
@@ -320,6 +413,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         stats.multiply_adds = dense.multiply_adds() + lane_work.load(AtomicOrdering::Relaxed);
 
         let mut added = 0;
+        let mut fallen = 0;
         for (sig, column) in found {
             let lead = matrix.columns[column];
             if self.is_singular(&sig, lead) {
@@ -330,14 +424,19 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
                 .expect("a new element's row is a pivot");
             let element = element_of(&matrix, row);
             if self.table.degree(element.lead()) == 0 {
-                return Ok(true);
+                return Ok(Progress::Unit);
             }
+            fallen += usize::from(self.table.degree(element.lead()) < sig.degree);
             self.add_element(element, sig)?;
             added += 1;
         }
         stats.new_elements = added;
         self.stats.steps.push(stats);
-        Ok(false)
+        if fallen > 0 && self.stop_at_fall {
+            self.fallen = (fallen, added);
+            return Ok(Progress::Fell(degree));
+        }
+        Ok(Progress::Going)
     }
 
     /// The rows to be reduced from slot `first` on (up to one block of lanes: J-pair rows, and
@@ -381,7 +480,7 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             Some(pivot) => Some((pivot, ALL_LANES)),
             None => waiting[k],
         };
-        let mut acc = Block::new(&self.arith, width);
+        let mut acc = LaneBlock::new(&self.arith, width);
         let reduced = reduce_block(&mut acc, &rows, 0, pivot_of, work);
         Ok(block
             .into_iter()

@@ -60,6 +60,14 @@ impl<C> SymbolicMatrix<C> {
     pub fn rows(&self) -> usize {
         self.reducers.len() + self.new_rows.len()
     }
+    /// The highest total degree of a monomial of the matrix.
+    pub fn max_degree(&self, table: &MonomialTable) -> u32 {
+        self.columns
+            .iter()
+            .map(|&m| table.degree(m))
+            .max()
+            .unwrap_or(0)
+    }
     pub fn nonzeros(&self) -> usize {
         self.reducers
             .iter()
@@ -216,9 +224,12 @@ fn find_reducer<C>(
 }
 
 /// Builds the matrix for the `known` rows (distinct leading monomials: they become pivots) and
-/// the `new` rows, adding reducers from `divisors` for every reducible monomial.
+/// the `new` rows, adding reducers from `divisors` for every reducible monomial. The caller's
+/// matrix limit is checked while the matrix grows (`step` names it in the error), so that an
+/// oversized matrix is refused before it is built.
 pub fn preprocess<C: Send + Sync>(
     control: &Control,
+    step: usize,
     table: &mut MonomialTable,
     basis: &[Element<C>],
     divisors: &[Divisor],
@@ -226,12 +237,13 @@ pub fn preprocess<C: Send + Sync>(
     new: &[Multiple],
 ) -> Result<SymbolicMatrix<C>> {
     let pick = |table: &MonomialTable, m: u32| first_divisor(table, divisors, m).copied();
-    preprocess_with(control, table, basis, &pick, known, new)
+    preprocess_with(control, step, table, basis, &pick, known, new)
 }
 
 /// [`preprocess`] with the reducer of each monomial chosen by `pick` (`None`: not reducible).
 pub fn preprocess_with<C: Send + Sync>(
     control: &Control,
+    step: usize,
     table: &mut MonomialTable,
     basis: &[Element<C>],
     pick: &(impl Fn(&MonomialTable, u32) -> Option<Divisor> + Sync),
@@ -259,6 +271,7 @@ pub fn preprocess_with<C: Send + Sync>(
     for (_, monos) in reducers.iter().chain(&new_rows) {
         closure.visit_tail(monos);
     }
+    control.check_matrix(reducers.len() + new_rows.len(), closure.seen.len(), step)?;
     // In rounds: the reducers of a whole round are looked up in parallel in the (then read-only)
     // monomial table; monomials new to the table are added afterwards, in order. The closure does
     // not depend on the order in which monomials are handled, so neither does the matrix.
@@ -284,6 +297,7 @@ pub fn preprocess_with<C: Send + Sync>(
             closure.mark(m, PIVOT);
             closure.visit_tail(&monos);
             reducers.push((mult, monos));
+            control.check_matrix(reducers.len() + new_rows.len(), closure.seen.len(), step)?;
         }
     }
     let Closure {

@@ -130,17 +130,18 @@ proptest! {
         let reference = groebner_basis(&r, &gens, Engine::Buchberger, &bounded);
         prop_assume!(!matches!(reference, Err(Error::ResourceLimit(_))));
         let reference = reference.unwrap().polys;
-        let one_pair = Options { max_pairs_per_step: Some(1), ..Default::default() };
+        let one_pair = F4Options { max_pairs_per_step: Some(1), ..Default::default() };
         // Sampling on every matrix, however small, with no exact fallback: the acceptance rule
         // alone must find the whole row space (failure probability ≤ 2^-80 per matrix).
-        let sampled = Options {
-            linear_algebra: LinearAlgebra::Sampled(sampling_only(seed)),
+        let sampled = F4Options {
+            variant: Variant::Sampled(sampling_only(seed)),
             ..Default::default()
         };
-        let signatures = Options { signatures: true, ..Default::default() };
+        let signatures = F4Options { variant: Variant::Signatures, ..Default::default() };
+        let auto = F4Options { variant: Variant::Auto, ..Default::default() };
         let mut results = vec![
-            ("f4", compute_with(&r, &gens, &bounded, &Options::default())),
-            ("generic kernel", compute_generic(&r, &gens, &bounded, &Options::default())),
+            ("f4", compute_with(&r, &gens, &bounded, &F4Options::default())),
+            ("generic kernel", compute_generic(&r, &gens, &bounded, &F4Options::default())),
             ("one pair per step", compute_with(&r, &gens, &bounded, &one_pair)),
             ("sampled", compute_with(&r, &gens, &bounded, &sampled)),
         ];
@@ -150,6 +151,8 @@ proptest! {
             let higher = Control::new().with_limits(Limits { max_degree: Some(40), ..Default::default() });
             results.push(("signatures", compute_with(&r, &gens, &higher, &signatures)));
             results.push(("signatures, generic kernel", compute_generic(&r, &gens, &higher, &signatures)));
+            results.push(("auto", compute_with(&r, &gens, &higher, &auto)));
+            results.push(("auto, generic kernel", compute_generic(&r, &gens, &higher, &auto)));
         }
         for (name, result) in results {
             prop_assume!(!matches!(result, Err(Error::ResourceLimit(_))));
@@ -183,7 +186,7 @@ fn sampled_linear_algebra_gives_the_exact_basis() {
     for (p, system, count) in cases {
         let r = ring(p, system.vars.len(), MonomialOrder::Grevlex);
         let gens = system_in(&r, &system);
-        let (exact, _) = compute(&r, &gens, &Control::new()).unwrap();
+        let (exact, _) = compute_with(&r, &gens, &Control::new(), &F4Options::default()).unwrap();
         let leads: Vec<Monomial> = exact
             .iter()
             .map(|g| g.leading_monomial().unwrap().clone())
@@ -205,8 +208,8 @@ fn sampled_linear_algebra_gives_the_exact_basis() {
             ),
             (2, sampling_only(2)),
         ] {
-            let options = Options {
-                linear_algebra: LinearAlgebra::Sampled(sampling),
+            let options = F4Options {
+                variant: Variant::Sampled(sampling),
                 ..Default::default()
             };
             let (sampled, stats) = compute_with(&r, &gens, &Control::new(), &options).unwrap();
@@ -353,7 +356,7 @@ fn membership_through_the_basis() {
         .map(|g| parse_poly(&r, g).unwrap())
         .collect();
     let gb = groebner_basis(&r, &gens, Engine::default(), &Control::new()).unwrap();
-    assert_eq!(gb.stats.engine, "f4");
+    assert_eq!(gb.stats.engine, "auto");
     for member in ["x0*x2 - x1^2", "x1^3 - x2^2"] {
         assert!(
             gb.contains(&parse_poly(&r, member).unwrap()).unwrap(),
@@ -450,7 +453,7 @@ fn sugar_selection_keeps_block_orders_at_low_degree() {
         max_degree: Some(10),
         ..Default::default()
     });
-    let (f4, stats) = compute_with(&r, &gens, &bounded, &Options::default()).unwrap();
+    let (f4, stats) = compute_with(&r, &gens, &bounded, &F4Options::default()).unwrap();
     let reference = groebner_basis(&r, &gens, Engine::Buchberger, &bounded).unwrap();
     assert_eq!(f4, reference.polys);
     assert!(stats.max_degree() <= 10);
@@ -490,24 +493,26 @@ fn signature_engine_agrees_with_f4_on_random_systems() {
                 ..Default::default()
             })
         };
-        let Ok((expected, _)) = compute_with(&r, &gens, &bounded(14), &Options::default()) else {
+        let Ok((expected, _)) = compute_with(&r, &gens, &bounded(14), &F4Options::default()) else {
             continue;
         };
-        let signatures = Options {
-            signatures: true,
-            ..Default::default()
-        };
-        match compute_with(&r, &gens, &bounded(20), &signatures) {
-            Ok((basis, _)) => {
-                assert_eq!(basis, expected, "case {case}");
-                compared += 1;
+        for variant in [Variant::Signatures, Variant::Auto] {
+            let options = F4Options {
+                variant,
+                ..Default::default()
+            };
+            match compute_with(&r, &gens, &bounded(20), &options) {
+                Ok((basis, _)) => {
+                    assert_eq!(basis, expected, "case {case}, {variant:?}");
+                    compared += 1;
+                }
+                Err(Error::ResourceLimit(_)) => {}
+                Err(e) => panic!("case {case}, {variant:?}: {e}"),
             }
-            Err(Error::ResourceLimit(_)) => {}
-            Err(e) => panic!("case {case}: {e}"),
         }
     }
-    // 296 of the 400 with this seed; the others need degrees above the bounds.
-    assert!(compared >= 280, "only {compared} systems compared");
+    // 296 of the 400 with this seed for each variant; the others need degrees above the bounds.
+    assert!(compared >= 2 * 280, "only {compared} runs compared");
 }
 
 /// Found by the test above when the rewrite criterion preferred the latest element: a row
@@ -523,8 +528,8 @@ fn signature_engine_keeps_pairs_whose_row_was_dropped() {
     .iter()
     .map(|s| parse_poly(&r, s).unwrap())
     .collect();
-    let signatures = Options {
-        signatures: true,
+    let signatures = F4Options {
+        variant: Variant::Signatures,
         ..Default::default()
     };
     let (basis, _) = compute_with(&r, &gens, &Control::new(), &signatures).unwrap();
@@ -557,4 +562,122 @@ fn signature_engine_on_standard_systems_and_its_order_check() {
     let gens = system_in(&r, &systems::katsura(2));
     let err = groebner_basis(&r, &gens, Engine::F4Signature, &Control::new()).unwrap_err();
     assert!(err.to_string().contains("compares degrees first"), "{err}");
+}
+
+/// The automatic engine on a system of each kind: its choice is recorded, its steps say which
+/// ran with signatures, and its basis is F4's (and, for the zero-dimensional ones, has the
+/// published number of solutions: 156 for cyclic-6 (Björck and Fröberg 1991), 2^6 for
+/// katsura-6 (Bézout's bound, attained), both from memory).
+#[test]
+fn the_automatic_engine_records_its_choice() {
+    let cases = [
+        (
+            systems::katsura(6),
+            "f4-signature: no degree fall",
+            Some(64),
+        ),
+        (systems::cyclic(6), "f4-signature up to degree", Some(156)),
+        (systems::eco(7), "f4: degrees fell at degree", None),
+        (systems::noon(5), "f4-signature up to degree", None),
+        (
+            systems::random_quadratic(6, 8, 3),
+            "f4: more equations than unknowns",
+            None,
+        ),
+    ];
+    for p in [7u64, 65521] {
+        for (s, choice, count) in &cases {
+            let r = ring(p, s.vars.len(), MonomialOrder::Grevlex);
+            let gens = system_in(&r, s);
+            let auto = groebner_basis(&r, &gens, Engine::Auto, &Control::new()).unwrap();
+            assert_eq!(auto.stats.engine, "auto");
+            // Over GF(7) the characteristic can make degrees fall (katsura-6 does): the kinds
+            // are those over GF(65521).
+            if p == 65521 {
+                assert!(
+                    auto.stats.choice.starts_with(choice),
+                    "{}: {}",
+                    s.name,
+                    auto.stats.choice
+                );
+                let with_signatures = auto.stats.steps.iter().filter(|st| st.signatures).count();
+                match *choice {
+                    "f4-signature: no degree fall" => {
+                        assert_eq!(with_signatures, auto.stats.steps.len())
+                    }
+                    "f4-signature up to degree" => {
+                        assert!(0 < with_signatures && with_signatures < auto.stats.steps.len())
+                    }
+                    "f4: degrees fell at degree" => assert!(with_signatures == 0),
+                    _ => assert_eq!(with_signatures, 0),
+                }
+            }
+            assert_eq!(
+                auto.polys,
+                f4(&r, &gens).unwrap(),
+                "{} over GF({p})",
+                s.name
+            );
+            if let (Some(count), 65521) = (count, p) {
+                let leads = auto.leading_monomials();
+                assert_eq!(
+                    standard_monomials(&leads, s.vars.len(), 100_000),
+                    Some(*count)
+                );
+            }
+        }
+    }
+    // Orders that do not compare degrees first: plain F4.
+    let r = ring(101, 3, MonomialOrder::Lex);
+    let gens = system_in(&r, &systems::katsura(2));
+    let auto = groebner_basis(&r, &gens, Engine::Auto, &Control::new()).unwrap();
+    assert_eq!(auto.polys, buchberger(&r, &gens).unwrap());
+}
+
+/// F4 on the packed big-prime kernels (2, 4 and 8 limbs) against F4 through the field's own
+/// operations and the reference engine, on standard and random systems over 2^127 − 1,
+/// 2^255 − 19 and the P-384 prime (from memory, as in the field tests), every variant.
+#[test]
+fn big_prime_kernels_give_the_generic_bases() {
+    use crate::field::BigPrimeField;
+    use num_bigint::BigUint;
+    fn check<const N: usize>(field: BigPrimeField<N>) {
+        let mut rng = crate::rng::Rng::new(N as u64);
+        let mut systems = vec![systems::katsura(4), systems::cyclic(5)];
+        for k in 0..6 {
+            let shape = systems::SparseShape {
+                unknowns: 3,
+                equations: 3,
+                terms: 4,
+                max_exponent: 2,
+            };
+            systems.push(systems::random_sparse(shape, rng.next_u64() + k));
+        }
+        for s in systems {
+            let r = Ring::new(field.clone(), s.vars.clone(), MonomialOrder::Grevlex).unwrap();
+            let gens = s.polys(&r).unwrap();
+            let bounded = Control::new().with_limits(Limits {
+                max_degree: Some(16),
+                ..Default::default()
+            });
+            let Ok(reference) = groebner_basis(&r, &gens, Engine::Buchberger, &bounded) else {
+                continue;
+            };
+            for variant in [Variant::Exact, Variant::Signatures, Variant::Auto] {
+                let options = F4Options {
+                    variant,
+                    ..Default::default()
+                };
+                let (packed, _) = compute_with(&r, &gens, &Control::new(), &options).unwrap();
+                let (generic, _) = compute_generic(&r, &gens, &Control::new(), &options).unwrap();
+                assert_eq!(packed, generic, "{}, {variant:?}", s.name);
+                assert_eq!(packed, reference.polys, "{}, {variant:?}", s.name);
+            }
+        }
+    }
+    let two = |k: u32| BigUint::from(2u8).pow(k);
+    check(BigPrimeField::<2>::new(&(two(127) - 1u32)).unwrap());
+    check(BigPrimeField::<4>::new(&(two(255) - 19u32)).unwrap());
+    let p384 = two(384) - two(128) - two(96) + two(32) - 1u32;
+    check(BigPrimeField::<8>::new(&p384).unwrap());
 }

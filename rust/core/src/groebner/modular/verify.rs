@@ -6,7 +6,9 @@
 //! rather than copied (allocation and the binary gcd dominated before). Head reduction
 //! decides both questions asked: with G a Gröbner basis, f ∈ ⟨G⟩ iff head reduction of f
 //! ends at 0; and G is a Gröbner basis iff every S-polynomial left by the Gebauer–Möller
-//! criteria head-reduces to 0 (Buchberger 1965). Pairs are checked in parallel.
+//! criteria head-reduces to 0 (Buchberger 1965). Pairs are checked in parallel. This exact
+//! reduction is the fallback of the much faster check by identities proved modulo primes
+//! ([`super::identities`]), for the rare basis whose identities need more primes than it tries.
 
 use super::super::pairs::PairSet;
 use super::integer_gcd::gcd;
@@ -134,6 +136,9 @@ pub fn is_groebner_basis_containing(
     gens: &[Poly<RationalField>],
     control: &Control,
 ) -> Result<bool> {
+    if let Some(answer) = super::identities::check(ring, basis, gens, control)? {
+        return Ok(answer);
+    }
     let int_basis: Vec<IntPoly> = basis.iter().map(|g| primitive(ring, g)).collect();
     let mut pairs = PairSet::default();
     for g in basis {
