@@ -156,8 +156,7 @@ class FiniteProjection:
 
     def problems(self) -> list[str]:
         """What is wrong with the certificate, checked from the ideal alone (empty: it holds)."""
-        self.equations
-        return check_certificate(self._certificate, self.system)
+        return check_certificate(self.to_dict(), self.system)
 
     def verify(self) -> bool:
         """Re-checks the whole certificate from the ideal alone, independently of how it was
@@ -224,9 +223,11 @@ def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optio
 
 
 def check_certificate(certificate: dict, system: "System") -> list[str]:
-    """The problems of a saved certificate against ``system`` (empty when it holds): unreadable
+    """The problems of a saved certificate (``FiniteProjection.to_dict()``, with its ``field``
+    and ``variables``) against ``system`` (empty when it holds): missing, unknown or mistyped
     entries, equations that are not monic or not in the ideal, coordinates that do not invert,
-    a wrong dimension. Used by ``fibrewise check CERT.json SYSTEM``."""
+    wrong module generators, rank, dimension, strategy or homogeneity (see the module doc).
+    Used by ``fibrewise check CERT.json SYSTEM``."""
     if not isinstance(certificate, dict):
         return [f"a certificate is a dict, not {type(certificate).__name__}"]
     problems = shape_problems(certificate)
@@ -274,7 +275,8 @@ _ENTRY_TYPES = {
 def shape_problems(certificate: dict) -> list[str]:
     """What is wrong with the shape of a certificate: missing, unknown or mistyped entries (a
     bool is not an int here, although Python counts it as one). Empty when the shape is right."""
-    problems = [f"certificate entry '{k}' is missing" for k in CERTIFICATE_KEYS if k not in certificate]
+    required = ("field", "variables") + CERTIFICATE_KEYS
+    problems = [f"certificate entry '{k}' is missing" for k in required if k not in certificate]
     problems += [f"unknown certificate entry {k!r}" for k in certificate if k not in _ENTRY_TYPES]
     for key, value in certificate.items():
         check = _ENTRY_TYPES.get(key)
