@@ -87,7 +87,7 @@ def test_the_parser_agrees_with_sympy(pair):
     text, expr = pair
     gens = sympy.symbols("x y z")
     ours = sympy.Poly(SPACE.parse(text).to_sympy(), *gens, modulus=P)
-    theirs = sympy.Poly(sympy.expand(expr), *gens, domain=sympy.QQ)
+    theirs = sympy.Poly(sympy.expand(expr), *gens, domain="QQ")  # sympy's name for the rationals
     # sympy reduces a rational coefficient a/b mod p as a * b^-1
     reduced = {m: int(c.p * pow(int(c.q), -1, P)) % P for m, c in theirs.terms()}
     assert {m: int(c) % P for m, c in ours.terms() if int(c) % P} == {m: c for m, c in reduced.items() if c}
