@@ -119,8 +119,7 @@ def _check_plotting() -> None:
     try:
         import matplotlib  # noqa: F401
     except ImportError:
-        raise ValueError("--plot needs the optional package matplotlib: pip install matplotlib "
-                         "(or pip install 'fibrewise[plot]')") from None
+        raise ValueError("--plot needs the optional package matplotlib: pip install matplotlib") from None
 
 
 def _hilbert(system) -> dict:
