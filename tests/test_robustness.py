@@ -65,11 +65,19 @@ def test_a_power_over_the_budget_is_a_resource_limit_naming_what_was_built():
 
 
 def test_the_budget_follows_the_space_into_bases_and_projections():
-    V = fw.Space("GF(32003)", "x0..x7", memory="1MB")
-    S = V.system([f"x{i}^2 + x{(i + 1) % 8}*x{(i + 3) % 8} + {i + 1}" for i in range(8)])
-    with pytest.raises(fw.ResourceLimit, match="memory budget of 976.6 KiB exceeded"):
-        S.basis()
-    assert V.with_order("lex").memory == V.memory == 10**6
+    import random
+
+    rng = random.Random(3)
+    names = [f"x{i}" for i in range(7)]
+    monomials = [f"{a}*{b}" for i, a in enumerate(names) for b in names[i:]] + names + ["1"]
+    dense = [" + ".join(f"{rng.randrange(1, 32003)}*{m}" for m in monomials) for _ in range(7)]
+    # Seven dense quadrics in seven unknowns: 2^7 solutions (Bézout); the largest F4 matrix has
+    # tens of thousands of entries, far over a budget of 100 kB and well within the default.
+    V = fw.Space("GF(32003)", names, memory="100kB")
+    with pytest.raises(fw.ResourceLimit, match="memory budget of 97.7 KiB exceeded: the matrix of F4 step"):
+        V.system(dense).basis()
+    assert V.with_order("lex").memory == V.memory == 10**5
+    assert fw.Space("GF(32003)", names).system(dense).quotient_dimension() == 2**7
 
 
 def test_huge_exponents_raise_instead_of_aborting():
