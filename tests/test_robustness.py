@@ -358,3 +358,23 @@ def test_analyze_skips_what_it_cannot_afford_and_says_so(tmp_path):
     assert "projection" not in result and "points" not in result
     assert set(result["skipped"]) == {"normalize", "points"}
     assert fibrewise("analyze", path, "--skip", "nothing").returncode == 2
+
+
+def test_galois_classes_of_other_moduli_get_a_true_primitive_element():
+    # The galois class of GF(9) on a^2 + 1 (not galois's default modulus) is built with a
+    # primitive element found here (galois's own search took tens of seconds); it must generate
+    # the multiplicative group: its powers are the 8 nonzero elements (brute force).
+    for spec in ("GF(9)", "GF(2^8)", "GF(7^3)"):
+        F = fw.field(spec)
+        GF = F.galois_field()
+        g = GF(GF.primitive_element)
+        powers, x = set(), GF(1)
+        for _ in range(F.size - 1):
+            x = x * g
+            powers.add(int(x))
+        assert powers == set(range(1, F.size)), spec
+        assert F.galois_field() is GF  # built once
+    W = fw.Space("GF(9)", "x, y")
+    M = W.system(["x^2 + a", "y^3 - x"]).multiplication_matrix("x")
+    assert type(M) is W.field.galois_field()
+    assert int((M @ M)[0, 0]) == int(W.field.to_galois(W.parse("-a").terms()[0][1]))  # x^2 = -a
