@@ -218,6 +218,18 @@ def test_every_single_field_change_of_a_certificate_is_rejected(index):
             problems = check_certificate(changed, system)
         except EXPECTED as e:  # an unreadable entry may also be reported by raising
             problems = [str(e)]
-        if not problems:
+        if not problems and not still_true(description, changed, system):
             accepted.append(description)
     assert accepted == [], f"{spec} {equations}: accepted {accepted}"
+
+
+def still_true(description: str, changed: dict, system) -> bool:
+    """Whether a changed equation coefficient left a true claim: any monic polynomial of the
+    same degree in the ideal is a valid equation (x^4 + x^3 when x^3 is in the ideal), so the
+    change is checked here by membership (a normal form modulo the basis), independently."""
+    if not description.startswith("equations["):
+        return False
+    i = int(description.split("[")[1].split("]")[0])
+    variable = system.space.names[i]
+    projection = fw.FiniteProjection.from_dict(changed, system)
+    return projection.equation(variable) in system
