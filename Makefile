@@ -7,7 +7,7 @@ PY     := $(VENV)/bin/python
 STAMP  := $(VENV)/.installed-$(shell sha1sum requirements-dev.txt | cut -c1-12)
 export VIRTUAL_ENV := $(abspath $(VENV))
 
-.PHONY: all build wheel test test-rust test-python demo bench clean
+.PHONY: all build wheel test test-rust test-python fuzz demo bench clean
 
 all: test
 
@@ -31,6 +31,11 @@ test-python: build
 	$(PY) -m pytest
 
 test: test-rust test-python
+
+# The long fuzzing run (about ten minutes): the fuzz tests of the normal suite with many more
+# examples, and every single-field tamper of twenty certificates.
+fuzz: build
+	FIBREWISE_FUZZ=1 $(PY) -m pytest tests/test_fuzz.py -p no:cacheprovider
 
 DEMO_OUT := $(VENV)/demo-results.jsonl
 

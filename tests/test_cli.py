@@ -113,7 +113,7 @@ def test_analyze_four_round_cipher_report():
     assert done.returncode == 0, done.stderr
     lines = done.stdout.splitlines()
     assert lines[0].startswith(f"{path}: dimension 0, degree 81")
-    assert "  points over GF(101)    2 affine" in lines
+    assert "  points                 2 affine over GF(101)" in lines
     result = fibrewise_json("analyze", path)
     assert result["quotient_dimension"] == 81
     assert result["points"]["affine"] == len(cipher_keys(2, 31, [3, 5, 7, 11])) == 2
@@ -124,9 +124,9 @@ def test_analyze_summary_names_the_projection():
     # the curve is finite over a polynomial ring in one parameter, of rank 2 (y^2 monic over
     # k[x]) or 3 (x^3 monic over k[y]) or 3 after a linear change (a general projection of a cubic).
     cipher = fibrewise_json("analyze", EXAMPLES / "toy_cipher_4round_gf101.txt")
-    assert cipher["summary"].startswith("dimension 0, degree 81; finite over k of rank 81 (")
+    assert cipher["summary"].startswith("dimension 0, degree 81; finite over GF(101) of rank 81 (")
     curve = fibrewise_json("analyze", EXAMPLES / "curve_code_gf7.txt")
-    assert curve["summary"].startswith("dimension 1, degree 3; finite over k[")
+    assert curve["summary"].startswith("dimension 1, degree 3; finite over GF(7)[")
     assert curve["projection"]["rank"] in (2, 3)
 
 

@@ -48,7 +48,7 @@ def read_jobs(path: str) -> list[dict]:
     first bad line."""
     jobs: list[dict] = []
     first_line: dict[str, int] = {}
-    handle = open(path, encoding="utf-8")
+    handle = open(path, encoding="utf-8-sig")  # a byte-order mark some editors write is accepted
     try:
         for number, raw in enumerate(handle, 1):
             if not raw.strip():
@@ -78,35 +78,69 @@ def read_jobs(path: str) -> list[dict]:
 
 
 def finished_ids(path: str) -> set[str]:
-    """Ids already in a result file. A damaged tail (torn last line, NUL bytes after a power loss)
-    is cut off; a damaged line followed by good ones is an error, since cutting would lose results."""
+    """Ids already in a result file; a torn last line left by an interrupted run is cut off
+    (see ``read_results``)."""
+    return {_id_key(record["id"]) for record, _ in read_results(path)}
+
+
+#: Every result line starts so (``record_line`` writes the id first): a last line without its
+#: newline that is a prefix of this, or starts with it, is one the batch itself left torn.
+RESULT_LINE_START = b'{"id":'
+
+
+def read_results(path: str) -> list[tuple[dict, bytes]]:
+    """The result records of an output file with their lines, in file order.
+
+    Only a line the batch itself can have left torn is cut off (and reported): the last line,
+    without its newline, that starts like a result line (a write cut short by a crash), possibly
+    followed by NUL bytes (a power loss). Any other line that is not a result line, complete JSON
+    or not, is a ``BatchInputError`` naming the line, and the file is left as it was: the output
+    may be some other file given by mistake."""
     if not os.path.exists(path):
-        return set()
-    ids: set[str] = set()
-    good_end, offset, damaged_line = 0, 0, None
+        return []
+    records: list[tuple[dict, bytes]] = []
+    torn_line = torn_offset = None
+    offset = 0
     with open(path, "rb") as handle:
         for number, raw in enumerate(handle, 1):
-            offset += len(raw)
+            start, offset = offset, offset + len(raw)
             record = _parse_record(raw)
-            if record is None and raw.endswith(b"\n") and not raw.strip():
-                if damaged_line is None:
-                    good_end = offset
+            if record is not None:
+                records.append((record, raw))
+            elif raw.endswith(b"\n") and not raw.strip():
                 continue
-            if record is None:
-                damaged_line = damaged_line or number
-                continue
-            if damaged_line is not None:
-                raise BatchInputError(f"{path}:{damaged_line}: damaged result line before good ones; "
+            elif not raw.endswith(b"\n") and _torn(raw):
+                torn_line, torn_offset = number, start
+            elif _is_later_good(handle):
+                raise BatchInputError(f"{path}:{number}: damaged result line before good ones; "
                                       "remove or fix it, then rerun")
-            ids.add(_id_key(record["id"]))
-            good_end = offset
-    if good_end < offset:
+            else:
+                raise BatchInputError(f"{path}:{number}: not a result line ({_snippet(raw)}); the file is "
+                                      "left as it is: is it the right output file? Fix or remove that line, "
+                                      "or write to another file")
+    if torn_line is not None:
         with open(path, "r+b") as handle:
-            handle.truncate(good_end)
+            handle.truncate(torn_offset)
             os.fsync(handle.fileno())
-        print(f"fibrewise batch: {path}:{damaged_line}: dropped a torn last line left by an "
+        print(f"fibrewise batch: {path}:{torn_line}: dropped a torn last line left by an "
               "interrupted run; that job runs again", file=sys.stderr)
-    return ids
+    return records
+
+
+def _torn(raw: bytes) -> bool:
+    """Whether a last line without its newline is a result line cut short (and NUL bytes)."""
+    text = raw.rstrip(b"\0")
+    return text.startswith(RESULT_LINE_START) or RESULT_LINE_START.startswith(text)
+
+
+def _is_later_good(handle) -> bool:
+    """Whether a result line follows in the rest of ``handle`` (consumed)."""
+    return any(_parse_record(raw) is not None for raw in handle)
+
+
+def _snippet(raw: bytes, width: int = 60) -> str:
+    text = raw.decode("utf-8", "replace").rstrip("\n")
+    return repr(text if len(text) <= width else text[:width] + "...")
 
 
 def _parse_record(raw: bytes) -> dict | None:
@@ -169,6 +203,20 @@ class ResultFile:
             self.dirty = True
             self.cond.notify()
 
+    def rewritten(self, lines: list[bytes]) -> "ResultFile":
+        """The result file with exactly ``lines``, replaced as a whole (a new file renamed over
+        the old one, so that a crash leaves one or the other), still locked against other runs."""
+        temporary = f"{self.path}.rewrite-{os.getpid()}"
+        with open(temporary, "wb") as handle:
+            handle.writelines(lines)
+            handle.flush()
+            os.fsync(handle.fileno())
+        os.replace(temporary, self.path)
+        _fsync_directory(self.path)
+        replacement = ResultFile(self.path)
+        self.close()
+        return replacement
+
     def _sync_loop(self) -> None:
         while True:
             with self.cond:
@@ -215,21 +263,51 @@ QUEUED_LINE_LIMIT = 16 << 10
 
 def serve() -> None:
     """A worker's life (``python -c WORKER_CODE MEMORY_BYTES``): limit its data memory (heap and
-    anonymous mappings: RLIMIT_DATA), then read one job a line on stdin and answer one line on
-    stdout, the job's status, a tab and its result line, until stdin closes."""
+    anonymous mappings: RLIMIT_DATA) and give its computations a memory budget below that limit
+    (so that a big allocation ends in a ResourceLimit error line rather than in the worker's
+    death), then read one job a line on stdin and answer on stdout:
+    a line ``task<TAB>[name, value]`` for each task as it finishes, then the job's status, a tab
+    and its result line, until stdin closes."""
     import resource
 
+    _die_with_parent()
     memory_bytes = int(sys.argv[1]) if len(sys.argv) > 1 else 0
     if memory_bytes:
         resource.setrlimit(resource.RLIMIT_DATA, (memory_bytes, memory_bytes))
+    budget = int(sys.argv[2]) if len(sys.argv) > 2 and int(sys.argv[2]) else None
     replies = os.fdopen(os.dup(1), "wb")
     os.dup2(2, 1)  # stray output, from Python or native code, must not break the protocol
     sys.stdout = sys.stderr
     threading.Thread(target=_exit_with_parent, args=(os.getppid(),), daemon=True).start()
+
+    def task_done(name: str, value: Any) -> None:
+        replies.write(PARTIAL + b"\t" + json.dumps([name, value], ensure_ascii=False).encode("utf-8") + b"\n")
+        replies.flush()
+
     for line in sys.stdin:
-        record = run_job(json.loads(line))
+        record = run_job(json.loads(line), task_done, budget)
         replies.write(record["status"].encode("ascii") + b"\t" + record_line(record))
         replies.flush()
+
+
+#: The worker's word for "one task of the running job finished" (not a job status).
+PARTIAL = b"task"
+
+
+def _die_with_parent() -> None:
+    """Asks Linux to kill this worker the moment its parent dies (PR_SET_PDEATHSIG), which needs
+    no thread of ours to run: a worker deep in native code, or holding the GIL, still dies at
+    once with its batch. Elsewhere the polling thread of ``_exit_with_parent`` does it."""
+    if not sys.platform.startswith("linux"):
+        return
+    try:
+        import ctypes
+
+        libc = ctypes.CDLL(None, use_errno=True)
+        PR_SET_PDEATHSIG = 1
+        libc.prctl(PR_SET_PDEATHSIG, signal.SIGKILL, 0, 0, 0)
+    except (OSError, AttributeError):
+        pass
 
 
 def _exit_with_parent(parent: int) -> None:
@@ -246,9 +324,11 @@ class Sandbox:
     at the terminal reaches only the parent, which decides what stops."""
 
     memory_bytes: int | None = None
+    budget: int | None = None  # the memory budget of the worker's computations
     jobs: deque = field(default_factory=deque)
     timeout: float | None = None
     deadline: float | None = None  # of the running job
+    finished_tasks: dict = field(default_factory=dict)  # of the running job, by task name
     process: Any = field(default=None, repr=False)
     errors: Any = field(default=None, repr=False)
     unread: bytearray = field(default_factory=bytearray, repr=False)
@@ -262,7 +342,7 @@ class Sandbox:
         env = dict(os.environ, RAYON_NUM_THREADS="1", OPENBLAS_NUM_THREADS="1", OMP_NUM_THREADS="1",
                    RUST_BACKTRACE="0")
         self.process = subprocess.Popen(
-            [sys.executable, "-c", WORKER_CODE, str(self.memory_bytes or 0)],
+            [sys.executable, "-c", WORKER_CODE, str(self.memory_bytes or 0), str(self.budget or 0)],
             stdin=subprocess.PIPE, stdout=subprocess.PIPE, stderr=self.errors, env=env,
             start_new_session=True)
         self.unread = bytearray()
@@ -304,19 +384,37 @@ class Sandbox:
         data = os.read(self.fileno(), 1 << 20)
         if not data:
             job, _ = self.jobs.popleft()
-            record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None}
+            record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None,
+                      **self._tasks_so_far()}
             self.restart()
             return [Finished.of(record)]
         self.unread += data
         finished, start = [], 0
         while (end := self.unread.find(b"\n", start) + 1):
             tab = self.unread.index(b"\t", start)
-            self.jobs.popleft()
-            finished.append(Finished(self.unread[start:tab].decode("ascii"), bytes(self.unread[tab + 1:end])))
+            kind = bytes(self.unread[start:tab])
+            if kind == PARTIAL:
+                name, value = json.loads(self.unread[tab + 1:end])
+                self.finished_tasks[name] = value
+            else:
+                self.jobs.popleft()
+                self.finished_tasks = {}
+                finished.append(Finished(kind.decode("ascii"), bytes(self.unread[tab + 1:end])))
             start = end
+        del self.unread[:start]
         if finished:
-            del self.unread[:start]
             self._start_clock()
+        return finished
+
+    def _read_available(self) -> list[Finished]:
+        """What the worker has already written (finished tasks, finished jobs), without waiting."""
+        from multiprocessing.connection import wait
+
+        finished = []
+        while self.process.poll() is None and wait([self], timeout=0):
+            finished += self.read()
+            if not self.jobs:
+                break
         return finished
 
     def _death_message(self) -> str:
@@ -340,13 +438,23 @@ class Sandbox:
         useful = [l for l in lines if not l.startswith("note: run with")]
         return useful[-1] if useful else ""
 
-    def time_out(self) -> Finished:
-        """The running job's timeout line; the worker is replaced."""
+    def _tasks_so_far(self) -> dict:
+        """``{"result": ...}`` with the tasks the running job finished, if any, and forgets them."""
+        tasks, self.finished_tasks = self.finished_tasks, {}
+        return {"result": tasks} if tasks else {}
+
+    def time_out(self) -> list[Finished]:
+        """The lines of the jobs finished just in time, and the running job's timeout line with
+        the tasks it finished; the worker is replaced."""
+        finished = self._read_available()
+        if finished and (self.deadline is None or self.deadline > time.monotonic()):
+            return finished  # the running job answered in time; the next one has its own clock
         job, _ = self.jobs.popleft()
         record = {"id": job["id"], "status": "timeout",
-                  "error": f"over the time limit of {self.timeout:g} s", "seconds": self.timeout}
+                  "error": f"over the time limit of {self.timeout:g} s", "seconds": self.timeout,
+                  **self._tasks_so_far()}
         self.restart()
-        return Finished.of(record)
+        return finished + [Finished.of(record)]
 
     def restart(self) -> None:
         self.kill()
@@ -378,6 +486,24 @@ class Sandbox:
                 pass
 
 
+#: The share of a worker's memory limit its computations may use (the rest is the interpreter's
+#: and the job's own small allocations, which the budget does not count).
+BUDGET_SHARE = 0.8
+#: The share of the machine's memory all workers together may use when no limit is given.
+MACHINE_SHARE = 0.75
+
+
+def worker_budget(memory_bytes: int | None, workers: int) -> int | None:
+    """The memory budget of one worker's computations: most of its limit, or without a limit
+    its share of three quarters of the machine, so that workers together never exhaust it."""
+    if memory_bytes:
+        return int(memory_bytes * BUDGET_SHARE)
+    from .memory import machine_memory
+
+    total = machine_memory()
+    return None if total is None else int(total * MACHINE_SHARE / max(1, workers))
+
+
 def job_line(job: dict) -> bytes:
     """A job as the line a worker reads."""
     return json.dumps(job).encode("utf-8") + b"\n"
@@ -391,7 +517,9 @@ def run_local(jobs: list[dict], workers: int, timeout: float | None,
     if not jobs:
         return
     pending = deque((job, job_line(job)) for job in jobs)
-    pool = [Sandbox(memory_bytes).start() for _ in range(max(1, min(workers, len(jobs))))]
+    count = max(1, min(workers, len(jobs)))
+    budget = worker_budget(memory_bytes, count)
+    pool = [Sandbox(memory_bytes, budget).start() for _ in range(count)]
     try:
         while True:
             # A job for every idle worker first, then one more behind each running one.
@@ -410,7 +538,7 @@ def run_local(jobs: list[dict], workers: int, timeout: float | None,
             now = time.monotonic()
             for sandbox in busy:
                 if sandbox.jobs and sandbox.deadline is not None and sandbox.deadline <= now:
-                    yield sandbox.time_out()
+                    yield from sandbox.time_out()
     finally:
         for sandbox in pool:
             if sandbox.jobs:
@@ -433,14 +561,14 @@ def run_in_sandbox(job: dict, timeout: float | None, memory_bytes: int | None) -
     if sandbox is None or sandbox.memory_bytes != memory_bytes or sandbox.process.poll() is not None:
         if sandbox is not None:
             sandbox.kill()
-        sandbox = _local_sandbox.sandbox = Sandbox(memory_bytes).start()
+        sandbox = _local_sandbox.sandbox = Sandbox(memory_bytes, worker_budget(memory_bytes, 1)).start()
     from multiprocessing.connection import wait
 
     sandbox.submit(job, timeout)
     while True:
         left = None if sandbox.deadline is None else max(0.0, sandbox.deadline - time.monotonic())
         if not wait([sandbox], timeout=left):
-            return _as_record(sandbox.time_out())
+            return _as_record(sandbox.time_out()[-1])
         finished = sandbox.read()
         if finished:
             return _as_record(finished[0])
@@ -503,6 +631,7 @@ class BatchSummary:
     ok: int = 0
     error: int = 0
     timeout: int = 0
+    retried: int = 0  # error and timeout lines replaced (--retry-failed)
     lost: int = 0  # by the cluster; not written, so they run again on resume
     seconds: float = 0.0
     interrupted: str | None = None  # the signal that stopped the run
@@ -516,25 +645,38 @@ class _Stop(BaseException):
 
 
 def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
-              timeout: float | None = None, memory_mb: int | None = None,
-              scheduler: str | None = None, quiet: bool = False) -> BatchSummary:
+              timeout: float | None = None, memory_mb: int | None = None, memory_bytes: int | None = None,
+              scheduler: str | None = None, quiet: bool = False, retry_failed: bool = False) -> BatchSummary:
     """Runs every job of ``input_path`` not yet in ``output_path`` and appends its record there.
+    With ``retry_failed``, jobs whose line says error or timeout run again too, and their new
+    line replaces the old one (one line per id).
 
-    Raises ``BatchInputError`` (before any work) for a bad input or a damaged output file.
+    Raises ``BatchInputError`` (before any work) for a bad input or a damaged output file, and
+    for an output file that is the input file.
     On Ctrl-C or SIGTERM, stops at once: running jobs get no line and run again on resume.
     """
     from .progress import Progress
 
+    if _same_file(input_path, output_path):
+        raise BatchInputError(f"{output_path}: the output file is the input file {input_path}; "
+                              "results go to another file (-o)")
     jobs = read_jobs(input_path)
     output = ResultFile(output_path)
     try:
-        done = finished_ids(output_path)
+        results = read_results(output_path)
+        # only jobs of this input: a failed line of another job is not ours to drop
+        retried = _failed_ids(results) & {_id_key(job["id"]) for job in jobs} if retry_failed else set()
+        if retried:
+            output = output.rewritten([line for record, line in results
+                                       if _id_key(record["id"]) not in retried])
     except BatchInputError:
         output.close()
         raise
+    done = {_id_key(record["id"]) for record, _ in results} - retried
     todo = [job for job in jobs if _id_key(job["id"]) not in done]
-    summary = BatchSummary(total=len(jobs), skipped=len(jobs) - len(todo))
-    memory_bytes = memory_mb << 20 if memory_mb else None
+    summary = BatchSummary(total=len(jobs), skipped=len(jobs) - len(todo),
+                           retried=sum(_id_key(job["id"]) in retried for job in jobs))
+    memory_bytes = memory_bytes or (memory_mb << 20 if memory_mb else None)
     start = time.monotonic()
     progress = Progress(len(todo), quiet=quiet)
     previous = _on_sigterm()
@@ -567,6 +709,21 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
             signal.signal(signal.SIGTERM, previous)
         summary.seconds = round(time.monotonic() - start, 3)
     return summary
+
+
+def _same_file(a: str, b: str) -> bool:
+    """Whether two paths name one file (through links too); for an output that does not exist
+    yet, whether they resolve to the same path."""
+    try:
+        return os.path.samefile(a, b)
+    except OSError:
+        return os.path.realpath(a) == os.path.realpath(b)
+
+
+def _failed_ids(results: list[tuple[dict, bytes]]) -> set[str]:
+    """Ids whose (last) line says error or timeout."""
+    last = {_id_key(record["id"]): record["status"] for record, _ in results}
+    return {key for key, status in last.items() if status in ("error", "timeout")}
 
 
 def _on_sigterm():

@@ -18,12 +18,16 @@ from typing import Any, Callable, Sequence
 EXIT_OK, EXIT_FAILED, EXIT_BAD_INPUT, EXIT_INTERRUPTED = 0, 1, 2, 130
 # An analyze run counts points itself only when the count is small: at most about this many.
 CHEAP_POINTS = 20_000
+# ... and for zero-dimensional systems in several variables, only when R/I is this small.
+CHEAP_QUOTIENT = 500
+# The stages of analyze that --skip can leave out.
+ANALYZE_STAGES = ("dimension", "hilbert", "normalize", "points")
 
 
 def _system(args: argparse.Namespace):
     from .systems import System
 
-    return System.read(args.file)
+    return System.read(args.file, memory=args.memory)
 
 
 def _timed(call: Callable[[], Any]) -> tuple[Any, float]:
@@ -56,12 +60,18 @@ def _basis(args: argparse.Namespace, activity) -> dict:
 
 
 def _analyze(args: argparse.Namespace, activity) -> dict:
+    if args.plot:
+        _check_plotting()
     system = _system(args)
     result: dict[str, Any] = _header(system)
     failed: dict[str, str] = {}
+    skipped: dict[str, str] = {stage: "--skip" for stage in args.skip}
 
-    def part(name: str, step: str, call: Callable[[], Any]) -> Any:
-        """One piece of the analysis; a piece that fails is noted, the rest goes on."""
+    def part(name: str, step: str, call: Callable[[], Any], stage: str | None = None) -> Any:
+        """One piece of the analysis; a piece that fails is noted, the rest goes on; a piece
+        of a skipped stage is not run."""
+        if (stage or name) in skipped:
+            return None
         activity.set_step(step)
         try:
             value, result[f"seconds_{name}"] = _timed(call)
@@ -77,16 +87,22 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
     dim = part("dimension", "dimension", system.dimension)
     if dim is not None and dim >= 0:
         part("independent_variables", "independent variables",
-             lambda: [str(v) for v in system.independent_variables()])
-        part("degree", "degree", system.degree)
+             lambda: [str(v) for v in system.independent_variables()], stage="dimension")
+        part("degree", "degree", system.degree, stage="hilbert")
         part("hilbert", "Hilbert series", lambda: _hilbert(system))
         if dim == 0:
-            part("quotient_dimension", "quotient dimension", system.quotient_dimension)
-        part("projection", "finite projection", lambda: _projection_summary(system))
-        points = _cheap_points(system, args, result)
-        if points is not None:
-            part("points", "points", points)
+            part("quotient_dimension", "quotient dimension", system.quotient_dimension, stage="hilbert")
+        part("projection", "finite projection", lambda: _projection_summary(system), stage="normalize")
+        if "points" in skipped:
+            result["points_skipped"] = "--skip points"
+        else:
+            points = _cheap_points(system, args, result)
+            if points is not None:
+                part("points", "points", points)
+            else:
+                skipped["points"] = result["points_skipped"]
     result["failed"] = failed
+    result["skipped"] = skipped
     result["summary"] = _summary(result)
     result["stats"] = gb.stats.to_dict()
     if args.plot:
@@ -96,6 +112,14 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
         draw_analysis(args.plot, result)
         result["plot"] = args.plot
     return result
+
+
+def _check_plotting() -> None:
+    """--plot needs matplotlib: say so before any work, as a usage error."""
+    try:
+        import matplotlib  # noqa: F401
+    except ImportError:
+        raise ValueError("--plot needs the optional package matplotlib: pip install matplotlib") from None
 
 
 def _hilbert(system) -> dict:
@@ -112,8 +136,9 @@ def _json_number(c) -> int | str:
 
 
 def _projection_summary(system) -> dict:
-    cert = system.projection().to_dict()
-    return {key: cert[key] for key in ("dimension", "parameters", "rank", "strategy")}
+    """The projection without its equations (computed lazily, so never here): about one basis."""
+    cert = system.projection().summary()
+    return {key: cert[key] for key in ("field", "dimension", "parameters", "rank", "strategy")}
 
 
 def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
@@ -125,15 +150,23 @@ def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
         return None
     dim, degree = result.get("dimension"), result.get("degree")
     homogeneous = all(g.is_homogeneous() for g in system.equations)
+    if args.points is False:
+        result["points_skipped"] = "--no-points"
+        return None
     if args.points is None and dim != 0:
         bound = None if degree is None else degree * q ** dim
         if bound is None or bound > CHEAP_POINTS:
             result["points_skipped"] = f"up to {bound} points; run 'fibrewise points' to count them" \
                 if bound is not None else "no degree to bound the count; run 'fibrewise points'"
             return None
-    if args.points is False:
-        result["points_skipped"] = "--no-points"
-        return None
+    if args.points is None and dim == 0 and len(system.space.names) > 1:
+        # The count works in R/I, a space of dimension deg I: beyond a few hundred that can be
+        # minutes (shape-position systems are fast, but that is not known beforehand).
+        size = result.get("quotient_dimension", degree)
+        if size is None or size > CHEAP_QUOTIENT:
+            result["points_skipped"] = (f"the quotient ring has dimension {size}, above {CHEAP_QUOTIENT}; "
+                                        "run 'fibrewise points' (or analyze --points) to count them")
+            return None
 
     def count() -> dict:
         counts = {"affine": system.count_points()}
@@ -160,7 +193,7 @@ def _summary(result: dict) -> str:
     if norm is not None:
         from .report import finite_over
 
-        text += "; " + finite_over(norm)
+        text += "; " + finite_over(norm, result.get("field"))
     return text
 
 
@@ -171,7 +204,7 @@ def _summary(result: dict) -> str:
 def _normalize(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
     activity.set_step("finite projection")
-    nn, seconds = _timed(lambda: system.projection(strategy=args.strategy, seed=args.seed))
+    nn, seconds = _timed(lambda: system.projection(strategy=args.strategy, seed=args.seed, equations="now"))
     result = {**_header(system), "certificate": nn.to_dict(), "seconds": seconds}
     if not args.no_verify:
         activity.set_step("verifying the certificate")
@@ -224,6 +257,8 @@ def _check(args: argparse.Namespace, activity) -> dict:
     saved = _read_json(args.certificate)
     if not isinstance(saved, dict):
         raise ValueError(f"{args.certificate}: a certificate is a JSON object, not {type(saved).__name__}")
+    if isinstance(saved.get("certificate"), dict) and "dimension" not in saved:
+        saved = saved["certificate"]  # the output of 'fibrewise normalize --json' as it is
     certificate = {key: value for key, value in saved.items() if key != "system"}  # "system": where it came from
     from .normalization import check_certificate
 
@@ -247,8 +282,13 @@ def verdict(outcome: Any) -> tuple[bool, list[str]]:
 
 
 def _read_json(path: str) -> Any:
-    with open(path, encoding="utf-8") as handle:
-        text = handle.read()
+    with open(path, "rb") as handle:
+        data = handle.read()
+    try:
+        text = data.decode("utf-8-sig")
+    except UnicodeDecodeError as e:
+        line = data.count(b"\n", 0, e.start) + 1
+        raise ValueError(f"{path}:{line}: not UTF-8 text (byte 0x{data[e.start]:02x} at offset {e.start})") from None
     try:
         return json.loads(text)
     except json.JSONDecodeError as e:
@@ -263,7 +303,8 @@ def _batch(args: argparse.Namespace, activity) -> dict:
     from .batch import run_batch
 
     summary = run_batch(args.file, args.output, workers=args.workers, timeout=args.timeout,
-                        memory_mb=args.memory, scheduler=args.scheduler, quiet=args.quiet)
+                        memory_bytes=args.memory, scheduler=args.scheduler, quiet=args.quiet,
+                        retry_failed=args.retry_failed)
     return {"input": args.file, "output": args.output, **summary.to_dict()}
 
 
@@ -283,7 +324,7 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
     "integral": ("is an element integral over a subalgebra, and its monic equation",
                  "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
     "points": ("number of points with coordinates in the (finite) field",
-               "example: fibrewise points examples/curve_code_gf7.txt --projective", _points),
+               "example: fibrewise points examples/curve_code_gf7_projective.txt --projective", _points),
     "check": ("verify a saved projection certificate against the system file",
               "example: fibrewise check cert.json examples/curve_code_gf7.txt", _check),
     "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
@@ -304,6 +345,29 @@ def _positive(kind: type) -> Callable[[str], Any]:
     return parse
 
 
+def _memory(text: str) -> int:
+    from .memory import parse_memory
+
+    try:
+        return parse_memory(int(text) if text.isdigit() else text)
+    except ValueError as e:
+        raise argparse.ArgumentTypeError(str(e)) from None
+
+
+def _worker_memory(text: str) -> int:
+    """A worker's memory: a size, or a plain number of MiB (as this option always read)."""
+    return _memory(str(int(text) << 20) if text.strip().isdigit() else text)
+
+
+def _stages(text: str) -> tuple[str, ...]:
+    stages = tuple(s.strip() for s in text.split(",") if s.strip())
+    unknown = [s for s in stages if s not in ANALYZE_STAGES]
+    if unknown or not stages:
+        raise argparse.ArgumentTypeError(f"unknown stage {unknown[0]!r}: expected {', '.join(ANALYZE_STAGES)}"
+                                         if unknown else "expected stage names")
+    return stages
+
+
 def _add_options(name: str, p: argparse.ArgumentParser) -> None:
     from . import _native
     from .jobs import TASK_NAMES
@@ -315,11 +379,19 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
                        help="results, one line a job; ids already there are skipped (resume)")
         p.add_argument("--workers", type=_positive(int), metavar="N", help="worker processes (default: all cores)")
         p.add_argument("--timeout", type=_positive(float), metavar="S", help="time limit per job, in seconds")
-        p.add_argument("--memory", type=_positive(int), metavar="MB", help="memory limit per worker, in MiB")
+        p.add_argument("--memory", type=_worker_memory, metavar="SIZE",
+                       help="memory limit per worker: 4GB, 512MiB, 25%% of the machine, or a number of MiB "
+                            "(default: 3/4 of the machine's memory shared by the workers)")
         p.add_argument("--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)")
+        p.add_argument("--retry-failed", action="store_true",
+                       help="run again the jobs whose line says error or timeout, replacing their line")
         return
+    p.add_argument("--memory", type=_memory, metavar="SIZE",
+                   help="memory budget of the computation: 4GB, 512MiB, 50%% of the machine "
+                        "(default: 3/4 of the machine's memory); going over it is an error naming what was being built")
     if name == "check":
-        p.add_argument("certificate", metavar="CERT.json", help="a certificate saved by 'fibrewise normalize -o'")
+        p.add_argument("certificate", metavar="CERT.json",
+                       help="a certificate saved by 'fibrewise normalize -o', or the output of 'normalize --json'")
         p.add_argument("file", metavar="SYSTEM", help=FILE_HELP)
         return
     p.add_argument("file", help=FILE_HELP)
@@ -330,7 +402,10 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
                             "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
                             "only; skips most rows that reduce to zero) or buchberger (the reference)")
     elif name == "analyze":
-        p.add_argument("--plot", metavar="FILE.png", help="draw degree and matrix size per Groebner step and the Hilbert function")
+        p.add_argument("--plot", metavar="FILE.png", help="draw degree and matrix size per Groebner step and the Hilbert "
+                       "function (needs matplotlib)")
+        p.add_argument("--skip", type=_stages, default=(), metavar="STAGE,...",
+                       help="stages to leave out: " + ", ".join(ANALYZE_STAGES) + " (e.g. --skip normalize,points)")
         group = p.add_mutually_exclusive_group()
         group.add_argument("--points", dest="points", action="store_const", const=True, default=None,
                            help="count the points even when the count may be large")

@@ -50,17 +50,25 @@ class Field:
         return self._native.degree
 
     @property
+    def generator(self) -> Optional[str]:
+        """The name of the generator of GF(p^k) in polynomial texts (``a`` unless chosen with
+        ``field(..., generator=)``); None for prime fields and Q."""
+        return self._native.generator
+
+    @property
     def modulus(self) -> Optional[str]:
-        """The modulus of GF(p^k) as text in ``a`` (``a^8 + a^4 + a^3 + a + 1``); None otherwise."""
+        """The modulus of GF(p^k) as text in the generator (``a^8 + a^4 + a^3 + a + 1``); None
+        otherwise."""
         coeffs = _native.field_modulus(self._native)
         if coeffs is None:
             return None
+        a = self.generator
         terms = []
         for i in reversed(range(len(coeffs))):
             c = coeffs[i]
             if c == 0:
                 continue
-            power = "" if i == 0 else "a" if i == 1 else f"a^{i}"
+            power = "" if i == 0 else a if i == 1 else f"{a}^{i}"
             terms.append(str(c) if i == 0 else power if c == 1 else f"{c}*{power}")
         return " + ".join(terms)
 
@@ -73,7 +81,13 @@ class Field:
         return self.characteristic == other.characteristic and self.degree % other.degree == 0
 
     def galois_field(self) -> Any:
-        """The same field as a ``galois.GF`` class (same modulus); ValueError for Q."""
+        """The same field as a ``galois.GF`` class (same modulus); ValueError for Q.
+
+        Built once per field, on first use. For GF(p^k) the class is made without
+        just-in-time compilation (galois's ``"python-calculate"`` mode): building a compiled
+        class for a modulus other than galois's own default takes tens of seconds, far more than
+        any conversion here needs. Arithmetic on large arrays is faster after
+        ``F.galois_field().compile("auto")``."""
         if self._galois is None:
             import galois
 
@@ -85,8 +99,28 @@ class Field:
             else:
                 p = self.characteristic
                 code = sum(c * p**i for i, c in enumerate(coeffs))
-                self._galois = galois.GF(self.size, irreducible_poly=code)
+                # galois would search a primitive element itself, which is what takes the time.
+                self._galois = galois.GF(self.size, irreducible_poly=code, verify=False,
+                                         primitive_element=self._primitive_element(),
+                                         compile="python-calculate")
         return self._galois
+
+    def _primitive_element(self) -> Optional[int]:
+        """A generator of the multiplicative group of GF(q) (integer representation), found
+        by the order test g^((q-1)/r) != 1 for every prime r dividing q - 1; None when q - 1 is
+        too large to factor by trial division (galois then searches one itself)."""
+        q = self.size
+        if q is None or q - 1 >= 2**40:
+            return None
+        from .spaces import Polynomial, Space
+
+        primes = _prime_factors(q - 1)
+        space = Space(self, ["u" if self.generator != "u" else "v"])
+        for g in range(self.characteristic, q):
+            c = Polynomial(space, space._native.constant(g))
+            if all((c ** ((q - 1) // r)).terms() != [((0,), 1)] for r in primes):
+                return g
+        return None
 
     def to_galois(self, values: Union[int, Iterable[int]]) -> Any:
         """A galois FieldArray from ints (residues for GF(p), integer representations for GF(p^k))."""
@@ -125,6 +159,20 @@ class Field:
         return hash(self._native.spec)
 
 
+def _prime_factors(n: int) -> list[int]:
+    """The prime divisors of n, by trial division (n < 2^40: at most about a million steps)."""
+    primes, d = [], 2
+    while d * d <= n:
+        if n % d == 0:
+            primes.append(d)
+            while n % d == 0:
+                n //= d
+        d += 1 if d == 2 else 2
+    if n > 1:
+        primes.append(n)
+    return primes
+
+
 _GF = re.compile(r"GF\((\d+)(?:\^(\d+))?\)")
 
 
@@ -145,18 +193,25 @@ def _is_galois_class(spec: object) -> bool:
     )
 
 
-def field(spec: FieldSpec, modulus: Optional[str] = None) -> Field:
+def field(spec: FieldSpec, modulus: Optional[str] = None, generator: str = "a") -> Field:
     """The field named by ``spec`` (see the module doc), or a ``Field`` as it is. ``modulus``
-    (text in ``a``) picks the modulus of GF(p^k).
+    (text in the generator) picks the modulus of GF(p^k); ``generator`` names the generator of
+    GF(p^k), a root of the modulus, in every polynomial text (``a`` by default): with
+    ``field("GF(9)", generator="w")``, ``Space(F, "x, y").parse("w*x + 1")`` reads, and such a
+    field prints (and reads back) as ``GF(3)[w]/(w^2 + 1)``.
 
-    Raises ``ValueError`` for a composite number, a reducible modulus or an unknown spec,
-    naming what is wrong, and ``TypeError`` for a spec or modulus of the wrong type.
+    Raises ``ValueError`` for a composite number, a reducible modulus, an unknown spec, or a
+    modulus or generator name for a field without a generator (GF(p), Q), naming what is wrong,
+    and ``TypeError`` for a spec, modulus or generator of the wrong type.
     """
     if modulus is not None and not isinstance(modulus, str):
-        raise TypeError(f"modulus must be a str (a polynomial in a), not {type(modulus).__name__}")
+        raise TypeError(f"modulus must be a str (a polynomial in {generator}), not {type(modulus).__name__}")
+    if not isinstance(generator, str):
+        raise TypeError(f"generator must be a str (a name such as 'a'), not {type(generator).__name__}")
     if isinstance(spec, Field) or _is_galois_class(spec):
-        if modulus is not None:
-            raise ValueError(f"{spec} already has its modulus: pass the field spec text with modulus=")
+        if modulus is not None or generator != "a":
+            raise ValueError(f"{spec} already has its modulus and generator: pass the field spec text "
+                             "with modulus= and generator=")
         if isinstance(spec, Field):
             return spec
         coeffs = [int(c) for c in spec.irreducible_poly.coeffs[::-1]]
@@ -165,4 +220,4 @@ def field(spec: FieldSpec, modulus: Optional[str] = None) -> Field:
         raise TypeError(
             f"a field spec is an int, a str, a galois.GF class or a Field, not {type(spec).__name__}"
         )
-    return Field(_native.NativeField(str(int(spec)) if isinstance(spec, Integral) else spec, modulus))
+    return Field(_native.NativeField(str(int(spec)) if isinstance(spec, Integral) else spec, modulus, generator))

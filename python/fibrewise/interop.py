@@ -2,7 +2,7 @@
 
 sympy is optional: it is imported only by ``Polynomial.to_sympy`` and ``Space.from_sympy``.
 Variables map to sympy symbols of the same names (assumptions on the symbols are ignored);
-over GF(p^k) the generator is the symbol ``a``.
+over GF(p^k) the generator is the symbol of its name (``a`` unless the field names it otherwise).
 """
 
 from __future__ import annotations
@@ -37,7 +37,7 @@ def polynomial_to_sympy(f: "Polynomial") -> Any:
     space = f.space
     symbols = [sympy.Symbol(n) for n in space.names]
     k, p = space.field.degree, space.field.characteristic
-    generator = sympy.Symbol("a")
+    generator = sympy.Symbol(space.field.generator or "a")
 
     def coefficient(c: Any) -> Any:
         if isinstance(c, Fraction):
@@ -59,7 +59,7 @@ def polynomial_from_sympy(space: "Space", expr: Any) -> "Polynomial":
         expr = expr.as_expr()
     if not isinstance(expr, sympy.Basic):
         raise TypeError(f"from_sympy takes a sympy expression or Poly, not {type(expr).__name__}")
-    allowed = list(space.names) + (["a"] if space.field.degree > 1 else [])
+    allowed = list(space.names) + ([space.field.generator] if space.field.degree > 1 else [])
     free = sorted(expr.free_symbols, key=lambda s: s.name)
     unknown = [s.name for s in free if s.name not in allowed]
     if unknown:

@@ -14,7 +14,7 @@ from typing import Any, Callable
 
 from .names import expand_names
 
-TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis")
+TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "projection", "normalize", "points", "basis")
 DEFAULT_TASKS = ("dimension",)
 JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order")
 
@@ -75,6 +75,20 @@ def _points(system) -> int:
     return system.count_points()
 
 
+def _projection(system) -> dict | None:
+    """The projection without its monic equations (``FiniteProjection.summary()``): dimension,
+    parameters, coordinates, rank, module generators, strategy, at about the cost of one basis;
+    ``None`` for a system without solutions, as for ``normalize``."""
+    if _no_solutions(system):
+        return None
+    return system.projection().summary()
+
+
+def _no_solutions(system) -> bool:
+    basis = system.basis()
+    return len(basis) == 1 and basis[0].degree() == 0
+
+
 def _normalize(system) -> dict | None:
     """The certificate; ``None`` for a system without solutions (the unit ideal, dimension -1),
     which has nothing to normalize, so that its other tasks still get their answers.
@@ -84,10 +98,9 @@ def _normalize(system) -> dict | None:
     Finiteness itself is proved by the pure powers in the leading ideal of the basis that the
     equations come from; the batch does not re-check the certificate (``fibrewise check``
     does, from the ideal alone) and does not claim that it did."""
-    basis = system.basis()
-    if len(basis) == 1 and basis[0].degree() == 0:
+    if _no_solutions(system):
         return None
-    return system.projection().to_dict()
+    return system.projection(equations="now").to_dict()
 
 
 TASKS: dict[str, Callable[[Any], Any]] = {
@@ -95,19 +108,29 @@ TASKS: dict[str, Callable[[Any], Any]] = {
     "independent_variables": lambda S: [str(v) for v in S.independent_variables()],
     "degree": lambda S: S.degree(),
     "hilbert": _hilbert,
+    "projection": _projection,
     "normalize": _normalize,
     "points": _points,
     "basis": lambda S: [str(g) for g in S.basis()],
 }
 
 
-def compute_tasks(job: dict) -> dict:
-    """The results of a checked job's tasks, by task name; raises on bad input."""
+def compute_tasks(job: dict, on_task: Callable[[str, Any], None] | None = None,
+                  memory: int | None = None) -> dict:
+    """The results of a checked job's tasks, by task name; raises on bad input. ``on_task(name,
+    value)`` hears of each task as it finishes (a batch worker passes them on at once, so that a
+    job killed at its time limit keeps the tasks it finished). ``memory``: the memory budget in
+    bytes of every computation of the job (None: the default)."""
     from .spaces import Space
 
-    space = Space(job["field"], job["variables"], order=job["order"])
+    space = Space(job["field"], job["variables"], order=job["order"], memory=memory)
     system = space.system(_polynomials(space, job["polynomials"]))
-    return {task: TASKS[task](system) for task in job["tasks"]}
+    results = {}
+    for task in job["tasks"]:
+        results[task] = TASKS[task](system)
+        if on_task is not None:
+            on_task(task, results[task])
+    return results
 
 
 def _polynomials(space, texts: list[str]) -> list:
@@ -120,12 +143,12 @@ def _polynomials(space, texts: list[str]) -> list:
     return polys
 
 
-def run_job(job: dict) -> dict:
+def run_job(job: dict, on_task: Callable[[str, Any], None] | None = None, memory: int | None = None) -> dict:
     """One result record for a checked job; errors become status ``"error"`` with a message."""
     start = time.perf_counter()
     record: dict[str, Any] = {"id": job["id"]}
     try:
-        record["status"], record["result"] = "ok", compute_tasks(job)
+        record["status"], record["result"] = "ok", compute_tasks(job, on_task, memory)
     except MemoryError:
         record["status"], record["error"] = "error", "out of memory"
     except Exception as e:  # noqa: BLE001 - a failing job is reported, the batch goes on

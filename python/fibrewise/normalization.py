@@ -3,15 +3,27 @@ over subalgebras.
 
 ``System.projection()`` returns a :class:`FiniteProjection`: parameters p1..pd (d = dim R/I)
 such that k[p1..pd] -> R/I is injective and R/I is a finite module over it, with a monic
-equation over k[p] for every variable. ``verify()`` re-checks the certificate from the ideal
-alone; ``to_dict()`` / :func:`check_certificate` save and re-check it.
+equation over k[p] for every variable. The equations can cost far more than everything else
+and most callers never read them: by default (``equations="lazy"``) they are computed on first
+use of ``.equations`` (or ``to_dict()``, ``verify()``, ``equation()``), from the basis that
+proved finiteness; ``equations="now"`` computes them at once. ``verify()`` re-checks the
+certificate from the ideal alone; ``to_dict()`` / :func:`check_certificate` save and re-check it.
+
+What the check covers: every claim of a certificate is checked from the ideal alone, never
+trusted from the certificate: its shape (every entry present, of its type, no unknown entry),
+the dimension, that coordinates and inverse compose to the identity, that each equation is
+monic in its variable with coefficients in the parameters and lies in the ideal, that the
+module generators span R/I over k[p], the rank, the strategy's kind and the homogeneity flag.
+Degrees are bounded by what the system allows before anything is expanded, so a crafted
+certificate is rejected at once rather than exhausting the machine.
 """
 
 from __future__ import annotations
 
 import re
 from functools import cached_property
-from typing import TYPE_CHECKING, Optional, Sequence
+from numbers import Integral
+from typing import TYPE_CHECKING, Literal, Optional, Sequence, get_args
 
 from . import _native
 from .names import STRATEGY_NAMES, Strategy, check_name
@@ -21,6 +33,9 @@ if TYPE_CHECKING:
     from .systems import System
 
 _IDENTIFIER = re.compile(r"[A-Za-z_][A-Za-z0-9_]*")
+
+#: When a projection's monic equations are computed: on first use, or at once.
+EquationsWhen = Literal["lazy", "now"]
 
 #: Keys of ``FiniteProjection.to_dict()`` (besides ``field`` and ``variables``).
 CERTIFICATE_KEYS = (
@@ -69,17 +84,34 @@ class FiniteProjection:
     "linear" or "nonlinear") and ``homogeneous``.
     """
 
-    def __init__(self, system: "System", certificate: dict):
+    def __init__(self, system: "System", certificate: dict, native: Optional[object] = None):
         self.system = system
         self._certificate = {k: certificate[k] for k in CERTIFICATE_KEYS}
+        # The native projection computes the equations on first use; None once they are here.
+        self._native = native
+        if native is None:
+            self._certificate["equations"] = [list(e) for e in certificate["equations"]]
         self.dimension: int = certificate["dimension"]
         self.parameter_symbols: list[str] = list(certificate["parameter_symbols"])
         self.coordinate_symbols: list[str] = list(certificate["coordinate_symbols"])
         self.inverse: list[str] = list(certificate["inverse"])
-        self.equations: list[list[str]] = [list(e) for e in certificate["equations"]]
         self.rank: int = certificate["rank"]
         self.strategy: str = certificate["strategy"]
         self.homogeneous: bool = certificate["homogeneous"]
+
+    @property
+    def equations(self) -> list[list[str]]:
+        """For every variable, the coefficient texts [1, c_{m-1}, ..., c_0] of its monic
+        equation over k[t]; computed on first use when the projection was made lazily."""
+        if self._native is not None:
+            self._certificate["equations"] = [list(e) for e in self._native.equations()]
+            self._native = None
+        return self._certificate["equations"]
+
+    @property
+    def has_equations(self) -> bool:
+        """Whether the equations are computed already (reading them never fails, but may take long)."""
+        return self._native is None
 
     # The polynomials are read from their texts on first use: a batch job only saves the texts.
 
@@ -108,14 +140,23 @@ class FiniteProjection:
         return projection
 
     def to_dict(self) -> dict:
-        """The certificate as plain JSON-ready data (texts, ints, bools)."""
+        """The certificate as plain JSON-ready data (texts, ints, bools), equations included
+        (computed now if they were not yet)."""
+        self.equations
         d = {"field": str(self.system.space.field), "variables": list(self.system.space.names)}
         d.update(self._certificate)
         return d
 
+    def summary(self) -> dict:
+        """Every entry of :meth:`to_dict` but the equations: what a projection costs about one
+        basis to find (the equations are not computed for it)."""
+        d = {"field": str(self.system.space.field), "variables": list(self.system.space.names)}
+        d.update((k, v) for k, v in self._certificate.items() if k != "equations")
+        return d
+
     def problems(self) -> list[str]:
         """What is wrong with the certificate, checked from the ideal alone (empty: it holds)."""
-        return check_certificate(self._certificate, self.system)
+        return check_certificate(self.to_dict(), self.system)
 
     def verify(self) -> bool:
         """Re-checks the whole certificate from the ideal alone, independently of how it was
@@ -153,11 +194,17 @@ class FiniteProjection:
         return f"FiniteProjection(dimension={self.dimension}, parameters=[{params}], rank={self.rank}, strategy={self.strategy!r})"
 
 
-def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optional[int] = None) -> FiniteProjection:
+def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optional[int] = None,
+                      equations: EquationsWhen = "lazy") -> FiniteProjection:
     """A finite projection of ``system``: the simplest kind of change that works (``strategy``
     "auto"), or only "variables", "linear" or "nonlinear". ``seed`` fixes every random choice.
+    ``equations``: "lazy" (computed on first use of ``.equations``) or "now".
     A system without solutions (the unit ideal) raises ``ValueError``."""
     check_name("strategy", strategy, STRATEGY_NAMES)
+    if not isinstance(equations, str):
+        raise TypeError(f"equations must be 'lazy' or 'now', not {type(equations).__name__}")
+    if equations not in get_args(EquationsWhen):
+        raise ValueError(f"equations must be 'lazy' or 'now', got {equations!r}")
     if seed is not None and (not isinstance(seed, int) or isinstance(seed, bool)):
         raise TypeError(f"seed must be an int, not {type(seed).__name__}")
     if seed is not None and seed < 0:
@@ -165,21 +212,28 @@ def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optio
     space = system.space
     # The search starts from the grevlex basis: hand over the one already computed, if any.
     grevlex = system._cached_basis("grevlex")
-    certificate = _native.finite_projection(
+    summary, native = _native.finite_projection_lazy(
         space._native, [g._native for g in system.equations], strategy=strategy, seed=(seed or 0) % 2**64,
         grevlex_basis=None if grevlex is None else [g._native for g in grevlex],
     )
-    return FiniteProjection(system, certificate)
+    projection = FiniteProjection(system, summary, native)
+    if equations == "now":
+        projection.equations
+    return projection
 
 
 def check_certificate(certificate: dict, system: "System") -> list[str]:
-    """The problems of a saved certificate against ``system`` (empty when it holds): unreadable
+    """The problems of a saved certificate (``FiniteProjection.to_dict()``, with its ``field``
+    and ``variables``) against ``system`` (empty when it holds): missing, unknown or mistyped
     entries, equations that are not monic or not in the ideal, coordinates that do not invert,
-    a wrong dimension. Used by ``fibrewise check CERT.json SYSTEM``."""
+    wrong module generators, rank, dimension, strategy or homogeneity (see the module doc).
+    Used by ``fibrewise check CERT.json SYSTEM``."""
     if not isinstance(certificate, dict):
         return [f"a certificate is a dict, not {type(certificate).__name__}"]
+    problems = shape_problems(certificate)
+    if problems:
+        return problems
     space = system.space
-    problems = []
     if "field" in certificate and str(certificate["field"]) != str(space.field):
         problems.append(f"the certificate is over {certificate['field']}, the system over {space.field}")
     if "variables" in certificate and list(certificate["variables"]) != list(space.names):
@@ -190,6 +244,52 @@ def check_certificate(certificate: dict, system: "System") -> list[str]:
         return _native.check_certificate(space._native, [g._native for g in system.equations], certificate)
     except ValueError as e:
         return [str(e)]
+
+
+def _is_int(v: object) -> bool:
+    return isinstance(v, Integral) and not isinstance(v, bool)
+
+
+def _is_texts(v: object) -> bool:
+    return isinstance(v, list) and all(isinstance(x, str) for x in v)
+
+
+#: The type every certificate entry must have, with its description for messages.
+_ENTRY_TYPES = {
+    "dimension": (_is_int, "an int"),
+    "parameters": (_is_texts, "a list of polynomial texts"),
+    "parameter_symbols": (_is_texts, "a list of names"),
+    "coordinates": (_is_texts, "a list of polynomial texts"),
+    "coordinate_symbols": (_is_texts, "a list of names"),
+    "inverse": (_is_texts, "a list of polynomial texts"),
+    "equations": (lambda v: isinstance(v, list) and all(_is_texts(e) for e in v), "a list of lists of texts"),
+    "module_generators": (_is_texts, "a list of polynomial texts"),
+    "rank": (_is_int, "an int"),
+    "strategy": (lambda v: v in ("variables", "linear", "nonlinear"), "one of variables, linear, nonlinear"),
+    "homogeneous": (lambda v: isinstance(v, bool), "true or false"),
+    "field": (lambda v: isinstance(v, str), "a field spec text"),
+    "variables": (_is_texts, "a list of names"),
+}
+
+
+def shape_problems(certificate: dict) -> list[str]:
+    """What is wrong with the shape of a certificate: missing, unknown or mistyped entries (a
+    bool is not an int here, although Python counts it as one). Empty when the shape is right."""
+    required = ("field", "variables") + CERTIFICATE_KEYS
+    problems = [f"certificate entry '{k}' is missing" for k in required if k not in certificate]
+    problems += [f"unknown certificate entry {k!r}" for k in certificate if k not in _ENTRY_TYPES]
+    for key, value in certificate.items():
+        check = _ENTRY_TYPES.get(key)
+        if check is not None and not check[0](value):
+            problems.append(f"certificate entry '{key}' must be {check[1]}, not {json_type(value)}")
+    return problems
+
+
+def json_type(value: object) -> str:
+    """The JSON name of a value's type, as a certificate's reader sees it."""
+    names = {bool: "a boolean", int: "a number", float: "a number", str: "a string", list: "a list",
+             dict: "an object", type(None): "null"}
+    return names.get(type(value), type(value).__name__)
 
 
 class IntegralEquation:
@@ -234,6 +334,8 @@ class IntegralEquation:
 def _over(system: "System", over: Sequence[Coercible]) -> list[Polynomial]:
     if isinstance(over, (str, Polynomial)):
         over = [over]
+    if not isinstance(over, (list, tuple)):
+        raise TypeError(f"over must be a list of polynomials (or texts), not {type(over).__name__}")
     return [system.space.polynomial(g) for g in over]
 
 

@@ -67,10 +67,12 @@ def hilbert_series_text(series: dict) -> str:
     return f"({numerator}) / {denominator}"
 
 
-def finite_over(norm: dict) -> str:
-    """``finite over k[x + y, z] of rank 6 (linear change)``."""
+def finite_over(norm: dict, field: str | None = None) -> str:
+    """``finite over GF(7)[x + y, z] of rank 6 (linear change)``: the base ring is written with
+    the field's name (``k`` only when none is known), so that a variable named k reads right."""
     params = norm.get("parameters") or []
-    base = f"k[{', '.join(map(str, params))}]" if params else "k"
+    k = field or norm.get("field") or "k"
+    base = f"{k}[{', '.join(map(str, params))}]" if params else k
     how = STRATEGY_WORDS.get(norm.get("strategy"), norm.get("strategy"))
     return f"finite over {base} of rank {norm['rank']} ({how})"
 
@@ -110,12 +112,18 @@ def render_analyze(result: dict) -> str:
                  ("Hilbert polynomial", polynomial_in(series["polynomial"], "s")),
                  ("regularity index", series["regularity_index"])]
     if result.get("projection"):
-        rows.append(("projection", finite_over(result["projection"])))
-    rows.append((f"points over {result['field']}", _points_text(result)))
+        rows.append(("projection", finite_over(result["projection"], result["field"])))
+    points = _points_text(result)
+    if result.get("points") is not None:
+        points += f" over {result['field']}"
+    rows.append(("points", points))
     basis = result["basis"]
     rows.append(("Groebner basis", f"{plural(basis['size'], 'polynomial')}, highest degree reached "
                                    f"{basis['max_degree']}, {seconds(result.get('seconds_basis'))}"))
     rows += _failed_parts(result)
+    skipped = {stage: why for stage, why in (result.get("skipped") or {}).items() if stage != "points"}
+    if skipped:
+        rows.append(("skipped", "\n".join(f"{stage}: {why}" for stage, why in skipped.items())))
     if result.get("plot"):
         rows.append(("plot", result["plot"]))
     return f"{result['file']}: {result['summary']}\n{aligned(rows)}"
@@ -138,7 +146,8 @@ def render_basis(result: dict) -> str:
     head = (f"reduced Groebner basis: {plural(n, 'polynomial')} over {result['field']} in "
             f"{', '.join(result['variables'])} ({result['order']})")
     body = "\n".join(f"  {g}" for g in result["basis"])
-    tail = aligned([("time", seconds(result["seconds"])), ("engine", stats["engine"]),
+    engine = stats["engine"] + (f" ({stats['choice']})" if stats.get("choice") else "")
+    tail = aligned([("time", seconds(result["seconds"])), ("engine", engine),
                     ("highest degree", stats["max_degree"]), ("zero reductions", stats["zero_reductions"])])
     return "\n".join(part for part in (head, body, tail) if part)
 
@@ -146,7 +155,7 @@ def render_basis(result: dict) -> str:
 def render_normalize(result: dict) -> str:
     cert = result["certificate"]
     symbols = cert.get("parameter_symbols") or []
-    head = f"{result['file']}: dimension {cert['dimension']}; {finite_over(cert)}"
+    head = f"{result['file']}: dimension {cert['dimension']}; {finite_over(cert, result['field'])}"
     rows = _header_rows(result) + [
         ("parameters", "\n".join(f"{t} = {p}" for t, p in zip(symbols, cert["parameters"])) or "(none)"),
         ("coordinates", _coordinates_text(cert)),
@@ -203,7 +212,8 @@ def _equation_text(x: str, coefficients: list[str]) -> str:
 
 
 def render_integral(result: dict) -> str:
-    base = f"k[{', '.join(result['over'])}]" if result["over"] else "k"
+    k = result["field"]
+    base = f"{k}[{', '.join(result['over'])}]" if result["over"] else k
     if result["integral"]:
         head = f"{result['element']} is integral over {base}, degree {result['degree']}"
         rows = [("equation", result["equation"])]
@@ -233,6 +243,7 @@ def render_batch(result: dict) -> str:
     if result["interrupted"]:
         head += f", interrupted by {result['interrupted']} (rerun the same command to resume)"
     rows = [("ok", result["ok"]), ("error", result["error"]), ("timeout", result["timeout"]),
+            ("retried", f"{result['retried']} (error and timeout lines replaced)" if result.get("retried") else None),
             ("skipped", f"{result['skipped']} (already in {result['output']})"),
             ("lost", f"{result['lost']} (by the cluster; rerun the same command to run them)" if result.get("lost") else None),
             ("total in input", result["total"]), ("time", seconds(result["seconds"]))]

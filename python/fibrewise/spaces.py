@@ -16,6 +16,7 @@ from typing import TYPE_CHECKING, Any, Iterable, Mapping, Sequence, Union
 
 from . import _native
 from .fields import Field, FieldSpec, field
+from .memory import Memory, parse_memory
 from .names import Variables, expand_names
 from .orders import Order, native_order
 
@@ -31,22 +32,35 @@ class Space:
 
     ``Space("GF(7)", "x, y, z", order="grevlex")``. Polynomials move freely between spaces that
     differ only in the order.
+
+    ``memory="4GB"`` (or ``"512MiB"``, ``"50%"`` of the machine, or a number of bytes; see
+    ``fibrewise.memory``) is the memory budget of every computation in this space: its
+    polynomials' products, powers and substitutions, and the bases, invariants, projections and
+    checks of its systems. A computation that would go over it ends in ``fibrewise.ResourceLimit``
+    naming what it was building. The default is three quarters of the machine's memory.
     """
 
-    def __init__(self, field_spec: FieldSpec, variables: Variables, order: Order = "grevlex"):
+    def __init__(self, field_spec: FieldSpec, variables: Variables, order: Order = "grevlex", *,
+                 memory: Memory = None):
         self.field: Field = field(field_spec)
         self.names: tuple[str, ...] = tuple(expand_names(variables))
         self.order: Order = order
-        self._native = _native.NativeSpace(self.field._native, list(self.names), native_order(order, self.names))
+        self.memory: int | None = parse_memory(memory)
+        self._native = _native.NativeSpace(self.field._native, list(self.names), native_order(order, self.names),
+                                           memory=self.memory)
 
     def with_order(self, order: Order) -> "Space":
         """The same space with another monomial order."""
         if order == self.order:
             return self
         other = Space.__new__(Space)
-        other.field, other.names, other.order = self.field, self.names, order
+        other.field, other.names, other.order, other.memory = self.field, self.names, order, self.memory
         other._native = self._native.with_order(native_order(order, self.names))
         return other
+
+    def with_memory(self, memory: Memory) -> "Space":
+        """The same space with another memory budget (see the class doc)."""
+        return Space(self.field, self.names, self.order, memory=memory)
 
     @cached_property
     def variables(self) -> tuple["Polynomial", ...]:

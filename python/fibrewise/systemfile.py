@@ -11,7 +11,7 @@ from __future__ import annotations
 import re
 from typing import Iterable
 
-from ._native import ParseError
+from ._native import ParseError, ResourceLimit
 from .fields import field
 from .spaces import Space
 from .systems import System
@@ -28,13 +28,27 @@ class SystemFileError(ParseError):
         self.path, self.line, self.column, self.message = path, line, column, message
 
 
-def read_system_file(path: str) -> System:
-    """Reads a system file; raises ``SystemFileError`` (a ``ValueError``) or ``OSError``."""
-    with open(path, encoding="utf-8") as handle:
-        return parse_system_text(handle, path)
+def read_system_file(path: str, memory=None) -> System:
+    """Reads a system file; raises ``SystemFileError`` (a ``ValueError``) or ``OSError``.
+    ``memory``: the budget of the system's space (see ``Space``)."""
+    with open(path, "rb") as handle:
+        data = handle.read()
+    return parse_system_text(_text_of(data, path).splitlines(), path, memory=memory)
 
 
-def parse_system_text(lines: Iterable[str], path: str = "<text>") -> System:
+def _text_of(data: bytes, path: str) -> str:
+    """The file's text (UTF-8, a byte-order mark accepted); an error naming the file, line and
+    column of the first byte that is not UTF-8."""
+    try:
+        return data.decode("utf-8-sig")
+    except UnicodeDecodeError as e:
+        line = data.count(b"\n", 0, e.start) + 1
+        column = e.start - (data.rfind(b"\n", 0, e.start) + 1) + 1
+        raise SystemFileError(path, line, column, f"not UTF-8 text (byte 0x{data[e.start]:02x}); "
+                              "save the file as UTF-8") from None
+
+
+def parse_system_text(lines: Iterable[str], path: str = "<text>", memory=None) -> System:
     headers: dict[str, tuple[str, int, int]] = {}
     polys: list[tuple[str, int, int]] = []
     for number, raw in enumerate(lines, 1):
@@ -54,7 +68,7 @@ def parse_system_text(lines: Iterable[str], path: str = "<text>") -> System:
     for key in ("field", "variables"):
         if key not in headers:
             raise SystemFileError(path, 1, 1, f"missing header '{key}:'")
-    space = _make_space(headers, path)
+    space = _make_space(headers, path, memory)
     equations = []
     for text, number, col in polys:
         try:
@@ -64,6 +78,8 @@ def parse_system_text(lines: Iterable[str], path: str = "<text>") -> System:
             raise SystemFileError(path, number + e.line - 1, col + e.column - 1, e.message) from None
         except ValueError as e:
             raise SystemFileError(path, number, col, str(e)) from None
+        except ResourceLimit as e:
+            raise ResourceLimit(f"{path}:{number}: {e}") from None
     system = System(space, equations)
     system.path = path
     return system
@@ -79,7 +95,7 @@ def _header(text: str, path: str, number: int) -> tuple[str, str, int]:
     return m.group(1), value.strip(), col
 
 
-def _make_space(headers: dict[str, tuple[str, int, int]], path: str) -> Space:
+def _make_space(headers: dict[str, tuple[str, int, int]], path: str, memory=None) -> Space:
     field_spec, field_line, field_col = headers["field"]
     names, var_line, var_col = headers["variables"]
     order, order_line, order_col = headers.get("order", ("grevlex", 0, 0))
@@ -88,7 +104,7 @@ def _make_space(headers: dict[str, tuple[str, int, int]], path: str) -> Space:
     except ValueError as e:
         raise SystemFileError(path, field_line, field_col, str(e)) from None
     try:
-        return Space(f, names, order=order)
+        return Space(f, names, order=order, memory=memory)
     except ValueError as e:
         line, col = (order_line, order_col) if "order" in str(e) else (var_line, var_col)
         raise SystemFileError(path, line, col, str(e)) from None

@@ -19,8 +19,9 @@ from .spaces import Coercible, Polynomial, Space
 if TYPE_CHECKING:
     import numpy
     from .fields import FieldSpec
+    from .memory import Memory
     from .invariants import HilbertSeries
-    from .normalization import FiniteProjection, IntegralEquation
+    from .normalization import EquationsWhen, FiniteProjection, IntegralEquation
 
 
 @dataclass(frozen=True)
@@ -39,22 +40,26 @@ class StepStats:
 
 @dataclass(frozen=True)
 class GroebnerStats:
-    """What the engine did. ``max_degree`` is the highest degree reached (the solving degree)."""
+    """What the engine did. ``max_degree`` is the highest degree reached (the solving degree).
+    ``choice`` says what the automatic engine (``engine="auto"``) chose and why; empty for the
+    other engines."""
 
     engine: str
     seconds: float
     zero_reductions: int
     max_degree: int
     steps: list[StepStats] = dataclass_field(default_factory=list)
+    choice: str = ""
 
     @classmethod
     def _from_native(cls, d: dict) -> "GroebnerStats":
         steps = [StepStats(**s) for s in d["steps"]]
-        return cls(d["engine"], d["seconds"], d["zero_reductions"], d["max_degree"], steps)
+        return cls(d["engine"], d["seconds"], d["zero_reductions"], d["max_degree"], steps, d.get("choice", ""))
 
     def to_dict(self) -> dict:
         return {
             "engine": self.engine,
+            "choice": self.choice,
             "seconds": self.seconds,
             "zero_reductions": self.zero_reductions,
             "max_degree": self.max_degree,
@@ -153,12 +158,13 @@ class System:
         self._bases: dict[str, ReducedBasis] = {}
 
     @classmethod
-    def read(cls, path: str) -> "System":
+    def read(cls, path: str, *, memory: "Memory" = None) -> "System":
         """Reads a system file (``field:``, ``variables:``, optional ``order:`` headers, then one
-        polynomial a line). Errors are ``fibrewise.ParseError`` naming file, line and column."""
+        polynomial a line). Errors are ``fibrewise.ParseError`` naming file, line and column.
+        ``memory``: the budget of its space (see ``Space``)."""
         from .systemfile import read_system_file
 
-        return read_system_file(path)
+        return read_system_file(path, memory=memory)
 
     # --- bases ------------------------------------------------------------------------------
 
@@ -292,11 +298,15 @@ class System:
 
     # --- finite projections (python/fibrewise/normalization.py) -----------------------------
 
-    def projection(self, strategy: Strategy = "auto", seed: int | None = None) -> "FiniteProjection":
-        """A finite projection onto d-space (Noether normalization) with its certificate."""
+    def projection(self, strategy: Strategy = "auto", seed: int | None = None,
+                   equations: "EquationsWhen" = "lazy") -> "FiniteProjection":
+        """A finite projection onto d-space (Noether normalization) with its certificate.
+        Parameters, coordinates, rank, module generators and strategy come at about the cost of
+        one basis; the monic equations (``.equations``) are computed on first use, or at once
+        with ``equations="now"``."""
         from .normalization import finite_projection
 
-        return finite_projection(self, strategy=strategy, seed=seed)
+        return finite_projection(self, strategy=strategy, seed=seed, equations=equations)
 
     def is_integral(self, f: Coercible, over: Sequence[Coercible]) -> bool:
         """Whether ``f`` is integral over k[over] in the quotient ring."""

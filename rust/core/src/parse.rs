@@ -13,8 +13,10 @@
 //!
 //! Time is linear in the length of the text for sums (up to the sort of the terms): the
 //! summands of a sum are collected and combined once, never added one by one to a growing
-//! polynomial.
+//! polynomial. [`parse_poly_within`] parses under a [`Control`]: interruptible, and products
+//! and powers written in the text are bounded by its memory budget.
 
+use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::poly::{Poly, Ring};
@@ -122,6 +124,7 @@ fn tokenize(text: &str) -> Result<Vec<(Tok, Pos)>> {
 
 struct Parser<'a, F: Field> {
     ring: &'a Ring<F>,
+    control: &'a Control,
     toks: Vec<(Tok, Pos)>,
     pos: usize,
     depth: usize,
@@ -132,8 +135,18 @@ const MAX_DEPTH: usize = 500;
 
 /// Parses `text` as a polynomial of `ring`.
 pub fn parse_poly<F: Field>(ring: &Ring<F>, text: &str) -> Result<Poly<F>> {
+    parse_poly_within(ring, text, &Control::new())
+}
+
+/// Parses `text` as a polynomial of `ring` under `control` (interruption, memory budget).
+pub fn parse_poly_within<F: Field>(
+    ring: &Ring<F>,
+    text: &str,
+    control: &Control,
+) -> Result<Poly<F>> {
     let mut p = Parser {
         ring,
+        control,
         toks: tokenize(text)?,
         pos: 0,
         depth: 0,
@@ -176,10 +189,12 @@ impl<F: Field> Parser<'_, F> {
             match self.peek() {
                 Tok::Plus => {
                     self.bump();
+                    self.control.check()?;
                     summands.push(self.product()?);
                 }
                 Tok::Minus => {
                     self.bump();
+                    self.control.check()?;
                     let f = self.product()?;
                     summands.push(self.ring.neg(&f));
                 }
@@ -200,7 +215,8 @@ impl<F: Field> Parser<'_, F> {
             match self.peek() {
                 Tok::Star => {
                     self.bump();
-                    acc = self.ring.mul(&acc, &self.unary()?)?;
+                    let factor = self.unary()?;
+                    acc = self.ring.mul_within(&acc, &factor, self.control)?;
                 }
                 Tok::Slash => {
                     let at = self.bump().1;
@@ -284,8 +300,15 @@ impl<F: Field> Parser<'_, F> {
             ));
         }
         self.ring
-            .pow(&base, e as u64)
-            .map_err(|e| error_at(e.to_string(), at))
+            .pow_within(&base, e as u64, self.control)
+            .map_err(|e| match e {
+                Error::Interrupted => e,
+                Error::ResourceLimit(m) => Error::ResourceLimit(format!(
+                    "{m} (the power at line {}, column {})",
+                    at.line, at.column
+                )),
+                other => error_at(other.to_string(), at),
+            })
     }
 
     fn atom(&mut self) -> Result<Poly<F>> {

@@ -4,7 +4,9 @@ use crate::convert::limits;
 use crate::dispatch::{with_ring, Kind};
 use crate::long_run;
 use crate::space::{NativePoly, NativeSpace};
-use fibrewise_core::groebner::{groebner_basis as core_basis, reduce, Engine, Stats};
+use fibrewise_core::control::Limits;
+use fibrewise_core::groebner::{groebner_basis as core_basis, Engine, Stats};
+use fibrewise_core::normalization::division;
 use fibrewise_core::{Poly, Ring};
 use pyo3::prelude::*;
 use pyo3::types::{PyDict, PyList};
@@ -32,6 +34,7 @@ pub fn polys_in<F: Kind>(
 pub fn stats_to_py<'py>(py: Python<'py>, stats: &Stats) -> PyResult<Bound<'py, PyDict>> {
     let d = PyDict::new(py);
     d.set_item("engine", &stats.engine)?;
+    d.set_item("choice", &stats.choice)?;
     d.set_item("seconds", stats.seconds)?;
     d.set_item("zero_reductions", stats.zero_reductions)?;
     d.set_item("max_degree", stats.max_degree())?;
@@ -68,15 +71,18 @@ fn reduced_basis<'py>(
     let limits = limits(max_degree, max_matrix, threads)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let gb = long_run::run(py, limits, |control| core_basis(r, &gens, engine, control))?;
+        let gb = long_run::run(py, limits, space.memory, |control| core_basis(r, &gens, engine, control))?;
         let polys = gb.polys.into_iter().map(|p| space.poly(p)).collect();
         Ok((polys, stats_to_py(py, &gb.stats)?))
     })
 }
 
-/// Normal form of `f` modulo `basis` (a Gröbner basis for the order of `space`).
+/// Normal form of `f` modulo `basis` (a Gröbner basis for the order of `space`), by heap
+/// division; without the GIL and interruptible (its cost cannot be told from the sizes:
+/// x^(2^24) is one term).
 #[pyfunction]
 fn normal_form(
+    py: Python<'_>,
     space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
     f: PyRef<'_, NativePoly>,
@@ -84,7 +90,7 @@ fn normal_form(
     with_ring!(&space.ring, r => {
         let basis = polys_in(space, r, &basis)?;
         let f = f.other_in(r, &f)?;
-        let nf = reduce::normal_form(r, &f, &basis).map_err(crate::errors::to_py)?;
+        let nf = long_run::run(py, Limits::default(), space.memory, |control| division::normal_form(r, &f, &basis, control))?;
         Ok(space.poly(nf))
     })
 }

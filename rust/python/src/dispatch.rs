@@ -122,13 +122,3 @@ pub fn same_variables_and_field(a: &AnyRing, b: &AnyRing) -> bool {
         _ => false,
     }
 }
-
-/// Field specs (`7`, `GF(7)`, `GF(2^8)`, `GF(9)`, `GF(2)[a]/(a^2 + a + 1)`, big primes, `Q`),
-/// read by the core.
-pub fn parse_field_spec(spec: &str) -> PyResult<AnyField> {
-    AnyField::parse(spec).map_err(crate::errors::to_py)
-}
-
-pub fn with_modulus(spec: &str, modulus: &str) -> PyResult<AnyField> {
-    AnyField::with_modulus(spec, modulus).map_err(crate::errors::to_py)
-}

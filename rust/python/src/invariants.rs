@@ -90,7 +90,7 @@ fn hilbert_series(
 ) -> PyResult<(Vec<i128>, u32, bool)> {
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
-        let s = long_run::run(py, Limits::default(), |control| series_of_basis(&gb, control))?;
+        let s = long_run::run(py, Limits::default(), space.memory, |control| series_of_basis(&gb, control))?;
         Ok((s.numerator, s.denominator_exponent, s.affine))
     })
 }
@@ -130,7 +130,7 @@ fn quotient_dimension(
 ) -> PyResult<u128> {
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), |control| core_vs_dimension(&gb, control))
+        long_run::run(py, Limits::default(), space.memory, |control| core_vs_dimension(&gb, control))
     })
 }
 
@@ -143,7 +143,7 @@ fn standard_monomials(
 ) -> PyResult<Vec<Vec<u32>>> {
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
-        let q = long_run::run(py, Limits::default(), |control| Quotient::new(gb, control))?;
+        let q = long_run::run(py, Limits::default(), space.memory, |control| Quotient::new(gb, control))?;
         Ok(q.standard_monomials().iter().map(|m| m.exponents().to_vec()).collect())
     })
 }
@@ -159,7 +159,7 @@ fn multiplication_matrix(
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
         let f = f.other_in(r, &f)?;
-        let matrix = long_run::run(py, Limits::default(), |control| {
+        let matrix = long_run::run(py, Limits::default(), space.memory, |control| {
             Quotient::new(gb, control)?.multiplication_matrix(&f, control)
         })?;
         matrix
@@ -181,7 +181,7 @@ fn count_solutions(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), |control| radical::count_solutions(&gb, engine, control))
+        long_run::run(py, Limits::default(), space.memory, |control| radical::count_solutions(&gb, engine, control))
     })
 }
 
@@ -193,7 +193,7 @@ fn is_closed_point(
 ) -> PyResult<bool> {
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), |control| maximal::is_maximal(&gb, control))
+        long_run::run(py, Limits::default(), space.memory, |control| maximal::is_maximal(&gb, control))
     })
 }
 
@@ -205,7 +205,7 @@ fn closed_point_degree(
 ) -> PyResult<u128> {
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), |control| maximal::residue_field_degree(&gb, control))
+        long_run::run(py, Limits::default(), space.memory, |control| maximal::residue_field_degree(&gb, control))
     })
 }
 
@@ -222,7 +222,7 @@ fn count_points(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        long_run::run(py, Limits::default(), |control| {
+        long_run::run(py, Limits::default(), space.memory, |control| {
             if projective {
                 points::count_projective_points(r, &gens, engine, control)
             } else {

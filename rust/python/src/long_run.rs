@@ -10,6 +10,11 @@
 //! threads share the pool: as many run at once as it has threads, the others wait their turn
 //! (a Ctrl-C meanwhile stops them as soon as they start). A panic in the work becomes a Python
 //! exception instead of bringing down the interpreter.
+//!
+//! Every run has a memory budget: the caller's (a `Space` built with `memory=`), else the
+//! core's default (a fraction of the machine's memory). Work that is certainly small (a few
+//! thousand term operations, see [`run_sized`]) runs at once on the calling thread: handing it
+//! to the pool would cost more than the work, and it ends long before a Ctrl-C could matter.
 
 use crate::errors::{internal, to_py};
 use fibrewise_core::control::{Control, Limits};
@@ -24,12 +29,40 @@ const SIGNAL_POLL: Duration = Duration::from_millis(20);
 
 type Outcome<T> = std::thread::Result<Result<T>>;
 
+/// Work estimated at most this many term operations runs on the calling thread.
+const SMALL_WORK: u64 = 20_000;
+
+/// The control of one run: the caller's limits, and its memory budget if it set one.
+fn control_for(limits: Limits, memory: Option<u64>) -> Control {
+    let control = Control::new().with_limits(limits);
+    match memory {
+        Some(bytes) => control.with_memory_budget(bytes),
+        None => control,
+    }
+}
+
+/// [`run`], or the work at once on the calling thread when `cost` (an estimate of its term
+/// operations) says it is small.
+pub fn run_sized<T: Send>(
+    py: Python<'_>,
+    cost: u64,
+    memory: Option<u64>,
+    work: impl FnOnce(&Control) -> Result<T> + Send,
+) -> PyResult<T> {
+    if cost <= SMALL_WORK {
+        let control = control_for(Limits::default(), memory);
+        return work(&control).map_err(to_py);
+    }
+    run(py, Limits::default(), memory, work)
+}
+
 pub fn run<T: Send>(
     py: Python<'_>,
     limits: Limits,
+    memory: Option<u64>,
     work: impl FnOnce(&Control) -> Result<T> + Send,
 ) -> PyResult<T> {
-    let control = Control::new().with_limits(limits);
+    let control = control_for(limits, memory);
     let done: (Mutex<Option<Outcome<T>>>, Condvar) = (Mutex::new(None), Condvar::new());
     let mut interrupted = None;
     rayon::in_place_scope(|scope| {

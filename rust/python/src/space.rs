@@ -4,11 +4,13 @@
 
 use crate::convert::order_from_py;
 use crate::dispatch::{
-    parse_field_spec, same_variables_and_field, with_field, with_modulus, with_ring, AnyField,
-    AnyPoly, AnyRing, Kind,
+    same_variables_and_field, with_field, with_ring, AnyField, AnyPoly, AnyRing, Kind,
 };
 use crate::errors::{internal, IntoPy};
-use fibrewise_core::parse::parse_poly;
+use crate::long_run;
+use fibrewise_core::control::Limits;
+use fibrewise_core::parse::parse_poly_within;
+use fibrewise_core::poly::{power_size, substitution_size};
 use fibrewise_core::{Field, Monomial, Poly, Ring};
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
@@ -21,15 +23,21 @@ pub struct NativeField {
 
 #[pymethods]
 impl NativeField {
-    /// The field named by `spec`; with `modulus`, GF(p^k) on that modulus (text in `a`).
+    /// The field named by `spec`; with `modulus`, GF(p^k) on that modulus (text in the
+    /// generator); `generator` names the generator of GF(p^k) in texts. Built without the GIL,
+    /// interruptible.
     #[new]
-    #[pyo3(signature = (spec, modulus=None))]
-    fn new(spec: &str, modulus: Option<&str>) -> PyResult<Self> {
-        let field = match modulus {
-            None => parse_field_spec(spec)?,
-            Some(text) => with_modulus(spec, text)?,
-        };
+    #[pyo3(signature = (spec, modulus=None, generator="a"))]
+    fn new(py: Python<'_>, spec: &str, modulus: Option<&str>, generator: &str) -> PyResult<Self> {
+        let field = long_run::run(py, Limits::default(), None, |_| {
+            AnyField::parse_with(spec, modulus, generator)
+        })?;
         Ok(NativeField { field })
+    }
+    /// The name of the generator of GF(p^k) (`a` by default); None for other fields.
+    #[getter]
+    fn generator(&self) -> Option<String> {
+        with_field!(&self.field, f => f.generator_name().map(String::from))
     }
     #[getter]
     fn characteristic(&self) -> String {
@@ -56,6 +64,8 @@ impl NativeField {
 #[pyclass(frozen, module = "fibrewise._native")]
 pub struct NativeSpace {
     pub ring: AnyRing,
+    /// Memory budget in bytes of every computation in this space (None: the core's default).
+    pub memory: Option<u64>,
 }
 
 fn new_ring<F: Kind>(field: &F, names: Vec<String>, order: &Bound<'_, PyAny>) -> PyResult<AnyRing> {
@@ -70,6 +80,7 @@ impl NativeSpace {
         NativePoly {
             ring: self.ring.clone(),
             poly: F::wrap_poly(p),
+            memory: self.memory,
         }
     }
 }
@@ -77,9 +88,20 @@ impl NativeSpace {
 #[pymethods]
 impl NativeSpace {
     #[new]
-    fn new(field: &NativeField, names: Vec<String>, order: &Bound<'_, PyAny>) -> PyResult<Self> {
+    #[pyo3(signature = (field, names, order, memory=None))]
+    fn new(
+        field: &NativeField,
+        names: Vec<String>,
+        order: &Bound<'_, PyAny>,
+        memory: Option<u64>,
+    ) -> PyResult<Self> {
         let ring = with_field!(&field.field, f => new_ring(f, names, order)?);
-        Ok(NativeSpace { ring })
+        Ok(NativeSpace { ring, memory })
+    }
+    /// The memory budget in bytes (None: the default, a fraction of the machine's memory).
+    #[getter]
+    fn memory(&self) -> Option<u64> {
+        self.memory
     }
     #[getter]
     fn names(&self) -> Vec<String> {
@@ -92,10 +114,24 @@ impl NativeSpace {
     /// The same space with another order.
     fn with_order(&self, order: &Bound<'_, PyAny>) -> PyResult<NativeSpace> {
         let ring = with_ring!(&self.ring, r => new_ring(&r.field, r.names().to_vec(), order)?);
-        Ok(NativeSpace { ring })
+        Ok(NativeSpace {
+            ring,
+            memory: self.memory,
+        })
     }
-    fn parse(&self, text: &str) -> PyResult<NativePoly> {
-        with_ring!(&self.ring, r => Ok(self.poly(parse_poly(r, text).py_err()?)))
+    /// Parsed without the GIL, interruptible, powers and products within the memory budget.
+    /// Only a parenthesis lets a text expand beyond its length ((x + 1)^1000, products of
+    /// sums): a text without one is read at once.
+    fn parse(&self, py: Python<'_>, text: &str) -> PyResult<NativePoly> {
+        let cost = if text.contains('(') {
+            u64::MAX
+        } else {
+            text.len() as u64
+        };
+        with_ring!(&self.ring, r => {
+            let p = long_run::run_sized(py, cost, self.memory, |control| parse_poly_within(r, text, control))?;
+            Ok(self.poly(p))
+        })
     }
     fn constant(&self, value: &Bound<'_, PyAny>) -> PyResult<NativePoly> {
         with_ring!(&self.ring, r => Ok(self.poly(r.constant(r.field.coefficient_from_py(value)?))))
@@ -138,6 +174,8 @@ impl IntoAny for fibrewise_core::PrimeField {
 pub struct NativePoly {
     pub ring: AnyRing,
     pub poly: AnyPoly,
+    /// The memory budget of its space.
+    pub memory: Option<u64>,
 }
 
 impl NativePoly {
@@ -152,6 +190,7 @@ impl NativePoly {
         NativePoly {
             ring: self.ring.clone(),
             poly: F::wrap_poly(p),
+            memory: self.memory,
         }
     }
     /// `other` as a polynomial of this ring (same field and variables; sorted for this order).
@@ -178,14 +217,23 @@ impl NativePoly {
     fn sub(&self, other: &NativePoly) -> PyResult<NativePoly> {
         with_ring!(&self.ring, r => Ok(self.wrap(r.sub(self.inner_of(r)?, &self.other_in(r, other)?))))
     }
-    fn mul(&self, other: &NativePoly) -> PyResult<NativePoly> {
-        with_ring!(&self.ring, r => Ok(self.wrap(r.mul(self.inner_of(r)?, &self.other_in(r, other)?).py_err()?)))
+    /// Long products run without the GIL, interruptible, within the memory budget.
+    fn mul(&self, py: Python<'_>, other: &NativePoly) -> PyResult<NativePoly> {
+        with_ring!(&self.ring, r => {
+            let (f, g) = (self.inner_of(r)?, &self.other_in(r, other)?);
+            let cost = (f.len() as u64).saturating_mul(g.len() as u64);
+            Ok(self.wrap(long_run::run_sized(py, cost, self.memory, |control| r.mul_within(f, g, control))?))
+        })
     }
     fn neg(&self) -> PyResult<NativePoly> {
         with_ring!(&self.ring, r => Ok(self.wrap(r.neg(self.inner_of(r)?))))
     }
-    fn pow(&self, e: u64) -> PyResult<NativePoly> {
-        with_ring!(&self.ring, r => Ok(self.wrap(r.pow(self.inner_of(r)?, e).py_err()?)))
+    fn pow(&self, py: Python<'_>, e: u64) -> PyResult<NativePoly> {
+        with_ring!(&self.ring, r => {
+            let f = self.inner_of(r)?;
+            let cost = power_size(f, e).saturating_mul(f.len() as u64);
+            Ok(self.wrap(long_run::run_sized(py, cost, self.memory, |control| r.pow_within(f, e, control))?))
+        })
     }
     fn equals(&self, other: &NativePoly) -> PyResult<bool> {
         with_ring!(&self.ring, r => Ok(self.inner_of(r)? == &self.other_in(r, other)?))
@@ -222,8 +270,13 @@ impl NativePoly {
             r.field.coefficient_to_py(py, &v)
         })
     }
-    /// Substitutes `images[i]` for variable i (None keeps the variable).
-    fn substitute(&self, images: Vec<Option<PyRef<'_, NativePoly>>>) -> PyResult<NativePoly> {
+    /// Substitutes `images[i]` for variable i (None keeps the variable); long substitutions
+    /// run without the GIL, interruptible, within the memory budget.
+    fn substitute(
+        &self,
+        py: Python<'_>,
+        images: Vec<Option<PyRef<'_, NativePoly>>>,
+    ) -> PyResult<NativePoly> {
         with_ring!(&self.ring, r => {
             if images.len() != r.nvars() {
                 return Err(PyValueError::new_err("substitute needs one entry per variable"));
@@ -232,7 +285,9 @@ impl NativePoly {
                 Some(g) => self.other_in(r, g),
                 None => Ok(r.var(i)),
             }).collect();
-            Ok(self.wrap(r.substitute(self.inner_of(r)?, &imgs?, r).py_err()?))
+            let (f, imgs) = (self.inner_of(r)?, imgs?);
+            let cost = substitution_size(f, &imgs, r.nvars());
+            Ok(self.wrap(long_run::run_sized(py, cost, self.memory, |control| r.substitute_within(f, &imgs, r, control))?))
         })
     }
 }

@@ -8,6 +8,7 @@
 //! q ≤ 2^16, [`BinaryField`] for GF(2^k) up to k = 64, else [`ExtensionField`]; `Q` → [`RationalField`].
 
 use super::bpsw;
+use super::extension::DEFAULT_GENERATOR;
 use super::{
     BigPrimeField, BinaryField, ExtensionField, Field, Modulus, PrimeField, RationalField,
     TableField,
@@ -50,32 +51,50 @@ const SPEC_FORMS: &str = "GF(p), GF(p^k), GF(q), GF(p)[a]/(modulus) or Q";
 impl AnyField {
     /// Reads a field spec (see the module doc); errors name what is wrong.
     pub fn parse(spec: &str) -> Result<Self> {
-        let text = spec.trim();
-        if text == "Q" {
-            return Ok(AnyField::Rational(RationalField));
-        }
-        if !text.is_empty() && text.bytes().all(|b| b.is_ascii_digit()) {
-            return AnyField::from_order(spec, text, None);
-        }
-        if let Some((base, modulus)) = quotient_form(text) {
-            return AnyField::from_quotient(spec, base, modulus);
-        }
-        AnyField::from_order(spec, gf_inner(spec, text)?, None)
+        AnyField::parse_with(spec, None, DEFAULT_GENERATOR)
     }
 
     /// The field named by `spec` (`GF(q)` or `GF(p^k)`, k ≥ 2) on the modulus written in `a`.
     pub fn with_modulus(spec: &str, modulus: &str) -> Result<Self> {
-        AnyField::from_order(spec, gf_inner(spec, spec.trim())?, Some(modulus))
+        AnyField::parse_with(spec, Some(modulus), DEFAULT_GENERATOR)
     }
 
-    /// `GF(p)[a]/(f)`: GF(p^k) with k the degree of f.
-    fn from_quotient(spec: &str, base: &str, modulus: &str) -> Result<Self> {
+    /// The field named by `spec`, on `modulus` when given (a text in `generator`), with its
+    /// generator called `generator` in every polynomial text (`a` by default; only GF(p^k),
+    /// k ≥ 2, has one). A spec `GF(p)[b]/(f)` names its generator itself.
+    pub fn parse_with(spec: &str, modulus: Option<&str>, generator: &str) -> Result<Self> {
+        let text = spec.trim();
+        if text == "Q" || (!text.is_empty() && text.bytes().all(|b| b.is_ascii_digit())) {
+            if modulus.is_some() || generator != DEFAULT_GENERATOR {
+                return Err(Error::invalid(format!(
+                    "field spec '{spec}': a modulus and a generator name belong to GF(p^k) with k >= 2"
+                )));
+            }
+            if text == "Q" {
+                return Ok(AnyField::Rational(RationalField));
+            }
+            return AnyField::from_order(spec, text, None, generator);
+        }
+        if let Some((base, name, quotient)) = quotient_form(text) {
+            if modulus.is_some() || (generator != DEFAULT_GENERATOR && generator != name) {
+                return Err(Error::invalid(format!(
+                    "field spec '{spec}' already gives the modulus and the generator's name"
+                )));
+            }
+            return AnyField::from_quotient(spec, base, quotient, name);
+        }
+        AnyField::from_order(spec, gf_inner(spec, text)?, modulus, generator)
+    }
+
+    /// `GF(p)[b]/(f)`: GF(p^k) with k the degree of f, generator b.
+    fn from_quotient(spec: &str, base: &str, modulus: &str, generator: &str) -> Result<Self> {
         let prime = small_prime(spec, &parse_prime(spec, base)?)?;
-        extension_field(Modulus::parse(prime, None, modulus).map_err(|e| prefixed(spec, e))?)
+        let modulus = Modulus::parse_in(prime, None, modulus, generator);
+        extension_field(modulus.map_err(|e| prefixed(spec, e))?)
     }
 
     /// The field of order `order` (`q` or `p^k`), optionally on a given modulus text.
-    fn from_order(spec: &str, order: &str, modulus: Option<&str>) -> Result<Self> {
+    fn from_order(spec: &str, order: &str, modulus: Option<&str>, generator: &str) -> Result<Self> {
         let number = |t: &str| -> Result<BigUint> {
             let t = t.trim();
             if t.is_empty() || !t.bytes().all(|b| b.is_ascii_digit()) {
@@ -119,25 +138,28 @@ impl AnyField {
             None => {
                 let q = number(order)?;
                 bpsw::prime_power(&q).ok_or_else(|| {
+                    let elements = if q == BigUint::from(1u32) { "element" } else { "elements" };
                     Error::invalid(format!(
-                        "field spec '{spec}': {q} is not a prime{} nor a prime power, so no field has {q} elements",
+                        "field spec '{spec}': {q} is not a prime{} nor a prime power, so no field has {q} {elements}",
                         factor_note(&q)
                     ))
                 })?
             }
         };
         match (k, modulus) {
-            (1, None) => prime_field(&p),
-            (1, Some(_)) => Err(Error::invalid(format!(
-                "field spec '{spec}': a modulus is given only for GF(p^k) with k >= 2"
+            (1, None) if generator == DEFAULT_GENERATOR => prime_field(&p),
+            (1, _) => Err(Error::invalid(format!(
+                "field spec '{spec}': a modulus and a generator name are given only for GF(p^k) with k >= 2"
             ))),
             (_, Some(text)) => {
                 let base = small_prime(spec, &p)?;
-                extension_field(Modulus::parse(base, Some(k), text).map_err(|e| prefixed(spec, e))?)
+                let modulus = Modulus::parse_in(base, Some(k), text, generator);
+                extension_field(modulus.map_err(|e| prefixed(spec, e))?)
             }
             (_, None) => {
                 let base = small_prime(spec, &p)?;
-                extension_field(Modulus::first_irreducible(base, k)?)
+                let modulus = Modulus::first_irreducible(base, k)?.with_generator(generator);
+                extension_field(modulus.map_err(|e| prefixed(spec, e))?)
             }
         }
     }
@@ -293,11 +315,13 @@ fn gf_inner<'a>(spec: &str, text: &'a str) -> Result<&'a str> {
 }
 
 /// `GF(p)[a]/(f)` split into the text of p and the text of f.
-fn quotient_form(text: &str) -> Option<(&str, &str)> {
-    let (base, modulus) = text.split_once("[a]")?;
+/// `GF(p)[b]/(f)` as (`GF(p)`, `b`, `f`).
+fn quotient_form(text: &str) -> Option<(&str, &str, &str)> {
+    let (base, rest) = text.split_once('[')?;
+    let (name, modulus) = rest.split_once(']')?;
     let modulus = modulus.trim().strip_prefix('/')?.trim();
     let modulus = modulus.strip_prefix('(')?.strip_suffix(')')?;
-    Some((base.trim(), modulus))
+    Some((base.trim(), name.trim(), modulus))
 }
 
 /// The prime p of `GF(p)` (or of a plain number).

@@ -149,10 +149,10 @@ impl Field for BinaryField {
         self.modulus.spec()
     }
     fn format(&self, a: &u64) -> String {
-        format_dense(&self.bits(*a), "a")
+        format_dense(&self.bits(*a), self.modulus.generator())
     }
     fn generator_name(&self) -> Option<&str> {
-        Some("a")
+        Some(self.modulus.generator())
     }
     fn generator(&self) -> Option<u64> {
         Some(2)

@@ -11,8 +11,8 @@ mod modulus;
 mod table;
 
 pub use binary::BinaryField;
-pub use modulus::Modulus;
 pub(crate) use modulus::prime_divisors;
+pub use modulus::{Modulus, DEFAULT_GENERATOR};
 pub use table::{TableField, MAX_TABLE_ORDER};
 
 use super::{Field, PrimeField};
@@ -117,10 +117,10 @@ impl Field for ExtensionField {
         self.modulus.spec()
     }
     fn format(&self, a: &Box<[u64]>) -> String {
-        format_dense(a, "a")
+        format_dense(a, self.modulus.generator())
     }
     fn generator_name(&self) -> Option<&str> {
-        Some("a")
+        Some(self.modulus.generator())
     }
     fn generator(&self) -> Option<Box<[u64]>> {
         Some(self.pad(vec![0, 1]))

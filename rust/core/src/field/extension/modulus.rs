@@ -35,11 +35,18 @@ pub struct Modulus {
     coeffs: Vec<u64>,
     /// Whether f is the default modulus of its field (then the spec omits it).
     is_default: bool,
+    /// The name of the generator a (a root of f) in texts: `a` unless the caller chose another.
+    generator: String,
 }
 
+/// The generator's name when the caller gives none.
+pub const DEFAULT_GENERATOR: &str = "a";
+
+/// Two fields are the same when their moduli and generator names are: the name decides how
+/// their elements read and print.
 impl PartialEq for Modulus {
     fn eq(&self, other: &Self) -> bool {
-        self.base == other.base && self.coeffs == other.coeffs
+        self.base == other.base && self.coeffs == other.coeffs && self.generator == other.generator
     }
 }
 
@@ -78,6 +85,7 @@ impl Modulus {
             base,
             coeffs,
             is_default: false,
+            generator: DEFAULT_GENERATOR.to_string(),
         };
         if let Some(why) = m.reducibility_witness()? {
             return Err(Error::invalid(format!(
@@ -103,6 +111,7 @@ impl Modulus {
                 base: base.clone(),
                 coeffs,
                 is_default: true,
+                generator: DEFAULT_GENERATOR.to_string(),
             };
             if sieve.divides(&m) {
                 continue;
@@ -120,12 +129,25 @@ impl Modulus {
     /// Whether f is the first irreducible of its degree, i.e. no candidate before it in the
     /// counting order is irreducible.
     fn is_first_irreducible(&self) -> Result<bool> {
-        Ok(Modulus::first_irreducible(self.base.clone(), self.degree())? == *self)
+        let first = Modulus::first_irreducible(self.base.clone(), self.degree())?;
+        Ok(first.coeffs == self.coeffs)
     }
 
     /// The modulus written in `a` (e.g. `a^8+a^4+a^3+a+1`); its degree must be `k` if given.
     pub fn parse(base: PrimeField, k: Option<u32>, text: &str) -> Result<Self> {
-        let ring = Ring::new(base.clone(), vec!["a".to_string()], MonomialOrder::Lex)?;
+        Modulus::parse_in(base, k, text, DEFAULT_GENERATOR)
+    }
+
+    /// The modulus written in the generator `name`, which the field then keeps as its
+    /// generator's name.
+    pub fn parse_in(base: PrimeField, k: Option<u32>, text: &str, name: &str) -> Result<Self> {
+        let modulus = Modulus::parse_text(base, k, text, name)?;
+        modulus.with_generator(name)
+    }
+
+    fn parse_text(base: PrimeField, k: Option<u32>, text: &str, name: &str) -> Result<Self> {
+        check_generator_name(name)?;
+        let ring = Ring::new(base.clone(), vec![name.to_string()], MonomialOrder::Lex)?;
         let f = parse_poly(&ring, text).map_err(|e| match e {
             Error::Parse {
                 message, column, ..
@@ -158,9 +180,21 @@ impl Modulus {
         &self.coeffs
     }
 
-    /// The modulus as text in `a`, highest degree first, coefficients in 0..p.
+    /// The modulus as text in the generator, highest degree first, coefficients in 0..p.
     pub fn text(&self) -> String {
-        format_dense(&self.coeffs, "a")
+        format_dense(&self.coeffs, &self.generator)
+    }
+
+    /// The name of the generator in texts (`a` by default).
+    pub fn generator(&self) -> &str {
+        &self.generator
+    }
+
+    /// The same modulus with its generator called `name` (a plain identifier).
+    pub fn with_generator(mut self, name: &str) -> Result<Self> {
+        check_generator_name(name)?;
+        self.generator = name.to_string();
+        Ok(self)
     }
 
     /// None if irreducible; otherwise a short reason for the error message.
@@ -385,6 +419,21 @@ impl SmallFactors {
     }
 }
 
+/// A generator name must read as one name in polynomial texts.
+fn check_generator_name(name: &str) -> Result<()> {
+    let mut chars = name.chars();
+    let starts_well = chars
+        .next()
+        .is_some_and(|c| c.is_ascii_alphabetic() || c == '_');
+    if starts_well && chars.all(|c| c.is_ascii_alphanumeric() || c == '_') {
+        Ok(())
+    } else {
+        Err(Error::invalid(format!(
+            "the generator name '{name}' is not a name (letters, digits and _, not starting with a digit)"
+        )))
+    }
+}
+
 /// Dense polynomial as text in `name`, highest degree first (`a^3 + 2*a + 1`, `0`), with
 /// coefficients in 0..p.
 pub(crate) fn format_dense(c: &[u64], name: &str) -> String {
@@ -412,10 +461,10 @@ impl Modulus {
     /// `GF(p^k)`, or `GF(p)[a]/(f)` when the modulus f is not the default one.
     pub fn spec(&self) -> String {
         let (p, k) = (self.characteristic(), self.degree());
-        if self.is_default {
+        if self.is_default && self.generator == DEFAULT_GENERATOR {
             format!("GF({p}^{k})")
         } else {
-            format!("GF({p})[a]/({})", self.text())
+            format!("GF({p})[{}]/({})", self.generator, self.text())
         }
     }
 }

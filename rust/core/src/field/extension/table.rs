@@ -167,10 +167,10 @@ impl Field for TableField {
         self.modulus.spec()
     }
     fn format(&self, a: &u32) -> String {
-        super::modulus::format_dense(&self.decode(*a), "a")
+        super::modulus::format_dense(&self.decode(*a), self.modulus.generator())
     }
     fn generator_name(&self) -> Option<&str> {
-        Some("a")
+        Some(self.modulus.generator())
     }
     fn generator(&self) -> Option<u32> {
         Some(self.p)

@@ -240,6 +240,28 @@ pub fn preprocess<C: Send + Sync>(
     preprocess_with(control, step, table, basis, &pick, known, new)
 }
 
+/// The memory budget bounds the matrix while its rows are chosen, before it is built: each
+/// entry is a column index and a coefficient, each column a table slot and an index.
+fn check_matrix_memory<C>(
+    control: &Control,
+    entries: u64,
+    rows: usize,
+    cols: usize,
+    step: usize,
+) -> Result<()> {
+    let entry = (std::mem::size_of::<u32>() + std::mem::size_of::<C>()) as u64;
+    let bytes = entries
+        .saturating_mul(entry)
+        .saturating_add(cols as u64 * 8);
+    match control.memory_budget() {
+        Some(budget) if bytes > budget => control.check_memory(
+            bytes,
+            &format!("the matrix of F4 step {step} ({rows} rows and {cols} columns so far)"),
+        ),
+        _ => Ok(()),
+    }
+}
+
 /// [`preprocess`] with the reducer of each monomial chosen by `pick` (`None`: not reducible).
 pub fn preprocess_with<C: Send + Sync>(
     control: &Control,
@@ -272,6 +294,13 @@ pub fn preprocess_with<C: Send + Sync>(
         closure.visit_tail(monos);
     }
     control.check_matrix(reducers.len() + new_rows.len(), closure.seen.len(), step)?;
+    let mut entries: u64 = reducers
+        .iter()
+        .chain(&new_rows)
+        .map(|(_, monos)| monos.len() as u64)
+        .sum();
+    let rows = reducers.len() + new_rows.len();
+    check_matrix_memory::<C>(control, entries, rows, closure.seen.len(), step)?;
     // In rounds: the reducers of a whole round are looked up in parallel in the (then read-only)
     // monomial table; monomials new to the table are added afterwards, in order. The closure does
     // not depend on the order in which monomials are handled, so neither does the matrix.
@@ -296,8 +325,11 @@ pub fn preprocess_with<C: Send + Sync>(
             let (mult, monos) = closure.complete(m, reducer)?;
             closure.mark(m, PIVOT);
             closure.visit_tail(&monos);
+            entries += monos.len() as u64;
             reducers.push((mult, monos));
-            control.check_matrix(reducers.len() + new_rows.len(), closure.seen.len(), step)?;
+            let rows = reducers.len() + new_rows.len();
+            control.check_matrix(rows, closure.seen.len(), step)?;
+            check_matrix_memory::<C>(control, entries, rows, closure.seen.len(), step)?;
         }
     }
     let Closure {
