@@ -12,6 +12,7 @@ mod field_kinds;
 mod invariants;
 mod long_run;
 mod normalization;
+mod solutions;
 mod space;
 
 #[pymodule]
@@ -33,5 +34,6 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     field_kinds::register(m)?;
     invariants::register(m)?;
     normalization::register(m)?;
+    solutions::register(m)?;
     Ok(())
 }
