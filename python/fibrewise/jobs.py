@@ -14,9 +14,12 @@ from typing import Any, Callable
 
 from .names import expand_names
 
-TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis")
+# Most points the "solutions" task lists unless the job gives "limit" (the result says when cut).
+SOLUTIONS_LIMIT = 1000
+
+TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis", "solutions")
 DEFAULT_TASKS = ("dimension",)
-JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order")
+JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "limit")
 
 
 class JobError(ValueError):
@@ -61,8 +64,11 @@ def check_job(obj: Any) -> dict:
     order = obj.get("order", "grevlex")
     if not isinstance(order, str):
         raise JobError('"order" must be "lex", "grlex" or "grevlex"')
+    limit = obj.get("limit", SOLUTIONS_LIMIT)
+    if isinstance(limit, bool) or not isinstance(limit, int) or limit < 1:
+        raise JobError('"limit" (most points the "solutions" task lists) must be a positive integer')
     return {"id": obj["id"], "field": obj["field"], "variables": variables, "polynomials": polys,
-            "tasks": tasks, "order": order}
+            "tasks": tasks, "order": order, "limit": limit}
 
 
 def _hilbert(system) -> dict:
@@ -103,11 +109,13 @@ TASKS: dict[str, Callable[[Any], Any]] = {
 
 def compute_tasks(job: dict) -> dict:
     """The results of a checked job's tasks, by task name; raises on bad input."""
+    from .solving import solutions_task
     from .spaces import Space
 
     space = Space(job["field"], job["variables"], order=job["order"])
     system = space.system(_polynomials(space, job["polynomials"]))
-    return {task: TASKS[task](system) for task in job["tasks"]}
+    tasks = {**TASKS, "solutions": lambda S: solutions_task(S, job.get("limit", SOLUTIONS_LIMIT))}
+    return {task: tasks[task](system) for task in job["tasks"]}
 
 
 def _polynomials(space, texts: list[str]) -> list:
