@@ -32,6 +32,7 @@ pub fn polys_in<F: Kind>(
 pub fn stats_to_py<'py>(py: Python<'py>, stats: &Stats) -> PyResult<Bound<'py, PyDict>> {
     let d = PyDict::new(py);
     d.set_item("engine", &stats.engine)?;
+    d.set_item("choice", &stats.choice)?;
     d.set_item("seconds", stats.seconds)?;
     d.set_item("zero_reductions", stats.zero_reductions)?;
     d.set_item("max_degree", stats.max_degree())?;
