@@ -17,12 +17,14 @@ from .invariants import HilbertSeries
 from .names import Engine, OrderName, Strategy
 from .normalization import CertificateError, FiniteProjection, IntegralEquation
 from .orders import BlockOrder, WeightOrder
+from .solutions import ClosedPoint
 from .spaces import Polynomial, Space
 from .systems import GroebnerStats, ReducedBasis, StepStats, System
 
 __all__ = [
     "BlockOrder",
     "CertificateError",
+    "ClosedPoint",
     "Engine",
     "Field",
     "FiniteProjection",

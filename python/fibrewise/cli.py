@@ -252,6 +252,13 @@ def _points(args: argparse.Namespace, activity) -> dict:
     return {**_header(system), "points": count, "projective": args.projective, "seconds": seconds}
 
 
+def _solve(args: argparse.Namespace, activity) -> dict:
+    from .solving import solve_command
+
+    system = _system(args)
+    return solve_command(args, activity, _header(system), system)
+
+
 def _check(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
     saved = _read_json(args.certificate)
@@ -325,6 +332,8 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
                  "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
     "points": ("number of points with coordinates in the (finite) field",
                "example: fibrewise points examples/curve_code_gf7_projective.txt --projective", _points),
+    "solve": ("the points with coordinates in the (finite) field, one per line, each checked in every equation",
+              "example: fibrewise solve examples/toy_cipher_gf101.txt", _solve),
     "check": ("verify a saved projection certificate against the system file",
               "example: fibrewise check cert.json examples/curve_code_gf7.txt", _check),
     "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
@@ -421,6 +430,11 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
         p.add_argument("--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)")
     elif name == "points":
         p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
+    elif name == "solve":
+        p.add_argument("--over", metavar="GF(q^k)", help="list the points with coordinates in this extension field")
+        p.add_argument("--limit", type=_positive(int), metavar="N", help="at most N points (the report says when there are more)")
+        p.add_argument("--closed-points", action="store_true",
+                       help="list the closed points (Galois orbits, with their degrees and equations) instead")
 
 
 def _parser() -> argparse.ArgumentParser:

@@ -62,15 +62,16 @@ class Field:
         coeffs = _native.field_modulus(self._native)
         if coeffs is None:
             return None
-        a = self.generator
-        terms = []
-        for i in reversed(range(len(coeffs))):
-            c = coeffs[i]
-            if c == 0:
-                continue
-            power = "" if i == 0 else a if i == 1 else f"{a}^{i}"
-            terms.append(str(c) if i == 0 else power if c == 1 else f"{c}*{power}")
-        return " + ".join(terms)
+        return polynomial_in_generator(coeffs, self.generator or "a")
+
+    def element_text(self, value: int) -> str:
+        """An element (an int: a residue for GF(p), the integer representation for GF(p^k)) as
+        text: ``3`` for GF(p), a polynomial in the generator with coefficients in [0, p) for
+        GF(p^k) (``2*a + 1``)."""
+        if self.degree == 1:
+            return str(value)
+        p = self.characteristic
+        return polynomial_in_generator([(value // p**i) % p for i in range(self.degree)], self.generator or "a")
 
     def contains(self, other: FieldSpec) -> bool:
         """Whether ``other`` is (isomorphic to) a subfield of this field: GF(p^j) lies in
@@ -171,6 +172,19 @@ def _prime_factors(n: int) -> list[int]:
     if n > 1:
         primes.append(n)
     return primes
+
+
+def polynomial_in_generator(coefficients: list[int], generator: str = "a") -> str:
+    """``c_0 + c_1 a + ...`` (coefficient of a^i at index i) as text, highest power first:
+    ``a^8 + a^4 + a^3 + a + 1``; ``0`` when every coefficient is zero."""
+    terms = []
+    for i in reversed(range(len(coefficients))):
+        c = coefficients[i]
+        if c == 0:
+            continue
+        power = "" if i == 0 else generator if i == 1 else f"{generator}^{i}"
+        terms.append(str(c) if i == 0 else power if c == 1 else f"{c}*{power}")
+    return " + ".join(terms) or "0"
 
 
 _GF = re.compile(r"GF\((\d+)(?:\^(\d+))?\)")

@@ -178,30 +178,11 @@ def count_points(system: "System", over: Optional["FieldSpec"] = None, projectiv
     if not isinstance(projective, bool):
         raise TypeError(f"projective must be a bool, not {type(projective).__name__}")
     if over is not None:
-        system = _in_extension(system, over)
+        from .solutions import in_field
+
+        system = in_field(system, over)
     if system.space.field.size is None:
         raise ValueError(f"points are counted over a finite field, not {system.space.field}")
     space = system.space
     return _native.count_points(space._native, [g._native for g in system.equations], projective)
 
-
-def _in_extension(system: "System", over: "FieldSpec") -> "System":
-    """The same equations over the extension field ``over`` of the system's field. Over a prime
-    field every coefficient is an integer, so the equations read the same in any extension;
-    embedding GF(p^j) with j > 1 into GF(p^k) needs the image of its generator and is not done
-    here."""
-    from .fields import field
-    from .spaces import Space
-    from .systems import System
-
-    base, target = system.space.field, field(over)
-    if target.size is None or not target.contains(base):
-        raise ValueError(f"{target} is not a finite extension of {base}")
-    if target == base:
-        return system
-    if base.degree > 1:
-        raise ValueError(
-            f"counting points over {target} for a system over {base} needs an embedding of {base} "
-            f"into {target}, which is not available yet: write the system over {target} instead")
-    space = Space(target, system.space.names, order=system.space.order)
-    return System(space, [str(g) for g in system.equations])

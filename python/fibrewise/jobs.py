@@ -14,9 +14,13 @@ from typing import Any, Callable
 
 from .names import expand_names
 
-TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "projection", "normalize", "points", "basis")
+# Most points the "solutions" task lists unless the job gives "limit" (the result says when cut).
+SOLUTIONS_LIMIT = 1000
+
+TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "projection", "normalize", "points", "basis",
+              "solutions")
 DEFAULT_TASKS = ("dimension",)
-JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order")
+JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "limit")
 
 
 class JobError(ValueError):
@@ -61,8 +65,11 @@ def check_job(obj: Any) -> dict:
     order = obj.get("order", "grevlex")
     if not isinstance(order, str):
         raise JobError('"order" must be "lex", "grlex" or "grevlex"')
+    limit = obj.get("limit", SOLUTIONS_LIMIT)
+    if isinstance(limit, bool) or not isinstance(limit, int) or limit < 1:
+        raise JobError('"limit" (most points the "solutions" task lists) must be a positive integer')
     return {"id": obj["id"], "field": obj["field"], "variables": variables, "polynomials": polys,
-            "tasks": tasks, "order": order}
+            "tasks": tasks, "order": order, "limit": limit}
 
 
 def _hilbert(system) -> dict:
@@ -121,13 +128,15 @@ def compute_tasks(job: dict, on_task: Callable[[str, Any], None] | None = None,
     value)`` hears of each task as it finishes (a batch worker passes them on at once, so that a
     job killed at its time limit keeps the tasks it finished). ``memory``: the memory budget in
     bytes of every computation of the job (None: the default)."""
+    from .solving import solutions_task
     from .spaces import Space
 
     space = Space(job["field"], job["variables"], order=job["order"], memory=memory)
     system = space.system(_polynomials(space, job["polynomials"]))
+    tasks = {**TASKS, "solutions": lambda S: solutions_task(S, job.get("limit", SOLUTIONS_LIMIT))}
     results = {}
     for task in job["tasks"]:
-        results[task] = TASKS[task](system)
+        results[task] = tasks[task](system)
         if on_task is not None:
             on_task(task, results[task])
     return results

@@ -252,9 +252,16 @@ def render_batch(result: dict) -> str:
     return f"{head}\n{aligned(rows)}"
 
 
+def render_solve(result: dict) -> str:
+    from .solving import render_solve as render
+
+    return render(result)
+
+
 RENDERERS: dict[str, Callable[[dict], str]] = {
     "analyze": render_analyze, "basis": render_basis, "normalize": render_normalize,
     "integral": render_integral, "points": render_points, "check": render_check, "batch": render_batch,
+    "solve": render_solve,
 }
 
 

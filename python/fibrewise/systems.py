@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field as dataclass_field
 from numbers import Integral
-from typing import TYPE_CHECKING, Iterable, Iterator, Optional, Sequence, Union, overload
+from typing import TYPE_CHECKING, Any, Iterable, Iterator, Optional, Sequence, Union, overload
 
 from . import _native, invariants
 from .names import ENGINE_NAMES, Engine, Strategy, check_name
@@ -22,6 +22,7 @@ if TYPE_CHECKING:
     from .memory import Memory
     from .invariants import HilbertSeries
     from .normalization import EquationsWhen, FiniteProjection, IntegralEquation
+    from .solutions import ClosedPoint
 
 
 @dataclass(frozen=True)
@@ -41,8 +42,9 @@ class StepStats:
 @dataclass(frozen=True)
 class GroebnerStats:
     """What the engine did. ``max_degree`` is the highest degree reached (the solving degree).
-    ``choice`` says what the automatic engine (``engine="auto"``) chose and why; empty for the
-    other engines."""
+    ``choice`` says what the automatic engine (``engine="auto"``) chose and why (``"grevlex basis
+    (...), then FGLM in the quotient R/I of dimension 16"`` for a lex basis of a zero-dimensional
+    system); empty for the other engines."""
 
     engine: str
     seconds: float
@@ -64,6 +66,7 @@ class GroebnerStats:
             "zero_reductions": self.zero_reductions,
             "max_degree": self.max_degree,
             "steps": [s.__dict__ for s in self.steps],
+            "choice": self.choice,
         }
 
 
@@ -295,6 +298,26 @@ class System:
         """Points with coordinates in the field, or in the extension ``over`` (affine, or for
         homogeneous equations projective)."""
         return invariants.count_points(self, over=over, projective=projective)
+
+    # --- solutions (python/fibrewise/solutions.py) -------------------------------------------
+
+    def points(self, over: "FieldSpec | None" = None, limit: int | None = None,
+               as_galois: bool = False) -> Iterator[Any]:
+        """Iterator over the points with coordinates in the finite field, or in the extension
+        ``over`` (``"GF(7^3)"``; the generator of GF(p^j) is sent to a root of its modulus
+        there): tuples of ints (residues for GF(p), integer representations for GF(p^k)), or
+        galois arrays with ``as_galois=True``; at most ``limit``. Every point is checked in
+        every equation. Positive dimension: fibre by fibre over a finite projection (q^d fibres)."""
+        from .solutions import points
+
+        return points(self, over=over, limit=limit, as_galois=as_galois)
+
+    def closed_points(self) -> "list[ClosedPoint]":
+        """The Galois orbits of the solutions of a zero-dimensional system over a finite field,
+        as ``ClosedPoint`` objects (degree, triangular set, points in the residue field)."""
+        from .solutions import closed_points
+
+        return closed_points(self)
 
     # --- finite projections (python/fibrewise/normalization.py) -----------------------------
 

@@ -349,9 +349,18 @@ impl<F: Field> Parser<'_, F> {
         if field.generator_name() == Some(name) {
             return Ok(self.ring.constant(field.generator().expect("generator")));
         }
+        // `a` is the generator only in GF(p^k): say so where it means nothing.
+        let generator_hint = if name == "a" && field.generator_name().is_none() {
+            format!(
+                "; {} has no generator a: it names the generator of GF(p^k) fields only",
+                field.spec()
+            )
+        } else {
+            String::new()
+        };
         Err(error_at(
             format!(
-                "unknown variable '{name}' (the variables are {})",
+                "unknown variable '{name}' (the variables are {}){generator_hint}",
                 self.ring.names().join(", ")
             ),
             at,

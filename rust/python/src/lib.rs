@@ -13,6 +13,7 @@ mod invariants;
 mod long_run;
 mod normalization;
 mod projection;
+mod solutions;
 mod space;
 
 #[pymodule]
@@ -35,5 +36,6 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     invariants::register(m)?;
     normalization::register(m)?;
     projection::register(m)?;
+    solutions::register(m)?;
     Ok(())
 }

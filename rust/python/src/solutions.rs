@@ -1,0 +1,240 @@
+//! Solutions of a system over a finite field: its rational points, its closed points, and its
+//! equations carried into an extension field. Conversion and dispatch to
+//! `fibrewise_core::points::{solve, closed, extension}`; the work runs without the GIL and stops
+//! on Ctrl-C (`long_run`).
+//!
+//! An extension GF(q^k) ⊇ GF(q) = GF(p)[a]/(m) receives the coefficients through the field
+//! embedding that sends a to a root of m in GF(q^k) (`extension::generator_image`), never by
+//! reading the generator's name again in the larger field, where `a` is another element.
+
+use crate::basis::{engine_by_name, polys_in};
+use crate::dispatch::{with_ring, Kind};
+use crate::long_run;
+use crate::space::{NativePoly, NativeSpace};
+use fibrewise_core::control::{Control, Limits};
+use fibrewise_core::field::{
+    BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
+};
+use fibrewise_core::points::extension::{embed_coefficients, generator_image, map_poly};
+use fibrewise_core::points::{closed, solve};
+use fibrewise_core::{Error, Field, Poly, PrimeField, Result, Ring};
+use pyo3::exceptions::PyValueError;
+use pyo3::prelude::*;
+use std::sync::Arc;
+
+pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
+    m.add_function(wrap_pyfunction!(rational_points, m)?)?;
+    m.add_function(wrap_pyfunction!(closed_points, m)?)?;
+    m.add_function(wrap_pyfunction!(embed, m)?)?;
+    Ok(())
+}
+
+/// The points of V(gens) with coordinates in the field of `space`, each a list of coefficients
+/// (ints: residues for GF(p), integer representations for GF(p^k)); at most `limit` of them.
+/// Every point is checked in every generator by the core before it is returned.
+#[pyfunction]
+#[pyo3(signature = (space, gens, limit=None, engine="auto"))]
+fn rational_points(
+    py: Python<'_>,
+    space: &NativeSpace,
+    gens: Vec<PyRef<'_, NativePoly>>,
+    limit: Option<usize>,
+    engine: &str,
+) -> PyResult<Vec<Vec<PyObject>>> {
+    let engine = engine_by_name(engine)?;
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
+        let points = long_run::run(py, Limits::default(), |control| {
+            solve::rational_points(r, &gens, limit, engine, control)
+        })?;
+        points
+            .iter()
+            .map(|p| p.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
+            .collect()
+    })
+}
+
+/// The closed points of a zero-dimensional system: (degree, reduced lex basis of the maximal
+/// ideal) for each, by increasing degree. The bases live in the space's variables with the lex
+/// order.
+#[pyfunction]
+#[pyo3(signature = (space, gens, engine="auto"))]
+fn closed_points(
+    py: Python<'_>,
+    space: &NativeSpace,
+    gens: Vec<PyRef<'_, NativePoly>>,
+    engine: &str,
+) -> PyResult<Vec<(usize, Vec<NativePoly>)>> {
+    let engine = engine_by_name(engine)?;
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
+        let found = long_run::run(py, Limits::default(), |control| {
+            closed::closed_points(r, &gens, engine, control)
+        })?;
+        Ok(found
+            .into_iter()
+            .map(|point| (point.degree, native_polys(point.equations.ring, point.equations.polys)))
+            .collect())
+    })
+}
+
+/// Polynomials of a ring the core made (the lex ring of a closed point) as native handles.
+fn native_polys<F: Kind>(ring: Ring<F>, polys: Vec<Poly<F>>) -> Vec<NativePoly> {
+    let ring = F::wrap_ring(Arc::new(ring));
+    polys
+        .into_iter()
+        .map(|p| NativePoly {
+            ring: ring.clone(),
+            poly: F::wrap_poly(p),
+        })
+        .collect()
+}
+
+/// The polynomials of `space` as polynomials of `target` (same variables, a field containing
+/// the field of `space`), every coefficient mapped by the field embedding; with them the image
+/// of the generator of GF(p^j) (as `target`'s coefficient, an int), `None` for a prime field,
+/// whose embedding is unique.
+#[pyfunction]
+fn embed(
+    py: Python<'_>,
+    space: &NativeSpace,
+    gens: Vec<PyRef<'_, NativePoly>>,
+    target: &NativeSpace,
+) -> PyResult<(Vec<NativePoly>, Option<PyObject>)> {
+    with_ring!(&space.ring, r => {
+        let gens = polys_in(space, r, &gens)?;
+        with_ring!(&target.ring, t => {
+            if r.names() != t.names() {
+                return Err(PyValueError::new_err(format!(
+                    "the spaces have different variables: {} and {}",
+                    r.names().join(", "),
+                    t.names().join(", ")
+                )));
+            }
+            let (mapped, generator) = long_run::run(py, Limits::default(), |control| {
+                let embedding = Embedding::new(&r.field, &t.field, control)?;
+                let mapped: Vec<_> = gens
+                    .iter()
+                    .map(|g| map_poly(g, t, &|c| embedding.image(c)))
+                    .collect();
+                Ok((mapped, embedding.generator))
+            })?;
+            let generator = generator
+                .map(|g| t.field.coefficient_to_py(py, &g))
+                .transpose()?;
+            Ok((mapped.into_iter().map(|g| target.poly(g)).collect(), generator))
+        })
+    })
+}
+
+/// An embedding of a finite field `F` into a field `E` of the same characteristic: for GF(p^j)
+/// given by the image of its generator, for GF(p) the unique one.
+struct Embedding<'a, F: Field, E: Field> {
+    from: &'a F,
+    to: &'a E,
+    generator: Option<E::Elem>,
+}
+
+impl<'a, F: PrimeCoefficients, E: Field> Embedding<'a, F, E> {
+    fn new(from: &'a F, to: &'a E, control: &Control) -> Result<Self> {
+        let no_embedding = || {
+            Error::invalid(format!(
+                "{} does not contain {}: no embedding of the coefficients",
+                to.spec(),
+                from.spec()
+            ))
+        };
+        if from.word_modulus().is_none() && from.modulus_of_extension().is_none() {
+            // Q and primes beyond a machine word: only the field itself contains them.
+            return if from.spec() == to.spec() {
+                Err(Error::invalid(format!(
+                    "{} is already the field of the system: no embedding needed",
+                    to.spec()
+                )))
+            } else {
+                Err(no_embedding())
+            };
+        }
+        if from.characteristic() != to.characteristic() || to.order().is_none() {
+            return Err(no_embedding());
+        }
+        let generator = match from.modulus_of_extension() {
+            Some(m) => Some(generator_image(m, to, control)?),
+            None => None,
+        };
+        Ok(Embedding {
+            from,
+            to,
+            generator,
+        })
+    }
+
+    fn image(&self, c: &F::Elem) -> E::Elem {
+        let coefficients = self.from.prime_coefficients(c);
+        match &self.generator {
+            Some(g) => embed_coefficients(self.to, &coefficients, g),
+            None => self.to.from_i64(coefficients[0] as i64),
+        }
+    }
+}
+
+/// Elements of GF(p) (p < 2^63) and GF(p^k) as coefficient vectors over GF(p).
+trait PrimeCoefficients: Field {
+    /// The modulus m of GF(p^k) = GF(p)[a]/(m); `None` for other fields.
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+        None
+    }
+    /// c_0, c_1, ... with c = Σ c_i a^i (one residue for GF(p)); only called for the fields
+    /// that [`Embedding::new`] accepts.
+    fn prime_coefficients(&self, c: &Self::Elem) -> Vec<u64>;
+}
+
+impl PrimeCoefficients for PrimeField {
+    fn prime_coefficients(&self, c: &u64) -> Vec<u64> {
+        vec![self.to_word(c)]
+    }
+}
+
+impl PrimeCoefficients for TableField {
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+        Some(self.modulus())
+    }
+    fn prime_coefficients(&self, c: &u32) -> Vec<u64> {
+        self.decode(*c)
+    }
+}
+
+impl PrimeCoefficients for BinaryField {
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+        Some(self.modulus())
+    }
+    fn prime_coefficients(&self, c: &u64) -> Vec<u64> {
+        (0..self.degree()).map(|i| (c >> i) & 1).collect()
+    }
+}
+
+impl PrimeCoefficients for ExtensionField {
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+        Some(self.modulus())
+    }
+    fn prime_coefficients(&self, c: &Box<[u64]>) -> Vec<u64> {
+        c.to_vec()
+    }
+}
+
+/// Fields without an embedding into another field (Embedding::new refuses them).
+macro_rules! no_prime_coefficients {
+    ($($t:ty),*) => {$(
+        impl PrimeCoefficients for $t {
+            fn prime_coefficients(&self, _c: &Self::Elem) -> Vec<u64> {
+                unreachable!("Embedding::new refuses {}", self.spec())
+            }
+        }
+    )*};
+}
+no_prime_coefficients!(
+    BigPrimeField<2>,
+    BigPrimeField<4>,
+    BigPrimeField<8>,
+    RationalField
+);
