@@ -6,21 +6,30 @@
 //! trailing zeros (zero is the empty vector). The arithmetic is split by algorithm:
 //! - [`multiply`]: schoolbook and Karatsuba products (Karatsuba and Ofman 1962) over every
 //!   field, number-theoretic transforms over word primes (Pollard 1971; Schönhage and Strassen
-//!   1971) with the Chinese remainder theorem ([`ntt`]);
+//!   1971) with the Chinese remainder theorem ([`ntt`], and [`ntt_wide`] for primes beyond a
+//!   machine word);
 //! - [`division`]: division with remainder, by Newton iteration on the reversed divisor for large
 //!   degrees (Sieveking 1972, Kung 1974), and arithmetic modulo a fixed polynomial;
-//! - [`gcd`]: greatest common divisors and Bézout cofactors;
+//! - [`gcd`]: greatest common divisors and Bézout cofactors, by [`half_gcd`] steps (Thull and
+//!   Yap 1990) for large degrees;
 //! - [`squarefree`], [`distinct_degree`], [`equal_degree`], [`roots`]: factorization over finite
 //!   fields (Cantor and Zassenhaus 1981; von zur Gathen and Shoup 1992), roots as the factors of
 //!   degree 1. The polynomial x^q − x is never written down: x^q is computed modulo the
-//!   polynomial by repeated squaring, so q may be as large as 2^512 or a power p^k.
+//!   polynomial by repeated squaring, so q may be as large as 2^512 or a power p^k;
+//! - [`rational_roots`]: the rational roots of a polynomial over Q by p-adic lifting;
+//! - [`all_values`]: the values at every element of a small field by a transform over its
+//!   multiplicative group, the faster route to the roots when q is close to the degree.
 
+pub mod all_values;
 pub mod distinct_degree;
 pub mod division;
 pub mod equal_degree;
 pub mod gcd;
+pub mod half_gcd;
 pub mod multiply;
 pub mod ntt;
+pub mod ntt_wide;
+pub mod rational_roots;
 pub mod roots;
 pub mod squarefree;
 

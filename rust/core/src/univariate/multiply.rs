@@ -1,9 +1,10 @@
 //! Products of dense univariate polynomials: schoolbook for short factors, Karatsuba's
 //! three-product splitting (Karatsuba and Ofman 1962) over every field, and number-theoretic
 //! transforms ([`super::ntt`]) over word-size prime fields, where a product of degree n costs
-//! O(n log n) word operations.
+//! O(n log n) word operations, and over multi-word prime fields through several word primes and
+//! the Chinese remainder theorem ([`super::ntt_wide`]).
 
-use super::{ntt, trimmed, Univariate};
+use super::{ntt, ntt_wide, trimmed, Univariate};
 use crate::field::Field;
 
 /// Below this length (of the shorter factor) the schoolbook product is faster than Karatsuba.
@@ -30,6 +31,9 @@ pub fn multiply<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> Univariate
                 field,
                 product.into_iter().map(|w| field.from_word(w)).collect(),
             );
+        }
+        if let Some(modulus) = field.montgomery_modulus() {
+            return trimmed(field, ntt_wide::multiply_montgomery(field, a, b, &modulus));
         }
     }
     trimmed(field, karatsuba(field, a, b))

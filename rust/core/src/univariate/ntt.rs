@@ -5,8 +5,10 @@
 //! Garner's mixed-radix form (Garner 1959) before the reduction modulo m. The exact integer
 //! coefficients are below n·(m − 1)^2, so the number of transform primes is chosen from m and n
 //! (one for small m, at most three for m < 2^63). Arithmetic modulo a transform prime uses
-//! Montgomery's reduction (Montgomery 1985). The transforms are decimation in frequency forward
-//! and decimation in time backward, so no bit reversal is needed between them.
+//! Montgomery's reduction (Montgomery 1985) for the pointwise products and Shoup's precomputed
+//! quotients (as in Harvey 2014) for the twiddle factors, kept in one contiguous table per level and
+//! cached per length. The transforms are decimation in frequency forward and decimation in time
+//! backward, so no bit reversal is needed between them.
 
 use crate::field::primality::is_prime;
 use crate::field::PrimeField;
@@ -25,6 +27,20 @@ pub struct TransformPrime {
     r2: u64,
     /// A root of unity of order 2^32, in Montgomery form.
     root: u64,
+    /// The twiddle tables of the transform lengths 2^k up to 2^CACHED_LOG, made on first use.
+    twiddles: [OnceLock<Twiddles>; CACHED_LOG as usize + 1],
+}
+
+/// log2 of the longest transform whose twiddle tables are kept (2^20 entries, 16 MB a table).
+const CACHED_LOG: u32 = 20;
+
+/// The twiddle factors of every level of the transforms of one length n, each level contiguous:
+/// entry h + j is (w_(2h)^j, its Shoup quotient) for the level of half-length h, w_(2h) the root
+/// of unity of order 2h (or its inverse for the backward table).
+#[derive(Debug)]
+struct Twiddles {
+    forward: Vec<[u64; 2]>,
+    backward: Vec<[u64; 2]>,
 }
 
 impl TransformPrime {
@@ -40,6 +56,7 @@ impl TransformPrime {
             neg_inv: inv.wrapping_neg(),
             r2,
             root: 0,
+            twiddles: std::array::from_fn(|_| OnceLock::new()),
         };
         let odd = (p - 1) >> MAX_LOG;
         let generator = (2..)
@@ -55,7 +72,7 @@ impl TransformPrime {
 
     /// a·b·2^(−64) mod p for a, b < p.
     #[inline(always)]
-    fn mont(&self, a: u64, b: u64) -> u64 {
+    pub(super) fn mont(&self, a: u64, b: u64) -> u64 {
         let t = a as u128 * b as u128;
         let m = (t as u64).wrapping_mul(self.neg_inv);
         let u = ((t + m as u128 * self.p as u128) >> 64) as u64;
@@ -66,7 +83,7 @@ impl TransformPrime {
         }
     }
     #[inline(always)]
-    fn add(&self, a: u64, b: u64) -> u64 {
+    pub(super) fn add(&self, a: u64, b: u64) -> u64 {
         let s = a + b;
         if s >= self.p {
             s - self.p
@@ -75,14 +92,14 @@ impl TransformPrime {
         }
     }
     #[inline(always)]
-    fn sub(&self, a: u64, b: u64) -> u64 {
+    pub(super) fn sub(&self, a: u64, b: u64) -> u64 {
         if a >= b {
             a - b
         } else {
             a + self.p - b
         }
     }
-    fn to_montgomery(&self, a: u64) -> u64 {
+    pub(super) fn to_montgomery(&self, a: u64) -> u64 {
         self.mont(a % self.p, self.r2)
     }
     /// a·b mod p for plain residues.
@@ -100,7 +117,7 @@ impl TransformPrime {
         }
         acc
     }
-    fn inverse(&self, a: u64) -> u64 {
+    pub(super) fn inverse(&self, a: u64) -> u64 {
         self.power(a, self.p - 2)
     }
     /// Whether g generates the multiplicative group; p − 1 = odd · 2^32.
@@ -133,63 +150,106 @@ impl TransformPrime {
         out
     }
 
+    /// The twiddle table of one direction for transforms of length 2^log_n (see [`Twiddles`]).
+    fn level_table(&self, log_n: u32, inverse: bool) -> Vec<[u64; 2]> {
+        let n = 1usize << log_n;
+        let roots = self.roots(log_n, inverse);
+        let mut out = vec![[0, 0]; n.max(2)];
+        let mut half = 1;
+        while half < n {
+            let step = n / (2 * half);
+            for j in 0..half {
+                let w = self.mont(roots[j * step], 1);
+                out[half + j] = [w, ((u128::from(w) << 64) / u128::from(self.p)) as u64];
+            }
+            half *= 2;
+        }
+        out
+    }
+
+    /// Runs `f` with the twiddle tables of length 2^log_n (cached up to [`CACHED_LOG`]).
+    fn with_twiddles<R>(&self, log_n: u32, f: impl FnOnce(&Twiddles) -> R) -> R {
+        let make = || Twiddles {
+            forward: self.level_table(log_n, false),
+            backward: self.level_table(log_n, true),
+        };
+        match self.twiddles.get(log_n as usize) {
+            Some(cell) => f(cell.get_or_init(make)),
+            None => f(&make()),
+        }
+    }
+
+    /// x·w mod p by the precomputed quotient w' = ⌊w·2^64/p⌋ (Harvey 2014): one high and two
+    /// low word products; valid for any x < 2^64 since p < 2^63.
+    #[inline(always)]
+    fn mul_shoup(&self, x: u64, w: [u64; 2]) -> u64 {
+        let q = ((u128::from(x) * u128::from(w[1])) >> 64) as u64;
+        let r = x.wrapping_mul(w[0]).wrapping_sub(q.wrapping_mul(self.p));
+        if r >= self.p {
+            r - self.p
+        } else {
+            r
+        }
+    }
+
     /// Forward transform in place (decimation in frequency; output in bit-reversed order).
-    fn forward(&self, a: &mut [u64], roots: &[u64]) {
+    fn forward(&self, a: &mut [u64], table: &[[u64; 2]]) {
         let n = a.len();
-        let mut len = n;
-        while len >= 2 {
-            let half = len / 2;
-            let step = n / len;
-            for block in a.chunks_mut(len) {
+        let mut half = n / 2;
+        while half >= 1 {
+            let level = &table[half..2 * half];
+            for block in a.chunks_mut(2 * half) {
                 let (lo, hi) = block.split_at_mut(half);
-                for (j, (u, v)) in lo.iter_mut().zip(hi.iter_mut()).enumerate() {
+                for ((u, v), &w) in lo.iter_mut().zip(hi.iter_mut()).zip(level) {
                     let (x, y) = (*u, *v);
                     *u = self.add(x, y);
-                    *v = self.mont(self.sub(x, y), roots[j * step]);
+                    *v = self.mul_shoup(x + self.p - y, w);
                 }
             }
-            len = half;
+            half /= 2;
         }
     }
 
     /// Inverse transform in place (decimation in time; input in bit-reversed order), without
     /// the division by n.
-    fn backward(&self, a: &mut [u64], inverse_roots: &[u64]) {
+    fn backward(&self, a: &mut [u64], table: &[[u64; 2]]) {
         let n = a.len();
-        let mut len = 2;
-        while len <= n {
-            let half = len / 2;
-            let step = n / len;
-            for block in a.chunks_mut(len) {
+        let mut half = 1;
+        while half < n {
+            let level = &table[half..2 * half];
+            for block in a.chunks_mut(2 * half) {
                 let (lo, hi) = block.split_at_mut(half);
-                for (j, (u, v)) in lo.iter_mut().zip(hi.iter_mut()).enumerate() {
-                    let (x, y) = (*u, self.mont(*v, inverse_roots[j * step]));
+                for ((u, v), &w) in lo.iter_mut().zip(hi.iter_mut()).zip(level) {
+                    let (x, y) = (*u, self.mul_shoup(*v, w));
                     *u = self.add(x, y);
                     *v = self.sub(x, y);
                 }
             }
-            len *= 2;
+            half *= 2;
         }
     }
 
     /// The cyclic convolution of a and b of length n = 2^log_n (both zero-padded to n), exact
     /// modulo p.
-    fn convolve(&self, a: &[u64], b: &[u64], log_n: u32) -> Vec<u64> {
+    pub(super) fn convolve(&self, a: &[u64], b: &[u64], log_n: u32) -> Vec<u64> {
+        self.with_twiddles(log_n, |twiddles| self.convolve_with(a, b, log_n, twiddles))
+    }
+
+    fn convolve_with(&self, a: &[u64], b: &[u64], log_n: u32, twiddles: &Twiddles) -> Vec<u64> {
         let n = 1usize << log_n;
-        let roots = self.roots(log_n, false);
         let load = |v: &[u64]| {
             let mut out: Vec<u64> = v.iter().map(|&x| x % self.p).collect();
             out.resize(n, 0);
             out
         };
         let mut fa = load(a);
-        self.forward(&mut fa, &roots);
+        self.forward(&mut fa, &twiddles.forward);
         let same = std::ptr::eq(a, b);
         let fb = if same {
             None
         } else {
             let mut fb = load(b);
-            self.forward(&mut fb, &roots);
+            self.forward(&mut fb, &twiddles.forward);
             Some(fb)
         };
         match &fb {
@@ -199,7 +259,7 @@ impl TransformPrime {
                 .for_each(|(x, y)| *x = self.mont(*x, *y)),
             None => fa.iter_mut().for_each(|x| *x = self.mont(*x, *x)),
         }
-        self.backward(&mut fa, &self.roots(log_n, true));
+        self.backward(&mut fa, &twiddles.backward);
         // The pointwise Montgomery products left a factor 2^(−64); undo it with 1/n.
         let n_inv = self.inverse(n as u64 % self.p);
         let scale = self.mont(self.to_montgomery(n_inv), self.r2);
@@ -208,7 +268,11 @@ impl TransformPrime {
     }
 }
 
-/// The transform primes, largest first.
+/// How many transform primes there are: enough for products of polynomials over prime fields of
+/// up to 512 bits (coefficients of the integer product below 2^(2·512 + 32)).
+pub const TRANSFORM_PRIME_COUNT: usize = 18;
+
+/// The transform primes, largest first (all above 2^61).
 pub fn transform_primes() -> &'static [TransformPrime] {
     static PRIMES: OnceLock<Vec<TransformPrime>> = OnceLock::new();
     PRIMES.get_or_init(|| {
@@ -216,7 +280,7 @@ pub fn transform_primes() -> &'static [TransformPrime] {
             .rev()
             .map(|c| (c << MAX_LOG) + 1)
             .filter(|&p| is_prime(p))
-            .take(3)
+            .take(TRANSFORM_PRIME_COUNT)
             .map(TransformPrime::new)
             .collect()
     })
@@ -226,8 +290,7 @@ pub fn transform_primes() -> &'static [TransformPrime] {
 /// coefficients reduced modulo m; length a.len() + b.len() − 1, not trimmed.
 pub fn multiply_words(a: &[u64], b: &[u64], m: u64) -> Vec<u64> {
     let len = a.len() + b.len() - 1;
-    let log_n = len.next_power_of_two().trailing_zeros();
-    assert!(log_n <= MAX_LOG, "a product longer than 2^32 coefficients");
+    let log_n = transform_log_length(len);
     // The integer coefficients are below min(|a|, |b|)·(m − 1)^2.
     let bits = 2 * (64 - (m - 1).leading_zeros()) + (64 - a.len().min(b.len()).leading_zeros());
     let primes = &transform_primes()[..(bits as usize).div_ceil(61).clamp(1, 3)];
@@ -239,7 +302,17 @@ pub fn multiply_words(a: &[u64], b: &[u64], m: u64) -> Vec<u64> {
     (0..len).map(|i| crt.combine(&residues, i)).collect()
 }
 
-fn rayon_map<T: Sync, R: Send>(items: &[T], f: impl Fn(&T) -> R + Sync + Send) -> Vec<R> {
+/// log2 of the transform length for a product of `len` coefficients.
+pub(super) fn transform_log_length(len: usize) -> u32 {
+    let log_n = len.next_power_of_two().trailing_zeros();
+    assert!(log_n <= MAX_LOG, "a product longer than 2^32 coefficients");
+    log_n
+}
+
+pub(super) fn rayon_map<T: Sync, R: Send>(
+    items: &[T],
+    f: impl Fn(&T) -> R + Sync + Send,
+) -> Vec<R> {
     use rayon::prelude::*;
     items.par_iter().map(f).collect()
 }

@@ -2,8 +2,11 @@
 //! GF(q) are the factors of degree 1, split off as gcd(x^q − x, f) (x^q by repeated squaring
 //! modulo f, never written down) and separated by equal-degree factorization (Cantor and
 //! Zassenhaus 1981); the complete factorization is squarefree, then distinct-degree, then
-//! equal-degree factorization (the plan of von zur Gathen and Shoup 1992).
+//! equal-degree factorization (the plan of von zur Gathen and Shoup 1992). Over a field not much
+//! larger than the degree the roots are read off the values at every element instead
+//! ([`super::all_values`]).
 
+use super::all_values::{evaluation_is_cheaper, roots_by_evaluation, small_order};
 use super::distinct_degree::linear_part;
 use super::{
     degree, distinct_degree_factorization, equal_degree_factorization, squarefree_factorization,
@@ -20,6 +23,11 @@ const SPLITTING_SEED: u64 = 0x005e_ed0f_2007;
 /// The distinct roots of f ≠ 0 in the (finite) field.
 pub fn roots<F: Field>(field: &F, f: &[F::Elem], control: &Control) -> Result<Vec<F::Elem>> {
     let f = nonzero(field, f, "roots")?;
+    if let Some(q) = small_order(field) {
+        if degree::<F>(&f).is_some_and(|d| d > 0 && evaluation_is_cheaper(q, d)) {
+            return roots_by_evaluation(field, &f, q, control);
+        }
+    }
     let linear = linear_part(field, &f, control)?;
     if degree::<F>(&linear).unwrap_or(0) == 0 {
         return Ok(vec![]);

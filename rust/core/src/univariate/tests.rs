@@ -360,3 +360,108 @@ fn huge_exponents_need_only_their_bits() {
         assert_eq!(linear_part(field, &f, &Control::new()).unwrap(), f);
     });
 }
+
+#[test]
+fn half_gcd_route_agrees_with_euclid_on_random_inputs() {
+    // Reference: the classical Euclidean algorithm (quadratic, one division per step).
+    let mut rng = Rng::new(16);
+    for spec in [
+        "GF(2)",
+        "GF(65521)",
+        "GF(2305843009213693951)",
+        "GF(2^255-19)",
+        "GF(9)",
+        "GF(2^16)",
+        "GF(5^30)",
+    ] {
+        let spec = if spec == "GF(2^255-19)" {
+            "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)"
+        } else {
+            spec
+        };
+        let any = AnyField::parse(spec).unwrap();
+        with_any_field!(&any, field => {
+            for (la, lb, lc) in [(400, 300, 1), (500, 500, 1), (700, 200, 90), (350, 349, 200), (1000, 20, 5), (300, 0, 1)] {
+                let c = monic(field, &random_poly(field, &mut rng, lc));
+                let a = multiply(field, &random_poly(field, &mut rng, la), &c);
+                let b = multiply(field, &random_poly(field, &mut rng, lb), &c);
+                let control = Control::new();
+                let expected = gcd::euclid(field, &a, &b, &control).unwrap();
+                assert_eq!(gcd(field, &a, &b), expected, "{spec} {la} {lb} {lc}");
+                assert_eq!(gcd(field, &b, &a), expected, "{spec} swapped");
+                assert!(expected.len() >= lc, "{spec}: planted factor");
+                if !a.is_empty() || !b.is_empty() {
+                    let (g, s, t) = gcd::extended_gcd(field, &a, &b);
+                    assert_eq!(g, expected);
+                    assert_eq!(add(field, &multiply(field, &s, &a), &multiply(field, &t, &b)), g, "{spec} cofactors");
+                    assert!(b.len() <= 1 || s.len() < b.len(), "{spec}: deg s < deg b");
+                }
+            }
+            // A remainder sequence with a degree drop of many steps at once: gcd(x^n − 1, x^k − 1) = x^gcd(n,k) − 1.
+            let x_minus = |n: usize| subtract(field, &monomial(field, n), &[field.one()]);
+            assert_eq!(gcd(field, &x_minus(1200), &x_minus(450)), x_minus(150), "{spec} x^n - 1");
+        });
+    }
+}
+
+#[test]
+fn wide_transform_products_agree_with_values_at_random_points() {
+    // Primes of 2, 4 and 8 limbs: 2^127 − 1 (Mersenne), 2^255 − 19, and the 384-bit prime
+    // 2^384 − 2^128 − 2^96 + 2^32 − 1 (FIPS 186-4, from memory; the field checks primality).
+    let p384 = "39402006196394479212279040100143613805079739270465446667948293404245721771496870329047266088258938001861606973112319";
+    let mut rng = Rng::new(17);
+    for spec in [
+        "GF(170141183460469231731687303715884105727)".to_string(),
+        "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)"
+            .to_string(),
+        format!("GF({p384})"),
+    ] {
+        let any = AnyField::parse(&spec).unwrap();
+        with_any_field!(&any, field => {
+            let a = random_poly(field, &mut rng, 1500);
+            let b = random_poly(field, &mut rng, 977);
+            let product = multiply(field, &a, &b);
+            assert_eq!(product.len(), 2476, "{spec}");
+            for _ in 0..10 {
+                let t = random_element(field, &mut rng);
+                let expected = field.mul(&evaluate(field, &a, &t), &evaluate(field, &b, &t));
+                assert_eq!(evaluate(field, &product, &t), expected, "{spec}");
+            }
+            assert_eq!(square(field, &b), schoolbook(field, &b, &b), "{spec} square");
+        });
+    }
+}
+
+#[test]
+fn roots_by_evaluation_agree_with_brute_force() {
+    let mut rng = Rng::new(18);
+    for spec in [
+        "GF(2)",
+        "GF(3)",
+        "GF(7)",
+        "GF(251)",
+        "GF(4)",
+        "GF(9)",
+        "GF(2^8)",
+        "GF(3^5)",
+        "GF(65521)",
+        "GF(2^16)",
+    ] {
+        let any = AnyField::parse(spec).unwrap();
+        with_any_field!(&any, field => {
+            let q = all_values::small_order(field).unwrap();
+            for len in [2, 6, 40, 300] {
+                let planted: Vec<_> = (0..4).map(|_| random_element(field, &mut rng)).collect();
+                let mut f = multiply(field, &random_poly(field, &mut rng, len), &from_roots(field, &planted));
+                f = multiply(field, &f, &linear(field, &field.zero()));
+                let mut got: Vec<String> = all_values::roots_by_evaluation(field, &f, q, &Control::new())
+                    .unwrap()
+                    .iter()
+                    .map(|a| field.format(a))
+                    .collect();
+                got.sort();
+                assert_eq!(got, brute_force_roots(field, &f), "{spec} length {len}");
+            }
+        });
+    }
+}

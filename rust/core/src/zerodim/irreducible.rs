@@ -29,6 +29,7 @@ use crate::field::{integer_scale, primality, PrimeField, RationalField};
 use crate::univariate::{degree, derivative, gcd, squarefree_part, Univariate};
 use num_bigint::BigInt;
 use num_integer::Integer;
+use num_rational::BigRational;
 use num_traits::{One, Signed, Zero};
 
 /// Good primes whose degree patterns are intersected before lifting (common practice: a handful).
@@ -45,26 +46,75 @@ pub fn is_irreducible(f: &Univariate<RationalField>, control: &Control) -> Resul
     if degree::<RationalField>(&squarefree_part(&RationalField, f)) != Some(n) {
         return Ok(false);
     }
-    let f = primitive_integer(f);
+    Ok(true_factor(&primitive_integer(f), control)?.is_none())
+}
+
+/// The monic irreducible factors over QQ of a squarefree f of degree ≥ 1, by splitting off one
+/// true factor at a time (each found as in [`is_irreducible`]); sorted by degree, then
+/// coefficients.
+pub fn irreducible_factors(
+    f: &Univariate<RationalField>,
+    control: &Control,
+) -> Result<Vec<Univariate<RationalField>>> {
+    let mut pending = vec![primitive_integer(f)];
+    let mut out = Vec::new();
+    while let Some(g) = pending.pop() {
+        control.check()?;
+        match true_factor(&g, control)? {
+            Some(h) => {
+                let rest = exact_quotient(&g, &h).expect("a true factor divides");
+                pending.push(positive(h));
+                pending.push(positive(rest));
+            }
+            None => out.push(monic_rational(&g)),
+        }
+    }
+    out.sort_by(|a, b| a.len().cmp(&b.len()).then_with(|| a.cmp(b)));
+    Ok(out)
+}
+
+/// g or −g, whichever has a positive leading coefficient (the lifting bound needs lc > 0).
+fn positive(g: IntPoly) -> IntPoly {
+    if g.last().is_some_and(|c| c.is_negative()) {
+        g.into_iter().map(|c| -c).collect()
+    } else {
+        g
+    }
+}
+
+fn monic_rational(g: &IntPoly) -> Univariate<RationalField> {
+    let lc = g.last().expect("nonzero").clone();
+    g.iter()
+        .map(|c| BigRational::new(c.clone(), lc.clone()))
+        .collect()
+}
+
+/// A factor of the primitive squarefree integer polynomial f of degree between 1 and deg f − 1,
+/// primitive; `None` when f is irreducible (steps 2 and 3 of the module doc).
+fn true_factor(f: &IntPoly, control: &Control) -> Result<Option<IntPoly>> {
+    let n = f.len() - 1;
+    if n <= 1 {
+        return Ok(None);
+    }
     let mut allowed = vec![true; n + 1];
     let mut best: Option<(u64, Vec<Vec<u64>>)> = None;
-    for p in good_primes(&f).take(PATTERN_PRIMES) {
+    for p in good_primes(f).take(PATTERN_PRIMES) {
         control.check()?;
         let field = PrimeField::new(p)?;
-        let factors = factor_squarefree(&field, &reduce_mod(&f, p), control)?;
+        let factors = factor_squarefree(&field, &reduce_mod(f, p), control)?;
         let sums = subset_sums(&factors, n);
         for (d, ok) in allowed.iter_mut().enumerate() {
             *ok &= sums[d];
         }
         if !(1..n).any(|d| allowed[d]) {
-            return Ok(true);
+            return Ok(None);
         }
         if best.as_ref().is_none_or(|(_, b)| factors.len() < b.len()) {
             best = Some((p, factors));
         }
     }
     let (p, factors) = best.expect("at least one good prime");
-    Ok(!has_true_factor(&f, p, &factors, &allowed, control)?)
+    find_true_factor(f, p, &factors, &allowed, control)
 }
 
 /// The primitive integer polynomial with positive leading coefficient proportional to f.
@@ -82,7 +132,7 @@ fn primitive_integer(f: &Univariate<RationalField>) -> IntPoly {
 
 /// Primes p ≥ 3 with p ∤ lc(f) and f mod p squarefree, increasing. For squarefree f only
 /// finitely many primes fail (those dividing lc(f) or the discriminant), so this never ends.
-fn good_primes(f: &IntPoly) -> impl Iterator<Item = u64> + '_ {
+pub(crate) fn good_primes(f: &[BigInt]) -> impl Iterator<Item = u64> + '_ {
     (3u64..)
         .filter(|&p| primality::is_prime(p))
         .filter(move |&p| {
@@ -108,15 +158,15 @@ fn subset_sums(factors: &[Vec<u64>], n: usize) -> Vec<bool> {
     sums
 }
 
-/// Zassenhaus's recombination: whether some product of at most half the lifted factors, with
-/// an allowed degree, gives a factor of f over ZZ.
-fn has_true_factor(
+/// Zassenhaus's recombination: some product of at most half the lifted factors, with an allowed
+/// degree, that gives a factor of f over ZZ (that factor), or `None`.
+fn find_true_factor(
     f: &IntPoly,
     p: u64,
     factors: &[Vec<u64>],
     allowed: &[bool],
     control: &Control,
-) -> Result<bool> {
+) -> Result<Option<IntPoly>> {
     let lc = f.last().expect("nonzero").clone();
     let norm = f.iter().map(|c| c * c).sum::<BigInt>().sqrt() + 1;
     let bound = &lc * (BigInt::one() << (f.len() - 1)) * norm;
@@ -137,8 +187,8 @@ fn has_true_factor(
                     multiply_integer(&acc, &lifted[i])
                 });
                 let candidate = primitive_part(symmetric(product, &modulus));
-                if divides(&candidate, f) {
-                    return Ok(true);
+                if exact_quotient(f, &candidate).is_some() {
+                    return Ok(Some(candidate));
                 }
             }
             if !next_subset(&mut subset, r) {
@@ -146,7 +196,7 @@ fn has_true_factor(
             }
         }
     }
-    Ok(false)
+    Ok(None)
 }
 
 /// The next size-k subset of 0..r in lexicographic order; false after the last.
@@ -185,21 +235,22 @@ fn primitive_part(g: IntPoly) -> IntPoly {
     g.into_iter().map(|c| c / &content).collect()
 }
 
-/// Whether the primitive g (degree ≥ 1) divides f in ZZ[x] (by Gauss's lemma, the same as in
-/// QQ[x]): long division where every quotient coefficient must be an integer.
-fn divides(g: &IntPoly, f: &IntPoly) -> bool {
+/// f / g when the primitive g (degree ≥ 1) divides f in ZZ[x] (by Gauss's lemma, the same as
+/// in QQ[x]): long division where every quotient coefficient must be an integer.
+fn exact_quotient(f: &IntPoly, g: &IntPoly) -> Option<IntPoly> {
     let dg = g.len() - 1;
     if dg == 0 || g.len() > f.len() {
-        return false;
+        return None;
     }
     if !f[0].is_zero() && (g[0].is_zero() || !f[0].is_multiple_of(&g[0])) {
-        return false;
+        return None;
     }
     let mut rest = f.clone();
+    let mut quotient = vec![BigInt::zero(); f.len() - dg];
     for top in (dg..rest.len()).rev() {
         let (q, r) = rest[top].div_rem(&g[dg]);
         if !r.is_zero() {
-            return false;
+            return None;
         }
         if q.is_zero() {
             continue;
@@ -207,8 +258,9 @@ fn divides(g: &IntPoly, f: &IntPoly) -> bool {
         for (i, c) in g.iter().enumerate() {
             rest[top - dg + i] -= &q * c;
         }
+        quotient[top - dg] = q;
     }
-    rest.iter().all(|c| c.is_zero())
+    rest.iter().all(|c| c.is_zero()).then_some(quotient)
 }
 
 #[cfg(test)]
@@ -257,5 +309,30 @@ mod tests {
             .map(|i| if i == 0 { 0 } else { s3[i - 1] } - if i < 9 { s3[i] } else { 0 })
             .collect();
         assert!(!irreducible(&times_x_minus_1));
+    }
+
+    #[test]
+    fn irreducible_factors_multiply_back() {
+        // x^4 + 4 = (x^2 − 2x + 2)(x^2 + 2x + 2) (Sophie Germain's identity); times the
+        // Swinnerton-Dyer polynomial of √2 + √3 and 3x − 2 (irreducible, see above).
+        let sophie = poly(&[4, 0, 0, 0, 1]);
+        let sd = poly(&[1, 0, -10, 0, 1]);
+        let linear = poly(&[-2, 3]);
+        let f = crate::univariate::multiply(
+            &RationalField,
+            &crate::univariate::multiply(&RationalField, &sophie, &sd),
+            &linear,
+        );
+        let factors = irreducible_factors(&f, &Control::new()).unwrap();
+        let monic = |c: &[i64]| crate::univariate::monic(&RationalField, &poly(c));
+        assert_eq!(
+            factors,
+            vec![
+                monic(&[-2, 3]),
+                monic(&[2, -2, 1]),
+                monic(&[2, 2, 1]),
+                monic(&[1, 0, -10, 0, 1]),
+            ]
+        );
     }
 }

@@ -59,7 +59,7 @@ pub fn is_maximal_over_rationals(
 }
 
 /// u_c = Σ_i c^i · x_(i+1) (with c^0 = 1, so u_0 = x_1).
-fn separating_candidate(ring: &Ring<RationalField>, c: u64) -> Poly<RationalField> {
+pub(crate) fn separating_candidate(ring: &Ring<RationalField>, c: u64) -> Poly<RationalField> {
     let n = ring.nvars();
     ring.from_terms((0..n).map(|i| {
         let coefficient = BigInt::from(c).pow(i as u32);
