@@ -14,7 +14,7 @@ from typing import Any, Callable
 
 from .names import expand_names
 
-TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis")
+TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis", "curve")
 DEFAULT_TASKS = ("dimension",)
 JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order")
 
@@ -90,6 +90,13 @@ def _normalize(system) -> dict | None:
     return system.projection().to_dict()
 
 
+def _curve(system) -> dict:
+    """Model, genus, N_1..N_g, the zeta function and the bounds (``fibrewise.curves``)."""
+    from .curves import curve_summary
+
+    return curve_summary(system)
+
+
 TASKS: dict[str, Callable[[Any], Any]] = {
     "dimension": lambda S: S.dimension(),
     "independent_variables": lambda S: [str(v) for v in S.independent_variables()],
@@ -98,6 +105,7 @@ TASKS: dict[str, Callable[[Any], Any]] = {
     "normalize": _normalize,
     "points": _points,
     "basis": lambda S: [str(g) for g in S.basis()],
+    "curve": _curve,
 }
 
 

@@ -19,6 +19,7 @@ from .spaces import Coercible, Polynomial, Space
 if TYPE_CHECKING:
     import numpy
     from .fields import FieldSpec
+    from .curves import Curve
     from .invariants import HilbertSeries
     from .normalization import FiniteProjection, IntegralEquation
 
@@ -315,6 +316,15 @@ class System:
         from .normalization import is_finite_over
 
         return is_finite_over(self, over)
+
+    # --- curves (python/fibrewise/curves.py) -------------------------------------------------
+
+    def curve(self) -> "Curve":
+        """The solution set as a curve over the (finite) field: smoothness, genus, counts over
+        GF(q^r), zeta function (see ``fibrewise.curves``)."""
+        from .curves import Curve
+
+        return Curve(self)
 
     # --- text -------------------------------------------------------------------------------
 
