@@ -44,6 +44,7 @@ demo: build
 		echo "$$ fibrewise analyze $$f"; $(VENV)/bin/fibrewise analyze "$$f" || echo "(exit status $$?)"; echo; \
 	done
 	@echo "$$ fibrewise basis examples/toy_cipher_gf101.txt"; $(VENV)/bin/fibrewise basis examples/toy_cipher_gf101.txt; echo
+	@echo "$$ fibrewise curve examples/curve_genus2_gf16.txt --up-to 4"; $(VENV)/bin/fibrewise curve examples/curve_genus2_gf16.txt --up-to 4; echo
 	@rm -f $(DEMO_OUT)
 	@echo "$$ fibrewise batch examples/batch.jsonl -o $(DEMO_OUT) --timeout 30"
 	@$(VENV)/bin/fibrewise batch examples/batch.jsonl -o $(DEMO_OUT) --timeout 30

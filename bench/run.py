@@ -21,6 +21,7 @@ RUST_BENCHES: list[str] = [
     "bench_projection",
     "bench_univariate",
     "bench_solutions",
+    "bench_curves",
 ]
 
 

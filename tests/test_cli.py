@@ -21,7 +21,7 @@ from fibrewise.progress import Progress
 
 ROOT = Path(__file__).resolve().parent.parent
 EXAMPLES = ROOT / "examples"
-SUBCOMMANDS = ["analyze", "basis", "normalize", "integral", "points", "check", "batch"]
+SUBCOMMANDS = ["analyze", "basis", "normalize", "integral", "points", "curve", "check", "batch"]
 
 
 def fibrewise(*args: str, cwd: Path | None = None) -> subprocess.CompletedProcess:

@@ -12,6 +12,7 @@ The algorithms live in a Rust core (``fibrewise._native``); this package is the 
 from importlib.metadata import PackageNotFoundError, version as _version
 
 from ._native import ParseError, ResourceLimit
+from .curves import BoundCheck, Curve, Zeta
 from .fields import Field, field
 from .invariants import HilbertSeries
 from .names import Engine, OrderName, Strategy
@@ -23,8 +24,10 @@ from .systems import GroebnerStats, ReducedBasis, StepStats, System
 
 __all__ = [
     "BlockOrder",
+    "BoundCheck",
     "CertificateError",
     "ClosedPoint",
+    "Curve",
     "Engine",
     "Field",
     "FiniteProjection",
@@ -41,6 +44,7 @@ __all__ = [
     "Strategy",
     "System",
     "WeightOrder",
+    "Zeta",
     "field",
 ]
 

@@ -303,6 +303,22 @@ def _read_json(path: str) -> Any:
 
 
 # ----------------------------------------------------------------------------------------------
+# curve
+
+
+def _curve(args: argparse.Namespace, activity) -> dict:
+    from .curves import curve_summary
+
+    system = _system(args)
+    activity.set_step("curve: smoothness, genus, point counts, zeta function")
+    try:
+        summary, seconds = _timed(lambda: curve_summary(system, args.up_to))
+    except ValueError as e:
+        raise ValueError(f"{system.path}: {e}") from None
+    return {**_header(system), **summary, "seconds": seconds}
+
+
+# ----------------------------------------------------------------------------------------------
 # batch
 
 
@@ -334,6 +350,8 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
                "example: fibrewise points examples/curve_code_gf7_projective.txt --projective", _points),
     "solve": ("the points with coordinates in the (finite) field, one per line, each checked in every equation",
               "example: fibrewise solve examples/toy_cipher_gf101.txt", _solve),
+    "curve": ("smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",
+              "example: fibrewise curve examples/curve_genus2_gf16.txt --up-to 4", _curve),
     "check": ("verify a saved projection certificate against the system file",
               "example: fibrewise check cert.json examples/curve_code_gf7.txt", _check),
     "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
@@ -428,6 +446,9 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
     elif name == "integral":
         p.add_argument("--element", required=True, metavar="F", help="the polynomial to test")
         p.add_argument("--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)")
+    elif name == "curve":
+        p.add_argument("--up-to", type=_positive(int), metavar="R",
+                       help="report N_r for r = 1..R (default: the genus; N_r beyond the genus come from the zeta function)")
     elif name == "points":
         p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
     elif name == "solve":

@@ -18,7 +18,7 @@ from .names import expand_names
 SOLUTIONS_LIMIT = 1000
 
 TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "projection", "normalize", "points", "basis",
-              "solutions")
+              "solutions", "curve")
 DEFAULT_TASKS = ("dimension",)
 JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "limit")
 
@@ -110,6 +110,13 @@ def _normalize(system) -> dict | None:
     return system.projection(equations="now").to_dict()
 
 
+def _curve(system) -> dict:
+    """Model, genus, N_1..N_g, the zeta function and the bounds (``fibrewise.curves``)."""
+    from .curves import curve_summary
+
+    return curve_summary(system)
+
+
 TASKS: dict[str, Callable[[Any], Any]] = {
     "dimension": lambda S: S.dimension(),
     "independent_variables": lambda S: [str(v) for v in S.independent_variables()],
@@ -119,6 +126,7 @@ TASKS: dict[str, Callable[[Any], Any]] = {
     "normalize": _normalize,
     "points": _points,
     "basis": lambda S: [str(g) for g in S.basis()],
+    "curve": _curve,
 }
 
 

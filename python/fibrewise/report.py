@@ -258,7 +258,25 @@ def render_solve(result: dict) -> str:
     return render(result)
 
 
+def render_curve(result: dict) -> str:
+    zeta = result["zeta"]
+    head = f"{result['file']}: smooth {result['model']} curve of genus {result['genus']} over {result['field']}"
+    counts = [f"N_{b['r']} = {b['points']}  ({b['note']})" for b in result["bounds"]]
+    rows = _header_rows(result) + [
+        ("model", result["model"]), ("genus", result["genus"]),
+        ("points over GF(q^r)", "\n".join(counts)),
+        ("counted", f"N_1..N_{result['counted_up_to']} fibre by fibre; later N_r from L(T)"
+                    if result["counted_up_to"] else "genus 0: N_r = q^r + 1, nothing to count"),
+        ("L(T)", zeta["numerator"]),
+        ("zeta function", f"Z(T) = L(T) / ({zeta['denominator']})"),
+        ("Jacobian order", f"{zeta['jacobian_order']}  (L(1), points of the Jacobian over {result['field']})"),
+        ("time", seconds(result["seconds"])),
+    ]
+    return f"{head}\n{aligned(rows)}"
+
+
 RENDERERS: dict[str, Callable[[dict], str]] = {
+    "curve": render_curve,
     "analyze": render_analyze, "basis": render_basis, "normalize": render_normalize,
     "integral": render_integral, "points": render_points, "check": render_check, "batch": render_batch,
     "solve": render_solve,

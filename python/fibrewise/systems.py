@@ -20,6 +20,7 @@ if TYPE_CHECKING:
     import numpy
     from .fields import FieldSpec
     from .memory import Memory
+    from .curves import Curve
     from .invariants import HilbertSeries
     from .normalization import EquationsWhen, FiniteProjection, IntegralEquation
     from .solutions import ClosedPoint
@@ -348,6 +349,15 @@ class System:
         from .normalization import is_finite_over
 
         return is_finite_over(self, over)
+
+    # --- curves (python/fibrewise/curves.py) -------------------------------------------------
+
+    def curve(self) -> "Curve":
+        """The solution set as a curve over the (finite) field: smoothness, genus, counts over
+        GF(q^r), zeta function (see ``fibrewise.curves``)."""
+        from .curves import Curve
+
+        return Curve(self)
 
     # --- text -------------------------------------------------------------------------------
 

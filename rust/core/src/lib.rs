@@ -17,6 +17,7 @@
 
 pub mod boolean;
 pub mod control;
+pub mod curves;
 pub mod dimension;
 pub mod error;
 pub mod field;

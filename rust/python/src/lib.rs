@@ -6,6 +6,7 @@ use pyo3::prelude::*;
 
 mod basis;
 mod convert;
+mod curves;
 mod dispatch;
 mod errors;
 mod field_kinds;
@@ -32,6 +33,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
         fibrewise_core::normalization::STRATEGY_NAMES.to_vec(),
     )?;
     basis::register(m)?;
+    curves::register(m)?;
     field_kinds::register(m)?;
     invariants::register(m)?;
     normalization::register(m)?;

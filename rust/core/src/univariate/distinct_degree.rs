@@ -21,11 +21,23 @@ pub fn frobenius_of_x<F: Field>(
 
 /// gcd(x^q − x, f): the product of the distinct linear factors of f ≠ 0 (monic).
 pub fn linear_part<F: Field>(field: &F, f: &[F::Elem], control: &Control) -> Result<Univariate<F>> {
+    let q = field_order_limbs(field, "x^q modulo a polynomial")?;
+    linear_part_for_order(field, f, &q, control)
+}
+
+/// [`linear_part`] with the field order q given as little-endian limbs (callers counting the
+/// roots of many polynomials compute q once).
+pub fn linear_part_for_order<F: Field>(
+    field: &F,
+    f: &[F::Elem],
+    q: &[u64],
+    control: &Control,
+) -> Result<Univariate<F>> {
     let f = super::monic(field, f);
     if degree::<F>(&f).unwrap_or(0) == 0 {
         return Ok(vec![field.one()]);
     }
-    let h = frobenius_of_x(field, &f, control)?;
+    let h = Modulo::new(field, &f).x_power(q, control)?;
     gcd_checked(
         field,
         &subtract(field, &h, &monomial(field, 1)),

@@ -1,0 +1,296 @@
+//! Curves against brute-force enumeration and published facts (sources named beside each).
+
+use super::*;
+use crate::field::{AnyField, PrimeField};
+use crate::parse::parse_poly;
+use crate::with_any_field;
+
+fn ring_over<F: Field>(field: F, vars: &[&str]) -> Ring<F> {
+    let names = vars.iter().map(|s| s.to_string()).collect();
+    Ring::new(field, names, MonomialOrder::Grevlex).unwrap()
+}
+
+fn curve_over<F: PowerBasis>(field: F, vars: &[&str], equations: &[&str]) -> Curve<F> {
+    let ring = ring_over(field, vars);
+    let gens: Vec<Poly<F>> = equations
+        .iter()
+        .map(|e| parse_poly(&ring, e).unwrap())
+        .collect();
+    Curve::new(&ring, &gens, &Control::new()).unwrap()
+}
+
+fn counts<F: PowerBasis>(curve: &Curve<F>, up_to: u32) -> Vec<u128> {
+    (1..=up_to)
+        .map(|r| curve.count_points(r, &Control::new()).unwrap())
+        .collect()
+}
+
+/// Points of the projective plane curve `equation` over the field `spec` (integer
+/// coefficients), by trying every point of P^2 there.
+fn brute_force_plane(spec: &str, equation: &str) -> u128 {
+    with_any_field!(AnyField::parse(spec).unwrap(), k => {
+        let ring = ring_over(k.clone(), &["x", "y", "z"]);
+        let f = parse_poly(&ring, equation).unwrap();
+        let elements = k.small_elements(1 << 12).unwrap();
+        let mut points = Vec::new();
+        for x in &elements {
+            for y in &elements {
+                points.push(vec![x.clone(), y.clone(), k.one()]);
+            }
+            points.push(vec![k.one(), x.clone(), k.zero()]);
+        }
+        points.push(vec![k.zero(), k.one(), k.zero()]);
+        points.iter().filter(|p| k.is_zero(&ring.evaluate(&f, p).unwrap())).count() as u128
+    })
+}
+
+/// Affine points of the plane curve `equation` in x, y over the field `spec`.
+fn brute_force_affine(spec: &str, equation: &str) -> u128 {
+    with_any_field!(AnyField::parse(spec).unwrap(), k => {
+        let ring = ring_over(k.clone(), &["x", "y"]);
+        let f = parse_poly(&ring, equation).unwrap();
+        let elements = k.small_elements(1 << 12).unwrap();
+        let mut count = 0;
+        for x in &elements {
+            for y in &elements {
+                count += u128::from(k.is_zero(&ring.evaluate(&f, &[x.clone(), y.clone()]).unwrap()));
+            }
+        }
+        count
+    })
+}
+
+fn l_polynomial(zeta: &Zeta) -> Vec<i64> {
+    zeta.l_polynomial
+        .iter()
+        .map(|a| i64::try_from(a).unwrap())
+        .collect()
+}
+
+#[test]
+fn klein_quartic_counts_and_zeta_over_gf2() {
+    // Published counts of x^3 y + y^3 z + z^3 x over GF(2), GF(4), GF(8): 3, 5, 24, and
+    // L(T) = 1 + 5T^3 + 8T^6 (from memory); checked by brute force too.
+    let equation = "x^3*y + y^3*z + z^3*x";
+    let curve = curve_over(PrimeField::new(2).unwrap(), &["x", "y", "z"], &[equation]);
+    assert!(curve.is_smooth());
+    assert_eq!(curve.genus().unwrap(), 3);
+    assert_eq!(counts(&curve, 3), vec![3, 5, 24]);
+    for (r, spec) in [(1, "GF(2)"), (2, "GF(4)"), (3, "GF(8)"), (4, "GF(16)")] {
+        assert_eq!(
+            counts(&curve, r)[r as usize - 1],
+            brute_force_plane(spec, equation)
+        );
+    }
+    let zeta = curve.zeta(&Control::new()).unwrap();
+    assert_eq!(l_polynomial(&zeta), vec![1, 0, 0, 5, 0, 0, 8]);
+    assert!(zeta.satisfies_functional_equation());
+    for r in 1..=5u32 {
+        assert_eq!(
+            zeta.points(r),
+            BigInt::from(curve.count_points(r, &Control::new()).unwrap())
+        );
+    }
+    // Over GF(8) the curve reaches Serre's bound 8 + 1 + 3·⌊2√8⌋ = 24 (Serre 1983): maximal.
+    let check = curve.check_bounds(3, 24).unwrap();
+    assert!(check.within && check.maximal);
+}
+
+#[test]
+fn hermitian_curves_are_maximal() {
+    // x^(q+1) + y^(q+1) + z^(q+1) over GF(q^2) has q^3 + 1 points, genus q(q−1)/2 and
+    // L(T) = (1 + qT)^(2g) (handbook fact).
+    for (spec, q, equation) in [
+        ("GF(4)", 2i64, "x^3 + y^3 + z^3"),
+        ("GF(9)", 3, "x^4 + y^4 + z^4"),
+    ] {
+        with_any_field!(AnyField::parse(spec).unwrap(), k => {
+            let curve = curve_over(k, &["x", "y", "z"], &[equation]);
+            let g = (q * (q - 1) / 2) as usize;
+            assert_eq!(curve.genus().unwrap(), g);
+            assert_eq!(curve.count_points(1, &Control::new()).unwrap(), (q * q * q + 1) as u128);
+            assert_eq!(curve.count_points(1, &Control::new()).unwrap(), brute_force_plane(spec, equation));
+            let zeta = curve.zeta(&Control::new()).unwrap();
+            let expected: Vec<i64> = (0..=2 * g as u32)
+                .map(|k| binomial_i64(2 * g as u32, k) * q.pow(k))
+                .collect();
+            assert_eq!(l_polynomial(&zeta), expected);
+            assert!(zeta.satisfies_functional_equation());
+            let check = curve.check_bounds(1, (q * q * q + 1) as u128).unwrap();
+            assert!(check.maximal && !check.minimal);
+        });
+    }
+}
+
+fn binomial_i64(n: u32, k: u32) -> i64 {
+    (0..k).fold(1i64, |acc, i| acc * i64::from(n - i) / i64::from(i + 1))
+}
+
+#[test]
+fn elliptic_curves_satisfy_hasse() {
+    // #E = q + 1 − a and L(T) = 1 − aT + qT^2 (Hasse 1936); counts by brute force, with the one
+    // point at infinity of y^2 = x^3 + ... .
+    for (p, equation) in [
+        (7u64, "y^2 - x^3 - 3*x - 2"),
+        (101, "y^2 - x^3 - x - 1"),
+        (2, "y^2 + y - x^3"),
+    ] {
+        let curve = curve_over(PrimeField::new(p).unwrap(), &["x", "y"], &[equation]);
+        assert!(curve.is_smooth());
+        assert_eq!(curve.genus().unwrap(), 1);
+        let n = curve.count_points(1, &Control::new()).unwrap();
+        assert_eq!(n, brute_force_affine(&format!("GF({p})"), equation) + 1);
+        let a = p as i64 + 1 - n as i64;
+        let zeta = curve.zeta(&Control::new()).unwrap();
+        assert_eq!(l_polynomial(&zeta), vec![1, -a, p as i64]);
+        assert_eq!(zeta.jacobian_order(), BigInt::from(n));
+        assert!(zeta.satisfies_functional_equation());
+        // N_2 = q^2 + 1 − (a^2 − 2q) (Hasse), against a count over GF(p^2) where brute force is cheap.
+        let n2 = curve.count_points(2, &Control::new()).unwrap() as i64;
+        assert_eq!(n2, (p * p) as i64 + 1 - (a * a - 2 * p as i64));
+        assert_eq!(zeta.points(2), BigInt::from(n2));
+    }
+}
+
+#[test]
+fn genus_two_curve_in_characteristic_two() {
+    // y^2 + x*y = x^5 + 1 over GF(2): smooth model with one point at infinity (deg f odd);
+    // N_1, N_2 by brute force over GF(2), GF(4); #J = L(1) with L(T) = 1 + a1 T + a2 T^2 + 2 a1 T^3
+    // + 4 T^4, a1 = N_1 − 3, a2 = (N_2 − 5 + a1^2)/2 (Newton's identities).
+    let equation = "y^2 + x*y + x^5 + 1";
+    let curve = curve_over(PrimeField::new(2).unwrap(), &["x", "y"], &[equation]);
+    assert!(curve.is_smooth());
+    assert_eq!(curve.genus().unwrap(), 2);
+    let n1 = brute_force_affine("GF(2)", equation) as i64 + 1;
+    let n2 = brute_force_affine("GF(4)", equation) as i64 + 1;
+    assert_eq!(counts(&curve, 2), vec![n1 as u128, n2 as u128]);
+    let a1 = n1 - 3;
+    let a2 = (n2 - 5 + a1 * a1) / 2;
+    let zeta = curve.zeta(&Control::new()).unwrap();
+    assert_eq!(l_polynomial(&zeta), vec![1, a1, a2, 2 * a1, 4]);
+    assert_eq!(
+        zeta.jacobian_order(),
+        BigInt::from(1 + a1 + a2 + 2 * a1 + 4)
+    );
+    assert_eq!(zeta.jacobian_order(), BigInt::from((n1 * n1 + n2) / 2 - 2));
+    for r in 3..=6u32 {
+        let spec = format!("GF(2^{r})");
+        let brute = brute_force_affine(&spec, equation) + 1;
+        assert_eq!(zeta.points(r), BigInt::from(brute));
+    }
+}
+
+#[test]
+fn even_degree_model_has_two_or_no_points_at_infinity() {
+    // y^2 = x^6 + 1 over GF(7)... leading coefficient 1 is a square: two points at infinity,
+    // and y^2 = 3x^6 + 1 (3 a non-square mod 7) none; counted against brute force.
+    for (equation, at_infinity) in [("y^2 - x^6 - 1", 2), ("y^2 - 3*x^6 - 1", 0)] {
+        let curve = curve_over(PrimeField::new(7).unwrap(), &["x", "y"], &[equation]);
+        assert!(curve.is_smooth());
+        assert_eq!(curve.genus().unwrap(), 2);
+        for (r, spec) in [(1u32, "GF(7)"), (2, "GF(49)")] {
+            let extra = if r == 2 { 2 } else { at_infinity };
+            assert_eq!(
+                curve.count_points(r, &Control::new()).unwrap(),
+                brute_force_affine(spec, equation) + extra
+            );
+        }
+        assert!(curve
+            .zeta(&Control::new())
+            .unwrap()
+            .satisfies_functional_equation());
+    }
+}
+
+#[test]
+fn curve_over_extension_field_is_counted_over_its_extensions() {
+    // y^2 + y = x^3 + a over GF(4) = GF(2)[a]: counts over GF(16) against brute force on
+    // the same equation read over GF(16), where a is a root of a^2 + a + 1.
+    let gf4 = AnyField::parse("GF(4)").unwrap();
+    let AnyField::Table(k) = gf4 else {
+        panic!("GF(4) has tables")
+    };
+    let curve = curve_over(k, &["x", "y"], &["y^2 + y + x^3 + a"]);
+    let n1 = curve.count_points(1, &Control::new()).unwrap();
+    assert_eq!(n1, brute_force_affine("GF(4)", "y^2 + y + x^3 + a") + 1);
+    let n2 = curve.count_points(2, &Control::new()).unwrap();
+    // In GF(16) = GF(2)[b]/(b^4 + b + 1), b^5 is a root of a^2 + a + 1.
+    assert_eq!(n2, brute_force_affine("GF(16)", "y^2 + y + x^3 + a^5") + 1);
+    let zeta = curve.zeta(&Control::new()).unwrap();
+    assert_eq!(zeta.points(2), BigInt::from(n2));
+}
+
+#[test]
+fn space_curve_complete_intersection() {
+    // Two quadrics in P^3 meeting transversally: genus 1 from the Hilbert polynomial 4s
+    // (Hartshorne 1977, from memory); counts against the plane projection-free brute force.
+    let curve = curve_over(
+        PrimeField::new(5).unwrap(),
+        &["x", "y", "z", "w"],
+        &["x^2 + y^2 + z^2 + w^2", "x^2 + 2*y^2 + 3*z^2 + 4*w^2"],
+    );
+    assert!(curve.is_smooth());
+    assert_eq!(curve.genus().unwrap(), 1);
+    let zeta = curve.zeta(&Control::new()).unwrap();
+    let n1 = curve.count_points(1, &Control::new()).unwrap();
+    assert_eq!(zeta.jacobian_order(), BigInt::from(n1));
+    assert_eq!(
+        zeta.points(2),
+        BigInt::from(curve.count_points(2, &Control::new()).unwrap())
+    );
+}
+
+#[test]
+fn singular_curves_are_refused_with_their_singular_points() {
+    // The cusp y^2 z = x^3 is singular at (0 : 0 : 1) only (textbook example).
+    let curve = curve_over(
+        PrimeField::new(5).unwrap(),
+        &["x", "y", "z"],
+        &["y^2*z - x^3"],
+    );
+    assert!(!curve.is_smooth());
+    assert_eq!(
+        curve.singular_points(&Control::new()).unwrap(),
+        vec![vec![0, 0, 1]]
+    );
+    let message = curve
+        .count_points(1, &Control::new())
+        .unwrap_err()
+        .to_string();
+    assert!(message.contains("singular"), "{message}");
+    // y^2 = x^2 (x + 1): a node at the origin of the affine hyperelliptic equation.
+    let node = curve_over(
+        PrimeField::new(7).unwrap(),
+        &["x", "y"],
+        &["y^2 - x^3 - x^2"],
+    );
+    assert!(!node.is_smooth());
+    assert_eq!(
+        node.singular_points(&Control::new()).unwrap(),
+        vec![vec![0, 0]]
+    );
+    assert!(node.zeta(&Control::new()).is_err());
+}
+
+#[test]
+fn large_fields_are_refused_before_any_work() {
+    // An elliptic curve over the 61-bit prime 2^61 − 1: one root count per x is out of reach.
+    let p = (1u64 << 61) - 1;
+    let curve = curve_over(PrimeField::new(p).unwrap(), &["x", "y"], &["y^2 - x^3 - 7"]);
+    assert_eq!(curve.genus().unwrap(), 1);
+    match curve.count_points(1, &Control::new()) {
+        Err(Error::ResourceLimit(message)) => {
+            assert!(message.contains("fibre by fibre"), "{message}")
+        }
+        other => panic!("expected a refusal, got {other:?}"),
+    }
+}
+
+#[test]
+fn weil_bound_rejects_counts_of_no_curve() {
+    // N_1 = 20 over GF(2) breaks |a_1| ≤ 2g√q for g = 1.
+    assert!(Zeta::from_counts(2, 1, &[20]).is_err());
+    assert!(Zeta::from_counts(2, 1, &[3])
+        .unwrap()
+        .satisfies_functional_equation());
+}
