@@ -78,6 +78,8 @@ curve_kind!(PrimeField => Prime, BigPrimeField<2> => BigPrime2, BigPrimeField<4>
 #[pyclass(frozen, module = "fibrewise._native")]
 pub struct NativeCurve {
     curve: AnyCurve,
+    /// The memory budget of the space the curve came from.
+    memory: Option<u64>,
 }
 
 /// The curve of the equations `gens` in `space`.
@@ -89,8 +91,11 @@ fn curve_of(
 ) -> PyResult<NativeCurve> {
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let curve = long_run::run(py, Limits::default(), |control| Curve::new(r, &gens, control))?;
-        Ok(NativeCurve { curve: CurveKind::wrap(curve) })
+        let curve = long_run::run(py, Limits::default(), space.memory, |control| Curve::new(r, &gens, control))?;
+        Ok(NativeCurve {
+            curve: CurveKind::wrap(curve),
+            memory: space.memory,
+        })
     })
 }
 
@@ -144,13 +149,13 @@ impl NativeCurve {
 
     /// #C(GF(q^r)) on the smooth projective model.
     fn count_points(&self, py: Python<'_>, r: u32) -> PyResult<u128> {
-        with_curve!(&self.curve, c => long_run::run(py, Limits::default(), |control| c.count_points(r, control)))
+        with_curve!(&self.curve, c => long_run::run(py, Limits::default(), self.memory, |control| c.count_points(r, control)))
     }
 
     /// (q, genus, L-polynomial coefficients a_0..a_2g).
     fn zeta(&self, py: Python<'_>) -> PyResult<(u64, usize, Vec<BigInt>)> {
         with_curve!(&self.curve, c => {
-            let zeta = long_run::run(py, Limits::default(), |control| c.zeta(control))?;
+            let zeta = long_run::run(py, Limits::default(), self.memory, |control| c.zeta(control))?;
             Ok((zeta.q, zeta.genus, zeta.l_polynomial))
         })
     }
@@ -158,7 +163,7 @@ impl NativeCurve {
     /// Singular points with coordinates in GF(q), each a list of coefficients.
     fn singular_points(&self, py: Python<'_>) -> PyResult<Vec<Vec<PyObject>>> {
         with_curve!(&self.curve, c => {
-            let points = long_run::run(py, Limits::default(), |control| c.singular_points(control))?;
+            let points = long_run::run(py, Limits::default(), self.memory, |control| c.singular_points(control))?;
             points
                 .iter()
                 .map(|p| p.iter().map(|x| c.field.coefficient_to_py(py, x)).collect())

@@ -44,7 +44,7 @@ fn rational_points(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let points = long_run::run(py, Limits::default(), |control| {
+        let points = long_run::run(py, Limits::default(), space.memory, |control| {
             solve::rational_points(r, &gens, limit, engine, control)
         })?;
         points
@@ -68,24 +68,25 @@ fn closed_points(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let found = long_run::run(py, Limits::default(), |control| {
+        let found = long_run::run(py, Limits::default(), space.memory, |control| {
             closed::closed_points(r, &gens, engine, control)
         })?;
         Ok(found
             .into_iter()
-            .map(|point| (point.degree, native_polys(point.equations.ring, point.equations.polys)))
+            .map(|point| (point.degree, native_polys(point.equations.ring, point.equations.polys, space.memory)))
             .collect())
     })
 }
 
 /// Polynomials of a ring the core made (the lex ring of a closed point) as native handles.
-fn native_polys<F: Kind>(ring: Ring<F>, polys: Vec<Poly<F>>) -> Vec<NativePoly> {
+fn native_polys<F: Kind>(ring: Ring<F>, polys: Vec<Poly<F>>, memory: Option<u64>) -> Vec<NativePoly> {
     let ring = F::wrap_ring(Arc::new(ring));
     polys
         .into_iter()
         .map(|p| NativePoly {
             ring: ring.clone(),
             poly: F::wrap_poly(p),
+            memory,
         })
         .collect()
 }
@@ -111,7 +112,7 @@ fn embed(
                     t.names().join(", ")
                 )));
             }
-            let (mapped, generator) = long_run::run(py, Limits::default(), |control| {
+            let (mapped, generator) = long_run::run(py, Limits::default(), space.memory, |control| {
                 let embedding = Embedding::new(&r.field, &t.field, control)?;
                 let mapped: Vec<_> = gens
                     .iter()
