@@ -35,7 +35,7 @@ def _timed(call: Callable[[], Any]) -> tuple[Any, float]:
 def _header(system) -> dict:
     space = system.space
     return {"file": system.path, "field": str(space.field), "variables": list(space.names),
-            "order": str(space.order), "polynomials": len(system.equations)}
+            "order": str(space.order), "polynomials": len(system.equations), "boolean": space.boolean}
 
 
 # ----------------------------------------------------------------------------------------------
@@ -46,7 +46,7 @@ def _basis(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
     order = args.order or system.space.order
     activity.set_step("Groebner basis")
-    gb, seconds = _timed(lambda: system.basis(order, engine=args.engine))
+    gb, seconds = _timed(lambda: system.basis(order, engine=args.engine, field_equations=args.field_equations))
     return {**_header(system), "order": str(order), "basis": [str(g) for g in gb],
             "seconds": seconds, "stats": gb.stats.to_dict()}
 
@@ -82,10 +82,13 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
         part("hilbert", "Hilbert series", lambda: _hilbert(system))
         if dim == 0:
             part("quotient_dimension", "quotient dimension", system.quotient_dimension)
-        part("projection", "finite projection", lambda: _projection_summary(system))
+        if not system.space.boolean:  # a Boolean system projects onto a point: its rank is the degree
+            part("projection", "finite projection", lambda: _projection_summary(system))
         points = _cheap_points(system, args, result)
         if points is not None:
             part("points", "points", points)
+    if system.space.boolean:
+        part("solve_method", "solve method", lambda: system.solve_method().to_dict())
     result["failed"] = failed
     result["summary"] = _summary(result)
     result["stats"] = gb.stats.to_dict()
@@ -255,6 +258,15 @@ def _read_json(path: str) -> Any:
         raise ValueError(f"{path}:{e.lineno}:{e.colno}: malformed JSON: {e.msg}") from None
 
 
+def _solve(args: argparse.Namespace, activity) -> dict:
+    system = _system(args)
+    if not system.space.boolean:
+        raise ValueError(f"{system.path}: 'solve' lists the solutions of Boolean systems ('boolean: yes') in this build")
+    from .boolean import solve_command
+
+    return {**_header(system), **solve_command(system, args.method, args.limit, activity)}
+
+
 # ----------------------------------------------------------------------------------------------
 # batch
 
@@ -284,6 +296,8 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
                  "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
     "points": ("number of points with coordinates in the (finite) field",
                "example: fibrewise points examples/curve_code_gf7.txt --projective", _points),
+    "solve": ("the solutions of a Boolean system file ('boolean: yes'), one per line",
+              "example: fibrewise solve examples/toy_spn_cipher_gf2.txt --method basis", _solve),
     "check": ("verify a saved projection certificate against the system file",
               "example: fibrewise check cert.json examples/curve_code_gf7.txt", _check),
     "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
@@ -329,6 +343,8 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
                        help="f4 (the default), f4-sampled (faster on large systems over finite fields; "
                             "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
                             "only; skips most rows that reduce to zero) or buchberger (the reference)")
+        p.add_argument("--field-equations", action="store_true",
+                       help="Boolean files: include the field equations x^2 + x in the basis")
     elif name == "analyze":
         p.add_argument("--plot", metavar="FILE.png", help="draw degree and matrix size per Groebner step and the Hilbert function")
         group = p.add_mutually_exclusive_group()
@@ -346,6 +362,11 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
         p.add_argument("--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)")
     elif name == "points":
         p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
+    elif name == "solve":
+        p.add_argument("--method", default="auto", metavar="METHOD",
+                       help="auto (the cheapest by a cost estimate), exhaustive, basis, hybrid, or hybrid:K "
+                            "(guess K variables)")
+        p.add_argument("--limit", type=_positive(int), metavar="N", help="stop after N solutions")
 
 
 def _parser() -> argparse.ArgumentParser:

@@ -1,7 +1,8 @@
 """One batch job: checking its description and computing its tasks.
 
 A job is one JSON object, ``{"id": ..., "field": "GF(7)", "variables": ["x", "y"], "polynomials":
-[...], "tasks": [...], "order": "grevlex"}``. ``check_job`` validates its shape without the native
+[...], "tasks": [...], "order": "grevlex", "boolean": false}`` (``"boolean": true``: a Boolean
+system over GF(2), every variable satisfying v^2 = v). ``check_job`` validates its shape without the native
 engine (so a whole input file is checked before any work starts); ``run_job`` computes the tasks
 and always returns one result record ``{"id", "status", "result", "error", "seconds"}``: a failing
 job becomes a record with status ``"error"``, never an exception.
@@ -14,9 +15,9 @@ from typing import Any, Callable
 
 from .names import expand_names
 
-TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis")
+TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "normalize", "points", "basis", "solutions")
 DEFAULT_TASKS = ("dimension",)
-JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order")
+JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "boolean")
 
 
 class JobError(ValueError):
@@ -61,8 +62,11 @@ def check_job(obj: Any) -> dict:
     order = obj.get("order", "grevlex")
     if not isinstance(order, str):
         raise JobError('"order" must be "lex", "grlex" or "grevlex"')
+    boolean = obj.get("boolean", False)
+    if not isinstance(boolean, bool):
+        raise JobError('"boolean" must be true or false')
     return {"id": obj["id"], "field": obj["field"], "variables": variables, "polynomials": polys,
-            "tasks": tasks, "order": order}
+            "tasks": tasks, "order": order, "boolean": boolean}
 
 
 def _hilbert(system) -> dict:
@@ -98,6 +102,7 @@ TASKS: dict[str, Callable[[Any], Any]] = {
     "normalize": _normalize,
     "points": _points,
     "basis": lambda S: [str(g) for g in S.basis()],
+    "solutions": lambda S: [[str(v) for v in p] for p in S.points()],
 }
 
 
@@ -105,7 +110,7 @@ def compute_tasks(job: dict) -> dict:
     """The results of a checked job's tasks, by task name; raises on bad input."""
     from .spaces import Space
 
-    space = Space(job["field"], job["variables"], order=job["order"])
+    space = Space(job["field"], job["variables"], order=job["order"], boolean=job.get("boolean", False))
     system = space.system(_polynomials(space, job["polynomials"]))
     return {task: TASKS[task](system) for task in job["tasks"]}
 

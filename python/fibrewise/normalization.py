@@ -157,6 +157,7 @@ def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optio
     """A finite projection of ``system``: the simplest kind of change that works (``strategy``
     "auto"), or only "variables", "linear" or "nonlinear". ``seed`` fixes every random choice.
     A system without solutions (the unit ideal) raises ``ValueError``."""
+    system = system._general()  # a Boolean system with its field equations written out
     check_name("strategy", strategy, STRATEGY_NAMES)
     if seed is not None and (not isinstance(seed, int) or isinstance(seed, bool)):
         raise TypeError(f"seed must be an int, not {type(seed).__name__}")
@@ -176,6 +177,7 @@ def check_certificate(certificate: dict, system: "System") -> list[str]:
     """The problems of a saved certificate against ``system`` (empty when it holds): unreadable
     entries, equations that are not monic or not in the ideal, coordinates that do not invert,
     a wrong dimension. Used by ``fibrewise check CERT.json SYSTEM``."""
+    system = system._general()  # a Boolean system with its field equations written out
     if not isinstance(certificate, dict):
         return [f"a certificate is a dict, not {type(certificate).__name__}"]
     space = system.space
@@ -240,6 +242,7 @@ def _over(system: "System", over: Sequence[Coercible]) -> list[Polynomial]:
 def integral_equation(system: "System", f: Coercible, over: Sequence[Coercible]) -> Optional[IntegralEquation]:
     """The monic relation of least degree of ``f`` over k[over] in R/I, or None when ``f`` is not
     integral over it (elimination with tag variables)."""
+    system = system._general()  # a Boolean system with its field equations written out
     space = system.space
     element, gs = space.polynomial(f), _over(system, over)
     found = _native.integral_equation(space._native, [g._native for g in system.equations], element._native, [g._native for g in gs])
@@ -256,6 +259,7 @@ def is_integral(system: "System", f: Coercible, over: Sequence[Coercible]) -> bo
 
 def is_finite_over(system: "System", over: Sequence[Coercible]) -> bool:
     """Whether R/I is a finitely generated k[over]-module."""
+    system = system._general()  # a Boolean system with its field equations written out
     space = system.space
     gs = _over(system, over)
     return _native.is_finite_over(space._native, [g._native for g in system.equations], [g._native for g in gs])

@@ -5,6 +5,7 @@
 use pyo3::prelude::*;
 
 mod basis;
+mod boolean;
 mod convert;
 mod dispatch;
 mod errors;
@@ -30,6 +31,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
         fibrewise_core::normalization::STRATEGY_NAMES.to_vec(),
     )?;
     basis::register(m)?;
+    boolean::register(m)?;
     field_kinds::register(m)?;
     invariants::register(m)?;
     normalization::register(m)?;
