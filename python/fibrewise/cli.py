@@ -39,7 +39,7 @@ def _timed(call: Callable[[], Any]) -> tuple[Any, float]:
 def _header(system) -> dict:
     space = system.space
     return {"file": system.path, "field": str(space.field), "variables": list(space.names),
-            "order": str(space.order), "polynomials": len(system.equations)}
+            "order": str(space.order), "polynomials": len(system.equations), "boolean": space.boolean}
 
 
 # ----------------------------------------------------------------------------------------------
@@ -50,7 +50,7 @@ def _basis(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
     order = args.order or system.space.order
     activity.set_step("Groebner basis")
-    gb, seconds = _timed(lambda: system.basis(order, engine=args.engine))
+    gb, seconds = _timed(lambda: system.basis(order, engine=args.engine, field_equations=args.field_equations))
     return {**_header(system), "order": str(order), "basis": [str(g) for g in gb],
             "seconds": seconds, "stats": gb.stats.to_dict()}
 
@@ -92,7 +92,8 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
         part("hilbert", "Hilbert series", lambda: _hilbert(system))
         if dim == 0:
             part("quotient_dimension", "quotient dimension", system.quotient_dimension, stage="hilbert")
-        part("projection", "finite projection", lambda: _projection_summary(system), stage="normalize")
+        if not system.space.boolean:  # a Boolean system projects onto a point: its rank is the degree
+            part("projection", "finite projection", lambda: _projection_summary(system), stage="normalize")
         if "points" in skipped:
             result["points_skipped"] = "--skip points"
         else:
@@ -101,6 +102,8 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
                 part("points", "points", points)
             else:
                 skipped["points"] = result["points_skipped"]
+    if system.space.boolean:
+        part("solve_method", "solve method", lambda: system.solve_method().to_dict())
     result["failed"] = failed
     result["skipped"] = skipped
     result["summary"] = _summary(result)
@@ -253,9 +256,17 @@ def _points(args: argparse.Namespace, activity) -> dict:
 
 
 def _solve(args: argparse.Namespace, activity) -> dict:
+    system = _system(args)
+    if system.space.boolean:
+        if args.over is not None or args.closed_points:
+            raise ValueError(f"{system.path}: --over and --closed-points are for systems that are not Boolean")
+        from .boolean import solve_command as solve_boolean
+
+        return {**_header(system), **solve_boolean(system, args.method, args.limit, activity)}
+    if args.method != "auto":
+        raise ValueError(f"{system.path}: --method chooses how Boolean systems ('boolean: yes') are solved")
     from .solving import solve_command
 
-    system = _system(args)
     return solve_command(args, activity, _header(system), system)
 
 
@@ -348,7 +359,8 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
                  "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
     "points": ("number of points with coordinates in the (finite) field",
                "example: fibrewise points examples/curve_code_gf7_projective.txt --projective", _points),
-    "solve": ("the points with coordinates in the (finite) field, one per line, each checked in every equation",
+    "solve": ("the points with coordinates in the (finite) field, one per line, each checked in every equation "
+              "(Boolean files: exhaustive search, a basis or a hybrid, --method)",
               "example: fibrewise solve examples/toy_cipher_gf101.txt", _solve),
     "curve": ("smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",
               "example: fibrewise curve examples/curve_genus2_gf16.txt --up-to 4", _curve),
@@ -428,6 +440,8 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
                        help="f4 (the default), f4-sampled (faster on large systems over finite fields; "
                             "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
                             "only; skips most rows that reduce to zero) or buchberger (the reference)")
+        p.add_argument("--field-equations", action="store_true",
+                       help="Boolean files: include the field equations x^2 + x in the basis")
     elif name == "analyze":
         p.add_argument("--plot", metavar="FILE.png", help="draw degree and matrix size per Groebner step and the Hilbert "
                        "function (needs matplotlib)")
@@ -454,6 +468,9 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
     elif name == "solve":
         p.add_argument("--over", metavar="GF(q^k)", help="list the points with coordinates in this extension field")
         p.add_argument("--limit", type=_positive(int), metavar="N", help="at most N points (the report says when there are more)")
+        p.add_argument("--method", default="auto", metavar="METHOD",
+                       help="Boolean systems: auto (the cheapest by a cost estimate), exhaustive, basis, hybrid, "
+                            "or hybrid:K (guess K variables)")
         p.add_argument("--closed-points", action="store_true",
                        help="list the closed points (Galois orbits, with their degrees and equations) instead")
 

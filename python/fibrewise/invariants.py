@@ -86,7 +86,7 @@ class HilbertSeries:
 
 
 def _basis(system: "System") -> tuple:
-    gb = system.basis()
+    gb = system.basis(field_equations=system.space.boolean)
     return gb.space._native, [g._native for g in gb]
 
 
@@ -105,11 +105,12 @@ def independent_variables(system: "System") -> list[Polynomial]:
 def hilbert(system: "System") -> HilbertSeries:
     """Hilbert series of R/I: graded for homogeneous equations, affine otherwise (computed
     from a grevlex basis when the space's order does not compare degrees first)."""
-    homogeneous = all(g.is_homogeneous() for g in system.equations)
+    boolean = system.space.boolean  # the ideal with the field equations, not homogeneous
+    homogeneous = not boolean and all(g.is_homogeneous() for g in system.equations)
     if homogeneous or _native.is_degree_compatible(system.space._native):
-        gb = system.basis()
+        gb = system.basis(field_equations=boolean)
     else:
-        gb = system.basis("grevlex")
+        gb = system.basis("grevlex", field_equations=boolean)
     numerator, d, affine = _native.hilbert(gb.space._native, [g._native for g in gb])
     return HilbertSeries(list(numerator), d, graded=not affine)
 

@@ -1,7 +1,8 @@
 """One batch job: checking its description and computing its tasks.
 
 A job is one JSON object, ``{"id": ..., "field": "GF(7)", "variables": ["x", "y"], "polynomials":
-[...], "tasks": [...], "order": "grevlex"}``. ``check_job`` validates its shape without the native
+[...], "tasks": [...], "order": "grevlex", "boolean": false}`` (``"boolean": true``: a Boolean
+system over GF(2), every variable satisfying v^2 = v). ``check_job`` validates its shape without the native
 engine (so a whole input file is checked before any work starts); ``run_job`` computes the tasks
 and always returns one result record ``{"id", "status", "result", "error", "seconds"}``: a failing
 job becomes a record with status ``"error"``, never an exception.
@@ -20,7 +21,7 @@ SOLUTIONS_LIMIT = 1000
 TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "projection", "normalize", "points", "basis",
               "solutions", "curve")
 DEFAULT_TASKS = ("dimension",)
-JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "limit")
+JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "limit", "boolean")
 
 
 class JobError(ValueError):
@@ -68,8 +69,11 @@ def check_job(obj: Any) -> dict:
     limit = obj.get("limit", SOLUTIONS_LIMIT)
     if isinstance(limit, bool) or not isinstance(limit, int) or limit < 1:
         raise JobError('"limit" (most points the "solutions" task lists) must be a positive integer')
+    boolean = obj.get("boolean", False)
+    if not isinstance(boolean, bool):
+        raise JobError('"boolean" must be true or false')
     return {"id": obj["id"], "field": obj["field"], "variables": variables, "polynomials": polys,
-            "tasks": tasks, "order": order, "limit": limit}
+            "tasks": tasks, "order": order, "limit": limit, "boolean": boolean}
 
 
 def _hilbert(system) -> dict:
@@ -139,7 +143,8 @@ def compute_tasks(job: dict, on_task: Callable[[str, Any], None] | None = None,
     from .solving import solutions_task
     from .spaces import Space
 
-    space = Space(job["field"], job["variables"], order=job["order"], memory=memory)
+    space = Space(job["field"], job["variables"], order=job["order"], memory=memory,
+                  boolean=job.get("boolean", False))
     system = space.system(_polynomials(space, job["polynomials"]))
     tasks = {**TASKS, "solutions": lambda S: solutions_task(S, job.get("limit", SOLUTIONS_LIMIT))}
     results = {}

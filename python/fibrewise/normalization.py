@@ -200,6 +200,7 @@ def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optio
     "auto"), or only "variables", "linear" or "nonlinear". ``seed`` fixes every random choice.
     ``equations``: "lazy" (computed on first use of ``.equations``) or "now".
     A system without solutions (the unit ideal) raises ``ValueError``."""
+    system = system._general()  # a Boolean system with its field equations written out
     check_name("strategy", strategy, STRATEGY_NAMES)
     if not isinstance(equations, str):
         raise TypeError(f"equations must be 'lazy' or 'now', not {type(equations).__name__}")
@@ -228,6 +229,7 @@ def check_certificate(certificate: dict, system: "System") -> list[str]:
     entries, equations that are not monic or not in the ideal, coordinates that do not invert,
     wrong module generators, rank, dimension, strategy or homogeneity (see the module doc).
     Used by ``fibrewise check CERT.json SYSTEM``."""
+    system = system._general()  # a Boolean system with its field equations written out
     if not isinstance(certificate, dict):
         return [f"a certificate is a dict, not {type(certificate).__name__}"]
     problems = shape_problems(certificate)
@@ -342,6 +344,7 @@ def _over(system: "System", over: Sequence[Coercible]) -> list[Polynomial]:
 def integral_equation(system: "System", f: Coercible, over: Sequence[Coercible]) -> Optional[IntegralEquation]:
     """The monic relation of least degree of ``f`` over k[over] in R/I, or None when ``f`` is not
     integral over it (elimination with tag variables)."""
+    system = system._general()  # a Boolean system with its field equations written out
     space = system.space
     element, gs = space.polynomial(f), _over(system, over)
     found = _native.integral_equation(space._native, [g._native for g in system.equations], element._native, [g._native for g in gs])
@@ -358,6 +361,7 @@ def is_integral(system: "System", f: Coercible, over: Sequence[Coercible]) -> bo
 
 def is_finite_over(system: "System", over: Sequence[Coercible]) -> bool:
     """Whether R/I is a finitely generated k[over]-module."""
+    system = system._general()  # a Boolean system with its field equations written out
     space = system.space
     gs = _over(system, over)
     return _native.is_finite_over(space._native, [g._native for g in system.equations], [g._native for g in gs])

@@ -82,7 +82,8 @@ def _variables(result: dict) -> str:
 
 
 def _header_rows(result: dict) -> list[tuple[str, Any]]:
-    return [("field", result["field"]), ("variables", _variables(result)),
+    field = result["field"] + (", Boolean (v^2 = v)" if result.get("boolean") else "")
+    return [("field", field), ("variables", _variables(result)),
             ("polynomials", result["polynomials"])]
 
 
@@ -120,6 +121,8 @@ def render_analyze(result: dict) -> str:
     basis = result["basis"]
     rows.append(("Groebner basis", f"{plural(basis['size'], 'polynomial')}, highest degree reached "
                                    f"{basis['max_degree']}, {seconds(result.get('seconds_basis'))}"))
+    if result.get("solve_method"):
+        rows.append(("solve method", "{method}: {reason}".format(**result["solve_method"])))
     rows += _failed_parts(result)
     skipped = {stage: why for stage, why in (result.get("skipped") or {}).items() if stage != "points"}
     if skipped:
@@ -279,8 +282,15 @@ RENDERERS: dict[str, Callable[[dict], str]] = {
     "curve": render_curve,
     "analyze": render_analyze, "basis": render_basis, "normalize": render_normalize,
     "integral": render_integral, "points": render_points, "check": render_check, "batch": render_batch,
-    "solve": render_solve,
+    "solve": lambda result: _boolean_report().render_solve(result) if isinstance(result.get("method"), dict)
+    else render_solve(result),
 }
+
+
+def _boolean_report():
+    from . import boolean
+
+    return boolean
 
 
 def render(command: str, result: dict) -> str:

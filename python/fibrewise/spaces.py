@@ -38,16 +38,24 @@ class Space:
     polynomials' products, powers and substitutions, and the bases, invariants, projections and
     checks of its systems. A computation that would go over it ends in ``fibrewise.ResourceLimit``
     naming what it was building. The default is three quarters of the machine's memory.
+
+    ``Space("GF(2)", "x0..x63", boolean=True)`` is a Boolean space: every coordinate satisfies
+    v^2 = v (the field equations, implicit), polynomials are sums of square-free monomials and
+    the solutions of its systems are points of GF(2)^n (see ``fibrewise.boolean``).
     """
 
-    def __init__(self, field_spec: FieldSpec, variables: Variables, order: Order = "grevlex", *,
-                 memory: Memory = None):
+    def __init__(self, field_spec: FieldSpec, variables: Variables, order: Order = "grevlex", boolean: bool = False,
+                 *, memory: Memory = None):
+        from .boolean import check_boolean_flag
+
         self.field: Field = field(field_spec)
         self.names: tuple[str, ...] = tuple(expand_names(variables))
         self.order: Order = order
+        self.boolean: bool = check_boolean_flag(boolean)
         self.memory: int | None = parse_memory(memory)
         self._native = _native.NativeSpace(self.field._native, list(self.names), native_order(order, self.names),
                                            memory=self.memory)
+        self._boolean = _native.NativeBooleanSpace(self._native) if boolean else None
 
     def with_order(self, order: Order) -> "Space":
         """The same space with another monomial order."""
@@ -55,7 +63,9 @@ class Space:
             return self
         other = Space.__new__(Space)
         other.field, other.names, other.order, other.memory = self.field, self.names, order, self.memory
+        other.boolean = self.boolean
         other._native = self._native.with_order(native_order(order, self.names))
+        other._boolean = _native.NativeBooleanSpace(other._native) if self.boolean else None
         return other
 
     def with_memory(self, memory: Memory) -> "Space":
@@ -79,7 +89,9 @@ class Space:
         """``value`` as a polynomial of this space: a polynomial of the same field and variables,
         text, an int or fraction, a galois scalar of the field, or a sympy expression."""
         if isinstance(value, Polynomial):
-            if not value.space.same_coordinates(self):
+            # Between a Boolean space and the plain one on the same coordinates, a polynomial
+            # moves by its square-free representative.
+            if (value.space.field, value.space.names) != (self.field, self.names):
                 raise ValueError(f"{value!r} does not belong to {self}")
             return value if value.space is self else Polynomial(self, value._native)
         if isinstance(value, str):
@@ -131,20 +143,21 @@ class Space:
         return polynomial_from_sympy(self, expr)
 
     def same_coordinates(self, other: "Space") -> bool:
-        """Same field and variables (the order may differ)."""
-        return self.field == other.field and self.names == other.names
+        """Same field and variables, both Boolean or neither (the order may differ)."""
+        return self.field == other.field and self.names == other.names and self.boolean == other.boolean
 
     def __eq__(self, other: object) -> bool:
         return isinstance(other, Space) and self.same_coordinates(other) and self.order == other.order
 
     def __hash__(self) -> int:
-        return hash((self.field, self.names, repr(self.order)))
+        return hash((self.field, self.names, repr(self.order), self.boolean))
 
     def __str__(self) -> str:
-        return f"{self.field}[{', '.join(self.names)}]"
+        return f"{self.field}[{', '.join(self.names)}]" + (" with v^2 = v" if self.boolean else "")
 
     def __repr__(self) -> str:
-        return f"Space({str(self.field)!r}, {', '.join(self.names)!r}, order={self.order!r})"
+        flag = ", boolean=True" if self.boolean else ""
+        return f"Space({str(self.field)!r}, {', '.join(self.names)!r}, order={self.order!r}{flag})"
 
 
 def _plain_number(c: Any) -> Any:
@@ -170,7 +183,8 @@ class Polynomial:
 
     def __init__(self, space: Space, native: _native.NativePoly):
         self.space = space
-        self._native = native
+        # In a Boolean space every exponent above 0 is 1 (v^2 = v): products reduce on the fly.
+        self._native = native if space._boolean is None else space._boolean.reduce(native)
 
     def _coerce(self, other: object) -> "Polynomial | None":
         if isinstance(other, Polynomial):
@@ -231,6 +245,8 @@ class Polynomial:
             raise ValueError(f"polynomial powers need a non-negative exponent, got {e}")
         if e >= 2**64:
             raise ValueError(f"exponent {e} is out of range (below 2^64)")
+        if self.space.boolean and e > 0:  # f^2 = f when v^2 = v for every variable
+            return self
         return Polynomial(self.space, self._native.pow(int(e)))
 
     def __eq__(self, other: object) -> bool:

@@ -1,8 +1,9 @@
 """The system file format: plain UTF-8 text.
 
 ``#`` starts a comment; header lines ``field: GF(7)``, ``variables: x, y, z`` (ranges such as
-``x0..x63`` allowed) and the optional ``order: grevlex``; every other non-empty line is one
-polynomial. Errors are ``SystemFileError`` (a ``fibrewise.ParseError``) naming the file, the line
+``x0..x63`` allowed), the optional ``order: grevlex`` and the optional ``boolean: yes`` (GF(2)
+only: every variable satisfies v^2 = v, see ``fibrewise.boolean``); every other non-empty line is
+one polynomial. Errors are ``SystemFileError`` (a ``fibrewise.ParseError``) naming the file, the line
 and the column.
 """
 
@@ -16,7 +17,8 @@ from .fields import field
 from .spaces import Space
 from .systems import System
 
-HEADERS = ("field", "variables", "order")
+HEADERS = ("field", "variables", "order", "boolean")
+BOOLEAN_VALUES = {"yes": True, "true": True, "no": False, "false": False}
 _HEADER = re.compile(r"^\s*([A-Za-z_]+)\s*:(.*)$")
 
 
@@ -103,8 +105,22 @@ def _make_space(headers: dict[str, tuple[str, int, int]], path: str, memory=None
         f = field(field_spec)
     except ValueError as e:
         raise SystemFileError(path, field_line, field_col, str(e)) from None
+    boolean = _boolean_header(headers, f, path)
     try:
-        return Space(f, names, order=order, memory=memory)
+        return Space(f, names, order=order, boolean=boolean, memory=memory)
     except ValueError as e:
         line, col = (order_line, order_col) if "order" in str(e) else (var_line, var_col)
         raise SystemFileError(path, line, col, str(e)) from None
+
+
+def _boolean_header(headers: dict[str, tuple[str, int, int]], f, path: str) -> bool:
+    """The ``boolean:`` header: yes/no (or true/false); yes only over GF(2)."""
+    if "boolean" not in headers:
+        return False
+    value, line, col = headers["boolean"]
+    if value.lower() not in BOOLEAN_VALUES:
+        raise SystemFileError(path, line, col, f"'boolean:' is yes or no, not {value!r}")
+    boolean = BOOLEAN_VALUES[value.lower()]
+    if boolean and str(f) != "GF(2)":
+        raise SystemFileError(path, line, col, f"'boolean: yes' needs the field GF(2); the file's field is {f}")
+    return boolean

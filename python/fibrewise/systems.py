@@ -24,6 +24,7 @@ if TYPE_CHECKING:
     from .invariants import HilbertSeries
     from .normalization import EquationsWhen, FiniteProjection, IntegralEquation
     from .solutions import ClosedPoint
+    from .boolean import MethodChoice
 
 
 @dataclass(frozen=True)
@@ -99,6 +100,10 @@ class ReducedBasis(Sequence[Polynomial]):
 
     def normal_form(self, f: Coercible) -> Polynomial:
         """Normal form of ``f``: the remainder, unique since this is a Gröbner basis."""
+        if self.space.boolean:
+            from . import boolean
+
+            return boolean.normal_form(self, f)
         p = self.space.polynomial(f)
         native = _native.normal_form(self.space._native, [g._native for g in self.polys], p._native)
         return Polynomial(self.space, native)
@@ -180,6 +185,7 @@ class System:
         max_degree: int | None = None,
         max_matrix: int | None = None,
         threads: int | None = None,
+        field_equations: bool = False,
     ) -> ReducedBasis:
         """The reduced Gröbner basis for ``order`` (default: the space's order).
 
@@ -193,8 +199,16 @@ class System:
 
         ``max_degree`` and ``max_matrix`` (rows × columns) bound the work: going over raises
         ``fibrewise.ResourceLimit``. Ctrl-C raises ``KeyboardInterrupt`` promptly.
+
+        On a Boolean space the Boolean engine computes the basis with the field equations
+        x^2 + x implicit; ``field_equations=True`` includes them (the reduced basis of the
+        ideal in GF(2)[x], in the space without ``boolean``).
         """
         check_name("engine", engine, ENGINE_NAMES)
+        if self.space.boolean or field_equations:
+            from . import boolean
+
+            return boolean.basis(self, order, engine, field_equations, max_degree, max_matrix, threads)
         limits = (_optional_count("max_degree", max_degree, 0, 2**32 - 1),
                   _optional_count("max_matrix", max_matrix, 1, 2**64 - 1))
         threads = _optional_count("threads", threads, 1, 4096)
@@ -268,11 +282,16 @@ class System:
         return invariants.hilbert(self)
 
     def degree(self) -> int:
-        """The degree of the solution set (of the ideal: with multiplicity)."""
+        """The degree of the solution set (of the ideal: with multiplicity); on a Boolean
+        space the number of solutions."""
+        if self.space.boolean:
+            return self._boolean_count()
         return invariants.degree(self)
 
     def quotient_dimension(self) -> int:
         """dim_k of the quotient ring (zero-dimensional systems); ``ValueError`` otherwise."""
+        if self.space.boolean:
+            return self._boolean_count()
         return invariants.quotient_dimension(self)
 
     def standard_monomials(self) -> list[Polynomial]:
@@ -285,6 +304,8 @@ class System:
 
     def count_solutions(self) -> int:
         """Number of distinct solutions over the algebraic closure (zero-dimensional systems)."""
+        if self.space.boolean:
+            return self._boolean_count()
         return invariants.count_solutions(self)
 
     def is_closed_point(self) -> bool:
@@ -295,20 +316,38 @@ class System:
         """The degree [k(P) : k] of the closed point; ``ValueError`` if the solutions are not one."""
         return invariants.closed_point_degree(self)
 
-    def count_points(self, over: "FieldSpec | None" = None, projective: bool = False) -> int:
+    def count_points(self, over: "FieldSpec | None" = None, projective: bool = False, *, method: str = "auto") -> int:
         """Points with coordinates in the field, or in the extension ``over`` (affine, or for
-        homogeneous equations projective)."""
+        homogeneous equations projective). ``method`` is for Boolean systems (see ``points``)."""
+        if self.space.boolean:
+            from . import boolean
+
+            return boolean.count_points(self, over, projective, boolean.check_method(method))
+        if method != "auto":
+            raise ValueError(f"method={method!r} is for Boolean systems; this one is over {self.space.field}")
         return invariants.count_points(self, over=over, projective=projective)
 
-    # --- solutions (python/fibrewise/solutions.py) -------------------------------------------
+    # --- solutions (python/fibrewise/solutions.py; Boolean spaces: python/fibrewise/boolean.py) --
 
     def points(self, over: "FieldSpec | None" = None, limit: int | None = None,
-               as_galois: bool = False) -> Iterator[Any]:
+               as_galois: bool = False, *, method: str = "auto") -> Iterator[Any]:
         """Iterator over the points with coordinates in the finite field, or in the extension
         ``over`` (``"GF(7^3)"``; the generator of GF(p^j) is sent to a root of its modulus
         there): tuples of ints (residues for GF(p), integer representations for GF(p^k)), or
         galois arrays with ``as_galois=True``; at most ``limit``. Every point is checked in
-        every equation. Positive dimension: fibre by fibre over a finite projection (q^d fibres)."""
+        every equation. Positive dimension: fibre by fibre over a finite projection (q^d fibres).
+
+        On a Boolean space: tuples of 0/1, found by ``method``: ``"auto"`` (the cheapest by a
+        cost estimate, see ``solve_method``), ``"exhaustive"`` (Gray-code enumeration of GF(2)^n,
+        n <= 64), ``"basis"`` (the Boolean Gröbner engine) or ``"hybrid"`` (guess some variables,
+        run the engine on each guess; ``"hybrid:K"`` guesses K). ``method`` is for Boolean
+        spaces only."""
+        if self.space.boolean:
+            from . import boolean
+
+            return boolean.points(self, over=over, limit=limit, method=method)
+        if method != "auto":
+            raise ValueError(f"method={method!r} chooses how Boolean systems are solved; this space is not Boolean")
         from .solutions import points
 
         return points(self, over=over, limit=limit, as_galois=as_galois)
@@ -318,7 +357,31 @@ class System:
         as ``ClosedPoint`` objects (degree, triangular set, points in the residue field)."""
         from .solutions import closed_points
 
-        return closed_points(self)
+        return closed_points(self._general())
+
+    def solve_method(self, method: str = "auto") -> "MethodChoice":
+        """Boolean systems: the method ``points`` and ``count_points`` use for ``method`` and why
+        (a ``MethodChoice`` with the estimated seconds of each method), without solving."""
+        from . import boolean
+
+        return boolean.choose_method(self, method)
+
+    def with_field_equations(self) -> "System":
+        """Boolean systems: the same equations with x^2 + x for every variable, as a system of
+        the space without ``boolean`` (for the general engines)."""
+        from . import boolean
+
+        return boolean.with_field_equations(self)
+
+    def _boolean_count(self) -> int:
+        from . import boolean
+
+        return boolean.count(self)
+
+    def _general(self) -> "System":
+        """The system the general algorithms see: itself, or with the field equations written
+        out on a Boolean space."""
+        return self.with_field_equations() if self.space.boolean else self
 
     # --- finite projections (python/fibrewise/normalization.py) -----------------------------
 

@@ -46,6 +46,14 @@ fn cpu_seconds() -> f64 {
         .map_or(0.0, |(u, s)| (u + s) / 100.0)
 }
 
+/// The one-minute load average (Linux; empty if unknown): how shared the machine was.
+fn load_average() -> String {
+    std::fs::read_to_string("/proc/loadavg")
+        .ok()
+        .and_then(|l| l.split_whitespace().next().map(str::to_string))
+        .unwrap_or_default()
+}
+
 fn control(threads: usize) -> Control {
     let mut c = Control::new();
     c.limits.threads = Some(threads);
@@ -130,7 +138,21 @@ fn verdict(ok: bool) -> &'static str {
 }
 
 fn main() {
-    let quick = std::env::args().any(|a| a == "--quick");
+    let args: Vec<String> = std::env::args().collect();
+    // `--engine N [N ...]`: only the engine runs on those n (m = 2n), no time budget.
+    if let Some(at) = args.iter().position(|a| a == "--engine") {
+        for n in args[at + 1..].iter().map(|a| a.parse::<usize>().expect("n")) {
+            let load = load_average();
+            let (seconds, cpu, summary) = engine(n, f64::INFINITY).expect("no budget");
+            println!(
+                "engine, 1 thread, n = {n}, m = {}: {seconds:.4} s wall, {cpu:.2} CPU-s \
+                 (load {load}); {summary}",
+                2 * n
+            );
+        }
+        return;
+    }
+    let quick = args.iter().any(|a| a == "--quick");
     println!("Boolean systems over GF(2): random dense quadrics, seed 1");
 
     let n_rate = if quick { 26 } else { 30 };

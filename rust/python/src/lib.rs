@@ -5,6 +5,7 @@
 use pyo3::prelude::*;
 
 mod basis;
+mod boolean;
 mod convert;
 mod curves;
 mod dispatch;
@@ -34,6 +35,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     )?;
     basis::register(m)?;
     curves::register(m)?;
+    boolean::register(m)?;
     field_kinds::register(m)?;
     invariants::register(m)?;
     normalization::register(m)?;

@@ -28,6 +28,12 @@ pub const ENGINE_RATE: f64 = 1.0e10;
 /// systems of a few variables.
 pub const ENGINE_RUN: f64 = 5.0e-5;
 
+/// Seconds (a day) beyond which an estimate no longer decides: when every method is estimated
+/// to take longer, the engine is chosen, since it alone can profit from structure (sparse
+/// equations, linear ones, the layers of a cipher) that the random-system estimate ignores,
+/// while exhaustive search and the hybrid's 2^k runs cost what they cost whatever the system.
+pub const HORIZON: f64 = 86_400.0;
+
 /// A method for solving a Boolean system.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Method {
@@ -149,7 +155,8 @@ pub fn choose(n: usize, degrees: &[u32], threads: usize) -> Choice {
     let max_degree = degrees.iter().copied().max().unwrap_or(0);
     let exhaustive = exhaustive_seconds(n, max_degree, threads);
     let (basis, degree) = engine_seconds(n, degrees);
-    let hybrid = (1..n)
+    // The hybrid guesses at most `MAX_GUESS` variables (2^k engine runs whatever the system).
+    let hybrid = (1..n.min(super::hybrid::MAX_GUESS + 1))
         .map(|k| {
             let (one, _) = engine_seconds(n - k, degrees);
             (k, 2f64.powi(k as i32) * one / threads as f64)
@@ -164,11 +171,21 @@ pub fn choose(n: usize, degrees: &[u32], threads: usize) -> Choice {
     };
     let best_hybrid = hybrid.map_or(f64::INFINITY, |h| h.1);
     let best_exhaustive = exhaustive.unwrap_or(f64::INFINITY);
-    let (method, what) = if best_exhaustive <= basis.min(best_hybrid) {
+    let (method, what) = if best_exhaustive.min(basis).min(best_hybrid) > HORIZON {
+        (
+            Method::Basis,
+            format!(
+                "the Gröbner engine: every method would take over a day on a random system of \
+                 this shape (the engine {}, reaching degree {degree}), and the engine alone \
+                 can profit from structure the estimate does not see",
+                seconds(basis)
+            ),
+        )
+    } else if best_exhaustive <= basis.min(best_hybrid) {
         (
             Method::Exhaustive,
             format!(
-                "exhaustive search of 2^{n} points, about {}",
+                "exhaustive search of 2^{n} points, {}",
                 seconds(best_exhaustive)
             ),
         )
@@ -177,7 +194,7 @@ pub fn choose(n: usize, degrees: &[u32], threads: usize) -> Choice {
             Method::Basis,
             format!(
                 "the Gröbner engine, reaching degree {degree} if the system behaves like a random \
-                 one, about {}",
+                 one, {}",
                 seconds(basis)
             ),
         )
@@ -186,7 +203,7 @@ pub fn choose(n: usize, degrees: &[u32], threads: usize) -> Choice {
         (
             Method::Hybrid { guess: Some(k) },
             format!(
-                "guessing {k} variables and running the engine 2^{k} times, about {}",
+                "guessing {k} variables and running the engine 2^{k} times, {}",
                 seconds(best_hybrid)
             ),
         )
@@ -217,11 +234,11 @@ fn seconds(s: f64) -> String {
     if s < 1e-3 {
         "under a millisecond".into()
     } else if s < 100.0 {
-        format!("{s:.3} s")
+        format!("about {s:.3} s")
     } else if s < 1e7 {
-        format!("{s:.0} s")
+        format!("about {s:.0} s")
     } else {
-        format!("{s:.1e} s")
+        format!("about {s:.1e} s")
     }
 }
 
@@ -240,6 +257,15 @@ mod tests {
         assert_eq!(regularity_degree(30, &[2; 60]), 5);
         // One quadric in 3 variables: (1 + 3t + 3t^2 + t^3)(1 - t^2 + ...) = 1 + 3t + 2t^2 - 2t^3 ...
         assert_eq!(regularity_degree(3, &[2]), 3);
+    }
+
+    /// The hybrid's 2^k engine runs are certain, whatever the system: the estimate never
+    /// proposes more guesses than the hybrid accepts.
+    #[test]
+    fn the_hybrid_guesses_at_most_its_limit() {
+        let c = choose(200, &[2; 400], 2);
+        assert!(c.estimates.hybrid_guess <= crate::boolean::hybrid::MAX_GUESS);
+        assert!(c.estimates.hybrid_guess >= 1);
     }
 
     #[test]

@@ -9,10 +9,10 @@
 //! [`super::symbolic`] and reduced by [`super::linalg`] (Four Russians tables over rows packed 64
 //! coefficients a word).
 
-use super::linalg::{self, Work};
+use super::linalg::{self, Dense, Echelon, Work};
 use super::monomial::{sum_of, Bits, BoolOrder};
 use super::pairs::{PairKind, PairSet};
-use super::symbolic::{normal_forms, Assembly, Reducers};
+use super::symbolic::{normal_forms, Assembly, Matrix, Reducers};
 use crate::control::Control;
 use crate::error::Result;
 use crate::groebner::{Stats, StepStats};
@@ -116,25 +116,19 @@ impl<const W: usize> Run<W> {
         stats.seconds_symbolic = clock.elapsed().as_secs_f64();
         let clock = Instant::now();
         let step = self.stats.steps.len();
-        let mut dense = matrix.dense_reduce_rows(control, step)?;
+        matrix.check_size(control, step)?;
         let mut work = Work(0);
-        linalg::reduce_by_pivots(&mut dense, &matrix.pivots, control, &mut work)?;
-        let pivot_count = matrix.pivots.len();
-        let rank = linalg::row_echelon(
-            &mut dense,
-            pivot_count,
-            matrix.monomials.len(),
-            control,
-            &mut work,
-        )?
-        .len();
+        let columns = matrix.monomials.len();
+        let x = linalg::pivot_tails(&matrix.pivots, columns, control, &mut work)?;
+        let (echelon, reduced) = reduce_rows(&matrix, &x, control, &mut work)?;
+        let rank = echelon.rank();
         let new: Vec<Vec<Bits<W>>> = (0..rank)
-            .map(|i| matrix.row_monomials(dense.row(i)))
+            .map(|i| matrix.tail_monomials(echelon.rows.row(i)))
             .collect();
         stats.seconds_linear_algebra = clock.elapsed().as_secs_f64();
         stats.multiply_adds = work.0;
         stats.new_elements = new.len();
-        self.stats.zero_reductions += matrix.reduce.len() - rank;
+        self.stats.zero_reductions += reduced - rank;
         self.stats.steps.push(stats);
         Ok(new)
     }
@@ -182,6 +176,38 @@ impl<const W: usize> Run<W> {
         basis.sort_by(|a, b| self.order.cmp_bits(&b[0], &a[0]));
         Ok(basis)
     }
+}
+
+/// The echelon form of the reduce rows of `matrix` over its tail columns, each row reduced by
+/// the pivots through their finished tails `x`, and how many rows went in. Rows go in by
+/// batches and stop early when nothing more can come: when the echelon form has every tail
+/// column (the other rows reduce to zero) or has the constant 1 (the ideal is the whole ring).
+fn reduce_rows<const W: usize>(
+    matrix: &Matrix<W>,
+    x: &Dense,
+    control: &Control,
+    work: &mut Work,
+) -> Result<(Echelon, usize)> {
+    let tail = matrix.tail_columns();
+    let mut echelon = Echelon::new(tail);
+    let one = (tail > 0 && matrix.monomials.last() == Some(&Bits::ONE)).then(|| tail - 1);
+    let mut next = 0;
+    while next < matrix.reduce.len() && echelon.rank() < tail {
+        control.check()?;
+        // Enough rows to fill the missing columns, with room for some that reduce to zero.
+        let want = (tail - echelon.rank() + 64).max(256);
+        let end = (next + want).min(matrix.reduce.len());
+        let mut batch = Dense::zeros(end - next, tail);
+        for (i, row) in matrix.reduce[next..end].iter().enumerate() {
+            linalg::add_tail(row, x, batch.row_mut(i), work);
+        }
+        echelon.add(batch, control, work)?;
+        next = end;
+        if one.is_some() && echelon.pivot_cols.last().copied() == one {
+            break;
+        }
+    }
+    Ok((echelon, next))
 }
 
 /// The degree of x_v·p (x·x = x), or `None` when the product adds nothing: it is p itself

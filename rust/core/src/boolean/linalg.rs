@@ -131,59 +131,159 @@ fn for_rows(
 #[derive(Default)]
 pub struct Work(pub u64);
 
-/// Reduces every row of `m` by the pivot rows `pivots`: pivot i is a sorted list of columns
-/// whose first is column i (so the pivot columns are 0..pivots.len(), pivot rows upper
-/// triangular). Afterwards no row of `m` has a bit in a pivot column. Pivot rows are taken k at a
-/// time, made the identity on their k columns, tabulated, and each row clears the k columns by
-/// one table XOR.
-pub fn reduce_by_pivots(
-    m: &mut Dense,
+/// The pivot rows fully reduced, restricted to the columns after the pivot ones: pivot i is a
+/// sorted list of columns whose first is column i (so the pivot columns are 0..pivots.len(),
+/// pivot rows upper triangular), and row i of the result holds the bits, at columns
+/// `pivots.len()..columns` shifted to 0, of pivot row i with every later pivot column cleared.
+/// Computed from the last pivot up (back substitution): row i is its own columns beyond the
+/// pivots plus the finished rows of the pivot columns it has. With X the result, a row r
+/// reduces to its own columns beyond the pivots plus the rows of X at its pivot columns
+/// ([`add_tail`]): the block elimination of Faugère and Lachartre (2010), with the pivot
+/// block sparse and the rest dense.
+pub fn pivot_tails(
     pivots: &[Vec<u32>],
+    columns: usize,
+    control: &Control,
+    work: &mut Work,
+) -> Result<Dense> {
+    let p = pivots.len();
+    let mut x = Dense::zeros(p, columns - p);
+    let stride = x.stride;
+    for i in (0..p).rev() {
+        if i % 1024 == 0 {
+            control.check()?;
+        }
+        let (head, done) = x.data.split_at_mut((i + 1) * stride);
+        let row = &mut head[i * stride..];
+        for &c in &pivots[i][1..] {
+            let c = c as usize;
+            if c < p {
+                let j = c - i - 1;
+                xor_into(row, &done[j * stride..(j + 1) * stride]);
+                work.0 += stride as u64;
+            } else {
+                row[(c - p) / 64] ^= 1 << ((c - p) % 64);
+            }
+        }
+    }
+    Ok(x)
+}
+
+/// Adds to `out` (a row over the columns after the `x.rows` pivot ones) the reduction of the
+/// row with sorted columns `row` by the pivots whose finished tails are `x` (see
+/// [`pivot_tails`]).
+pub fn add_tail(row: &[u32], x: &Dense, out: &mut [u64], work: &mut Work) {
+    let p = x.rows;
+    for &c in row {
+        let c = c as usize;
+        if c < p {
+            xor_into(out, x.row(c));
+            work.0 += x.stride as u64;
+        } else {
+            out[(c - p) / 64] ^= 1 << ((c - p) % 64);
+        }
+    }
+}
+
+/// A reduced row echelon form grown batch by batch: rows sorted by pivot column, each zero at
+/// the other rows' pivot columns.
+pub struct Echelon {
+    pub rows: Dense,
+    pub pivot_cols: Vec<usize>,
+    columns: usize,
+}
+
+impl Echelon {
+    pub fn new(columns: usize) -> Self {
+        Echelon {
+            rows: Dense::zeros(0, columns),
+            pivot_cols: Vec::new(),
+            columns,
+        }
+    }
+
+    pub fn rank(&self) -> usize {
+        self.pivot_cols.len()
+    }
+
+    /// Adds the rows of `batch` (of this form's width) to the row space.
+    pub fn add(&mut self, mut batch: Dense, control: &Control, work: &mut Work) -> Result<()> {
+        reduce_by_echelon(&mut batch, &self.rows, &self.pivot_cols, control, work)?;
+        let new_cols = row_echelon(&mut batch, 0, self.columns, control, work)?;
+        if new_cols.is_empty() {
+            return Ok(());
+        }
+        batch.rows = new_cols.len();
+        batch.data.truncate(batch.rows * batch.stride);
+        reduce_by_echelon(&mut self.rows, &batch, &new_cols, control, work)?;
+        self.merge(batch, new_cols);
+        Ok(())
+    }
+
+    /// Interleaves the rows of `other` (whose pivot columns are new) by pivot column.
+    fn merge(&mut self, other: Dense, other_cols: Vec<usize>) {
+        let stride = self.rows.stride;
+        let total = self.rank() + other_cols.len();
+        let mut data = Vec::with_capacity(total * stride);
+        let mut cols = Vec::with_capacity(total);
+        let (mut a, mut b) = (0, 0);
+        while a < self.rank() || b < other_cols.len() {
+            let take_own =
+                b == other_cols.len() || (a < self.rank() && self.pivot_cols[a] < other_cols[b]);
+            if take_own {
+                data.extend_from_slice(self.rows.row(a));
+                cols.push(self.pivot_cols[a]);
+                a += 1;
+            } else {
+                data.extend_from_slice(other.row(b));
+                cols.push(other_cols[b]);
+                b += 1;
+            }
+        }
+        self.rows = Dense {
+            rows: total,
+            stride,
+            data,
+        };
+        self.pivot_cols = cols;
+    }
+}
+
+/// Reduces every row of `m` by the rows of `e`, a reduced echelon form whose row j has its pivot
+/// at column `cols[j]` (and zeros at the other pivot columns): eight rows of `e` at a time are
+/// tabulated, and every row of `m` clears their eight columns with one table XOR.
+pub fn reduce_by_echelon(
+    m: &mut Dense,
+    e: &Dense,
+    cols: &[usize],
     control: &Control,
     work: &mut Work,
 ) -> Result<()> {
     if m.rows == 0 {
         return Ok(());
     }
-    let k_max = table_size(m.rows);
     let mut table = Vec::new();
-    let mut start = 0;
-    while start < pivots.len() {
+    let k = table_size(m.rows);
+    for (block, block_cols) in cols.chunks(k).enumerate() {
         control.check()?;
-        let k = k_max.min(pivots.len() - start);
-        let first_word = start / 64;
-        let width = m.stride - first_word;
-        let mut basis: Vec<Vec<u64>> = pivots[start..start + k]
-            .iter()
-            .map(|cols| {
-                let mut row = vec![0u64; width];
-                for &c in cols {
-                    let c = c as usize - first_word * 64;
-                    row[c / 64] ^= 1 << (c % 64);
-                }
-                row
-            })
+        let start = block * k;
+        let first_word = block_cols[0] / 64;
+        let width = e.stride - first_word;
+        let basis: Vec<Vec<u64>> = (start..start + block_cols.len())
+            .map(|j| e.row(j)[first_word..].to_vec())
             .collect();
-        // The identity on columns start..start + k: clear later pivots' columns bottom-up.
-        let offset = start - first_word * 64;
-        for j in (0..k).rev() {
-            for l in j + 1..k {
-                if bit(&basis[j], offset + l) {
-                    let (head, tail) = basis.split_at_mut(l);
-                    xor_into(&mut head[j], &tail[0]);
-                }
-            }
-        }
         gray_table(&mut table, &basis, width);
         let table = &table;
         for_rows(m, 0..0, width, |row| {
-            let v = window(row, start, k) as usize;
-            if v != 0 {
-                xor_into(&mut row[first_word..], &table[v * width..(v + 1) * width]);
+            let s = block_cols
+                .iter()
+                .enumerate()
+                .fold(0, |s, (j, &c)| s | (usize::from(bit(row, c)) << j));
+            if s != 0 {
+                xor_into(&mut row[first_word..], &table[s * width..(s + 1) * width]);
             }
         });
-        work.0 += ((1u64 << k) + m.rows as u64) * width as u64;
-        start += k;
+        work.0 += ((1u64 << block_cols.len()) + m.rows as u64) * width as u64;
     }
     Ok(())
 }
@@ -375,34 +475,73 @@ mod tests {
         }
     }
 
-    #[test]
-    fn reduction_by_pivots_clears_pivot_columns_and_keeps_the_row_space() {
-        let mut rng = Rng::new(11);
-        let (p, cols, rows) = (150, 230, 60);
-        let pivots: Vec<Vec<u32>> = (0..p)
+    fn random_pivots(p: usize, cols: usize, rng: &mut Rng) -> Vec<Vec<u32>> {
+        (0..p)
             .map(|i| {
-                let mut cols: Vec<u32> = (i + 1..cols)
+                let mut row: Vec<u32> = (i + 1..cols)
                     .filter(|_| rng.below(10) == 0)
                     .map(|c| c as u32)
                     .collect();
-                cols.insert(0, i as u32);
-                cols
+                row.insert(0, i as u32);
+                row
             })
-            .collect();
+            .collect()
+    }
+
+    /// Reduction through the finished pivot tails equals plain substitution, pivot by pivot.
+    #[test]
+    fn pivot_tails_reduce_as_plain_substitution() {
+        let mut rng = Rng::new(11);
+        let (p, cols, rows) = (150, 230, 60);
+        let pivots = random_pivots(p, cols, &mut rng);
         let m = random(rows, cols, 30, &mut rng);
-        let mut reduced = m.clone();
-        reduce_by_pivots(&mut reduced, &pivots, &Control::new(), &mut Work(0)).unwrap();
-        // The same by plain substitution, pivot by pivot.
+        let x = pivot_tails(&pivots, cols, &Control::new(), &mut Work(0)).unwrap();
         let mut plain = m.clone();
         for i in 0..rows {
-            for (c, cols) in pivots.iter().enumerate() {
+            for (c, pivot) in pivots.iter().enumerate() {
                 if bit(plain.row(i), c) {
-                    for &x in cols {
+                    for &x in pivot {
                         plain.data[i * plain.stride + x as usize / 64] ^= 1 << (x % 64);
                     }
                 }
             }
         }
-        assert_eq!(reduced.data, plain.data);
+        for i in 0..rows {
+            let row: Vec<u32> = (0..cols as u32)
+                .filter(|&c| bit(m.row(i), c as usize))
+                .collect();
+            let mut tail = vec![0u64; x.stride];
+            add_tail(&row, &x, &mut tail, &mut Work(0));
+            let expected: Vec<bool> = (p..cols).map(|c| bit(plain.row(i), c)).collect();
+            let got: Vec<bool> = (0..cols - p).map(|c| bit(&tail, c)).collect();
+            assert!((0..p).all(|c| !bit(plain.row(i), c)));
+            assert_eq!(got, expected, "row {i}");
+        }
+    }
+
+    /// An echelon form grown in batches of every size equals the plain reduced echelon form
+    /// of all the rows at once.
+    #[test]
+    fn echelon_grown_in_batches_agrees_with_plain_elimination() {
+        let mut rng = Rng::new(5);
+        for (rows, cols, density, batch) in [(90, 70, 30, 7), (300, 150, 3, 64), (40, 200, 50, 1)] {
+            let m = random(rows, cols, density, &mut rng);
+            let mut plain = m.clone();
+            let pivots = plain_rref(&mut plain, cols);
+            let mut grown = Echelon::new(cols);
+            for start in (0..rows).step_by(batch) {
+                let end = (start + batch).min(rows);
+                let mut part = Dense::zeros(end - start, cols);
+                part.data
+                    .copy_from_slice(&m.data[start * m.stride..end * m.stride]);
+                grown.add(part, &Control::new(), &mut Work(0)).unwrap();
+            }
+            assert_eq!(grown.pivot_cols, pivots);
+            assert_eq!(
+                grown.rows.data,
+                plain.data[..pivots.len() * plain.stride],
+                "{rows}x{cols} in batches of {batch}"
+            );
+        }
     }
 }

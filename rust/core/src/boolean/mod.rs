@@ -196,9 +196,11 @@ impl BooleanBasis {
         by_width!(self.ring.words(), run(self, limit, control))
     }
 
-    /// The basis as general polynomials over GF(2), followed by the field equations x_v^2 + x_v
-    /// (for a caller that asks to see them): together, the reduced Gröbner basis of the
-    /// ideal in GF(2)[x] except that field equations made redundant by a linear element stay.
+    /// The reduced Gröbner basis of I + (x_v^2 + x_v) in GF(2)[x] (for a caller that asks to
+    /// see the field equations): the basis as general polynomials, with x_v^2 + x_v for every
+    /// variable that is not a leading monomial (when x_v + c is in the basis, x_v^2 + x_v =
+    /// (x_v + c)(x_v + c + 1) is redundant), sorted by decreasing leading monomial; `[1]` for
+    /// the unit ideal.
     pub fn with_field_equations(&self) -> Result<Vec<Poly<PrimeField>>> {
         let general = self.ring.general_ring();
         let mut out = self
@@ -206,10 +208,23 @@ impl BooleanBasis {
             .iter()
             .map(|p| self.ring.to_poly(general, p))
             .collect::<Result<Vec<_>>>()?;
-        for v in 0..self.ring.nvars() {
+        if self.is_unit() {
+            return Ok(out);
+        }
+        let linear_lead = |v: usize| {
+            let x = Bits::<16>::var(v);
+            self.polys
+                .iter()
+                .any(|p| Bits::<16>::from_slice(p.leading_monomial().expect("nonzero")) == x)
+        };
+        for v in (0..self.ring.nvars()).filter(|&v| !linear_lead(v)) {
             let x = general.var(v);
             out.push(general.add(&general.mul(&x, &x)?, &x));
         }
+        out.sort_by(|a, b| {
+            let lead = |p: &Poly<PrimeField>| p.leading_monomial().expect("nonzero").clone();
+            general.cmp(&lead(b), &lead(a))
+        });
         Ok(out)
     }
 }
@@ -296,7 +311,7 @@ fn run_limited(
     count_only: bool,
     control: &Control,
 ) -> Result<Solutions> {
-    let choice = resolve(ring, gens, method, control);
+    let choice = resolve_method(ring, gens, method, control);
     on_threads(control, || match choice.method {
         Method::Exhaustive => {
             let found = exhaustive::search(ring, gens, limit, count_only, control)?;
@@ -368,7 +383,12 @@ fn run_hybrid<const W: usize>(
 
 /// The concrete method for a request: the estimate's choice for `Auto`, otherwise the request
 /// with the estimate's reasoning noted.
-fn resolve(ring: &BooleanRing, gens: &[BoolPoly], method: Method, control: &Control) -> Choice {
+pub fn resolve_method(
+    ring: &BooleanRing,
+    gens: &[BoolPoly],
+    method: Method,
+    control: &Control,
+) -> Choice {
     let estimate = choose_method(ring, gens, control);
     match method {
         Method::Auto => estimate,

@@ -9,7 +9,7 @@
 //! and Lachartre (2010): pivot columns first (so pivot i leads column i), the other columns
 //! after, both in decreasing order.
 
-use super::linalg::{self, Dense, Work};
+use super::linalg::{self, Work};
 use super::monomial::{Bits, BoolOrder, WordMap};
 use crate::control::Control;
 use crate::error::{Error, Result};
@@ -235,33 +235,36 @@ impl<const W: usize> Assembly<W> {
 const DENSE_BYTES: u64 = 6 << 30;
 
 impl<const W: usize> Matrix<W> {
-    /// The rows to reduce as a dense matrix, after a size check against the caller's limits.
-    pub fn dense_reduce_rows(&self, control: &Control, step: usize) -> Result<Dense> {
-        let (rows, cols) = (self.reduce.len(), self.monomials.len());
-        control.check_matrix(rows + self.pivots.len(), cols, step)?;
-        let bytes = rows as u64 * cols.div_ceil(64) as u64 * 8;
+    /// The columns after the pivot ones, where reduced rows live.
+    pub fn tail_columns(&self) -> usize {
+        self.monomials.len() - self.pivots.len()
+    }
+
+    /// Checks the step against the caller's limits and the dense budget: the finished pivot
+    /// tails (pivots x tail columns) and an echelon form of the tail columns.
+    pub fn check_size(&self, control: &Control, step: usize) -> Result<()> {
+        let (pivots, rows, tail) = (self.pivots.len(), self.reduce.len(), self.tail_columns());
+        control.check_matrix(rows + pivots, self.monomials.len(), step)?;
+        let words = tail.div_ceil(64) as u64;
+        let bytes = (pivots as u64 + 2 * tail.min(rows) as u64) * words * 8;
         if bytes > DENSE_BYTES {
             return Err(Error::ResourceLimit(format!(
-                "step {step} needs a dense {rows} x {cols} matrix over GF(2) ({} MB)",
+                "step {step} needs dense {pivots} x {tail} and {rows} x {tail} matrices over \
+                 GF(2) ({} MB)",
                 bytes >> 20
             )));
         }
-        let mut m = Dense::zeros(rows, cols);
-        for (i, row) in self.reduce.iter().enumerate() {
-            for &c in row {
-                m.set(i, c as usize);
-            }
-        }
-        Ok(m)
+        Ok(())
     }
 
-    /// The monomials of the set bits of `row` (decreasing).
-    pub fn row_monomials(&self, row: &[u64]) -> Vec<Bits<W>> {
+    /// The monomials of the set bits of `tail`, a row over the tail columns (decreasing).
+    pub fn tail_monomials(&self, tail: &[u64]) -> Vec<Bits<W>> {
+        let monomials = &self.monomials[self.pivots.len()..];
         let mut out = Vec::new();
-        for (w, &word) in row.iter().enumerate() {
+        for (w, &word) in tail.iter().enumerate() {
             let mut word = word;
             while word != 0 {
-                out.push(self.monomials[64 * w + word.trailing_zeros() as usize]);
+                out.push(monomials[64 * w + word.trailing_zeros() as usize]);
                 word &= word - 1;
             }
         }
@@ -271,8 +274,8 @@ impl<const W: usize> Matrix<W> {
 
 /// The normal forms of `polys` with respect to the reducers (every monomial divisible by a
 /// reducer's leading monomial removed), all in one matrix: the polynomials are the rows to
-/// reduce, preprocessing brings the reducer rows, and one pass of [`linalg::reduce_by_pivots`]
-/// clears the pivot columns.
+/// reduce, preprocessing brings the reducer rows, and the finished pivot tails
+/// ([`linalg::pivot_tails`]) clear the pivot columns.
 pub fn normal_forms<const W: usize>(
     polys: &[Vec<Bits<W>>],
     reducers: &Reducers<W>,
@@ -288,9 +291,15 @@ pub fn normal_forms<const W: usize>(
     }
     assembly.preprocess(reducers, control)?;
     let matrix = assembly.finish(order);
-    let mut dense = matrix.dense_reduce_rows(control, 0)?;
-    linalg::reduce_by_pivots(&mut dense, &matrix.pivots, control, &mut Work(0))?;
-    let mut rows = (0..dense.rows).map(|i| matrix.row_monomials(dense.row(i)));
+    matrix.check_size(control, 0)?;
+    let mut work = Work(0);
+    let columns = matrix.monomials.len();
+    let x = linalg::pivot_tails(&matrix.pivots, columns, control, &mut work)?;
+    let mut rows = matrix.reduce.iter().map(|row| {
+        let mut tail = vec![0u64; x.stride];
+        linalg::add_tail(row, &x, &mut tail, &mut work);
+        matrix.tail_monomials(&tail)
+    });
     Ok(keep
         .into_iter()
         .map(|k| if k { rows.next().unwrap() } else { Vec::new() })
