@@ -295,6 +295,8 @@ def test_basis_engine_choice():
     default = fibrewise_json("basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex")
     sampled = fibrewise_json("basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex", "--engine", "f4-sampled")
     assert sampled["basis"] == default["basis"]
-    assert sampled["stats"]["engine"] == "f4-sampled" and default["stats"]["engine"] == "f4"
+    # engine "auto" is the default, and the stats say what it chose and why
+    assert sampled["stats"]["engine"] == "f4-sampled" and default["stats"]["engine"] == "auto"
+    assert default["stats"]["choice"] and not sampled["stats"]["choice"]
     done = fibrewise("basis", EXAMPLES / "toy_cipher_gf101.txt", "--engine", "f5")
     assert done.returncode == 2 and "f4-sampled" in done.stderr

@@ -92,7 +92,7 @@ def test_documented_examples():
         ("GF(2^8)", "a^8+1", "reducible over GF(2)"),
         ("GF(2^8)", "a^4+a+1", "degree 4, but the field needs degree 8"),
         ("GF(2)[a]/(a^8+1)", None, "reducible over GF(2)"),
-        ("GF(7)", "a + 1", "a modulus is given only for GF(p^k) with k >= 2"),
+        ("GF(7)", "a + 1", "a modulus and a generator name are given only for GF(p^k) with k >= 2"),
         ("ZZ", None, "unknown field spec 'ZZ'"),
         ("QQ", None, "unknown field spec 'QQ'"),
         (f"GF({2**255 - 21})", None, "is not a prime"),

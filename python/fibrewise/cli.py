@@ -437,7 +437,8 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
     if name == "basis":
         p.add_argument("--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)")
         p.add_argument("--engine", choices=list(_native.ENGINE_NAMES), default="auto",
-                       help="f4 (the default), f4-sampled (faster on large systems over finite fields; "
+                       help="auto (the default: chooses per system and step, and says what it chose), f4, "
+                            "f4-sampled (faster on large systems over finite fields; "
                             "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
                             "only; skips most rows that reduce to zero) or buchberger (the reference)")
         p.add_argument("--field-equations", action="store_true",
