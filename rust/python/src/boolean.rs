@@ -33,6 +33,8 @@ pub struct NativeBooleanSpace {
     ring: BooleanRing,
     /// The general ring over GF(2) of the space, in which the Python side keeps polynomials.
     general: Arc<Ring<PrimeField>>,
+    /// The memory budget of the space (None: the default).
+    memory: Option<u64>,
 }
 
 fn bool_order(order: &MonomialOrder) -> PyResult<BoolOrder> {
@@ -54,6 +56,7 @@ impl NativeBooleanSpace {
         NativePoly {
             ring: AnyRing::Prime(self.general.clone()),
             poly: AnyPoly::Prime(p),
+            memory: self.memory,
         }
     }
 
@@ -152,6 +155,7 @@ impl NativeBooleanSpace {
         Ok(NativeBooleanSpace {
             ring,
             general: general.clone(),
+            memory: space.memory,
         })
     }
 
@@ -173,7 +177,7 @@ impl NativeBooleanSpace {
     ) -> PyResult<(Vec<NativePoly>, Bound<'py, PyDict>)> {
         let gens = self.to_booleans(&gens)?;
         let limits = limits(max_degree, max_matrix, threads)?;
-        let b = long_run::run(py, limits, |control| {
+        let b = long_run::run(py, limits, self.memory, |control| {
             boolean::basis(&self.ring, &gens, control)
         })?;
         let polys = b
@@ -200,7 +204,7 @@ impl NativeBooleanSpace {
     ) -> PyResult<NativePoly> {
         let b = self.basis_of(&basis)?;
         let f = self.to_boolean(&f)?;
-        let nf = long_run::run(py, Limits::default(), |control| b.normal_form(&f, control))?;
+        let nf = long_run::run(py, Limits::default(), self.memory, |control| b.normal_form(&f, control))?;
         self.to_general(&nf)
     }
 
@@ -211,7 +215,7 @@ impl NativeBooleanSpace {
         basis: Vec<PyRef<'_, NativePoly>>,
     ) -> PyResult<BigUint> {
         let b = self.basis_of(&basis)?;
-        long_run::run(py, Limits::default(), |control| b.count_solutions(control))
+        long_run::run(py, Limits::default(), self.memory, |control| b.count_solutions(control))
     }
 
     /// The method the cost estimate picks for `gens` on `threads` threads (all: None).
@@ -224,7 +228,7 @@ impl NativeBooleanSpace {
         threads: Option<usize>,
     ) -> PyResult<Bound<'py, PyDict>> {
         let (gens, method, limits) = self.request(&gens, method, threads)?;
-        let choice = long_run::run(py, limits, |control| {
+        let choice = long_run::run(py, limits, self.memory, |control| {
             Ok(boolean::resolve_method(&self.ring, &gens, method, control))
         })?;
         choice_to_py(py, &choice)
@@ -249,7 +253,7 @@ impl NativeBooleanSpace {
         Option<Bound<'py, PyDict>>,
     )> {
         let (gens, method, limits) = self.request(&gens, method, threads)?;
-        let found = long_run::run(py, limits, |control| {
+        let found = long_run::run(py, limits, self.memory, |control| {
             boolean::solve(&self.ring, &gens, method, limit, control)
         })?;
         let stats = found
@@ -275,7 +279,7 @@ impl NativeBooleanSpace {
         threads: Option<usize>,
     ) -> PyResult<(BigUint, Bound<'py, PyDict>)> {
         let (gens, method, limits) = self.request(&gens, method, threads)?;
-        let found = long_run::run(py, limits, |control| {
+        let found = long_run::run(py, limits, self.memory, |control| {
             boolean::count(&self.ring, &gens, method, control)
         })?;
         let count = found
