@@ -104,6 +104,7 @@ impl<const W: usize> Run<W> {
         let usable = self.pairs.active.clone();
         let reducers = Reducers::new(&self.polys, &usable, self.nvars);
         assembly.preprocess(&reducers, control)?;
+        self.stats.reached(degree);
         let mut stats = StepStats {
             degree,
             pairs,

@@ -254,6 +254,8 @@ fn boolean_bases_equal_general_bases_with_field_equations() {
                 .unwrap()
                 .polys;
             let b = basis(&r, &gens, &Control::new()).unwrap();
+            let step_degrees = b.stats.steps.iter().map(|s| s.degree);
+            assert_eq!(b.stats.max_degree(), step_degrees.max().unwrap_or(0));
             assert_eq!(
                 b.with_field_equations().unwrap(),
                 expected,
