@@ -235,7 +235,8 @@ mod tests {
         // All four by hand: x + y = ±3 and x·y = 2.
         assert_eq!(
             points_of(&["x", "y"], &["x^2 + y^2 - 5", "x*y - 2"]),
-            ["-1, -2", "-2, -1", "1, 2", "2, 1"]
+            ["-2, -1", "-1, -2", "1, 2", "2, 1"],
+            "sorted as rational tuples"
         );
         // katsura-2: 4 solutions over the algebraic closure, the rational ones (1/5, 0, 2/5) and
         // (1, 0, 0) (computed with sympy 1.14, `solve`).
