@@ -91,10 +91,11 @@ def dense_quadrics(count: int, n: int, p: int = 65521) -> list[str]:
 
 
 def test_a_timed_out_job_keeps_the_tasks_it_finished(tmp_path):
-    # Six dense quadrics in eight variables: the basis, the dimension (8 - 6 = 2, a complete
-    # intersection) and the projection's summary come in a fraction of a second, while the 64
-    # monic equations of degree 64 of the full certificate take many seconds.
-    job = {"id": "quadrics", "field": "GF(65521)", "variables": ["x0..x7"], "polynomials": dense_quadrics(6, 8),
+    # Seven dense quadrics in nine variables: the basis, the dimension (9 - 7 = 2, a complete
+    # intersection) and the projection's summary come in a fraction of a second, while the 128
+    # monic equations of degree 128 of the full certificate take far longer (six quadrics in
+    # eight variables finished within the limit on an idle machine).
+    job = {"id": "quadrics", "field": "GF(65521)", "variables": ["x0..x8"], "polynomials": dense_quadrics(7, 9),
            "tasks": ["dimension", "projection", "normalize"]}
     source, output = write_jobs(tmp_path / "in.jsonl", [job, HYPERBOLA]), tmp_path / "out.jsonl"
     assert main(["batch", str(source), "-o", str(output), "--workers", "1", "--timeout", "3", "--quiet"]) == 0
@@ -102,7 +103,7 @@ def test_a_timed_out_job_keeps_the_tasks_it_finished(tmp_path):
     assert by_id["quadrics"]["status"] == "timeout"
     finished = by_id["quadrics"]["result"]
     assert set(finished) == {"dimension", "projection"} and finished["dimension"] == 2
-    assert finished["projection"]["rank"] == 2**6  # Bézout: the generic fibre has 2^6 points
+    assert finished["projection"]["rank"] == 2**7  # Bézout: the generic fibre has 2^7 points
     assert by_id["hyperbola"]["result"]["basis"] == HYPERBOLA_BASIS
 
 
