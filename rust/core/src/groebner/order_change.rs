@@ -29,7 +29,7 @@ use crate::hilbert::monomial_ideal_series;
 use crate::monomial::Monomial;
 use crate::order::{Block, MonomialOrder};
 use crate::poly::{Poly, Ring};
-use crate::zerodim::fglm::fglm;
+use crate::zerodim::fglm::fglm_within;
 use crate::zerodim::quotient_dimension;
 
 /// Routes the automatic engine under an order that does not compare degrees first through a
@@ -92,29 +92,36 @@ pub fn change_order<F: Field>(
         };
         return Ok((grevlex.polys.clone(), stats));
     }
-    if let Some(d) = small_quotient(grevlex, control)? {
-        let basis = fglm(grevlex, target, control)?;
-        let stats = Stats {
-            choice: format!("FGLM in the quotient R/I of dimension {d}"),
-            ..basis.stats
-        };
-        return Ok((basis.polys, stats));
+    if let Some(d) = zero_dimensional_quotient(grevlex, control)? {
+        if let Some(basis) = fglm_within(grevlex, target, FGLM_DENSE_LIMIT, control)? {
+            let stats = Stats {
+                choice: format!("FGLM in the quotient R/I of dimension {d}"),
+                ..basis.stats
+            };
+            return Ok((basis.polys, stats));
+        }
     }
     hilbert_driven(grevlex, target, control)
 }
 
-/// Largest dim_k R/I for which the change of order goes through the quotient: FGLM's dense
-/// route costs O(n·D^3) field operations, which beyond a few thousand loses to the
-/// Hilbert-driven route (measured on katsura-n and power-map systems).
-pub const FGLM_DIMENSION_LIMIT: u128 = 4096;
+/// Largest dim_k R/I for which the change of order runs FGLM's dense linear algebra, O(n·D^3)
+/// field operations; beyond it only the Krylov route (lex targets in shape position) is tried
+/// before the Hilbert-driven computation.
+pub const FGLM_DENSE_LIMIT: usize = 1024;
 
-/// dim_k R/I when the ideal is zero-dimensional and its quotient small enough for FGLM.
-fn small_quotient<F: Field>(grevlex: &ReducedBasis<F>, control: &Control) -> Result<Option<u128>> {
+/// Largest dim_k R/I for which the quotient is built at all.
+const QUOTIENT_LIMIT: u128 = 1 << 20;
+
+/// dim_k R/I when the ideal is zero-dimensional and its quotient small enough to build.
+fn zero_dimensional_quotient<F: Field>(
+    grevlex: &ReducedBasis<F>,
+    control: &Control,
+) -> Result<Option<u128>> {
     if krull_dimension(grevlex.ring.nvars(), &grevlex.leading_monomials()) != 0 {
         return Ok(None);
     }
     let d = quotient_dimension(grevlex, control)?;
-    Ok((d <= FGLM_DIMENSION_LIMIT).then_some(d))
+    Ok((d <= QUOTIENT_LIMIT).then_some(d))
 }
 
 /// The change of order by the Hilbert-driven computation on the homogenized ideal.

@@ -42,6 +42,19 @@ pub fn fglm<F: Field>(
     to: &Ring<F>,
     control: &Control,
 ) -> Result<ReducedBasis<F>> {
+    let basis = fglm_within(gb, to, usize::MAX, control)?;
+    Ok(basis.expect("without a dimension limit the linear algebra route always runs"))
+}
+
+/// [`fglm`] by the Krylov route (lex target in shape position, any dim R/I), or by the dense
+/// linear algebra route when dim R/I <= `dense_limit`; `None` when neither applies (the dense
+/// route costs O(n·D^3): the caller then takes another way).
+pub fn fglm_within<F: Field>(
+    gb: &ReducedBasis<F>,
+    to: &Ring<F>,
+    dense_limit: usize,
+    control: &Control,
+) -> Result<Option<ReducedBasis<F>>> {
     if gb.ring.names() != to.names() || gb.ring.field != to.field {
         return Err(Error::invalid(
             "a change of order needs the same field and variables in both rings",
@@ -63,7 +76,10 @@ pub fn fglm<F: Field>(
         };
         match shape {
             Some(polys) => adopt(polys),
-            None => adopt(linear_algebra_route(&quotient, to, control)?),
+            None if quotient.dimension() <= dense_limit => {
+                adopt(linear_algebra_route(&quotient, to, control)?)
+            }
+            None => return Ok(None),
         }
     };
     let stats = Stats {
@@ -71,11 +87,11 @@ pub fn fglm<F: Field>(
         engine: "fglm".to_string(),
         ..Stats::default()
     };
-    Ok(ReducedBasis {
+    Ok(Some(ReducedBasis {
         ring: to.clone(),
         polys,
         stats,
-    })
+    }))
 }
 
 /// A monomial waiting to be visited: x_k times the standard monomial `parent` (by index).
