@@ -36,9 +36,14 @@ pub fn check_fibre_cost(q: u64, r: u32, fibre_degree: usize) -> Result<u128> {
     let big_q = (q as f64).powi(r as i32);
     let fibres = big_q / f64::from(r);
     if fibres > FIBRE_LIMIT as f64 {
+        let target = if r == 1 {
+            format!("GF({q})")
+        } else {
+            format!("GF({q}^{r})")
+        };
         return Err(Error::ResourceLimit(format!(
-            "counting points over GF({q}^{r}) fibre by fibre means about {fibres:.3e} root counts of polynomials of degree {fibre_degree} \
-             (one per Frobenius orbit of x in GF({q}^{r})), more than the limit of 2^28 (already minutes of work; \
+            "counting points over {target} fibre by fibre means about {fibres:.3e} root counts of polynomials of degree {fibre_degree} \
+             (one per Frobenius orbit of x in {target}), more than the limit of 2^28 (already minutes of work; \
              2^40 would be days): point counting for large fields is not available in this edition"
         )));
     }

@@ -223,7 +223,7 @@ fn curve_over_extension_field_is_counted_over_its_extensions() {
 #[test]
 fn space_curve_complete_intersection() {
     // Two quadrics in P^3 meeting transversally: genus 1 from the Hilbert polynomial 4s
-    // (Hartshorne 1977, from memory); counts against the plane projection-free brute force.
+    // (Hartshorne 1977, from memory); #J = N_1 for genus 1, and N_2 from L(T) against a count.
     let curve = curve_over(
         PrimeField::new(5).unwrap(),
         &["x", "y", "z", "w"],
