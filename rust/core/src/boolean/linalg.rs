@@ -132,7 +132,7 @@ fn for_rows(
 pub struct Work(pub u64);
 
 /// The pivot rows fully reduced, restricted to the columns after the pivot ones: pivot i is a
-/// sorted list of columns whose first is column i (so the pivot columns are 0..pivots.len(),
+/// list of distinct columns whose first is column i and the others larger, in any order (so the pivot columns are 0..pivots.len(),
 /// pivot rows upper triangular), and row i of the result holds the bits, at columns
 /// `pivots.len()..columns` shifted to 0, of pivot row i with every later pivot column cleared.
 /// Computed from the last pivot up (back substitution): row i is its own columns beyond the
@@ -170,7 +170,7 @@ pub fn pivot_tails(
 }
 
 /// Adds to `out` (a row over the columns after the `x.rows` pivot ones) the reduction of the
-/// row with sorted columns `row` by the pivots whose finished tails are `x` (see
+/// row with distinct columns `row` (in any order) by the pivots whose finished tails are `x` (see
 /// [`pivot_tails`]).
 pub fn add_tail(row: &[u32], x: &Dense, out: &mut [u64], work: &mut Work) {
     let p = x.rows;
