@@ -32,32 +32,35 @@ use crate::poly::{Poly, Ring};
 use crate::zerodim::fglm::fglm_within;
 use crate::zerodim::quotient_dimension;
 
-/// Routes the automatic engine under an order that does not compare degrees first through a
-/// grevlex basis and a change of order; `None` for every other request.
+/// Routes every engine but the reference one (Buchberger's, kept as a direct computation to
+/// check the others against) under an order that does not compare degrees first through a
+/// grevlex basis by that engine and a change of order: F4 run directly under lex climbs to
+/// degrees far above the basis's; `None` for every other request.
 pub(crate) fn route_change_of_order<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
     engine: Engine,
     control: &Control,
 ) -> Option<Result<ReducedBasis<F>>> {
-    if engine != Engine::Auto || ring.order.is_degree_compatible() {
+    if engine == Engine::Buchberger || ring.order.is_degree_compatible() {
         return None;
     }
-    Some(by_change_of_order(ring, gens, control))
+    Some(by_change_of_order(ring, gens, engine, control))
 }
 
 /// The reduced basis of `gens` in `ring`'s order, from a grevlex basis.
 fn by_change_of_order<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
+    engine: Engine,
     control: &Control,
 ) -> Result<ReducedBasis<F>> {
     let start = std::time::Instant::now();
     let grevlex_ring = ring.with_order(MonomialOrder::Grevlex)?;
     let adopted: Vec<Poly<F>> = gens.iter().map(|g| grevlex_ring.adopt(g.clone())).collect();
-    let grevlex = groebner_basis(&grevlex_ring, &adopted, Engine::Auto, control)?;
+    let grevlex = groebner_basis(&grevlex_ring, &adopted, engine, control)?;
     let (polys, mut stats) = change_order(&grevlex, ring, control)?;
-    stats.engine = Engine::Auto.name().to_string();
+    stats.engine = engine.name().to_string();
     stats.choice = format!(
         "grevlex basis ({}), then {}",
         grevlex.stats.choice, stats.choice
