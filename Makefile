@@ -24,8 +24,10 @@ build: $(STAMP)
 wheel: $(STAMP)
 	$(VENV)/bin/maturin build --release --quiet --interpreter $(PY) --out dist
 
+# The core's unit tests only (--lib): the benchmark programs in rust/core/examples are built by
+# `make bench`, and leaving them out here spares CI a second full build of the core.
 test-rust:
-	cargo test --quiet -p fibrewise-core
+	cargo test --quiet -p fibrewise-core --lib
 
 test-python: build
 	$(PY) -m pytest
