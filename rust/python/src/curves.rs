@@ -28,6 +28,10 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     Ok(())
 }
 
+/// A curve over any field kind.
+// One value per Python handle, matched on every call: boxing the larger variants would only add
+// an indirection.
+#[allow(clippy::large_enum_variant)]
 enum AnyCurve {
     Prime(Curve<PrimeField>),
     BigPrime2(Curve<BigPrimeField<2>>),

@@ -24,6 +24,9 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
 }
 
 /// A projection over any field kind.
+// One value per Python handle, matched on every call: boxing the larger variants would only add
+// an indirection.
+#[allow(clippy::large_enum_variant)]
 enum AnyProjection {
     Prime(Projection<PrimeField>),
     BigPrime2(Projection<BigPrimeField<2>>),

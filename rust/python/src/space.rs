@@ -145,6 +145,7 @@ impl NativeSpace {
         })
     }
     /// A polynomial from (exponent tuple, coefficient) pairs.
+    #[allow(clippy::wrong_self_convention)] // the space (its ring) makes the polynomial
     fn from_terms(&self, terms: Vec<(Vec<u32>, Bound<'_, PyAny>)>) -> PyResult<NativePoly> {
         with_ring!(&self.ring, r => {
             let mut out = Vec::with_capacity(terms.len());

@@ -40,8 +40,10 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     /// The inverse, or `None` for zero.
     fn inv(&self, a: &Self::Elem) -> Option<Self::Elem>;
     /// The image of an integer.
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_i64(&self, v: i64) -> Self::Elem;
     /// The image of an integer written in decimal (any length).
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_decimal(&self, digits: &str) -> Self::Elem {
         let ten = self.from_i64(10);
         digits.bytes().fold(self.zero(), |acc, d| {
@@ -119,6 +121,7 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     }
     /// The element with canonical residue `w < p` (only meaningful when
     /// [`Field::word_modulus`] is `Some`).
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_word(&self, _w: u64) -> Self::Elem {
         self.zero()
     }
@@ -133,6 +136,7 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     fn to_montgomery_limbs(&self, _a: &Self::Elem, _out: &mut [u64]) {}
     /// The element with Montgomery residue `limbs` (canonical; only meaningful when
     /// [`Field::montgomery_modulus`] is `Some`).
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_montgomery_limbs(&self, _limbs: &[u64]) -> Self::Elem {
         self.zero()
     }
