@@ -142,5 +142,14 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     }
 }
 
+/// Number of field elements when it fits 64 bits (`u64::MAX` for larger finite fields, `None`
+/// for Q).
+pub fn field_size<F: Field>(field: &F) -> Option<u64> {
+    field
+        .order()
+        .and_then(|q| q.parse().ok())
+        .or_else(|| field.order().map(|_| u64::MAX))
+}
+
 #[cfg(test)]
 mod tests;

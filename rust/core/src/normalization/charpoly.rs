@@ -86,7 +86,7 @@ fn interpolation_grid<F: Field>(
             rows.min(cols).min(cycles).min(total_bound)
         })
         .collect();
-    let q = super::changes::field_size(&ring.field).unwrap_or(u64::MAX);
+    let q = crate::field::field_size(&ring.field).unwrap_or(u64::MAX);
     if bounds.iter().any(|&b| b >= q) {
         return None;
     }
