@@ -13,9 +13,9 @@ use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::groebner::{groebner_basis, Engine};
 use crate::monomial::Monomial;
-use crate::normalization::certificate::{fresh_symbols, taken_names};
 use crate::order::{Block, MonomialOrder};
 use crate::poly::{Poly, Ring};
+use crate::symbols::{fresh_symbols, taken_names};
 use std::collections::BTreeMap;
 
 /// A monic relation u^m + c_{m-1}(g) u^{m-1} + ... + c_0(g) = 0 satisfied by f in R/I.
