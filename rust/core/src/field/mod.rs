@@ -7,6 +7,7 @@
 mod bigprime;
 pub mod bpsw;
 pub mod extension;
+mod kinds;
 pub mod montgomery;
 pub mod primality;
 mod prime;
