@@ -9,7 +9,6 @@ Gröbner bases over GF(p) are compared with sympy's.
 from __future__ import annotations
 
 import json
-import os
 import random
 import signal
 import subprocess

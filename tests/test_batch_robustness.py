@@ -20,7 +20,7 @@ from pathlib import Path
 
 import pytest
 
-from fibrewise.batch import BatchInputError, read_results
+from fibrewise.batch import read_results
 from fibrewise.cli import main
 
 HYPERBOLA = {"id": "hyperbola", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1", "x^2 - y"],

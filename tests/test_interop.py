@@ -6,7 +6,6 @@ computes."""
 
 import random
 
-import galois
 import numpy as np
 import pytest
 import sympy

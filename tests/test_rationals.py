@@ -5,7 +5,6 @@ u; sympy's ``Poly.is_irreducible`` decides whether it is irreducible. When that 
 degree dim R/I, R/I = Q[t]/(m) is a field iff m is irreducible; a reducible one always means
 "not a field"."""
 
-import random
 from itertools import product
 
 import pytest

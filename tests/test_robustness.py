@@ -11,7 +11,6 @@ brute force in tests/test_cli.py.
 from __future__ import annotations
 
 import json
-import os
 import signal
 import subprocess
 import sys

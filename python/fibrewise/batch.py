@@ -26,7 +26,7 @@ import threading
 import time
 from collections import deque
 from dataclasses import dataclass, field
-from typing import Any, Iterator
+from typing import Any, Generator
 
 from .jobs import JobError, check_job, run_job
 
@@ -408,10 +408,8 @@ class Sandbox:
 
     def _read_available(self) -> list[Finished]:
         """What the worker has already written (finished tasks, finished jobs), without waiting."""
-        from multiprocessing.connection import wait
-
         finished = []
-        while self.process.poll() is None and wait([self], timeout=0):
+        while self.process.poll() is None and readable([self], 0):
             finished += self.read()
             if not self.jobs:
                 break
@@ -509,11 +507,18 @@ def job_line(job: dict) -> bytes:
     return json.dumps(job).encode("utf-8") + b"\n"
 
 
-def run_local(jobs: list[dict], workers: int, timeout: float | None,
-              memory_bytes: int | None) -> Iterator[Finished]:
-    """The finished jobs, in completion order, from a pool of ``workers`` sandboxes."""
+def readable(sandboxes: list[Sandbox], timeout: float | None) -> list[Sandbox]:
+    """The sandboxes whose worker has written something, waiting up to ``timeout`` seconds."""
     from multiprocessing.connection import wait
 
+    # wait() takes any object with a fileno(); its type stub names only connections, sockets
+    # and ints.
+    return wait(sandboxes, timeout)  # type: ignore[arg-type, return-value]
+
+
+def run_local(jobs: list[dict], workers: int, timeout: float | None,
+              memory_bytes: int | None) -> Generator[Finished, None, None]:
+    """The finished jobs, in completion order, from a pool of ``workers`` sandboxes."""
     if not jobs:
         return
     pending = deque((job, job_line(job)) for job in jobs)
@@ -533,7 +538,7 @@ def run_local(jobs: list[dict], workers: int, timeout: float | None,
                 return
             deadlines = [s.deadline for s in busy if s.deadline is not None]
             wait_for = max(0.0, min(deadlines) - time.monotonic()) if deadlines else None
-            for sandbox in wait(busy, timeout=wait_for):
+            for sandbox in readable(busy, wait_for):
                 yield from sandbox.read()
             now = time.monotonic()
             for sandbox in busy:
@@ -562,12 +567,10 @@ def run_in_sandbox(job: dict, timeout: float | None, memory_bytes: int | None) -
         if sandbox is not None:
             sandbox.kill()
         sandbox = _local_sandbox.sandbox = Sandbox(memory_bytes, worker_budget(memory_bytes, 1)).start()
-    from multiprocessing.connection import wait
-
     sandbox.submit(job, timeout)
     while True:
         left = None if sandbox.deadline is None else max(0.0, sandbox.deadline - time.monotonic())
-        if not wait([sandbox], timeout=left):
+        if not readable([sandbox], left):
             return _as_record(sandbox.time_out()[-1])
         finished = sandbox.read()
         if finished:
@@ -581,11 +584,19 @@ def _as_record(finished: Finished) -> dict:
 DASK_WINDOW = 1000  # jobs in flight on the cluster at once: bounded scheduler memory, quick stop
 
 
-def run_dask(jobs: list[dict], address: str, timeout: float | None, memory_bytes: int | None) -> Iterator[dict]:
-    """Records of the jobs, in completion order, computed on the Dask cluster at ``address``.
+@dataclass
+class Lost:
+    """A job the cluster lost (a worker machine gone, a task error outside the job): no line is
+    written for it, so that it runs again on resume."""
 
-    A job the cluster loses (a worker machine gone, a task error outside the job) yields a record
-    with status ``"lost"``, which is not written: it runs again on resume."""
+    id: Any
+    error: str
+
+
+def run_dask(jobs: list[dict], address: str, timeout: float | None,
+             memory_bytes: int | None) -> Generator[Finished | Lost, None, None]:
+    """The finished and the lost jobs, in completion order, computed on the Dask cluster at
+    ``address``."""
     try:
         from distributed import Client, as_completed
     except ImportError:
@@ -612,9 +623,11 @@ def run_dask(jobs: list[dict], address: str, timeout: float | None, memory_bytes
             for future in queue:
                 job_id = in_flight.pop(future)
                 try:
-                    yield future.result()
+                    record = future.result()
                 except Exception as e:  # noqa: BLE001 - the cluster's failure, not the job's
-                    yield {"id": job_id, "status": "lost", "error": f"{type(e).__name__}: {e}"}
+                    yield Lost(job_id, f"{type(e).__name__}: {e}")
+                else:
+                    yield Finished.of(record)
                 submit_next(queue)
         finally:
             client.cancel(list(in_flight))
@@ -680,21 +693,20 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
     start = time.monotonic()
     progress = Progress(len(todo), quiet=quiet)
     previous = _on_sigterm()
-    records = None
+    records: Generator[Finished | Lost, None, None] | None = None
     try:
         if scheduler:
             records = run_dask(todo, scheduler, timeout, memory_bytes)
         else:
             records = run_local(todo, workers or os.cpu_count() or 1, timeout, memory_bytes)
         for item in records:
-            if isinstance(item, dict) and item["status"] == "lost":
+            if isinstance(item, Lost):
                 summary.lost += 1
-                print(f"fibrewise batch: job {json.dumps(item['id'])} lost by the cluster "
-                      f"({item['error']}); it runs again on resume", file=sys.stderr)
+                print(f"fibrewise batch: job {json.dumps(item.id)} lost by the cluster "
+                      f"({item.error}); it runs again on resume", file=sys.stderr)
             else:
-                finished = item if isinstance(item, Finished) else Finished.of(item)
-                output.append(finished.line)
-                setattr(summary, finished.status, getattr(summary, finished.status) + 1)
+                output.append(item.line)
+                setattr(summary, item.status, getattr(summary, item.status) + 1)
             progress.advance()
     except KeyboardInterrupt:
         summary.interrupted = "SIGINT"

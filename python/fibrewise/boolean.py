@@ -20,6 +20,7 @@ from typing import TYPE_CHECKING, Any, Iterator, Optional
 from .systems import GroebnerStats, ReducedBasis, _optional_count
 
 if TYPE_CHECKING:
+    from . import _native
     from .fields import FieldSpec
     from .orders import Order
     from .spaces import Coercible, Polynomial, Space
@@ -84,6 +85,13 @@ def _require_boolean(system: "System", what: str) -> None:
                          f"this system is over {system.space.field} without the field equations")
 
 
+def _native_space(space: "Space") -> _native.NativeBooleanSpace:
+    """The native Boolean space beside ``space`` (a space made with ``boolean=True``)."""
+    if space._boolean is None:
+        raise ValueError(f"{space} is not a Boolean space (made with boolean=True)")
+    return space._boolean
+
+
 def _gens(system: "System") -> list:
     return [g._native for g in system.equations]
 
@@ -117,7 +125,7 @@ def basis(system: "System", order: "Order | None", engine: str, field_equations:
     limited = limits != (None, None)
     gb = None if limited else system._bases.get(key)
     if gb is None:
-        polys, stats = space._boolean.basis(_gens(system), max_degree=limits[0], max_matrix=limits[1],
+        polys, stats = _native_space(space).basis(_gens(system), max_degree=limits[0], max_matrix=limits[1],
                                             threads=threads)
         gb = ReducedBasis(space, [Polynomial(space, p) for p in polys], GroebnerStats._from_native(stats))
         if not limited:
@@ -125,7 +133,7 @@ def basis(system: "System", order: "Order | None", engine: str, field_equations:
     if not field_equations:
         return gb
     home = general_space(space)
-    polys = space._boolean.with_field_equations([g._native for g in gb])
+    polys = _native_space(space).with_field_equations([g._native for g in gb])
     return ReducedBasis(home, [Polynomial(home, p) for p in polys], gb.stats)
 
 
@@ -136,7 +144,7 @@ def normal_form(gb: ReducedBasis, f: "Coercible") -> "Polynomial":
 
     space = gb.space
     p = space.polynomial(f)
-    return Polynomial(space, space._boolean.normal_form([g._native for g in gb], p._native))
+    return Polynomial(space, _native_space(space).normal_form([g._native for g in gb], p._native))
 
 
 def with_field_equations(system: "System") -> "System":
@@ -158,7 +166,7 @@ def choose_method(system: "System", method: str = "auto", threads: int | None = 
     _require_boolean(system, "solve_method()")
     check_method(method)
     threads = _optional_count("threads", threads, 1, 4096)
-    return MethodChoice._from_native(system.space._boolean.choose_method(_gens(system), method, threads))
+    return MethodChoice._from_native(_native_space(system.space).choose_method(_gens(system), method, threads))
 
 
 def solve(system: "System", method: str = "auto", limit: int | None = None,
@@ -169,7 +177,7 @@ def solve(system: "System", method: str = "auto", limit: int | None = None,
     check_method(method)
     limit = _optional_count("limit", limit, 0, 2**63 - 1)
     threads = _optional_count("threads", threads, 1, 4096)
-    points, count, choice, stats = system.space._boolean.solve(_gens(system), method, limit, threads)
+    points, count, choice, stats = _native_space(system.space).solve(_gens(system), method, limit, threads)
     return BooleanSolutions([tuple(p) for p in points], None if count is None else int(count),
                             MethodChoice._from_native(choice),
                             None if stats is None else GroebnerStats._from_native(stats))
@@ -189,9 +197,9 @@ def count(system: "System", method: str = "auto", threads: int | None = None) ->
     check_method(method)
     cached = system._bases.get(system._basis_key(system.space.order, "boolean"))
     if method == "auto" and cached is not None:
-        return int(system.space._boolean.count_of_basis([g._native for g in cached]))
+        return int(_native_space(system.space).count_of_basis([g._native for g in cached]))
     threads = _optional_count("threads", threads, 1, 4096)
-    number, _ = system.space._boolean.count(_gens(system), method, threads)
+    number, _ = _native_space(system.space).count(_gens(system), method, threads)
     return int(number)
 
 

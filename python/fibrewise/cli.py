@@ -384,7 +384,7 @@ def _positive(kind: type) -> Callable[[str], Any]:
     return parse
 
 
-def _memory(text: str) -> int:
+def _memory(text: str) -> int | None:
     from .memory import parse_memory
 
     try:
@@ -393,7 +393,7 @@ def _memory(text: str) -> int:
         raise argparse.ArgumentTypeError(str(e)) from None
 
 
-def _worker_memory(text: str) -> int:
+def _worker_memory(text: str) -> int | None:
     """A worker's memory: a size, or a plain number of MiB (as this option always read)."""
     return _memory(str(int(text) << 20) if text.strip().isdigit() else text)
 

@@ -40,9 +40,10 @@ if TYPE_CHECKING:
 def _positive_r(r: Any) -> int:
     if isinstance(r, bool) or not isinstance(r, Integral):
         raise TypeError(f"r must be an int, not {type(r).__name__}")
-    if not 1 <= r <= 2**32 - 1:
+    value = int(r)
+    if not 1 <= value <= 2**32 - 1:
         raise ValueError(f"r must be between 1 and 2^32 - 1, got {r}")
-    return int(r)
+    return value
 
 
 def _polynomial_text(coefficients: list[int], var: str = "T") -> str:
@@ -154,7 +155,10 @@ class Curve:
     @property
     def q(self) -> int:
         """The size of the field of definition."""
-        return int(self.system.space.field.size)
+        size = self.system.space.field.size
+        if size is None:
+            raise TypeError("q is the size of a finite field; this curve is over Q")
+        return size
 
     def is_smooth(self) -> bool:
         """Whether the model has no singular point over the algebraic closure (Jacobian

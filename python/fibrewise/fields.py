@@ -18,7 +18,7 @@ from __future__ import annotations
 
 import re
 from numbers import Integral
-from typing import Any, Iterable, Optional, Union
+from typing import Any, Iterable, Optional, TypeGuard, Union
 
 from . import _native
 
@@ -32,7 +32,7 @@ class Field:
 
     def __init__(self, native: _native.NativeField):
         self._native = native
-        self._galois = None
+        self._galois: Any = None  # the galois class, made on first use
 
     @property
     def characteristic(self) -> int:
@@ -128,7 +128,10 @@ class Field:
         gf = self.galois_field()
         if self.degree == 1:
             p = self.characteristic
-            values = values % p if isinstance(values, Integral) else [v % p for v in values]
+            # int is an Integral; naming it lets the type checker see the rest is iterable.
+            if isinstance(values, (int, Integral)):
+                return gf(values % p)
+            return gf([v % p for v in values])
         return gf(values)
 
     def from_galois(self, array: Any) -> Union[int, list[int]]:
@@ -201,7 +204,7 @@ def latex_field(spec: str) -> str:
     return _GF.sub(gf, spec)
 
 
-def _is_galois_class(spec: object) -> bool:
+def _is_galois_class(spec: object) -> TypeGuard[Any]:
     return isinstance(spec, type) and all(
         hasattr(spec, a) for a in ("characteristic", "degree", "irreducible_poly")
     )

@@ -84,7 +84,7 @@ class FiniteProjection:
     "linear" or "nonlinear") and ``homogeneous``.
     """
 
-    def __init__(self, system: "System", certificate: dict, native: Optional[object] = None):
+    def __init__(self, system: "System", certificate: dict, native: Optional[_native.NativeProjection] = None):
         self.system = system
         self._certificate = {k: certificate[k] for k in CERTIFICATE_KEYS}
         # The native projection computes the equations on first use; None once they are here.
@@ -142,7 +142,7 @@ class FiniteProjection:
     def to_dict(self) -> dict:
         """The certificate as plain JSON-ready data (texts, ints, bools), equations included
         (computed now if they were not yet)."""
-        self.equations
+        _ = self.equations  # computes and keeps them
         d = {"field": str(self.system.space.field), "variables": list(self.system.space.names)}
         d.update(self._certificate)
         return d
@@ -219,7 +219,7 @@ def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optio
     )
     projection = FiniteProjection(system, summary, native)
     if equations == "now":
-        projection.equations
+        _ = projection.equations  # computes and keeps them
     return projection
 
 

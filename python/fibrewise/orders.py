@@ -49,9 +49,10 @@ class WeightOrder:
         self.weights = [int(w) for w in weights]
         if any(w < 0 for w in self.weights):
             raise ValueError(f"weights must be non-negative, got {self.weights}")
-        self.tie = check_name("tie order", tie, ORDER_NAMES)
+        check_name("tie order", tie, ORDER_NAMES)
         if tie not in ORDER_NAMES:
             raise ValueError(f"unknown monomial order '{tie}': expected lex, grlex or grevlex")
+        self.tie: OrderName = tie
 
     def __repr__(self) -> str:
         return f"WeightOrder({self.weights!r}, tie={self.tie!r})"

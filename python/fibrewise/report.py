@@ -73,7 +73,8 @@ def finite_over(norm: dict, field: str | None = None) -> str:
     params = norm.get("parameters") or []
     k = field or norm.get("field") or "k"
     base = f"{k}[{', '.join(map(str, params))}]" if params else k
-    how = STRATEGY_WORDS.get(norm.get("strategy"), norm.get("strategy"))
+    strategy = norm.get("strategy")
+    how = STRATEGY_WORDS.get(strategy, strategy) if isinstance(strategy, str) else strategy
     return f"finite over {base} of rank {norm['rank']} ({how})"
 
 
@@ -115,7 +116,7 @@ def render_analyze(result: dict) -> str:
     if result.get("projection"):
         rows.append(("projection", finite_over(result["projection"], result["field"])))
     points = _points_text(result)
-    if result.get("points") is not None:
+    if points is not None and result.get("points") is not None:
         points += f" over {result['field']}"
     rows.append(("points", points))
     basis = result["basis"]

@@ -122,9 +122,11 @@ def _solve(space: Space, equations, limit: Optional[int]) -> list[list]:
 def _points_by_fibres(system: "System", limit: Optional[int]) -> Iterator[list]:
     """Points of a positive-dimensional system, fibre by fibre over a finite projection."""
     space = system.space
+    size = space.field.size
+    assert size is not None, "points() checked that the field is finite"
     projection = system.projection()
     found = 0
-    for values in itertools.product(range(space.field.size), repeat=projection.dimension):
+    for values in itertools.product(range(size), repeat=projection.dimension):
         fibre = list(system.equations) + [
             p - Polynomial(space, space._native.constant(v)) for p, v in zip(projection.parameters, values)]
         for point in _solve(space, fibre, None if limit is None else limit - found):

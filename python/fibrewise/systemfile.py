@@ -10,10 +10,11 @@ and the column.
 from __future__ import annotations
 
 import re
-from typing import Iterable
+from typing import Iterable, cast
 
 from ._native import ParseError, ResourceLimit
 from .fields import field
+from .names import OrderName
 from .spaces import Space
 from .systems import System
 
@@ -107,7 +108,8 @@ def _make_space(headers: dict[str, tuple[str, int, int]], path: str, memory=None
         raise SystemFileError(path, field_line, field_col, str(e)) from None
     boolean = _boolean_header(headers, f, path)
     try:
-        return Space(f, names, order=order, boolean=boolean, memory=memory)
+        # The file's text as it is: Space checks the name and says what is wrong.
+        return Space(f, names, order=cast(OrderName, order), boolean=boolean, memory=memory)
     except ValueError as e:
         line, col = (order_line, order_col) if "order" in str(e) else (var_line, var_col)
         raise SystemFileError(path, line, col, str(e)) from None

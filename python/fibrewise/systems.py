@@ -68,7 +68,6 @@ class GroebnerStats:
             "zero_reductions": self.zero_reductions,
             "max_degree": self.max_degree,
             "steps": [s.__dict__ for s in self.steps],
-            "choice": self.choice,
         }
 
 

@@ -13,9 +13,9 @@ use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::groebner::{groebner_basis, Engine};
 use crate::monomial::Monomial;
-use crate::normalization::certificate::{fresh_symbols, taken_names};
-use crate::order::{Block, MonomialOrder};
+use crate::order::{MonomialOrder, OrderBlock};
 use crate::poly::{Poly, Ring};
+use crate::symbols::{fresh_symbols, taken_names};
 use std::collections::BTreeMap;
 
 /// A monic relation u^m + c_{m-1}(g) u^{m-1} + ... + c_0(g) = 0 satisfied by f in R/I.
@@ -51,18 +51,18 @@ impl<F: Field> Tagged<F> {
         let symbols = fresh_symbols("t", over, &taken);
         names.extend(symbols);
         let u = usize::from(with_element);
-        let mut blocks = vec![Block {
+        let mut blocks = vec![OrderBlock {
             order: MonomialOrder::Grevlex,
             vars: (0..n).collect(),
         }];
         if with_element {
-            blocks.push(Block {
+            blocks.push(OrderBlock {
                 order: MonomialOrder::Grevlex,
                 vars: vec![n],
             });
         }
         if over > 0 {
-            blocks.push(Block {
+            blocks.push(OrderBlock {
                 order: MonomialOrder::Grevlex,
                 vars: (n + u..n + u + over).collect(),
             });

@@ -32,6 +32,7 @@ pub mod parse;
 pub mod points;
 pub mod poly;
 pub mod rng;
+pub mod symbols;
 pub mod systems;
 pub mod univariate;
 pub mod vector_unit;

@@ -28,11 +28,9 @@ pub struct MaskLayout {
 
 impl MaskLayout {
     pub fn new(nvars: usize) -> Self {
-        let per_var = if nvars == 0 {
-            0
-        } else {
-            (64 / nvars).clamp(1, 8) as u32
-        };
+        let per_var = 64usize
+            .checked_div(nvars)
+            .map_or(0, |share| share.clamp(1, 8) as u32);
         MaskLayout {
             vars: nvars.min(64),
             per_var,

@@ -17,11 +17,11 @@ pub enum MonomialOrder {
         tie: Box<MonomialOrder>,
     },
     /// Compare block by block; each block orders its own variables (global indices).
-    Block(Vec<Block>),
+    Block(Vec<OrderBlock>),
 }
 
 #[derive(Clone, Debug, PartialEq, Eq)]
-pub struct Block {
+pub struct OrderBlock {
     pub order: MonomialOrder,
     pub vars: Vec<usize>,
 }
@@ -40,7 +40,7 @@ impl MonomialOrder {
     }
 
     /// Block order with the given blocks; they must partition 0..n.
-    pub fn block(blocks: Vec<Block>, n: usize) -> Result<Self> {
+    pub fn block(blocks: Vec<OrderBlock>, n: usize) -> Result<Self> {
         let mut seen = vec![false; n];
         for b in &blocks {
             if matches!(b.order, MonomialOrder::Block(_)) {
@@ -72,13 +72,13 @@ impl MonomialOrder {
         let rest: Vec<usize> = (0..n).filter(|v| !first.contains(v)).collect();
         let mut blocks = vec![];
         if !first.is_empty() {
-            blocks.push(Block {
+            blocks.push(OrderBlock {
                 order: MonomialOrder::Grevlex,
                 vars: first.to_vec(),
             });
         }
         if !rest.is_empty() {
-            blocks.push(Block {
+            blocks.push(OrderBlock {
                 order: MonomialOrder::Grevlex,
                 vars: rest,
             });
@@ -246,11 +246,11 @@ mod tests {
             MonomialOrder::elimination(&[1], 3),
             MonomialOrder::block(
                 vec![
-                    Block {
+                    OrderBlock {
                         order: MonomialOrder::Lex,
                         vars: vec![2, 0],
                     },
-                    Block {
+                    OrderBlock {
                         order: MonomialOrder::Grlex,
                         vars: vec![1],
                     },
@@ -277,7 +277,7 @@ mod tests {
 
     #[test]
     fn bad_blocks_are_rejected() {
-        let b = |vars: Vec<usize>| Block {
+        let b = |vars: Vec<usize>| OrderBlock {
             order: MonomialOrder::Lex,
             vars,
         };

@@ -137,7 +137,7 @@ fn count_univariate_roots<F: Field>(
     control: &Control,
 ) -> Result<u128> {
     let field = &ring.field;
-    let q_minus_1 = crate::rng::field_size(field)
+    let q_minus_1 = crate::field::field_size(field)
         .filter(|&q| q < u64::MAX)
         .map(|q| q - 1);
     let degree = u64::from(f.degree().unwrap_or(0));
@@ -165,7 +165,7 @@ fn count_univariate_roots<F: Field>(
     let dense = univariate::trimmed(field, dense);
     if dense.is_empty() {
         // f vanishes on all of GF(q).
-        return Ok(crate::rng::field_size(field).unwrap_or(u64::MAX) as u128);
+        return Ok(crate::field::field_size(field).unwrap_or(u64::MAX) as u128);
     }
     Ok((linear_part(field, &dense, control)?.len() - 1) as u128)
 }

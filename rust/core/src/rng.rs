@@ -50,18 +50,10 @@ impl Rng {
     /// A nonzero field element. Finite fields: uniform among the nonzero elements (up to
     /// 2^62); infinite fields: a small integer in ±1..±16, so certificates stay readable.
     pub fn nonzero<F: Field>(&mut self, field: &F) -> F::Elem {
-        let count = field_size(field).map_or(32, |q| q.min(1 << 62));
+        let count = crate::field::field_size(field).map_or(32, |q| q.min(1 << 62));
         // element_from_index runs through 0, 1, ... so index 0 (zero) is skipped.
         field.element_from_index(1 + self.next_u64() % (count - 1))
     }
-}
-
-/// Number of field elements when it fits 64 bits (`u64::MAX` for larger finite fields).
-pub fn field_size<F: Field>(field: &F) -> Option<u64> {
-    field
-        .order()
-        .and_then(|q| q.parse().ok())
-        .or_else(|| field.order().map(|_| u64::MAX))
 }
 
 #[cfg(test)]

@@ -4,7 +4,7 @@
 //! `("block", [(order, [variable indices]), ...])`.
 
 use fibrewise_core::control::Limits;
-use fibrewise_core::order::{Block, MonomialOrder};
+use fibrewise_core::order::{MonomialOrder, OrderBlock};
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
 use pyo3::types::{PyString, PyTuple};
@@ -40,7 +40,7 @@ fn parse_order(spec: &Bound<'_, PyAny>) -> PyResult<MonomialOrder> {
             let mut blocks = Vec::new();
             for item in tuple.get_item(1)?.try_iter()? {
                 let (order, vars): (Bound<'_, PyAny>, Vec<usize>) = item?.extract()?;
-                blocks.push(Block {
+                blocks.push(OrderBlock {
                     order: parse_order(&order)?,
                     vars,
                 });

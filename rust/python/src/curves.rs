@@ -13,10 +13,6 @@ use fibrewise_core::curves::bounds::BoundCheck;
 use fibrewise_core::curves::embedding::PowerBasis;
 use fibrewise_core::curves::zeta::Zeta;
 use fibrewise_core::curves::Curve;
-use fibrewise_core::field::{
-    BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
-};
-use fibrewise_core::PrimeField;
 use num_bigint::BigInt;
 use pyo3::prelude::*;
 use pyo3::types::PyDict;
@@ -28,30 +24,18 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     Ok(())
 }
 
-enum AnyCurve {
-    Prime(Curve<PrimeField>),
-    BigPrime2(Curve<BigPrimeField<2>>),
-    BigPrime4(Curve<BigPrimeField<4>>),
-    BigPrime8(Curve<BigPrimeField<8>>),
-    Table(Curve<TableField>),
-    Binary(Curve<BinaryField>),
-    Extension(Curve<ExtensionField>),
-    Rational(Curve<RationalField>),
+fibrewise_core::field_kind_enum! {
+    /// A curve over any field kind.
+    // One value per Python handle, matched on every call: boxing the larger variants would
+    // only add an indirection.
+    #[allow(clippy::large_enum_variant)]
+    enum AnyCurve of Curve
 }
 
 /// Runs `$body` with `$c` bound to the concrete `Curve<F>` inside an `AnyCurve`.
 macro_rules! with_curve {
     ($curve:expr, $c:ident => $body:expr) => {
-        match $curve {
-            AnyCurve::Prime($c) => $body,
-            AnyCurve::BigPrime2($c) => $body,
-            AnyCurve::BigPrime4($c) => $body,
-            AnyCurve::BigPrime8($c) => $body,
-            AnyCurve::Table($c) => $body,
-            AnyCurve::Binary($c) => $body,
-            AnyCurve::Extension($c) => $body,
-            AnyCurve::Rational($c) => $body,
-        }
+        fibrewise_core::match_field_kind!(AnyCurve, $curve, $c => $body)
     };
 }
 
@@ -61,7 +45,7 @@ trait CurveKind: Kind + PowerBasis {
 }
 
 macro_rules! curve_kind {
-    ($($field:ty => $variant:ident),*) => {
+    ([$($variant:ident: $field:ty),* $(,)?]) => {
         $(impl CurveKind for $field {
             fn wrap(curve: Curve<Self>) -> AnyCurve {
                 AnyCurve::$variant(curve)
@@ -69,10 +53,7 @@ macro_rules! curve_kind {
         })*
     };
 }
-
-curve_kind!(PrimeField => Prime, BigPrimeField<2> => BigPrime2, BigPrimeField<4> => BigPrime4,
-    BigPrimeField<8> => BigPrime8, TableField => Table, BinaryField => Binary,
-    ExtensionField => Extension, RationalField => Rational);
+fibrewise_core::for_each_field_kind!(curve_kind);
 
 /// A curve read from a system (see `fibrewise.curves`).
 #[pyclass(frozen, module = "fibrewise._native")]

@@ -1,10 +1,9 @@
 //! The field kinds the bindings know, and dispatch from a runtime field kind to the generic core.
 //!
-//! Adding a field kind: one variant in each enum, one `Kind` impl, one arm in each macro.
+//! The kinds come from the core's one list (`fibrewise_core::for_each_field_kind!`): the enums
+//! here, their wrapping and the dispatch macros are generated from it. A new field kind needs
+//! only its coefficient conversion (a `Kind` impl, in `field_kinds.rs`).
 
-use fibrewise_core::field::{
-    BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
-};
 use fibrewise_core::{Field, Poly, PrimeField, Ring};
 use pyo3::exceptions::PyTypeError;
 use pyo3::prelude::*;
@@ -15,28 +14,17 @@ use std::sync::Arc;
 /// Binary (GF(2^k), 2^16 < q <= 2^64), Extension (other GF(p^k)), Rational (Q).
 pub use fibrewise_core::field::AnyField;
 
-#[derive(Clone, Debug)]
-pub enum AnyRing {
-    Prime(Arc<Ring<PrimeField>>),
-    BigPrime2(Arc<Ring<BigPrimeField<2>>>),
-    BigPrime4(Arc<Ring<BigPrimeField<4>>>),
-    BigPrime8(Arc<Ring<BigPrimeField<8>>>),
-    Table(Arc<Ring<TableField>>),
-    Binary(Arc<Ring<BinaryField>>),
-    Extension(Arc<Ring<ExtensionField>>),
-    Rational(Arc<Ring<RationalField>>),
+/// A ring shared by the space and its polynomials.
+pub type SharedRing<F> = Arc<Ring<F>>;
+
+fibrewise_core::field_kind_enum! {
+    #[derive(Clone, Debug)]
+    pub enum AnyRing of SharedRing
 }
 
-#[derive(Clone, Debug)]
-pub enum AnyPoly {
-    Prime(Poly<PrimeField>),
-    BigPrime2(Poly<BigPrimeField<2>>),
-    BigPrime4(Poly<BigPrimeField<4>>),
-    BigPrime8(Poly<BigPrimeField<8>>),
-    Table(Poly<TableField>),
-    Binary(Poly<BinaryField>),
-    Extension(Poly<ExtensionField>),
-    Rational(Poly<RationalField>),
+fibrewise_core::field_kind_enum! {
+    #[derive(Clone, Debug)]
+    pub enum AnyPoly of Poly
 }
 
 /// Runs `$body` with `$x` bound to the concrete field inside an `AnyField`.
@@ -48,27 +36,47 @@ macro_rules! with_field {
 
 /// Runs `$body` with `$x` bound to the concrete `Arc<Ring<F>>` inside an `AnyRing`.
 macro_rules! with_ring {
-    ($r:expr, $x:ident => $body:expr) => {
-        match $r {
-            $crate::dispatch::AnyRing::Prime($x) => $body,
-            $crate::dispatch::AnyRing::BigPrime2($x) => $body,
-            $crate::dispatch::AnyRing::BigPrime4($x) => $body,
-            $crate::dispatch::AnyRing::BigPrime8($x) => $body,
-            $crate::dispatch::AnyRing::Table($x) => $body,
-            $crate::dispatch::AnyRing::Binary($x) => $body,
-            $crate::dispatch::AnyRing::Extension($x) => $body,
-            $crate::dispatch::AnyRing::Rational($x) => $body,
-        }
-    };
+    ($r:expr, $x:ident => $body:expr) => {{
+        use $crate::dispatch::AnyRing;
+        fibrewise_core::match_field_kind!(AnyRing, $r, $x => $body)
+    }};
 }
 
 pub(crate) use {with_field, with_ring};
 
-/// What the bindings need of a field kind: wrapping into the enums and coefficient conversion.
-pub trait Kind: Field {
+/// Moving a concrete field, ring or polynomial into the enums, and a polynomial out of them.
+pub trait Wrap: Field {
+    fn into_any(self) -> AnyField;
     fn wrap_ring(r: Arc<Ring<Self>>) -> AnyRing;
     fn wrap_poly(p: Poly<Self>) -> AnyPoly;
     fn unwrap_poly(p: &AnyPoly) -> Option<&Poly<Self>>;
+}
+
+macro_rules! wrap_impls {
+    ([$($variant:ident: $field:ty),* $(,)?]) => {$(
+        impl Wrap for $field {
+            fn into_any(self) -> AnyField {
+                AnyField::$variant(self)
+            }
+            fn wrap_ring(r: Arc<Ring<Self>>) -> AnyRing {
+                AnyRing::$variant(r)
+            }
+            fn wrap_poly(p: Poly<Self>) -> AnyPoly {
+                AnyPoly::$variant(p)
+            }
+            fn unwrap_poly(p: &AnyPoly) -> Option<&Poly<Self>> {
+                match p {
+                    AnyPoly::$variant(p) => Some(p),
+                    _ => None,
+                }
+            }
+        }
+    )*};
+}
+fibrewise_core::for_each_field_kind!(wrap_impls);
+
+/// What the bindings need of a field kind beyond wrapping: coefficient conversion.
+pub trait Kind: Wrap {
     /// A coefficient as a Python object (int for prime fields).
     fn coefficient_to_py(&self, py: Python<'_>, c: &Self::Elem) -> PyResult<PyObject>;
     /// A Python number as a field element.
@@ -76,19 +84,6 @@ pub trait Kind: Field {
 }
 
 impl Kind for PrimeField {
-    fn wrap_ring(r: Arc<Ring<Self>>) -> AnyRing {
-        AnyRing::Prime(r)
-    }
-    fn wrap_poly(p: Poly<Self>) -> AnyPoly {
-        AnyPoly::Prime(p)
-    }
-    #[allow(unreachable_patterns)]
-    fn unwrap_poly(p: &AnyPoly) -> Option<&Poly<Self>> {
-        match p {
-            AnyPoly::Prime(p) => Some(p),
-            _ => None,
-        }
-    }
     fn coefficient_to_py(&self, py: Python<'_>, c: &u64) -> PyResult<PyObject> {
         Ok(c.into_pyobject(py)?.into_any().unbind())
     }
@@ -105,20 +100,18 @@ impl Kind for PrimeField {
     }
 }
 
-/// Whether polynomials of the two rings can be combined (orders may differ).
-pub fn same_variables_and_field(a: &AnyRing, b: &AnyRing) -> bool {
-    fn same<F: Field>(x: &Ring<F>, y: &Ring<F>) -> bool {
-        x.field == y.field && x.names() == y.names()
-    }
-    match (a, b) {
-        (AnyRing::Prime(x), AnyRing::Prime(y)) => same(x, y),
-        (AnyRing::BigPrime2(x), AnyRing::BigPrime2(y)) => same(x, y),
-        (AnyRing::BigPrime4(x), AnyRing::BigPrime4(y)) => same(x, y),
-        (AnyRing::BigPrime8(x), AnyRing::BigPrime8(y)) => same(x, y),
-        (AnyRing::Table(x), AnyRing::Table(y)) => same(x, y),
-        (AnyRing::Binary(x), AnyRing::Binary(y)) => same(x, y),
-        (AnyRing::Extension(x), AnyRing::Extension(y)) => same(x, y),
-        (AnyRing::Rational(x), AnyRing::Rational(y)) => same(x, y),
-        _ => false,
-    }
+macro_rules! same_kind {
+    ([$($variant:ident: $field:ty),* $(,)?]) => {
+        /// Whether polynomials of the two rings can be combined (orders may differ).
+        pub fn same_variables_and_field(a: &AnyRing, b: &AnyRing) -> bool {
+            fn same<F: Field>(x: &Ring<F>, y: &Ring<F>) -> bool {
+                x.field == y.field && x.names() == y.names()
+            }
+            match (a, b) {
+                $((AnyRing::$variant(x), AnyRing::$variant(y)) => same(x, y),)*
+                _ => false,
+            }
+        }
+    };
 }
+fibrewise_core::for_each_field_kind!(same_kind);

@@ -6,19 +6,18 @@
 //!   both ways: an `int` in [0, q), or a galois element of a field with the same modulus.
 //!   (Ring constants such as `R(3)` or `f + 3` are integers; the Python layer reads them as text.)
 
-use crate::dispatch::{AnyField, AnyPoly, AnyRing, Kind};
-use crate::space::{IntoAny, NativeField};
+use crate::dispatch::{AnyField, Kind};
+use crate::space::NativeField;
 use fibrewise_core::field::{
     BigPrimeField, BinaryField, ExtensionField, Modulus, RationalField, TableField,
 };
-use fibrewise_core::{Field, Poly, Ring};
+use fibrewise_core::Field;
 use num_bigint::{BigInt, BigUint};
 use num_rational::BigRational;
 use num_traits::{ToPrimitive, Zero};
 use pyo3::exceptions::{PyTypeError, PyValueError};
 use pyo3::prelude::*;
 use pyo3::types::{PyBool, PyInt};
-use std::sync::Arc;
 
 pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(field_from_modulus, m)?)?;
@@ -64,27 +63,9 @@ fn int_mod(v: &Bound<'_, PyAny>, p: &BigUint) -> PyResult<BigUint> {
     v.rem(p.clone())?.extract()
 }
 
-macro_rules! enum_wrapping {
-    ($variant:ident) => {
-        fn wrap_ring(r: Arc<Ring<Self>>) -> AnyRing {
-            AnyRing::$variant(r)
-        }
-        fn wrap_poly(p: Poly<Self>) -> AnyPoly {
-            AnyPoly::$variant(p)
-        }
-        fn unwrap_poly(p: &AnyPoly) -> Option<&Poly<Self>> {
-            match p {
-                AnyPoly::$variant(p) => Some(p),
-                _ => None,
-            }
-        }
-    };
-}
-
 macro_rules! big_prime_kind {
-    ($n:literal, $variant:ident) => {
+    ($n:literal) => {
         impl Kind for BigPrimeField<$n> {
-            enum_wrapping!($variant);
             fn coefficient_to_py(&self, py: Python<'_>, c: &Self::Elem) -> PyResult<PyObject> {
                 Ok(self.to_biguint(c).into_pyobject(py)?.into_any().unbind())
             }
@@ -95,19 +76,13 @@ macro_rules! big_prime_kind {
                 Ok(self.from_biguint(&int_mod(v, self.modulus())?))
             }
         }
-        impl IntoAny for BigPrimeField<$n> {
-            fn into_any(self) -> AnyField {
-                AnyField::$variant(self)
-            }
-        }
     };
 }
-big_prime_kind!(2, BigPrime2);
-big_prime_kind!(4, BigPrime4);
-big_prime_kind!(8, BigPrime8);
+big_prime_kind!(2);
+big_prime_kind!(4);
+big_prime_kind!(8);
 
 impl Kind for RationalField {
-    enum_wrapping!(Rational);
     fn coefficient_to_py(&self, py: Python<'_>, c: &BigRational) -> PyResult<PyObject> {
         let fraction = py.import("fractions")?.getattr("Fraction")?;
         Ok(fraction
@@ -127,11 +102,6 @@ impl Kind for RationalField {
             v.getattr("denominator")?.extract()?,
         );
         Ok(BigRational::new(num, den))
-    }
-}
-impl IntoAny for RationalField {
-    fn into_any(self) -> AnyField {
-        AnyField::Rational(self)
     }
 }
 
@@ -193,7 +163,6 @@ fn coefficients_of(spec: &str, m: &Modulus, v: &Bound<'_, PyAny>) -> PyResult<Ve
 }
 
 impl Kind for TableField {
-    enum_wrapping!(Table);
     fn coefficient_to_py(&self, py: Python<'_>, c: &u32) -> PyResult<PyObject> {
         Ok(c.into_pyobject(py)?.into_any().unbind())
     }
@@ -201,14 +170,8 @@ impl Kind for TableField {
         Ok(self.encode(&coefficients_of(&self.spec(), self.modulus(), v)?))
     }
 }
-impl IntoAny for TableField {
-    fn into_any(self) -> AnyField {
-        AnyField::Table(self)
-    }
-}
 
 impl Kind for ExtensionField {
-    enum_wrapping!(Extension);
     fn coefficient_to_py(&self, py: Python<'_>, c: &Box<[u64]>) -> PyResult<PyObject> {
         let code = integer_representation(self.modulus().characteristic(), c);
         Ok(code.into_pyobject(py)?.into_any().unbind())
@@ -217,14 +180,8 @@ impl Kind for ExtensionField {
         Ok(self.from_coefficients(&coefficients_of(&self.spec(), self.modulus(), v)?))
     }
 }
-impl IntoAny for ExtensionField {
-    fn into_any(self) -> AnyField {
-        AnyField::Extension(self)
-    }
-}
 
 impl Kind for BinaryField {
-    enum_wrapping!(Binary);
     /// The bits are the integer representation.
     fn coefficient_to_py(&self, py: Python<'_>, c: &u64) -> PyResult<PyObject> {
         Ok(c.into_pyobject(py)?.into_any().unbind())
@@ -232,10 +189,5 @@ impl Kind for BinaryField {
     fn coefficient_from_py(&self, v: &Bound<'_, PyAny>) -> PyResult<u64> {
         let c = coefficients_of(&self.spec(), self.modulus(), v)?;
         Ok(c.iter().enumerate().fold(0, |acc, (i, &b)| acc | (b << i)))
-    }
-}
-impl IntoAny for BinaryField {
-    fn into_any(self) -> AnyField {
-        AnyField::Binary(self)
     }
 }

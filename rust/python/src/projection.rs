@@ -9,11 +9,7 @@ use crate::long_run;
 use crate::normalization::text_to_py;
 use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::control::Limits;
-use fibrewise_core::field::{
-    BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
-};
 use fibrewise_core::normalization::{self, Options, Projection, Request};
-use fibrewise_core::PrimeField;
 use pyo3::prelude::*;
 use pyo3::types::PyDict;
 
@@ -23,16 +19,12 @@ pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     Ok(())
 }
 
-/// A projection over any field kind.
-enum AnyProjection {
-    Prime(Projection<PrimeField>),
-    BigPrime2(Projection<BigPrimeField<2>>),
-    BigPrime4(Projection<BigPrimeField<4>>),
-    BigPrime8(Projection<BigPrimeField<8>>),
-    Table(Projection<TableField>),
-    Binary(Projection<BinaryField>),
-    Extension(Projection<ExtensionField>),
-    Rational(Projection<RationalField>),
+fibrewise_core::field_kind_enum! {
+    /// A projection over any field kind.
+    // One value per Python handle, matched on every call: boxing the larger variants would
+    // only add an indirection.
+    #[allow(clippy::large_enum_variant)]
+    enum AnyProjection of Projection
 }
 
 /// Wrapping a concrete projection into [`AnyProjection`].
@@ -41,7 +33,7 @@ trait ProjectionKind: Kind {
 }
 
 macro_rules! projection_kind {
-    ($($field:ty => $variant:ident),*) => {$(
+    ([$($variant:ident: $field:ty),* $(,)?]) => {$(
         impl ProjectionKind for $field {
             fn wrap_projection(p: Projection<Self>) -> AnyProjection {
                 AnyProjection::$variant(p)
@@ -49,17 +41,7 @@ macro_rules! projection_kind {
         }
     )*};
 }
-
-projection_kind!(
-    PrimeField => Prime,
-    BigPrimeField<2> => BigPrime2,
-    BigPrimeField<4> => BigPrime4,
-    BigPrimeField<8> => BigPrime8,
-    TableField => Table,
-    BinaryField => Binary,
-    ExtensionField => Extension,
-    RationalField => Rational
-);
+fibrewise_core::for_each_field_kind!(projection_kind);
 
 /// The monic equations of a projection as texts in the parameter symbols.
 fn equation_texts<F: Kind>(
@@ -87,16 +69,9 @@ impl NativeProjection {
     /// without the GIL, interruptible.
     fn equations(&self, py: Python<'_>) -> PyResult<Vec<Vec<String>>> {
         let memory = self.memory;
-        match &self.projection {
-            AnyProjection::Prime(p) => equations_of(py, p, memory),
-            AnyProjection::BigPrime2(p) => equations_of(py, p, memory),
-            AnyProjection::BigPrime4(p) => equations_of(py, p, memory),
-            AnyProjection::BigPrime8(p) => equations_of(py, p, memory),
-            AnyProjection::Table(p) => equations_of(py, p, memory),
-            AnyProjection::Binary(p) => equations_of(py, p, memory),
-            AnyProjection::Extension(p) => equations_of(py, p, memory),
-            AnyProjection::Rational(p) => equations_of(py, p, memory),
-        }
+        fibrewise_core::match_field_kind!(AnyProjection, &self.projection, p => {
+            equations_of(py, p, memory)
+        })
     }
 }
 

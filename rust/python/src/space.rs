@@ -4,7 +4,7 @@
 
 use crate::convert::order_from_py;
 use crate::dispatch::{
-    same_variables_and_field, with_field, with_ring, AnyField, AnyPoly, AnyRing, Kind,
+    same_variables_and_field, with_field, with_ring, AnyField, AnyPoly, AnyRing, Kind, Wrap,
 };
 use crate::errors::{internal, IntoPy};
 use crate::long_run;
@@ -145,6 +145,7 @@ impl NativeSpace {
         })
     }
     /// A polynomial from (exponent tuple, coefficient) pairs.
+    #[allow(clippy::wrong_self_convention)] // the space (its ring) makes the polynomial
     fn from_terms(&self, terms: Vec<(Vec<u32>, Bound<'_, PyAny>)>) -> PyResult<NativePoly> {
         with_ring!(&self.ring, r => {
             let mut out = Vec::with_capacity(terms.len());
@@ -157,16 +158,6 @@ impl NativeSpace {
             }
             Ok(self.poly(r.from_terms(out)))
         })
-    }
-}
-
-/// Moving a concrete field back into the enum (for `NativeSpace::field`).
-pub(crate) trait IntoAny {
-    fn into_any(self) -> AnyField;
-}
-impl IntoAny for fibrewise_core::PrimeField {
-    fn into_any(self) -> AnyField {
-        AnyField::Prime(self)
     }
 }
 

@@ -9,7 +9,7 @@
 //! [`super::symbolic`] and reduced by [`super::linalg`] (Four Russians tables over rows packed 64
 //! coefficients a word).
 
-use super::linalg::{self, Dense, Echelon, Work};
+use super::linalg::{self, BitMatrix, Echelon, Work};
 use super::monomial::{sum_of, Bits, BoolOrder};
 use super::pairs::{PairKind, PairSet};
 use super::symbolic::{normal_forms, Assembly, Matrix, Reducers};
@@ -185,7 +185,7 @@ impl<const W: usize> Run<W> {
 /// column (the other rows reduce to zero) or has the constant 1 (the ideal is the whole ring).
 fn reduce_rows<const W: usize>(
     matrix: &Matrix<W>,
-    x: &Dense,
+    x: &BitMatrix,
     control: &Control,
     work: &mut Work,
 ) -> Result<(Echelon, usize)> {
@@ -198,7 +198,7 @@ fn reduce_rows<const W: usize>(
         // Enough rows to fill the missing columns, with room for some that reduce to zero.
         let want = (tail - echelon.rank() + 64).max(256);
         let end = (next + want).min(matrix.reduce.len());
-        let mut batch = Dense::zeros(end - next, tail);
+        let mut batch = BitMatrix::zeros(end - next, tail);
         for (i, row) in matrix.reduce[next..end].iter().enumerate() {
             linalg::add_tail(row, x, batch.row_mut(i), work);
         }

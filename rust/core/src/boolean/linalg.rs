@@ -23,17 +23,17 @@ const PARALLEL_WORDS: usize = 1 << 16;
 
 /// A dense GF(2) matrix: `rows` rows of `stride` words, row-major.
 #[derive(Clone, Debug, Default)]
-pub struct Dense {
+pub struct BitMatrix {
     pub rows: usize,
     pub stride: usize,
     pub data: Vec<u64>,
 }
 
-impl Dense {
+impl BitMatrix {
     /// The zero matrix; the caller has checked the size against its limits.
     pub fn zeros(rows: usize, columns: usize) -> Self {
         let stride = columns.div_ceil(64);
-        Dense {
+        BitMatrix {
             rows,
             stride,
             data: vec![0; rows * stride],
@@ -102,7 +102,7 @@ fn gray_table(table: &mut Vec<u64>, basis: &[Vec<u64>], width: usize) {
 /// Applies `f` to every row of `m` whose index is not in `skip`, in parallel when the work is
 /// large enough.
 fn for_rows(
-    m: &mut Dense,
+    m: &mut BitMatrix,
     skip: std::ops::Range<usize>,
     width: usize,
     f: impl Fn(&mut [u64]) + Sync,
@@ -145,9 +145,9 @@ pub fn pivot_tails(
     columns: usize,
     control: &Control,
     work: &mut Work,
-) -> Result<Dense> {
+) -> Result<BitMatrix> {
     let p = pivots.len();
-    let mut x = Dense::zeros(p, columns - p);
+    let mut x = BitMatrix::zeros(p, columns - p);
     let stride = x.stride;
     for i in (0..p).rev() {
         if i % 1024 == 0 {
@@ -172,7 +172,7 @@ pub fn pivot_tails(
 /// Adds to `out` (a row over the columns after the `x.rows` pivot ones) the reduction of the
 /// row with distinct columns `row` (in any order) by the pivots whose finished tails are `x` (see
 /// [`pivot_tails`]).
-pub fn add_tail(row: &[u32], x: &Dense, out: &mut [u64], work: &mut Work) {
+pub fn add_tail(row: &[u32], x: &BitMatrix, out: &mut [u64], work: &mut Work) {
     let p = x.rows;
     for &c in row {
         let c = c as usize;
@@ -188,7 +188,7 @@ pub fn add_tail(row: &[u32], x: &Dense, out: &mut [u64], work: &mut Work) {
 /// A reduced row echelon form grown batch by batch: rows sorted by pivot column, each zero at
 /// the other rows' pivot columns.
 pub struct Echelon {
-    pub rows: Dense,
+    pub rows: BitMatrix,
     pub pivot_cols: Vec<usize>,
     columns: usize,
 }
@@ -196,7 +196,7 @@ pub struct Echelon {
 impl Echelon {
     pub fn new(columns: usize) -> Self {
         Echelon {
-            rows: Dense::zeros(0, columns),
+            rows: BitMatrix::zeros(0, columns),
             pivot_cols: Vec::new(),
             columns,
         }
@@ -207,7 +207,7 @@ impl Echelon {
     }
 
     /// Adds the rows of `batch` (of this form's width) to the row space.
-    pub fn add(&mut self, mut batch: Dense, control: &Control, work: &mut Work) -> Result<()> {
+    pub fn add(&mut self, mut batch: BitMatrix, control: &Control, work: &mut Work) -> Result<()> {
         reduce_by_echelon(&mut batch, &self.rows, &self.pivot_cols, control, work)?;
         let new_cols = row_echelon(&mut batch, 0, self.columns, control, work)?;
         if new_cols.is_empty() {
@@ -221,7 +221,7 @@ impl Echelon {
     }
 
     /// Interleaves the rows of `other` (whose pivot columns are new) by pivot column.
-    fn merge(&mut self, other: Dense, other_cols: Vec<usize>) {
+    fn merge(&mut self, other: BitMatrix, other_cols: Vec<usize>) {
         let stride = self.rows.stride;
         let total = self.rank() + other_cols.len();
         let mut data = Vec::with_capacity(total * stride);
@@ -240,7 +240,7 @@ impl Echelon {
                 b += 1;
             }
         }
-        self.rows = Dense {
+        self.rows = BitMatrix {
             rows: total,
             stride,
             data,
@@ -253,8 +253,8 @@ impl Echelon {
 /// at column `cols[j]` (and zeros at the other pivot columns): eight rows of `e` at a time are
 /// tabulated, and every row of `m` clears their eight columns with one table XOR.
 pub fn reduce_by_echelon(
-    m: &mut Dense,
-    e: &Dense,
+    m: &mut BitMatrix,
+    e: &BitMatrix,
     cols: &[usize],
     control: &Control,
     work: &mut Work,
@@ -298,7 +298,7 @@ fn table_size(rows: usize) -> usize {
 /// must be zero). Pivot rows end up as rows 0..rank in increasing pivot column; the returned
 /// list gives their pivot columns. Rows after the rank are zero.
 pub fn row_echelon(
-    m: &mut Dense,
+    m: &mut BitMatrix,
     first: usize,
     columns: usize,
     control: &Control,
@@ -393,7 +393,7 @@ struct WindowPivot {
 /// Up to k rows from `from` on whose k-bit windows at column `c` are independent, found by
 /// elimination on the windows alone (small integers): each row's window is reduced by the
 /// pivots found so far; a nonzero remainder makes the row a pivot at its lowest bit.
-fn find_window_pivots(m: &Dense, from: usize, c: usize, k: usize) -> Vec<WindowPivot> {
+fn find_window_pivots(m: &BitMatrix, from: usize, c: usize, k: usize) -> Vec<WindowPivot> {
     let mut found: Vec<(WindowPivot, u32)> = Vec::new();
     for i in from..m.rows {
         let mut v = window(m.row(i), c, k);
@@ -427,8 +427,8 @@ mod tests {
     use super::*;
     use crate::rng::Rng;
 
-    fn random(rows: usize, cols: usize, density: u64, rng: &mut Rng) -> Dense {
-        let mut m = Dense::zeros(rows, cols);
+    fn random(rows: usize, cols: usize, density: u64, rng: &mut Rng) -> BitMatrix {
+        let mut m = BitMatrix::zeros(rows, cols);
         for i in 0..rows {
             for c in 0..cols {
                 if rng.below(100) < density {
@@ -441,7 +441,7 @@ mod tests {
 
     /// Plain Gauss–Jordan elimination, one row XOR at a time: the textbook procedure the
     /// table-driven one must agree with.
-    fn plain_rref(m: &mut Dense, cols: usize) -> Vec<usize> {
+    fn plain_rref(m: &mut BitMatrix, cols: usize) -> Vec<usize> {
         let mut r = 0;
         let mut pivots = vec![];
         for c in 0..cols {
@@ -531,7 +531,7 @@ mod tests {
             let mut grown = Echelon::new(cols);
             for start in (0..rows).step_by(batch) {
                 let end = (start + batch).min(rows);
-                let mut part = Dense::zeros(end - start, cols);
+                let mut part = BitMatrix::zeros(end - start, cols);
                 part.data
                     .copy_from_slice(&m.data[start * m.stride..end * m.stride]);
                 grown.add(part, &Control::new(), &mut Work(0)).unwrap();

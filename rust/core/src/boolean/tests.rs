@@ -348,7 +348,7 @@ fn present_sbox_has_21_quadratic_equations() {
     assert_eq!(monomials.len(), 37);
     // Rows: monomials; columns: the 16 inputs. The kernel of the 16 x 37 evaluation matrix is
     // the space of equations; its dimension is 37 minus the rank (= the rank of this transpose).
-    let mut m = linalg::Dense::zeros(37, 16);
+    let mut m = linalg::BitMatrix::zeros(37, 16);
     for (row, mono) in monomials.iter().enumerate() {
         for (x, &y) in SBOX.iter().enumerate() {
             let bits = x | (y as usize) << 4;
@@ -386,7 +386,7 @@ fn kernel_polys(r: &BooleanRing, monomials: &[Vec<usize>], points: &[Vec<bool>])
     let k = monomials.len();
     // Augmented rows [evaluation at the points | identity]: rows that become zero on the left
     // carry kernel vectors on the right.
-    let mut m = linalg::Dense::zeros(k, points.len() + k);
+    let mut m = linalg::BitMatrix::zeros(k, points.len() + k);
     for (i, mono) in monomials.iter().enumerate() {
         for (j, p) in points.iter().enumerate() {
             if mono.iter().all(|&v| p[v]) {

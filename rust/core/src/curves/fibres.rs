@@ -61,7 +61,7 @@ pub fn count_fibred<E: Field>(
     let order = field
         .order_limbs()
         .ok_or_else(|| Error::invalid("points are counted over a finite field"))?;
-    let big_q = crate::rng::field_size(field)
+    let big_q = crate::field::field_size(field)
         .filter(|&n| n < u64::MAX)
         .ok_or_else(|| {
             Error::ResourceLimit(format!("{} is too large to go through", field.spec()))

@@ -366,7 +366,7 @@ impl<F: PowerBasis> Curve<F> {
 
 /// q for a finite field with fewer than 2^64 elements; an error otherwise.
 fn q_of<F: Field>(field: &F) -> Result<u64> {
-    match crate::rng::field_size(field) {
+    match crate::field::field_size(field) {
         None => Err(Error::invalid(format!(
             "curves are counted over finite fields, not {}",
             field.spec()

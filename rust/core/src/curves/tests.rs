@@ -27,6 +27,8 @@ fn counts<F: PowerBasis>(curve: &Curve<F>, up_to: u32) -> Vec<u128> {
 
 /// Points of the projective plane curve `equation` over the field `spec` (integer
 /// coefficients), by trying every point of P^2 there.
+// The bodies expand once per field kind, and only some element types are `Copy`.
+#[allow(clippy::clone_on_copy)]
 fn brute_force_plane(spec: &str, equation: &str) -> u128 {
     with_any_field!(AnyField::parse(spec).unwrap(), k => {
         let ring = ring_over(k.clone(), &["x", "y", "z"]);
@@ -45,6 +47,7 @@ fn brute_force_plane(spec: &str, equation: &str) -> u128 {
 }
 
 /// Affine points of the plane curve `equation` in x, y over the field `spec`.
+#[allow(clippy::clone_on_copy)]
 fn brute_force_affine(spec: &str, equation: &str) -> u128 {
     with_any_field!(AnyField::parse(spec).unwrap(), k => {
         let ring = ring_over(k.clone(), &["x", "y"]);

@@ -16,7 +16,7 @@ fn jacobi(mut a: u64, mut m: u64) -> i32 {
     let mut sign = 1;
     a %= m;
     while a != 0 {
-        while a % 2 == 0 {
+        while a.is_multiple_of(2) {
             a /= 2;
             if m % 8 == 3 || m % 8 == 5 {
                 sign = -sign;

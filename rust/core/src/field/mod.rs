@@ -7,6 +7,7 @@
 mod bigprime;
 pub mod bpsw;
 pub mod extension;
+mod kinds;
 pub mod montgomery;
 pub mod primality;
 mod prime;
@@ -40,8 +41,10 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     /// The inverse, or `None` for zero.
     fn inv(&self, a: &Self::Elem) -> Option<Self::Elem>;
     /// The image of an integer.
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_i64(&self, v: i64) -> Self::Elem;
     /// The image of an integer written in decimal (any length).
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_decimal(&self, digits: &str) -> Self::Elem {
         let ten = self.from_i64(10);
         digits.bytes().fold(self.zero(), |acc, d| {
@@ -119,6 +122,7 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     }
     /// The element with canonical residue `w < p` (only meaningful when
     /// [`Field::word_modulus`] is `Some`).
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_word(&self, _w: u64) -> Self::Elem {
         self.zero()
     }
@@ -133,9 +137,19 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     fn to_montgomery_limbs(&self, _a: &Self::Elem, _out: &mut [u64]) {}
     /// The element with Montgomery residue `limbs` (canonical; only meaningful when
     /// [`Field::montgomery_modulus`] is `Some`).
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
     fn from_montgomery_limbs(&self, _limbs: &[u64]) -> Self::Elem {
         self.zero()
     }
+}
+
+/// Number of field elements when it fits 64 bits (`u64::MAX` for larger finite fields, `None`
+/// for Q).
+pub fn field_size<F: Field>(field: &F) -> Option<u64> {
+    field
+        .order()
+        .and_then(|q| q.parse().ok())
+        .or_else(|| field.order().map(|_| u64::MAX))
 }
 
 #[cfg(test)]

@@ -180,10 +180,10 @@ impl<const N: usize> Montgomery<N> {
         let mut t = [0u64; N];
         let (mut t_n, mut t_n1);
         t_n = 0;
-        for i in 0..N {
+        for &b_i in b {
             let mut carry = 0;
             for j in 0..N {
-                (t[j], carry) = mac(t[j], a[j], b[i], carry);
+                (t[j], carry) = mac(t[j], a[j], b_i, carry);
             }
             let s = t_n as u128 + carry as u128;
             t_n = s as u64;

@@ -26,7 +26,7 @@ pub fn is_prime(n: u64) -> bool {
         return false;
     }
     for &p in &BASES {
-        if n % p == 0 {
+        if n.is_multiple_of(p) {
             return n == p;
         }
     }
@@ -50,7 +50,7 @@ pub fn is_prime(n: u64) -> bool {
 
 /// Smallest prime factor of `n` found by trial division up to `bound`, for error messages.
 pub fn small_factor(n: u64, bound: u64) -> Option<u64> {
-    (2..=bound.min(n.saturating_sub(1))).find(|d| n % d == 0)
+    (2..=bound.min(n.saturating_sub(1))).find(|d| n.is_multiple_of(*d))
 }
 
 #[cfg(test)]

@@ -17,33 +17,19 @@ use crate::error::{Error, Result};
 use num_bigint::BigUint;
 use num_traits::ToPrimitive;
 
-#[derive(Clone, Debug, PartialEq)]
-pub enum AnyField {
-    Prime(PrimeField),
-    BigPrime2(BigPrimeField<2>),
-    BigPrime4(BigPrimeField<4>),
-    BigPrime8(BigPrimeField<8>),
-    Table(TableField),
-    Binary(BinaryField),
-    Extension(ExtensionField),
-    Rational(RationalField),
+crate::field_kind_enum! {
+    /// A field of any kind (the list in [`for_each_field_kind!`](crate::for_each_field_kind)).
+    #[derive(Clone, Debug, PartialEq)]
+    pub enum AnyField
 }
 
 /// Applies an expression to the concrete field inside an [`AnyField`].
 #[macro_export]
 macro_rules! with_any_field {
-    ($field:expr, $f:ident => $body:expr) => {
-        match $field {
-            $crate::field::AnyField::Prime($f) => $body,
-            $crate::field::AnyField::BigPrime2($f) => $body,
-            $crate::field::AnyField::BigPrime4($f) => $body,
-            $crate::field::AnyField::BigPrime8($f) => $body,
-            $crate::field::AnyField::Table($f) => $body,
-            $crate::field::AnyField::Binary($f) => $body,
-            $crate::field::AnyField::Extension($f) => $body,
-            $crate::field::AnyField::Rational($f) => $body,
-        }
-    };
+    ($field:expr, $f:ident => $body:expr) => {{
+        use $crate::field::AnyField as AnyFieldOfKind;
+        $crate::match_field_kind!(AnyFieldOfKind, $field, $f => $body)
+    }};
 }
 
 const SPEC_FORMS: &str = "GF(p), GF(p^k), GF(q), GF(p)[a]/(modulus) or Q";

@@ -27,7 +27,7 @@ use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::hilbert::monomial_ideal_series;
 use crate::monomial::Monomial;
-use crate::order::{Block, MonomialOrder};
+use crate::order::{MonomialOrder, OrderBlock};
 use crate::poly::{Poly, Ring};
 use crate::zerodim::fglm::fglm_within;
 use crate::zerodim::quotient_dimension;
@@ -171,7 +171,7 @@ fn with_extra_name(names: &[String]) -> Vec<String> {
 /// The order on one more variable, h (index n), that compares the first n variables by `order`
 /// and only then the power of h: a block order with h in a block of its own, last.
 fn extended_by_last(order: &MonomialOrder, n: usize) -> MonomialOrder {
-    let h = Block {
+    let h = OrderBlock {
         order: MonomialOrder::Lex,
         vars: vec![n],
     };
@@ -181,7 +181,7 @@ fn extended_by_last(order: &MonomialOrder, n: usize) -> MonomialOrder {
             MonomialOrder::Block(blocks.iter().cloned().chain([h]).collect())
         }
         other => MonomialOrder::Block(vec![
-            Block {
+            OrderBlock {
                 order: other.clone(),
                 vars: (0..n).collect(),
             },

@@ -104,10 +104,10 @@ impl PairSet {
         // Old pairs whose lcm is a multiple of lead(h), strictly "in between" (chain criterion).
         let leads = &self.leads;
         self.pairs.retain(|p| {
-            !(h_mask & !p.mask == 0
-                && h.divides(&p.lcm)
-                && !leads[p.i].lcm_is(h, &p.lcm)
-                && !leads[p.j].lcm_is(h, &p.lcm))
+            h_mask & !p.mask != 0
+                || !h.divides(&p.lcm)
+                || leads[p.i].lcm_is(h, &p.lcm)
+                || leads[p.j].lcm_is(h, &p.lcm)
         });
         self.pairs.extend(kept);
 

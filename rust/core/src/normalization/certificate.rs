@@ -20,27 +20,9 @@ use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::{Poly, Ring};
+use crate::symbols::{fresh_symbols, taken_names};
 use std::cell::RefCell;
 use std::collections::HashMap;
-
-/// Names `{prefix}1..{prefix}count` for the first prefix that clashes with no name in `taken`.
-pub fn fresh_symbols(prefix: &str, count: usize, taken: &[String]) -> Vec<String> {
-    let mut prefix = prefix.to_string();
-    loop {
-        let names: Vec<String> = (1..=count).map(|k| format!("{prefix}{k}")).collect();
-        if names.iter().all(|s| !taken.contains(s)) {
-            return names;
-        }
-        prefix.push('_');
-    }
-}
-
-/// Names already used by a ring: its variables and the field generator.
-pub fn taken_names<F: Field>(ring: &Ring<F>) -> Vec<String> {
-    let mut taken = ring.names().to_vec();
-    taken.extend(ring.field.generator_name().map(String::from));
-    taken
-}
 
 /// A finite projection with every claim but the monic equations, and the basis that proves
 /// it: the equations come from that basis on first use ([`Projection::equations`]), since they

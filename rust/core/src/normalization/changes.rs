@@ -11,10 +11,10 @@
 
 use crate::control::Control;
 use crate::error::Result;
-use crate::field::Field;
+use crate::field::{field_size, Field};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
-pub use crate::rng::{field_size, Rng};
+pub use crate::rng::Rng;
 
 /// Parameters p_j = x_{params[j]} + shifts[j], with `shifts[j]` a polynomial in the variables
 /// `nonparams` only (indices of the original ring).

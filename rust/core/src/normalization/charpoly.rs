@@ -86,7 +86,7 @@ fn interpolation_grid<F: Field>(
             rows.min(cols).min(cycles).min(total_bound)
         })
         .collect();
-    let q = super::changes::field_size(&ring.field).unwrap_or(u64::MAX);
+    let q = crate::field::field_size(&ring.field).unwrap_or(u64::MAX);
     if bounds.iter().any(|&b| b >= q) {
         return None;
     }
@@ -579,9 +579,10 @@ impl Columns {
         let r = self.starts.len() - 1;
         let count = matrices.len();
         assert!((1..=LANES).contains(&count), "1 to LANES matrices");
-        // Entry t of the pattern in every lane; lanes past `count` repeat the last matrix.
-        let lanes = |entry: &dyn Fn(&Vec<Vec<S::E>>) -> S::E| -> [S::E; LANES] {
-            std::array::from_fn(|l| entry(&matrices[l.min(count - 1)]))
+        // An entry in every lane, given the lane's matrix index; lanes past `count` repeat the
+        // last matrix.
+        let lanes = |entry: &dyn Fn(usize) -> S::E| -> [S::E; LANES] {
+            std::array::from_fn(|l| entry(l.min(count - 1)))
         };
         let values: Vec<[S::E; LANES]> = (0..r)
             .flat_map(|k| {
@@ -589,7 +590,7 @@ impl Columns {
                     .iter()
                     .map(move |&j| (j, k))
             })
-            .map(|(j, k)| lanes(&|m| m[j][k].clone()))
+            .map(|(j, k)| lanes(&|l| matrices[l][j][k].clone()))
             .collect();
         let projection: Vec<[S::E; LANES]> = u.iter().map(|x| lanes(&|_| x.clone())).collect();
         let mut w = vec![lanes(&|_| s.zero()); r];

@@ -36,13 +36,12 @@ mod tests;
 use crate::control::{Control, Limits};
 use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
+use crate::field::field_size;
 use crate::field::Field;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
-use changes::{
-    complement, dense_linear, enumerated_linear, field_size, sparse_linear, Change, Rng,
-};
+use changes::{complement, dense_linear, enumerated_linear, sparse_linear, Change, Rng};
 use finiteness::{missing_pure_powers, proof_from_basis, test_change, Proof, Test};
 
 pub use certificate::{CertificateText, Projection};

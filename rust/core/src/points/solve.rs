@@ -218,7 +218,7 @@ fn fibres<F: Field>(
         .into_iter()
         .next()
         .expect("a positive-dimensional ideal has an independent set");
-    let q = crate::rng::field_size(field).unwrap_or(u64::MAX);
+    let q = crate::field::field_size(field).unwrap_or(u64::MAX);
     let count = (q as u128)
         .checked_pow(free.len() as u32)
         .unwrap_or(u128::MAX);

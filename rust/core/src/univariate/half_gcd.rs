@@ -127,6 +127,9 @@ fn quotient_steps<F: Field>(
     Ok(matrix)
 }
 
+/// A pair (a, b) brought down by [`reduce_pair`], with the product of its quotient matrices.
+pub type ReducedPair<F> = (Univariate<F>, Univariate<F>, Option<Matrix<F>>);
+
 /// Brings (a, b), deg a ≥ deg b, down to a pair with the same gcd and deg a below
 /// [`HALF_GCD_THRESHOLD`] (or b = 0), by half-gcd steps each followed by one division;
 /// returns the pair and the product T of all the quotient matrices used (T·(a, b) = result),
@@ -137,7 +140,7 @@ pub fn reduce_pair<F: Field>(
     mut b: Univariate<F>,
     track: bool,
     control: &Control,
-) -> Result<(Univariate<F>, Univariate<F>, Option<Matrix<F>>)> {
+) -> Result<ReducedPair<F>> {
     let mut total = track.then(|| Matrix::identity(field));
     while !b.is_empty() && a.len() > HALF_GCD_THRESHOLD {
         control.check()?;

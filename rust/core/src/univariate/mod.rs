@@ -208,7 +208,7 @@ pub fn format_terms(terms: impl Iterator<Item = (usize, String)>, name: &str) ->
 /// 1/2); for infinite fields, one of the first 2^16 (small integers keep rational arithmetic
 /// cheap).
 pub fn random_element<F: Field>(field: &F, rng: &mut Rng) -> F::Elem {
-    match crate::rng::field_size(field) {
+    match crate::field::field_size(field) {
         Some(q) if q < u64::MAX => field.element_from_index(rng.below(q)),
         Some(_) => field.element_from_index(rng.next_u64()),
         None => field.element_from_index(rng.below(1 << 16)),

@@ -104,7 +104,7 @@ fn aes_products_from_fips_197() {
     assert_eq!(t.mul(&0x57, &0x83), 0xc1);
     assert_eq!(t.mul(&0x57, &0x13), 0xfe);
     assert_eq!(t.inv(&0x53), Some(0xca));
-    let enc = |x: &Box<[u64]>| t.encode(x);
+    let enc = |x: &[u64]| t.encode(x);
     assert_eq!(
         enc(&e.mul(
             &e.from_coefficients(&t.decode(0x57)),

@@ -14,9 +14,9 @@
 //!   2N + 1 limbs and reduced once per entry read (see `Montgomery::reduce_wide`);
 //! - any other field: the field's own elements and operations.
 
+use crate::field::field_size;
 use crate::field::montgomery::{from_limbs, Montgomery};
 use crate::field::Field;
-use crate::rng::field_size;
 use crate::vector_unit::VectorUnit;
 use std::marker::PhantomData;
 

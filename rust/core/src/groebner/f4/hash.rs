@@ -98,7 +98,7 @@ impl MonomialTable {
         if parallel {
             keyed.par_sort_unstable_by(|a, b| b.0.cmp(&a.0));
         } else {
-            keyed.sort_unstable_by(|a, b| b.0.cmp(&a.0));
+            keyed.sort_unstable_by_key(|k| std::cmp::Reverse(k.0));
         }
         for (slot, (_, m)) in monos.iter_mut().zip(keyed) {
             *slot = m;

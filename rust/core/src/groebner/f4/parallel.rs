@@ -39,8 +39,9 @@ pub fn map_items<T: Sync, D, R: Send>(
                 if start >= items.len() {
                     return done;
                 }
-                for i in start..(start + take).min(items.len()) {
-                    done.push((i, work(&mut scratch, &items[i])));
+                let end = (start + take).min(items.len());
+                for (i, item) in items.iter().enumerate().take(end).skip(start) {
+                    done.push((i, work(&mut scratch, item)));
                 }
             }
         })

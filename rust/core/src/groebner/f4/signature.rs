@@ -17,7 +17,8 @@
 //!   ideal of f_1..f_{i-1});
 //! - the rewrite criterion (Eder and Roune 2013): an element added later has a signature that
 //!   divides this one's;
-//! become the rows of one matrix, with reducers from symbolic preprocessing that for each
+//!
+//! (those J-pairs) become the rows of one matrix, with reducers from symbolic preprocessing that for each
 //! monomial take the multiple of smallest signature. All rows are reduced in increasing order of
 //! signature, each only by rows of smaller signature (so that every reduction keeps the
 //! signature of the row reduced). A row whose leading monomial changed, and that is not a
@@ -70,6 +71,9 @@ struct JPair {
 
 /// One degree's J-pairs, by signature (position, t).
 type PairQueue = HashMap<(u32, u32), JPair, BuildHasherDefault<KeyHasher>>;
+
+/// A row that reduces a column, and the lanes of a block it may reduce.
+type LanePivot<'a, C> = (&'a Row<C>, LaneMask);
 
 /// Hashes the pair queue's keys, two small integers, with one multiplication: SipHash's
 /// resistance to chosen keys buys nothing here, and every new element queues a pair with
@@ -465,7 +469,8 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
             .collect();
         let rows: Vec<&Row<A::C>> = block.iter().map(|&i| row_of(matrix, &slots[i])).collect();
         let width = matrix.columns.len();
-        let mut waiting: Vec<Option<(&Row<A::C>, LaneMask)>> = vec![None; width];
+        // Per column, a non-pivot row of this block that may reduce the later lanes only.
+        let mut waiting: Vec<Option<LanePivot<'_, A::C>>> = vec![None; width];
         for (lane, pair) in block.windows(2).enumerate() {
             let later_lanes = ALL_LANES & !((2 << lane) - 1);
             for slot in &slots[pair[0] + 1..pair[1]] {
@@ -732,7 +737,7 @@ fn reducer_picker<'e, C: Send + Sync>(
                     && c.h_power <= room
             });
             for c in fitting {
-                if best.map_or(true, |b| {
+                if best.is_none_or(|b| {
                     order.cmp_by(n, sig_of(c), sig_of(b)) == Ordering::Less
                 }) {
                     best = Some(c);

@@ -5,7 +5,7 @@ use super::*;
 use crate::control::Limits;
 use crate::field::PrimeField;
 use crate::groebner::{groebner_basis, Engine};
-use crate::order::{Block, MonomialOrder};
+use crate::order::{MonomialOrder, OrderBlock};
 use crate::parse::parse_poly;
 use crate::systems;
 use proptest::prelude::*;
@@ -19,11 +19,11 @@ fn orders(n: usize) -> Vec<MonomialOrder> {
     let split = n / 2;
     let block = MonomialOrder::block(
         vec![
-            Block {
+            OrderBlock {
                 order: MonomialOrder::Grevlex,
                 vars: (0..split).collect(),
             },
-            Block {
+            OrderBlock {
                 order: MonomialOrder::Lex,
                 vars: (split..n).collect(),
             },
