@@ -249,7 +249,8 @@ class RationalClosedPoint(ClosedPoint):
 
     def _of_form(self, coefficients: list) -> str:
         """g(u) as text in the space's variables, for g given by its coefficients."""
-        return " + ".join(f"({c})*({self._form_text})^{i}" for i, c in enumerate(coefficients)) or "0"
+        powers = (f"({c})" if i == 0 else f"({c})*({self._form_text})^{i}" for i, c in enumerate(coefficients))
+        return " + ".join(powers) or "0"
 
     @property
     def equations(self) -> tuple[Polynomial, ...]:  # type: ignore[override]
