@@ -433,9 +433,9 @@ def test_solve_points_in_the_generator_and_exit_statuses(tmp_path, capsys):
     for line in out[1:1 + len(list(squares.points()))]:
         value = line.split(" = ", 1)[1]
         assert str(fw.Space("GF(9)", "x").parse(f"({value})^2")) == "a"
-    rational = write(tmp_path, "field: Q\nvariables: x\nx^2 - 4\n", "q.txt")
-    assert main(["solve", rational, "-q"]) == 2
-    assert "finite fields" in capsys.readouterr().err
+    rational = write(tmp_path, "field: Q\nvariables: x, y\nx^2 - y\n", "q.txt")
+    assert main(["solve", rational, "-q"]) == 2  # over Q: zero-dimensional systems only
+    assert "dimension 1" in capsys.readouterr().err
     assert main(["solve", path, "-q", "--over", "GF(3^3)"]) == 2
 
 
