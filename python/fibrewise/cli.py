@@ -359,7 +359,8 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
                  "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
     "points": ("number of points with coordinates in the (finite) field",
                "example: fibrewise points examples/curve_code_gf7_projective.txt --projective", _points),
-    "solve": ("the points with coordinates in the (finite) field, one per line, each checked in every equation "
+    "solve": ("the points with coordinates in the field (finite, or Q for zero-dimensional systems), one per line, "
+              "each checked in every equation "
               "(Boolean files: exhaustive search, a basis or a hybrid, --method)",
               "example: fibrewise solve examples/toy_cipher_gf101.txt", _solve),
     "curve": ("smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",

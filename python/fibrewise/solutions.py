@@ -40,8 +40,8 @@ def require_finite(k: Field, what: str) -> None:
     """``ValueError`` unless ``k`` is a finite field."""
     if k.size is None:
         raise ValueError(
-            f"{what} over {k}: the solver works over finite fields ({SUPPORTED}); over Q it is not "
-            "available yet (a lex basis, basis(order='lex'), describes the solutions exactly)")
+            f"{what} over {k}: this needs a finite field ({SUPPORTED}); over Q only the points and "
+            "closed points of the system itself (zero-dimensional, no over=) are listed")
 
 
 def in_field(system: "System", over: "FieldSpec") -> "System":
@@ -97,19 +97,42 @@ def points(system: "System", over: Optional["FieldSpec"] = None, limit: Optional
     limit = _optional_limit(limit)
     _check_flag("as_galois", as_galois)
     target = system if over is None else in_field(system, over)
-    require_finite(target.space.field, "points")
+    if target.space.field.size is None:
+        if as_galois:
+            raise ValueError("as_galois=True is for finite fields; over Q the points are tuples of Fractions")
+        return _points_over_q(target, limit)
     convert = point_converter(target.space.field, as_galois)
     return _generate(target, limit, convert)
+
+
+def _points_over_q(system: "System", limit: Optional[int]) -> Iterator[Point]:
+    """Points in Q^n of a zero-dimensional system: a finite list, computed in one call."""
+    dimension = system.dimension()
+    if dimension > 0:
+        raise ValueError(f"points over Q: the system has dimension {dimension}, so its rational points are "
+                         "not a finite list; points are listed over Q for zero-dimensional systems only")
+    return _points_over_q_list(system, limit)
+
+
+def _points_over_q_list(system: "System", limit: Optional[int]) -> Iterator[Point]:
+    if limit == 0 or system.dimension() < 0:
+        return
+    yield from (tuple(p) for p in _solve(system.space, system.equations, limit))
 
 
 def _generate(system: "System", limit: Optional[int], convert: Callable[[list], Any]) -> Iterator[Any]:
     if limit == 0:
         return
-    dimension = system.dimension()
+    # One grevlex basis serves both the dimension and the solver (whatever the space's order:
+    # a lex basis would cost a change of order for nothing).
+    gb = system.basis(order="grevlex")
+    basis = [g._native for g in gb]
+    dimension = _native.dimension(gb.space._native, basis)
     if dimension < 0:
         return
     if dimension == 0:
-        for point in _solve(system.space, system.equations, limit):
+        equations = [g._native for g in system.equations]
+        for point in _native.rational_points_of_basis(gb.space._native, basis, equations, limit):
             yield convert(point)
         return
     yield from (convert(p) for p in _points_by_fibres(system, limit))
@@ -197,10 +220,83 @@ class ClosedPoint:
         return f"<ClosedPoint of degree {self.degree} over {self.space.field}: {self}>"
 
 
+class RationalClosedPoint(ClosedPoint):
+    """A closed point of a zero-dimensional system over Q: one Galois orbit of solutions over
+    the algebraic numbers, described by a primitive element.
+
+    ``form``: the separating linear form u (a ``Polynomial``); ``minimal_polynomial``: the
+    minimal polynomial m of u at the point (monic, irreducible over Q, a ``Polynomial`` in
+    ``t``); ``coordinates``: x_i = g_i(t) with deg g_i < deg m (``Polynomial`` in ``t``). The
+    residue field is Q[t]/(m), of degree ``degree`` = deg m; the solutions of the orbit are the
+    points (g_1(θ), ..., g_n(θ)) for the deg m complex roots θ of m. ``equations``: the reduced
+    lex basis of the maximal ideal (m(u), x_i − g_i(u)), computed on first use.
+    ``points()``: the point (g_1(t), ..., g_n(t)) with coordinates in Q[t]/(m) (the other
+    points of the orbit are its conjugates, which in general do not lie in Q[t]/(m));
+    ``rational_point()``: the tuple of Fractions when the degree is 1.
+    """
+
+    def __init__(self, space: Space, degree: int, form: list, minimal_polynomial: list, coordinates: list):
+        self.space = space
+        self.degree = degree
+        self._lex = space.with_order("lex")
+        self.residue_space = Space(space.field, ["t"])
+        self._form_text = " + ".join(f"({c})*{space.names[i]}" for i, c in form) or "0"
+        self.form = space.parse(self._form_text)
+        self.minimal_polynomial = self.residue_space.from_terms(([i], c) for i, c in enumerate(minimal_polynomial))
+        self.coordinates = tuple(self.residue_space.from_terms(([i], c) for i, c in enumerate(g))
+                                 for g in coordinates)
+        self._minimal_coefficients = minimal_polynomial
+        self._coordinate_coefficients = coordinates
+        self._equations: Optional[tuple[Polynomial, ...]] = None
+
+    def _of_form(self, coefficients: list) -> str:
+        """g(u) as text in the space's variables, for g given by its coefficients."""
+        powers = (f"({c})" if i == 0 else f"({c})*({self._form_text})^{i}" for i, c in enumerate(coefficients))
+        return " + ".join(powers) or "0"
+
+    @property
+    def equations(self) -> tuple[Polynomial, ...]:  # type: ignore[override]
+        if self._equations is None:
+            from .systems import System
+
+            gens = [self._lex.parse(self._of_form(self._minimal_coefficients))]
+            gens += [self._lex.parse(f"{x} - ({self._of_form(g)})")
+                     for x, g in zip(self.space.names, self._coordinate_coefficients)]
+            self._equations = tuple(System(self._lex, gens).basis(order="lex"))
+        return self._equations
+
+    @property
+    def residue_field(self) -> Field:
+        return self.space.field
+
+    def points(self, as_galois: bool = False) -> list[Any]:
+        _check_flag("as_galois", as_galois)
+        if as_galois:
+            raise ValueError("as_galois=True is for finite fields")
+        if self.degree == 1:
+            return [self.rational_point()]
+        return [self.coordinates]
+
+    def rational_point(self) -> Optional[Point]:
+        if self.degree != 1:
+            return None
+        root = -self.minimal_polynomial.evaluate({"t": 0})
+        return tuple(g.evaluate({"t": root}) for g in self.coordinates)
+
+    def __str__(self) -> str:
+        names = ", ".join(f"{x} = {g}" for x, g in zip(self.space.names, self.coordinates))
+        return f"({names}; t a root of {self.minimal_polynomial}, t = {self.form})"
+
+    def __repr__(self) -> str:
+        return f"<ClosedPoint of degree {self.degree} over Q: {self}>"
+
+
 def closed_points(system: "System") -> list[ClosedPoint]:
-    """The closed points of a zero-dimensional system over a finite field, by increasing
+    """The closed points of a zero-dimensional system over a finite field or Q, by increasing
     degree; ``ValueError`` for a system of positive dimension."""
-    require_finite(system.space.field, "closed points")
+    if system.space.field.size is None:
+        found = _native.closed_points_over_q(system.space._native, [g._native for g in system.equations])
+        return [RationalClosedPoint(system.space, *point) for point in found]
     lex = system.space.with_order("lex")
     found = _native.closed_points(system.space._native, [g._native for g in system.equations])
     return [ClosedPoint(lex, degree, [Polynomial(lex, g) for g in equations]) for degree, equations in found]

@@ -14,7 +14,7 @@ import time
 from typing import Any, Optional
 
 from .report import aligned, plural, seconds
-from .solutions import closed_points, embedding, points
+from .solutions import RationalClosedPoint, closed_points, embedding, points
 
 def solution_texts(system, limit: Optional[int], over: Optional[str] = None) -> dict:
     """``{"points": [[text, ...], ...], "truncated": bool, "field": ..., "generator_image": ...}``:
@@ -31,10 +31,15 @@ def solution_texts(system, limit: Optional[int], over: Optional[str] = None) -> 
 
 
 def closed_point_texts(system) -> list[dict]:
-    """Each closed point as ``{"degree", "equations", "point"}`` (``point`` for degree 1)."""
+    """Each closed point as ``{"degree", "equations", "point"}`` (``point`` for degree 1); over
+    Q also ``"form"`` u, its ``"minimal_polynomial"`` m(t) and the ``"coordinates"`` x_i = g_i(t)
+    in Q[t]/(m)."""
     out = []
     for cp in closed_points(system):
         entry: dict[str, Any] = {"degree": cp.degree, "equations": [str(g) for g in cp.equations]}
+        if isinstance(cp, RationalClosedPoint):
+            entry.update(form=str(cp.form), minimal_polynomial=str(cp.minimal_polynomial),
+                         coordinates=[str(g) for g in cp.coordinates])
         rational = cp.rational_point()
         if rational is not None:
             entry["point"] = [system.space.field.element_text(c) for c in rational]
@@ -90,6 +95,9 @@ def _point_line(names: list[str], values: list[str]) -> str:
 def _closed_point_line(names: list[str], point: dict) -> str:
     if "point" in point:
         return _point_line(names, point["point"])
+    if "minimal_polynomial" in point:
+        return (f"degree {point['degree']}: " + _point_line(names, point["coordinates"])
+                + f", where t = {point['form']} is a root of {point['minimal_polynomial']}")
     return f"degree {point['degree']}: " + ", ".join(f"{g} = 0" for g in point["equations"])
 
 

@@ -1,6 +1,6 @@
 //! Solutions of a system over a finite field: its rational points, its closed points, and its
 //! equations carried into an extension field. Conversion and dispatch to
-//! `fibrewise_core::points::{solve, closed, extension}`; the work runs without the GIL and stops
+//! `fibrewise_core::points::{solve, closed, extension, rational}` (the last for Q); the work runs without the GIL and stops
 //! on Ctrl-C (`long_run`).
 //!
 //! An extension GF(q^k) ⊇ GF(q) = GF(p)[a]/(m) receives the coefficients through the field
@@ -8,16 +8,18 @@
 //! reading the generator's name again in the larger field, where `a` is another element.
 
 use crate::basis::{engine_by_name, polys_in};
-use crate::dispatch::{with_ring, Kind};
+use crate::dispatch::{with_ring, AnyRing, Kind};
 use crate::long_run;
 use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::control::{Control, Limits};
 use fibrewise_core::field::{
     BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
 };
+use fibrewise_core::groebner::{Engine, ReducedBasis};
 use fibrewise_core::points::extension::{embed_coefficients, generator_image, map_poly};
-use fibrewise_core::points::{closed, solve};
+use fibrewise_core::points::{closed, rational, solve};
 use fibrewise_core::{Error, Field, Poly, PrimeField, Result, Ring};
+use num_rational::BigRational;
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
 use std::sync::Arc;
@@ -25,6 +27,8 @@ use std::sync::Arc;
 pub fn register(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(rational_points, m)?)?;
     m.add_function(wrap_pyfunction!(closed_points, m)?)?;
+    m.add_function(wrap_pyfunction!(closed_points_over_q, m)?)?;
+    m.add_function(wrap_pyfunction!(rational_points_of_basis, m)?)?;
     m.add_function(wrap_pyfunction!(embed, m)?)?;
     Ok(())
 }
@@ -42,6 +46,9 @@ fn rational_points(
     engine: &str,
 ) -> PyResult<Vec<Vec<PyObject>>> {
     let engine = engine_by_name(engine)?;
+    if let AnyRing::Rational(r) = &space.ring {
+        return rational_points_over_q(py, space, r, &gens, limit, engine);
+    }
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
         let points = long_run::run(py, Limits::default(), space.memory, |control| {
@@ -52,6 +59,118 @@ fn rational_points(
             .map(|p| p.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
             .collect()
     })
+}
+
+/// The points of a zero-dimensional system over a finite field from its reduced grevlex basis
+/// `basis` (in `space`, whose order is grevlex), already computed by the caller: no second
+/// basis. Each point is checked in every polynomial of `equations` before it is returned.
+#[pyfunction]
+#[pyo3(signature = (space, basis, equations, limit=None, engine="auto"))]
+fn rational_points_of_basis(
+    py: Python<'_>,
+    space: &NativeSpace,
+    basis: Vec<PyRef<'_, NativePoly>>,
+    equations: Vec<PyRef<'_, NativePoly>>,
+    limit: Option<usize>,
+    engine: &str,
+) -> PyResult<Vec<Vec<PyObject>>> {
+    let engine = engine_by_name(engine)?;
+    with_ring!(&space.ring, r => {
+        let polys = polys_in(space, r, &basis)?;
+        let equations = polys_in(space, r, &equations)?;
+        let gb = ReducedBasis { ring: (**r).clone(), polys, stats: Default::default() };
+        let mut points = long_run::run(py, Limits::default(), space.memory, |control| {
+            let points = solve::zero_dimensional_points(&gb, engine, control)?;
+            points.iter().try_for_each(|p| solve::check_point(r, &equations, p))?;
+            Ok(points)
+        })?;
+        points.truncate(limit.unwrap_or(usize::MAX));
+        points
+            .iter()
+            .map(|p| p.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
+            .collect()
+    })
+}
+
+/// The points in Q^n of a zero-dimensional system over Q, exactly (Fractions), sorted; at most
+/// `limit` of them. An error for a system of positive dimension.
+fn rational_points_over_q(
+    py: Python<'_>,
+    space: &NativeSpace,
+    r: &Ring<RationalField>,
+    gens: &[PyRef<'_, NativePoly>],
+    limit: Option<usize>,
+    engine: Engine,
+) -> PyResult<Vec<Vec<PyObject>>> {
+    let gens = polys_in(space, r, gens)?;
+    let mut points = long_run::run(py, Limits::default(), space.memory, |control| {
+        rational::rational_points_over_q(r, &gens, engine, control)
+    })?;
+    points.truncate(limit.unwrap_or(usize::MAX));
+    points
+        .iter()
+        .map(|p| {
+            p.iter()
+                .map(|c| RationalField.coefficient_to_py(py, c))
+                .collect()
+        })
+        .collect()
+}
+
+/// A closed point over Q as plain lists of Fractions: (degree, separating linear form as
+/// (variable index, coefficient) pairs, minimal polynomial m of the form (coefficients from the
+/// constant term up, monic), coordinates x_i = g_i(t) mod m (each from the constant term up)).
+type RationalClosedPointLists = (
+    usize,
+    Vec<(usize, PyObject)>,
+    Vec<PyObject>,
+    Vec<Vec<PyObject>>,
+);
+
+/// The closed points over Q of a zero-dimensional system over Q, by increasing degree, each
+/// with the minimal polynomial of a separating linear form and the coordinates as polynomials
+/// in its root. Checked by the core in every equation before they are returned.
+#[pyfunction]
+#[pyo3(signature = (space, gens, engine="auto"))]
+fn closed_points_over_q(
+    py: Python<'_>,
+    space: &NativeSpace,
+    gens: Vec<PyRef<'_, NativePoly>>,
+    engine: &str,
+) -> PyResult<Vec<RationalClosedPointLists>> {
+    let engine = engine_by_name(engine)?;
+    let AnyRing::Rational(r) = &space.ring else {
+        return Err(PyValueError::new_err(
+            "closed points over Q: the space's field is not Q",
+        ));
+    };
+    let gens = polys_in(space, r, &gens)?;
+    let found = long_run::run(py, Limits::default(), space.memory, |control| {
+        rational::closed_points_over_q(r, &gens, engine, control)
+    })?;
+    let q = |c: &BigRational| RationalField.coefficient_to_py(py, c);
+    let list = |u: &[BigRational]| u.iter().map(q).collect::<PyResult<Vec<_>>>();
+    found
+        .iter()
+        .map(|point| {
+            let form = point
+                .form
+                .iter()
+                .map(|(i, c)| Ok((*i, q(c)?)))
+                .collect::<PyResult<Vec<_>>>()?;
+            let coordinates = point
+                .coordinates
+                .iter()
+                .map(|g| list(g))
+                .collect::<PyResult<Vec<_>>>()?;
+            Ok((
+                point.degree,
+                form,
+                list(&point.minimal_polynomial)?,
+                coordinates,
+            ))
+        })
+        .collect()
 }
 
 /// The closed points of a zero-dimensional system: (degree, reduced lex basis of the maximal

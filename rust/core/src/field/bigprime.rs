@@ -152,6 +152,15 @@ impl<const N: usize> Field for BigPrimeField<N> {
     fn element_from_index(&self, i: u64) -> Limbs<N> {
         self.from_biguint(&BigUint::from(i))
     }
+    /// Uniform over 0..p, drawn on the limbs of p.
+    fn random(&self, rng: &mut crate::rng::Rng) -> Limbs<N> {
+        let n = rng.below_limbs(&self.p.to_u64_digits());
+        self.from_biguint(&BigUint::from_slice(
+            &n.iter()
+                .flat_map(|&w| [w as u32, (w >> 32) as u32])
+                .collect::<Vec<_>>(),
+        ))
+    }
     fn size_hint(&self) -> f64 {
         self.p.to_f64().unwrap_or(f64::INFINITY)
     }

@@ -75,6 +75,11 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     /// of q elements, i < q runs through all of them once; for QQ: 0, 1, -1, 2, -2, ...).
     /// Used for enumeration in tests and for random choices (a random i).
     fn element_from_index(&self, i: u64) -> Self::Elem;
+    /// A random element: uniform over the whole field when it is finite, however large (see
+    /// [`crate::rng::uniform_element`]); for an infinite field, one of the first 2^16 elements.
+    fn random(&self, rng: &mut crate::rng::Rng) -> Self::Elem {
+        crate::rng::uniform_element(self, rng)
+    }
     /// Elements of a finite field listed by [`Field::element_from_index`]; `None` for infinite
     /// fields or fields with more than `limit` elements.
     fn small_elements(&self, limit: usize) -> Option<Vec<Self::Elem>> {

@@ -202,17 +202,9 @@ pub fn format_terms(terms: impl Iterator<Item = (usize, String)>, name: &str) ->
     }
 }
 
-/// A uniformly random element of a finite field with at most 2^64 elements; for larger finite
-/// fields, uniform among the first 2^64 elements of the field's enumeration (enough for the
-/// splitting steps, which only need elements that separate two roots with probability about
-/// 1/2); for infinite fields, one of the first 2^16 (small integers keep rational arithmetic
-/// cheap).
+/// A uniformly random element of the whole field (see [`Field::random`]).
 pub fn random_element<F: Field>(field: &F, rng: &mut Rng) -> F::Elem {
-    match crate::field::field_size(field) {
-        Some(q) if q < u64::MAX => field.element_from_index(rng.below(q)),
-        Some(_) => field.element_from_index(rng.next_u64()),
-        None => field.element_from_index(rng.below(1 << 16)),
-    }
+    field.random(rng)
 }
 
 #[cfg(test)]

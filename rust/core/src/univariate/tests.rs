@@ -465,3 +465,52 @@ fn roots_by_evaluation_agree_with_brute_force() {
         });
     }
 }
+
+/// Random draws cover the whole field, not only the first 2^64 elements of its enumeration:
+/// about half of the draws have the top coefficient (or top bit) set. 200 draws, binomial with
+/// p = 1/2: outside 60..140 has probability below 1e-8.
+#[test]
+fn random_draws_cover_fields_beyond_two_to_the_sixty_four() {
+    use crate::field::{BigPrimeField, ExtensionField};
+    let mut rng = Rng::new(12);
+    let binary = ExtensionField::with_default_modulus(2, 127).unwrap();
+    let p = (num_bigint::BigUint::from(1u32) << 255u32) - 19u32;
+    let big = BigPrimeField::<4>::new(&p).unwrap();
+    let half = num_bigint::BigUint::from(1u32) << 254u32;
+    let in_range = |hits: usize| (60..140).contains(&hits);
+    let top = |a: &Box<[u64]>| a[126] == 1;
+    let high = |a: &[u64; 4]| big.to_biguint(a) >= half;
+    let draws = |f: &dyn Fn(&mut Rng) -> bool, rng: &mut Rng| (0..200).filter(|_| f(rng)).count();
+    let counts = [
+        draws(&|r| top(&random_element(&binary, r)), &mut rng),
+        draws(&|r| top(&crate::rng::uniform_element(&binary, r)), &mut rng),
+        draws(&|r| high(&random_element(&big, r)), &mut rng),
+        draws(&|r| high(&crate::rng::uniform_element(&big, r)), &mut rng),
+        draws(&|r| top(&r.nonzero(&binary)), &mut rng),
+    ];
+    assert!(counts.iter().all(|&c| in_range(c)), "{counts:?}");
+}
+
+/// Roots of a product of linear factors over GF(2^127) on its sparse default modulus: the
+/// equal-degree splitting by the trace needs random elements from the whole field (it never
+/// split when the draws stayed among the first 2^64 elements).
+#[test]
+fn roots_over_a_binary_field_beyond_two_to_the_sixty_four() {
+    let mut rng = Rng::new(13);
+    let any = AnyField::parse("GF(2^127)").unwrap();
+    with_any_field!(&any, field => {
+        let a = field.generator().unwrap();
+        let mut planted: Vec<_> = (0..6).map(|_| random_element(field, &mut rng)).collect();
+        planted.extend((0..4).map(|i| field.add(&field.pow(&a, 100 + i), &field.from_i64(1))));
+        planted.push(field.zero());
+        planted.push(field.one());
+        let f = multiply(field, &from_roots(field, &planted), &random_poly(field, &mut rng, 5));
+        let found = roots(field, &f, &Control::new()).unwrap();
+        for r in &found {
+            assert!(field.is_zero(&evaluate(field, &f, r)), "not a root");
+        }
+        for r in &planted {
+            assert!(found.contains(r), "planted root missing");
+        }
+    });
+}

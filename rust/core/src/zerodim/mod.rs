@@ -90,6 +90,9 @@ pub struct Quotient<F: Field> {
     /// For b_j ≠ 1: (i, k) with b_j = x_i · b_k (k < j, as the list is increasing).
     parents: Vec<Option<(usize, usize)>>,
     variable_columns: OnceLock<Vec<Vec<SparseColumn<F>>>>,
+    /// Per variable, its columns read off the basis when that needs no arithmetic
+    /// ([`Quotient::read_columns`]); `None` inside when it does.
+    read_columns: Vec<OnceLock<Option<Vec<SparseColumn<F>>>>>,
 }
 
 impl<F: Field> Quotient<F> {
@@ -139,6 +142,7 @@ impl<F: Field> Quotient<F> {
             index,
             parents,
             variable_columns: OnceLock::new(),
+            read_columns: (0..n).map(|_| OnceLock::new()).collect(),
         })
     }
 
@@ -200,6 +204,58 @@ impl<F: Field> Quotient<F> {
             all.push(columns);
         }
         Ok(self.variable_columns.get_or_init(|| all))
+    }
+
+    /// Columns of multiplication by x_i read off the basis without arithmetic, when every
+    /// x_i·b_j is standard (a unit column) or a leading monomial of the basis (the basis
+    /// element's tail, negated): the usual case for the smallest variable of a grevlex basis
+    /// (Faugère and Mou 2011), which then needs none of the other variables' border normal
+    /// forms. `None` when some x_i·b_j is a proper multiple of a leading monomial.
+    fn read_columns(&self, i: usize, control: &Control) -> Result<Option<&Vec<SparseColumn<F>>>> {
+        if let Some(columns) = self.read_columns[i].get() {
+            return Ok(columns.as_ref());
+        }
+        let ring = &self.basis.ring;
+        let field = &ring.field;
+        let x = Monomial::var_power(ring.nvars(), i, 1);
+        let by_lead: HashMap<&Monomial, &Poly<F>> = self
+            .basis
+            .polys
+            .iter()
+            .filter_map(|g| Some((g.leading_monomial()?, g)))
+            .collect();
+        let mut columns = Vec::with_capacity(self.dimension());
+        for b in &self.monomials {
+            control.check()?;
+            let up = b.mul(&x)?;
+            if let Some(&k) = self.index.get(&up) {
+                columns.push(vec![(k, field.one())]);
+                continue;
+            }
+            let Some(g) = by_lead.get(&up) else {
+                return Ok(self.read_columns[i].get_or_init(|| None).as_ref());
+            };
+            let lead = field
+                .inv(&g.terms()[0].1)
+                .expect("nonzero leading coefficient");
+            let minus_lead = field.neg(&lead);
+            columns.push(
+                g.terms()[1..]
+                    .iter()
+                    .map(|(m, c)| (self.index[m], field.mul(c, &minus_lead)))
+                    .collect(),
+            );
+        }
+        Ok(self.read_columns[i].get_or_init(|| Some(columns)).as_ref())
+    }
+
+    /// The columns of multiplication by x_i: read off the basis when possible, else from the
+    /// border normal forms of all variables.
+    fn columns_of(&self, i: usize, control: &Control) -> Result<&Vec<SparseColumn<F>>> {
+        match self.read_columns(i, control)? {
+            Some(columns) => Ok(columns),
+            None => Ok(&self.variable_columns(control)?[i]),
+        }
     }
 
     /// Normal forms of the border monomials x_i·b (b standard, x_i·b not), in increasing order
@@ -300,7 +356,6 @@ impl<F: Field> Quotient<F> {
     ) -> Result<Vec<F::Elem>> {
         use rayon::prelude::*;
         let field = &self.basis.ring.field;
-        let columns = self.variable_columns(control)?;
         let word = field
             .word_modulus()
             .and_then(|p| crate::field::PrimeField::new(p).ok());
@@ -308,7 +363,7 @@ impl<F: Field> Quotient<F> {
         for (i, c) in form {
             control.check()?;
             out.par_iter_mut()
-                .zip(columns[*i].par_iter())
+                .zip(self.columns_of(*i, control)?.par_iter())
                 .for_each(|(o, column)| {
                     let dot = match &word {
                         Some(prime) => field.from_word(lazy_dot(prime, field, column, w)),

@@ -138,6 +138,11 @@ impl Field for ExtensionField {
             .collect();
         self.pad(digits)
     }
+    /// Uniform coefficients: uniform over all p^k elements, whatever k.
+    fn random(&self, rng: &mut crate::rng::Rng) -> Box<[u64]> {
+        let p = self.modulus.characteristic();
+        self.pad((0..self.k()).map(|_| rng.below(p)).collect())
+    }
     fn size_hint(&self) -> f64 {
         (self.modulus.characteristic() as f64).powi(self.k() as i32)
     }
