@@ -478,7 +478,7 @@ fn random_draws_cover_fields_beyond_two_to_the_sixty_four() {
     let big = BigPrimeField::<4>::new(&p).unwrap();
     let half = num_bigint::BigUint::from(1u32) << 254u32;
     let in_range = |hits: usize| (60..140).contains(&hits);
-    let top = |a: &Box<[u64]>| a[126] == 1;
+    let top = |a: &[u64]| a[126] == 1;
     let high = |a: &[u64; 4]| big.to_biguint(a) >= half;
     let draws = |f: &dyn Fn(&mut Rng) -> bool, rng: &mut Rng| (0..200).filter(|_| f(rng)).count();
     let counts = [
