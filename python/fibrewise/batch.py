@@ -581,21 +581,29 @@ def _as_record(finished: Finished) -> dict:
 DASK_WINDOW = 1000  # jobs in flight on the cluster at once: bounded scheduler memory, quick stop
 
 
+def dask_client(address: str) -> Any:
+    """A client of the Dask cluster at ``address`` (a context manager); ``RuntimeError`` when
+    dask and distributed are not installed."""
+    try:
+        from distributed import Client
+    except ImportError:
+        raise RuntimeError("--scheduler needs the optional packages dask and distributed "
+                           "(pip install dask distributed)") from None
+    return Client(address, timeout="30s")
+
+
 def run_dask(jobs: list[dict], address: str, timeout: float | None, memory_bytes: int | None) -> Iterator[dict]:
     """Records of the jobs, in completion order, computed on the Dask cluster at ``address``.
 
     A job the cluster loses (a worker machine gone, a task error outside the job) yields a record
     with status ``"lost"``, which is not written: it runs again on resume."""
-    try:
-        from distributed import Client, as_completed
-    except ImportError:
-        raise RuntimeError("--scheduler needs the optional packages dask and distributed "
-                           "(pip install dask distributed)") from None
     from functools import partial
 
     task = partial(run_in_sandbox, timeout=timeout, memory_bytes=memory_bytes)
     pending = iter(jobs)
-    with Client(address, timeout="30s") as client:
+    with dask_client(address) as client:
+        from distributed import as_completed
+
         in_flight: dict[Any, Any] = {}
 
         def submit_next(queue) -> None:
