@@ -64,9 +64,13 @@ class GuessJob:
         return -(-self.guesses // self.chunk)
 
     def header(self) -> dict[str, Any]:
-        """The first line of a progress file: a resume must be the same run."""
-        return {"field": self.field, "variables": list(self.variables), "polynomials": list(self.polynomials),
-                "guess": list(self.guess), "chunk": self.chunk}
+        """The first line of a progress file: a resume must be the same run (the system by a
+        digest of its text, which keeps the file small)."""
+        import hashlib
+
+        text = "\n".join([self.field, ",".join(self.variables), self.order, *self.polynomials])
+        return {"system": hashlib.sha256(text.encode()).hexdigest(), "guess": list(self.guess),
+                "chunk": self.chunk, "chunks": self.chunks}
 
 
 def check_guess(system: "System", guess: list[str]) -> list[str]:
@@ -271,7 +275,8 @@ def render_solve(result: dict) -> str:
     """The summary after the streamed points (the points themselves are printed as found)."""
     from .report import aligned, plural, seconds
 
-    where = f"the Dask cluster at {result['scheduler']}" if result["scheduler"] else plural(result["workers"], "process")
+    processes = f"{result['workers']} local process" + ("es" if result["workers"] > 1 else "")
+    where = f"the Dask cluster at {result['scheduler']}" if result["scheduler"] else processes
     head = f"{result['file']}: {plural(len(result['points']), 'point')} over {result['field']}"
     if result["truncated"]:
         head += " (stopped at --limit)"
