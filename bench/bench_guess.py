@@ -54,24 +54,9 @@ def surface() -> None:
           f"(target <= 5 s) {'OK' if total <= 5 else 'MISSED'}")
 
 
-def toy_cipher(p: int = 251, rounds: int = 4, key: tuple[int, int] = (7, 11)) -> fw.System:
-    """A toy cipher of our own over GF(p): two key words alternate, round i maps s to
-    (s + k_(i mod 2) + i + 1)^3; two plaintexts 3 and 8, their ciphertexts under the planted key;
-    unknowns the key words and the inner states."""
-    names = ["k1", "k2"] + [f"s{j}_{i}" for j in range(2) for i in range(1, rounds)]
-    V = fw.Space(f"GF({p})", ", ".join(names))
-    k = V.variables[:2]
-    equations = []
-    for j, plain in enumerate((3, 8)):
-        state = plain
-        for i in range(rounds):
-            state = pow(state + key[i % 2] + i + 1, 3, p)
-        previous = V.polynomial(plain)
-        for i in range(rounds):
-            following = V.parse(f"s{j}_{i + 1}") if i < rounds - 1 else V.polynomial(state)
-            equations.append(following - (previous + k[i % 2] + (i + 1)) ** 3)
-            previous = following
-    return V.system(equations)
+def toy_cipher() -> fw.System:
+    """The toy cipher of our own in examples/ (four rounds over GF(251), two key words)."""
+    return fw.System.read(str(pathlib.Path(__file__).resolve().parent.parent / "examples" / "toy_cipher_2key_gf251.txt"))
 
 
 def workers() -> None:
