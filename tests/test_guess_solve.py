@@ -98,5 +98,10 @@ def test_solve_command_with_guesses(tmp_path, capsys):
     assert main(["solve", str(source), "--guess", "k1,k2", "--json", "--quiet"]) == 0
     result = json.loads(capsys.readouterr().out)
     assert sorted(tuple(int(c) for c in p) for p in result["points"]) == brute_force(S)
+    assert main(["solve", str(source), "--guess", "k1,k2", "--limit", "6", "--json", "--quiet"]) == 0
+    assert json.loads(capsys.readouterr().out)["truncated"] is False  # exactly 6 points: nothing cut
+    assert main(["solve", str(source), "--guess", "k1,k2", "--limit", "2", "--json", "--quiet"]) == 0
+    cut = json.loads(capsys.readouterr().out)
+    assert cut["truncated"] is True and len(cut["points"]) == 2
     assert main(["solve", str(source), "--guess", "k9", "--quiet"]) == 2
     assert main(["solve", str(source), "--workers", "2", "--quiet"]) == 2

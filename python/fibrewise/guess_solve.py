@@ -254,14 +254,15 @@ def solve_command(args: Any, activity: Any, header: dict, system: "System") -> d
     activity.set_step("guesses")
     # one point more than --limit tells whether the list was cut
     wanted = None if args.limit is None else args.limit + 1
+    truncated = False
     for point in guessed_points(system, guess, workers=args.workers or 1, scheduler=args.scheduler,
                                 progress=args.progress, limit=wanted, on_chunk=on_chunk):
         if args.limit is not None and len(points) == args.limit:
+            truncated = True  # a point beyond the limit exists
             break
         points.append([text(c) for c in point])
         if not args.json:
             print(", ".join(f"{x} = {v}" for x, v in zip(names, points[-1])), flush=True)
-    truncated = args.limit is not None and len(points) == args.limit and wanted is not None
     result: dict[str, Any] = {**header, "guess": guess, "limit": args.limit, "progress": args.progress,
                               "scheduler": args.scheduler, "workers": args.workers or 1,
                               "chunks_done": chunks["done"], "chunks": chunks["total"],
