@@ -23,6 +23,7 @@ use crate::monomial::Monomial;
 use crate::order::{Block, MonomialOrder};
 use crate::poly::{Poly, Ring};
 use crate::rng::field_size;
+use crate::univariate;
 
 use super::solve::{check_point, collect_points, digits, zero_dimensional_points};
 
@@ -255,6 +256,9 @@ impl<F: Field> ParametricBasis<F> {
         if gb.is_unit_ideal() {
             return Ok(vec![]);
         }
+        if let Some(points) = points_of_linear_shape(&gb, control)? {
+            return Ok(points);
+        }
         if krull_dimension(self.ring.nvars(), &gb.leading_monomials()) > 0 {
             // Parameters that are not a finite projection leave some fibres of positive
             // dimension: they are enumerated in turn.
@@ -277,6 +281,84 @@ impl<F: Field> ParametricBasis<F> {
         }
         Ok(())
     }
+}
+
+/// The points of a reduced basis of the form {h(x_l)} ∪ {x_i − a_i x_l − b_i : i ≠ l} (the usual
+/// fibre of a hypersurface over the other variables): the roots t of h with x_i = a_i t + b_i.
+/// `None` for a basis of any other form.
+fn points_of_linear_shape<F: Field>(
+    gb: &ReducedBasis<F>,
+    control: &Control,
+) -> Result<Option<Vec<Vec<F::Elem>>>> {
+    let ring = &gb.ring;
+    let field = &ring.field;
+    let n = ring.nvars();
+    if gb.polys.len() != n {
+        return Ok(None);
+    }
+    // h: the one element of degree above 1 (first, by the degree in grevlex), or for a single
+    // point the last linear element, whose leading monomial is the smallest variable.
+    let position = match gb.polys.iter().position(|g| g.degree() != Some(1)) {
+        Some(k) => k,
+        None => n - 1,
+    };
+    let h = &gb.polys[position];
+    let Some(l) = h.leading_monomial().and_then(|m| m.pure_power_variable()) else {
+        return Ok(None);
+    };
+    let involves_only = |g: &Poly<F>, vars: &[usize]| {
+        g.terms().iter().all(|(m, _)| {
+            m.exponents()
+                .iter()
+                .enumerate()
+                .all(|(i, &e)| e == 0 || vars.contains(&i))
+        })
+    };
+    if !involves_only(h, &[l]) {
+        return Ok(None);
+    }
+    let mut univariate = vec![field.zero(); h.degree().unwrap_or(0) as usize + 1];
+    for (m, c) in h.terms() {
+        univariate[m.exponents()[l] as usize] = c.clone();
+    }
+    // One linear element x_i − a_i x_l − b_i for every other variable i.
+    let mut images: Vec<Option<(F::Elem, F::Elem)>> = vec![None; n];
+    for (k, g) in gb.polys.iter().enumerate() {
+        if k == position {
+            continue;
+        }
+        let lead = g.leading_monomial().and_then(|m| m.pure_power_variable());
+        let Some(i) = lead.filter(|&i| i != l && g.degree() == Some(1)) else {
+            return Ok(None);
+        };
+        if !involves_only(g, &[i, l]) {
+            return Ok(None);
+        }
+        let (mut a, mut b) = (field.zero(), field.zero());
+        for (m, c) in &g.terms()[1..] {
+            if m.is_one() {
+                b = field.neg(c);
+            } else {
+                a = field.neg(c);
+            }
+        }
+        images[i] = Some((a, b));
+    }
+    let roots = univariate::roots(field, &univariate, control)?;
+    Ok(Some(
+        roots
+            .iter()
+            .map(|t| {
+                (0..n)
+                    .map(|i| match &images[i] {
+                        _ if i == l => t.clone(),
+                        Some((a, b)) => field.add(&field.mul(a, t), b),
+                        None => unreachable!("every other variable has its linear element"),
+                    })
+                    .collect()
+            })
+            .collect(),
+    ))
 }
 
 /// k[x, t_1..t_d] with x-block grevlex before t-block grevlex; the t names avoid x's names.
