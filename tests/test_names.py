@@ -19,7 +19,7 @@ README = (ROOT / "README.md").read_text(encoding="utf-8")
 
 # Members of the interface that need mathematics other engineers are building; they join the
 # package under these names.
-PENDING = {"guess_plan", "fiber_points"}
+PENDING: set[str] = set()
 
 # Names of the first edition, gone everywhere (no aliases). Two of them are the names another
 # program uses, so they are spelled here in pieces: the tree must not contain them at all.

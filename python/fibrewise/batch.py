@@ -593,20 +593,28 @@ class Lost:
     error: str
 
 
+def dask_client(address: str) -> Any:
+    """A client of the Dask cluster at ``address`` (a context manager); ``RuntimeError`` when
+    dask and distributed are not installed."""
+    try:
+        from distributed import Client
+    except ImportError:
+        raise RuntimeError("--scheduler needs the optional packages dask and distributed "
+                           "(pip install dask distributed)") from None
+    return Client(address, timeout="30s")
+
+
 def run_dask(jobs: list[dict], address: str, timeout: float | None,
              memory_bytes: int | None) -> Generator[Finished | Lost, None, None]:
     """The finished and the lost jobs, in completion order, computed on the Dask cluster at
     ``address``."""
-    try:
-        from distributed import Client, as_completed
-    except ImportError:
-        raise RuntimeError("--scheduler needs the optional packages dask and distributed "
-                           "(pip install dask distributed)") from None
     from functools import partial
 
     task = partial(run_in_sandbox, timeout=timeout, memory_bytes=memory_bytes)
     pending = iter(jobs)
-    with Client(address, timeout="30s") as client:
+    with dask_client(address) as client:
+        from distributed import as_completed
+
         in_flight: dict[Any, Any] = {}
 
         def submit_next(queue) -> None:

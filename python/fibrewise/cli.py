@@ -265,9 +265,29 @@ def _solve(args: argparse.Namespace, activity) -> dict:
         return {**_header(system), **solve_boolean(system, args.method, args.limit, activity)}
     if args.method != "auto":
         raise ValueError(f"{system.path}: --method chooses how Boolean systems ('boolean: yes') are solved")
+    if args.guess is not None:
+        from .guess_solve import solve_command as solve_by_guessing
+
+        return solve_by_guessing(args, activity, _header(system), system)
+    if args.scheduler is not None or args.workers is not None or args.progress is not None:
+        raise ValueError("--scheduler, --workers and --progress spread the guesses of --guess")
     from .solving import solve_command
 
     return solve_command(args, activity, _header(system), system)
+
+
+def _plan(args: argparse.Namespace, activity) -> dict:
+    if args.plot:
+        _check_plotting()
+    system = _system(args)
+    activity.set_step("measuring specialised systems")
+    plan, seconds = _timed(lambda: system.guess_plan(args.max_guess, args.samples))
+    result = {**_header(system), **plan.to_dict(), "seconds": seconds}
+    if args.plot:
+        from .plot import draw_plan
+
+        draw_plan(args.plot, result)
+    return result
 
 
 def _check(args: argparse.Namespace, activity) -> dict:
@@ -363,6 +383,9 @@ SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
               "each checked in every equation "
               "(Boolean files: exhaustive search, a basis or a hybrid, --method)",
               "example: fibrewise solve examples/toy_cipher_gf101.txt", _solve),
+    "plan": ("guess-and-determine plan: for k guessed variables, the measured cost of one specialised system, "
+             "q^k, the expected total and the best k",
+             "example: fibrewise plan examples/toy_cipher_gf101.txt --max-guess 2 --plot plan.png", _plan),
     "curve": ("smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",
               "example: fibrewise curve examples/curve_genus2_gf16.txt --up-to 4", _curve),
     "check": ("verify a saved projection certificate against the system file",
@@ -465,6 +488,12 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
     elif name == "curve":
         p.add_argument("--up-to", type=_positive(int), metavar="R",
                        help="report N_r for r = 1..R (default: the genus; N_r beyond the genus come from the zeta function)")
+    elif name == "plan":
+        p.add_argument("--max-guess", type=int, metavar="K", help="plan k = 0..K guessed variables (default: until "
+                       "more guesses cannot pay)")
+        p.add_argument("--samples", type=_positive(int), default=8, metavar="N",
+                       help="random guesses solved per k (default 8)")
+        p.add_argument("--plot", metavar="FILE.png", help="draw the expected total time against k (needs matplotlib)")
     elif name == "points":
         p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
     elif name == "solve":
@@ -475,6 +504,14 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
                             "or hybrid:K (guess K variables)")
         p.add_argument("--closed-points", action="store_true",
                        help="list the closed points (Galois orbits, with their degrees and equations) instead")
+        p.add_argument("--guess", metavar="X1,X2,...", help="guess these variables: solve the specialised system of "
+                       "every guess (see 'fibrewise plan'), points printed as found")
+        p.add_argument("--scheduler", metavar="ADDRESS", help="with --guess: spread the guesses over the Dask "
+                       "cluster at ADDRESS (tcp://host:8786)")
+        p.add_argument("--workers", type=_positive(int), metavar="N", help="with --guess: local worker processes "
+                       "(default 1)")
+        p.add_argument("--progress", metavar="FILE", help="with --guess: record finished chunks in FILE; "
+                       "the same command again resumes where it stopped")
 
 
 def _parser() -> argparse.ArgumentParser:

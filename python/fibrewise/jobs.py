@@ -19,7 +19,7 @@ from .names import expand_names
 SOLUTIONS_LIMIT = 1000
 
 TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "projection", "normalize", "points", "basis",
-              "solutions", "curve")
+              "solutions", "curve", "plan")
 DEFAULT_TASKS = ("dimension",)
 JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "limit", "boolean")
 
@@ -131,6 +131,7 @@ TASKS: dict[str, Callable[[Any], Any]] = {
     "points": _points,
     "basis": lambda S: [str(g) for g in S.basis()],
     "curve": _curve,
+    "plan": lambda S: S.guess_plan().to_dict(),
 }
 
 

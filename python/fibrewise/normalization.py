@@ -30,6 +30,7 @@ from .names import STRATEGY_NAMES, Strategy, check_name
 from .spaces import Coercible, Polynomial
 
 if TYPE_CHECKING:
+    from .fibres import ParametricFibres
     from .systems import System
 
 _IDENTIFIER = re.compile(r"[A-Za-z_][A-Za-z0-9_]*")
@@ -98,6 +99,7 @@ class FiniteProjection:
         self.rank: int = certificate["rank"]
         self.strategy: str = certificate["strategy"]
         self.homogeneous: bool = certificate["homogeneous"]
+        self._fibres: Optional["ParametricFibres"] = None  # built by fiber_points on first use
 
     @property
     def equations(self) -> list[list[str]]:
@@ -188,6 +190,16 @@ class FiniteProjection:
             raise ValueError(f"the fibre needs a point with {self.dimension} coordinates, got {len(point)}")
         space = self.system.space
         return space.system(list(self.system.equations) + [p - space.polynomial(a) for p, a in zip(self.parameters, point)])
+
+    def fiber_points(self, point: Sequence[int]) -> list[tuple]:
+        """The rational points (tuples of ints) of the fibre over a point of k^d, from the
+        parametric basis of the projection (computed on first use, then specialised: no basis
+        per fibre where the specialisation is generic; see ``fibrewise.fibres``)."""
+        from .fibres import ParametricFibres
+
+        if self._fibres is None:
+            self._fibres = ParametricFibres(self.system, self.parameters)
+        return self._fibres.fibre(point)
 
     def __repr__(self) -> str:
         params = ", ".join(str(p) for p in self.parameters)

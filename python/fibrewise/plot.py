@@ -69,3 +69,26 @@ def _draw_hilbert(ax, series: dict | None) -> None:
     values = series_coefficients(series["numerator"], series["denominator_exponent"], count)
     ax.plot(range(count), values, "s-", color="tab:green")
     ax.set_ylabel("H(s)")
+
+
+def draw_plan(path: str, result: dict) -> None:
+    """Writes the expected total time of a guess plan (``fibrewise plan --plot``) against k."""
+    try:
+        import matplotlib
+    except ImportError:
+        raise RuntimeError("--plot needs the optional package matplotlib (pip install matplotlib)") from None
+    matplotlib.use("Agg")
+    import matplotlib.pyplot as plt
+
+    rows = result["rows"]
+    fig, ax = plt.subplots(figsize=(6, 4))
+    ax.semilogy([r["k"] for r in rows], [max(r["total_seconds"], 1e-9) for r in rows], "o-", label="expected total")
+    ax.semilogy([r["k"] for r in rows], [max(r["seconds"], 1e-9) for r in rows], "s--", alpha=0.6,
+                label="one specialised system")
+    ax.set_xlabel("guessed variables k")
+    ax.set_ylabel("seconds")
+    ax.set_title(f"{result.get('file') or 'system'}: best k = {result['best']}", fontsize=9)
+    ax.legend()
+    fig.tight_layout()
+    fig.savefig(path, dpi=100)
+    plt.close(fig)

@@ -283,8 +283,9 @@ RENDERERS: dict[str, Callable[[dict], str]] = {
     "curve": render_curve,
     "analyze": render_analyze, "basis": render_basis, "normalize": render_normalize,
     "integral": render_integral, "points": render_points, "check": render_check, "batch": render_batch,
+    "plan": lambda result: _guessing().render_plan(result),
     "solve": lambda result: _boolean_report().render_solve(result) if isinstance(result.get("method"), dict)
-    else render_solve(result),
+    else _guessing_solve().render_solve(result) if "guess" in result else render_solve(result),
 }
 
 
@@ -292,6 +293,18 @@ def _boolean_report():
     from . import boolean
 
     return boolean
+
+
+def _guessing_solve():
+    from . import guess_solve
+
+    return guess_solve
+
+
+def _guessing():
+    from . import guessing
+
+    return guessing
 
 
 def render(command: str, result: dict) -> str:

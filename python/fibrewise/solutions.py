@@ -6,8 +6,9 @@ Rational points (``System.points``): a zero-dimensional system is solved in the 
 field equations and a triangular splitting; Faugère and Mou 2011, Lazard 1992). A system of
 dimension d > 0 goes through a finite projection (Noether normalization): every rational point
 lies over a point of k^d, the fibre over each point of k^d is finite, so the parameter values are
-enumerated and each fibre is solved as a zero-dimensional system. The points come lazily, fibre
-by fibre; q^d fibres for a field of q elements, so for large q stop after what you need
+enumerated and each fibre is solved as a zero-dimensional system, from one parametric basis
+specialised at each point (a fibre gets a basis of its own only where a leading coefficient
+vanishes; ``fibres.py``). The points come lazily, fibre by fibre; q^d fibres for a field of q elements, so for large q stop after what you need
 (``limit``). Every point is checked in every equation by the core before it is returned.
 
 Closed points (``System.closed_points``): the Galois orbits of the solutions of a
@@ -21,7 +22,6 @@ field, where the name denotes the larger field's own generator, another element.
 
 from __future__ import annotations
 
-import itertools
 from typing import TYPE_CHECKING, Any, Callable, Iterator, Optional
 
 from . import _native
@@ -143,20 +143,11 @@ def _solve(space: Space, equations, limit: Optional[int]) -> list[list]:
 
 
 def _points_by_fibres(system: "System", limit: Optional[int]) -> Iterator[list]:
-    """Points of a positive-dimensional system, fibre by fibre over a finite projection."""
-    space = system.space
-    size = space.field.size
-    assert size is not None, "points() checked that the field is finite"
-    projection = system.projection()
-    found = 0
-    for values in itertools.product(range(size), repeat=projection.dimension):
-        fibre = list(system.equations) + [
-            p - Polynomial(space, space._native.constant(v)) for p, v in zip(projection.parameters, values)]
-        for point in _solve(space, fibre, None if limit is None else limit - found):
-            yield point
-            found += 1
-            if found == limit:
-                return
+    """Points of a positive-dimensional system, fibre by fibre over a finite projection, by
+    specialising one parametric basis (``fibres.ParametricFibres``)."""
+    from .fibres import ParametricFibres
+
+    yield from (list(p) for p in ParametricFibres(system, system.projection().parameters).points(limit))
 
 
 # ----------------------------------------------------------------------------------------------

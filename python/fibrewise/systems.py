@@ -25,6 +25,7 @@ if TYPE_CHECKING:
     from .normalization import EquationsWhen, FiniteProjection, IntegralEquation
     from .solutions import ClosedPoint
     from .boolean import MethodChoice
+    from .guessing import GuessPlan
 
 
 @dataclass(frozen=True)
@@ -413,6 +414,14 @@ class System:
         return is_finite_over(self, over)
 
     # --- curves (python/fibrewise/curves.py) -------------------------------------------------
+
+    def guess_plan(self, max_guess: int | None = None, samples: int = 8) -> "GuessPlan":
+        """Guess and determine, measured: for k = 0..max_guess guessed variables, which ones, the
+        median time and solving degree of one specialised system (``samples`` random guesses),
+        q^k, the expected total, and the best k (``fibrewise.guessing``). An estimate, not a bound."""
+        from .guessing import guess_plan
+
+        return guess_plan(self, max_guess, samples)
 
     def curve(self) -> "Curve":
         """The solution set as a curve over the (finite) field: smoothness, genus, counts over

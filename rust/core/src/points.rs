@@ -263,6 +263,7 @@ fn count_on_chart<F: Field>(
 
 pub mod closed;
 pub mod extension;
+pub mod fibres;
 pub mod rational;
 pub mod solve;
 

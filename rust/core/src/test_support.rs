@@ -25,12 +25,12 @@ pub fn polys(ring: &Ring<PrimeField>, texts: &[&str]) -> Vec<Poly<PrimeField>> {
 
 /// A random polynomial of `ring` with up to `terms` terms of degree at most `degree` (a seeded
 /// generator: the same polynomials on every run).
-pub fn random_poly(
-    ring: &Ring<PrimeField>,
+pub fn random_poly<F: crate::field::Field>(
+    ring: &Ring<F>,
     rng: &mut crate::rng::Rng,
     terms: usize,
     degree: u32,
-) -> Poly<PrimeField> {
+) -> Poly<F> {
     let n = ring.nvars();
     ring.from_terms((0..terms).map(|_| {
         let mut left = rng.below(u64::from(degree) + 1) as u32;
@@ -42,6 +42,6 @@ pub fn random_poly(
             })
             .collect();
         let monomial = crate::monomial::Monomial::from_exponents(exponents).unwrap();
-        (monomial, rng.below(32003))
+        (monomial, crate::univariate::random_element(&ring.field, rng))
     }))
 }

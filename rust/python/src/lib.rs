@@ -10,6 +10,7 @@ mod convert;
 mod curves;
 mod dispatch;
 mod errors;
+mod fibres;
 mod field_kinds;
 mod invariants;
 mod long_run;
@@ -36,6 +37,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     basis::register(m)?;
     curves::register(m)?;
     boolean::register(m)?;
+    fibres::register(m)?;
     field_kinds::register(m)?;
     invariants::register(m)?;
     normalization::register(m)?;

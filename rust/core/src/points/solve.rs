@@ -14,7 +14,8 @@
 //! triangular decomposition of Lazard 1992, restricted to rational points.
 //!
 //! Positive dimension: a maximal independent set U of variables is enumerated over GF(q)^|U|
-//! (at most [`FIBRE_LIMIT`] fibres) and each fibre solved the same way, recursively.
+//! (at most [`FIBRE_LIMIT`] fibres); one parametric basis over U is specialised at each fibre
+//! ([`super::fibres`]), and a fibre gets a basis of its own only where that is not generic.
 //!
 //! Every returned point is checked in every input polynomial before it is returned.
 
@@ -31,6 +32,8 @@ use crate::univariate::{self, random_element};
 use crate::zerodim::maximal::frobenius_coordinates;
 use crate::zerodim::shape::shape_representation;
 use crate::zerodim::Quotient;
+
+use super::fibres::ParametricBasis;
 
 /// Most fibres enumerated for a system of positive dimension.
 pub const FIBRE_LIMIT: u64 = 1 << 20;
@@ -78,7 +81,7 @@ fn room(limit: Option<usize>, found: usize) -> bool {
     limit.is_none_or(|l| found < l)
 }
 
-fn collect_points<F: Field>(
+pub(crate) fn collect_points<F: Field>(
     ring: &Ring<F>,
     gens: &[Poly<F>],
     limit: Option<usize>,
@@ -203,7 +206,8 @@ fn split_rational<F: Field>(
     unreachable!("a radical ideal of dimension > 1 has a variable with several values")
 }
 
-/// Positive dimension: enumerate a maximal independent set of variables and solve each fibre.
+/// Positive dimension: enumerate a maximal independent set of variables and solve each fibre
+/// by specialising one parametric basis ([`super::fibres`]).
 fn fibres<F: Field>(
     ring: &Ring<F>,
     gb: &ReducedBasis<F>,
@@ -230,61 +234,17 @@ fn fibres<F: Field>(
             if count == u128::MAX { "too many".to_string() } else { count.to_string() }
         )));
     }
-    let rest: Vec<usize> = (0..n).filter(|i| !free.contains(i)).collect();
-    let fibre_ring = (!rest.is_empty())
-        .then(|| {
-            Ring::new(
-                field.clone(),
-                rest.iter().map(|&i| ring.names()[i].clone()).collect(),
-                MonomialOrder::Grevlex,
-            )
-        })
-        .transpose()?;
-    for index in 0..count as u64 {
-        control.check()?;
-        if !room(limit, out.len()) {
-            break;
-        }
-        let values = digits(field, index, q, free.len());
-        let fibre_points = match &fibre_ring {
-            Some(fr) => {
-                let images: Vec<Poly<F>> = (0..n)
-                    .map(|i| match free.iter().position(|&j| j == i) {
-                        Some(k) => fr.constant(values[k].clone()),
-                        None => fr.var(rest.iter().position(|&j| j == i).unwrap()),
-                    })
-                    .collect();
-                let specialised: Vec<Poly<F>> = gb
-                    .polys
-                    .iter()
-                    .map(|g| ring.substitute(g, &images, fr))
-                    .collect::<Result<_>>()?;
-                let mut found = Vec::new();
-                collect_points(fr, &specialised, None, engine, control, &mut found)?;
-                found
-            }
-            // Every variable is free: only the zero ideal, whose points are all of GF(q)^n.
-            None => vec![vec![]],
-        };
-        for fibre_point in fibre_points {
-            if !room(limit, out.len()) {
-                break;
-            }
-            let mut point = vec![field.zero(); n];
-            for (k, &i) in free.iter().enumerate() {
-                point[i] = values[k].clone();
-            }
-            for (k, &i) in rest.iter().enumerate() {
-                point[i] = fibre_point[k].clone();
-            }
-            out.push(point);
-        }
-    }
+    // One parametric basis over the free variables, specialised fibre by fibre.
+    let parameters: Vec<Poly<F>> = free.iter().map(|&i| ring.var(i)).collect();
+    let parametric = ParametricBasis::new(ring, &gb.polys, &parameters, engine, control)?;
+    let room_left = limit.map(|l| l.saturating_sub(out.len()));
+    let run = parametric.fibres(0, count as u64, room_left, engine, control)?;
+    out.extend(run.points);
     Ok(())
 }
 
 /// The elements with enumeration indices the base-q digits of `index`.
-fn digits<F: Field>(field: &F, mut index: u64, q: u64, count: usize) -> Vec<F::Elem> {
+pub(crate) fn digits<F: Field>(field: &F, mut index: u64, q: u64, count: usize) -> Vec<F::Elem> {
     (0..count)
         .map(|_| {
             let d = index % q;
@@ -295,4 +255,4 @@ fn digits<F: Field>(field: &F, mut index: u64, q: u64, count: usize) -> Vec<F::E
 }
 
 #[cfg(test)]
-mod tests;
+pub(crate) mod tests;

@@ -11,13 +11,13 @@ use crate::points::count_affine_points;
 use crate::univariate::tests::irreducible_count;
 use crate::with_any_field;
 
-fn ring_over<F: Field>(field: F, vars: &[&str]) -> Ring<F> {
+pub(crate) fn ring_over<F: Field>(field: F, vars: &[&str]) -> Ring<F> {
     let names = vars.iter().map(|s| s.to_string()).collect();
     Ring::new(field, names, MonomialOrder::Grevlex).unwrap()
 }
 
 /// All points of GF(q)^n where every generator vanishes, as text.
-fn brute_force<F: Field>(ring: &Ring<F>, gens: &[Poly<F>]) -> Vec<String> {
+pub(crate) fn brute_force<F: Field>(ring: &Ring<F>, gens: &[Poly<F>]) -> Vec<String> {
     let elements = ring.field.small_elements(1 << 12).unwrap();
     let n = ring.nvars();
     let q = elements.len();
@@ -37,7 +37,7 @@ fn brute_force<F: Field>(ring: &Ring<F>, gens: &[Poly<F>]) -> Vec<String> {
     out
 }
 
-fn text<F: Field>(ring: &Ring<F>, point: &[F::Elem]) -> String {
+pub(crate) fn text<F: Field>(ring: &Ring<F>, point: &[F::Elem]) -> String {
     let parts: Vec<String> = point.iter().map(|c| ring.field.format(c)).collect();
     parts.join(",")
 }
