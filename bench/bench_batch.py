@@ -35,11 +35,18 @@ def random_job(rng: random.Random, number: int, tasks: list[str]) -> dict:
         chosen = rng.sample(monomials, k=min(len(monomials), rng.randint(4, 8)))
         return " + ".join(f"{rng.randrange(1, P)}*{m}" for m in chosen)
 
-    return {"id": number, "field": f"GF({P})", "variables": names,
-            "polynomials": [quadric() for _ in range(rng.randint(3, 5))], "tasks": tasks}
+    return {
+        "id": number,
+        "field": f"GF({P})",
+        "variables": names,
+        "polynomials": [quadric() for _ in range(rng.randint(3, 5))],
+        "tasks": tasks,
+    }
 
 
-def throughput(jobs: int, workers: int, tasks: list[str], timeout: float, memory_mb: int, keep: str | None) -> dict:
+def throughput(
+    jobs: int, workers: int, tasks: list[str], timeout: float, memory_mb: int, keep: str | None
+) -> dict:
     from fibrewise.batch import run_batch
 
     rng = random.Random(2026)
@@ -83,8 +90,12 @@ def overhead(repeats: int = 2000) -> dict:
         R.system(texts)
         parse.append(time.perf_counter() - start)
     call, core = statistics.median(calls), statistics.median(cores)
-    return {"call_us": round(call * 1e6, 1), "core_us": round(core * 1e6, 1),
-            "overhead_us": round((call - core) * 1e6, 1), "parse_3_polys_us": round(statistics.median(parse) * 1e6, 1)}
+    return {
+        "call_us": round(call * 1e6, 1),
+        "core_us": round(core * 1e6, 1),
+        "overhead_us": round((call - core) * 1e6, 1),
+        "parse_3_polys_us": round(statistics.median(parse) * 1e6, 1),
+    }
 
 
 def main() -> None:
@@ -92,20 +103,26 @@ def main() -> None:
     parser.add_argument("--jobs", type=int, default=2000)
     parser.add_argument("--workers", type=int, default=2)
     parser.add_argument("--tasks", default="dimension,normalize")
-    parser.add_argument("--timeout", type=float, default=10.0, help="per job, so that one hard system cannot stall the run")
+    parser.add_argument(
+        "--timeout", type=float, default=10.0, help="per job, so that one hard system cannot stall the run"
+    )
     parser.add_argument("--memory", type=int, default=2000, help="MiB per worker")
     parser.add_argument("--keep", metavar="DIR", help="keep in.jsonl and out.jsonl in DIR")
     args = parser.parse_args()
     tasks = args.tasks.split(",")
     o = overhead()
-    print(f"per call on a tiny system: {o['call_us']} us, of which the core {o['core_us']} us: "
-          f"overhead {o['overhead_us']} us (target <= 50: {'met' if o['overhead_us'] <= 50 else 'MISSED'}); "
-          f"parsing 3 polynomials {o['parse_3_polys_us']} us")
+    print(
+        f"per call on a tiny system: {o['call_us']} us, of which the core {o['core_us']} us: "
+        f"overhead {o['overhead_us']} us (target <= 50: {'met' if o['overhead_us'] <= 50 else 'MISSED'}); "
+        f"parsing 3 polynomials {o['parse_3_polys_us']} us"
+    )
     t = throughput(args.jobs, args.workers, tasks, args.timeout, args.memory, args.keep)
-    print(f"batch of {args.jobs} jobs ({', '.join(tasks)}) on {args.workers} workers: "
-          f"{t['jobs_per_second']} jobs/s (target >= 300: {'met' if t['jobs_per_second'] >= 300 else 'MISSED'}); "
-          f"ok {t['ok']}, error {t['error']}, "
-          f"timeout {t['timeout']}, {t['seconds']} s")
+    print(
+        f"batch of {args.jobs} jobs ({', '.join(tasks)}) on {args.workers} workers: "
+        f"{t['jobs_per_second']} jobs/s (target >= 300: {'met' if t['jobs_per_second'] >= 300 else 'MISSED'}); "
+        f"ok {t['ok']}, error {t['error']}, "
+        f"timeout {t['timeout']}, {t['seconds']} s"
+    )
     if t["first_error"]:
         print(f"first error: {t['first_error']}")
     if t["slow_ids"]:

@@ -46,7 +46,7 @@ def main() -> None:
     if "--seed" in args:
         at = args.index("--seed")
         seed = int(args[at + 1])
-        del args[at:at + 2]
+        del args[at : at + 2]
     count = int(args[0]) if args else 200
     rng = random.Random(seed)
     rows = []
@@ -71,17 +71,27 @@ def main() -> None:
             raise SystemExit(f"case {case}: a genuine certificate was rejected: {problems}")
         rows.append((check / max(produce, 1e-4), produce, check, case, p, polys))
     ratios = sorted(r[0] for r in rows)
-    print(f"{len(rows)} certificates produced and checked ({skipped} systems of dimension 0 or unit skipped), seed {seed}")
-    print(f"check / produce: median {statistics.median(ratios):.2f}, "
-          f"90th percentile {ratios[int(0.9 * (len(ratios) - 1))]:.2f}, largest {ratios[-1]:.2f}")
-    print(f"total: produce {sum(r[1] for r in rows):.2f} s, check {sum(r[2] for r in rows):.2f} s; "
-          f"checks over 20 s: {sum(r[2] > 20 for r in rows)}")
+    print(
+        f"{len(rows)} certificates produced and checked ({skipped} systems of dimension 0 or unit skipped), seed {seed}"
+    )
+    print(
+        f"check / produce: median {statistics.median(ratios):.2f}, "
+        f"90th percentile {ratios[int(0.9 * (len(ratios) - 1))]:.2f}, largest {ratios[-1]:.2f}"
+    )
+    print(
+        f"total: produce {sum(r[1] for r in rows):.2f} s, check {sum(r[2] for r in rows):.2f} s; "
+        f"checks over 20 s: {sum(r[2] > 20 for r in rows)}"
+    )
     worst = max(rows)
-    print(f"largest ratio: case {worst[3]}, produced in {worst[1] * 1e3:.2f} ms, checked in {worst[2] * 1e3:.2f} ms")
+    print(
+        f"largest ratio: case {worst[3]}, produced in {worst[1] * 1e3:.2f} ms, checked in {worst[2] * 1e3:.2f} ms"
+    )
     timed = sorted(r[0] for r in rows if r[1] >= 0.01)
     if timed:
-        print(f"among the {len(timed)} certificates that took 10 ms or more to produce: median "
-              f"{statistics.median(timed):.2f}, largest {timed[-1]:.2f}")
+        print(
+            f"among the {len(timed)} certificates that took 10 ms or more to produce: median "
+            f"{statistics.median(timed):.2f}, largest {timed[-1]:.2f}"
+        )
     print("slowest checks (ratio, produce s, check s, case, field, equations):")
     for ratio, produce, check, case, p, polys in sorted(rows, key=lambda r: -r[2])[:5]:
         print(f"  {ratio:6.2f} {produce:8.4f} {check:8.4f}  case {case} GF({p}) {polys}")

@@ -67,7 +67,10 @@ def main(argv: list[str]) -> int:
             label = "GF(2^255-19)" if spec == f"GF({P255})" else spec
             goal = TARGETS.get(spec)
             note = f"  (goal <= {goal}x)" if goal else ""
-            print(f"{name:<11} {label:<16} {size:>6} {seconds:>9.2f} {seconds / base:>6.1f}x  {engine}{note}", flush=True)
+            print(
+                f"{name:<11} {label:<16} {size:>6} {seconds:>9.2f} {seconds / base:>6.1f}x  {engine}{note}",
+                flush=True,
+            )
     return 0
 
 

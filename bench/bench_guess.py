@@ -11,7 +11,6 @@
 from __future__ import annotations
 
 import pathlib
-import random
 import sys
 import time
 
@@ -42,21 +41,27 @@ def quartic() -> None:
     points, total = timed(lambda: list(S.points()))
     count = S.count_points()
     ratio = total / one
-    print(f"plane quartic over GF(101): {len(points)} points (count_points {count}) in {total:.3f} s; "
-          f"one fibre with its own basis {one * 1e3:.2f} ms; ratio {ratio:.1f} (target <= 50) "
-          f"{'OK' if ratio <= 50 else 'MISSED'}")
+    print(
+        f"plane quartic over GF(101): {len(points)} points (count_points {count}) in {total:.3f} s; "
+        f"one fibre with its own basis {one * 1e3:.2f} ms; ratio {ratio:.1f} (target <= 50) "
+        f"{'OK' if ratio <= 50 else 'MISSED'}"
+    )
 
 
 def surface() -> None:
     S = fw.Space("GF(31)", "x, y, z").system(["z^3 + x^3 + y^3 + x*y*z + x + 1"])
     points, total = timed(lambda: list(S.points()))
-    print(f"cubic surface over GF(31): {len(points)} points over 961 fibres in {total:.2f} s "
-          f"(target <= 5 s) {'OK' if total <= 5 else 'MISSED'}")
+    print(
+        f"cubic surface over GF(31): {len(points)} points over 961 fibres in {total:.2f} s "
+        f"(target <= 5 s) {'OK' if total <= 5 else 'MISSED'}"
+    )
 
 
 def toy_cipher() -> fw.System:
     """The toy cipher of our own in examples/ (four rounds over GF(251), two key words)."""
-    return fw.System.read(str(pathlib.Path(__file__).resolve().parent.parent / "examples" / "toy_cipher_2key_gf251.txt"))
+    return fw.System.read(
+        str(pathlib.Path(__file__).resolve().parent.parent / "examples" / "toy_cipher_2key_gf251.txt")
+    )
 
 
 def workers() -> None:
@@ -69,9 +74,11 @@ def workers() -> None:
     again, two = timed(lambda: sorted(guessed_points(S, guess, workers=2)))
     assert found == again
     ratio = one / two
-    print(f"toy cipher over GF(251), 4 rounds, {len(found)} keys found: plan ({t_plan:.1f} s) guesses {', '.join(guess)} ({split.guesses} systems, best k overall {plan.best.k}); "
-          f"1 worker {one:.2f} s, 2 workers {two:.2f} s: speed-up {ratio:.2f} (target >= 1.8) "
-          f"{'OK' if ratio >= 1.8 else 'MISSED'}")
+    print(
+        f"toy cipher over GF(251), 4 rounds, {len(found)} keys found: plan ({t_plan:.1f} s) guesses {', '.join(guess)} ({split.guesses} systems, best k overall {plan.best.k}); "
+        f"1 worker {one:.2f} s, 2 workers {two:.2f} s: speed-up {ratio:.2f} (target >= 1.8) "
+        f"{'OK' if ratio >= 1.8 else 'MISSED'}"
+    )
 
 
 if __name__ == "__main__":

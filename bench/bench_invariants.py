@@ -32,7 +32,12 @@ def systems():
     rng = random.Random(2004)
     for n, m in ((7, 8), (8, 9)):
         names = [f"x{i}" for i in range(n)]
-        yield f"quadrics n={n} m={m}", "GF(65521)", names, [random_form(rng, names, 2, 65521) for _ in range(m)]
+        yield (
+            f"quadrics n={n} m={m}",
+            "GF(65521)",
+            names,
+            [random_form(rng, names, 2, 65521) for _ in range(m)],
+        )
     rng = random.Random(7)
     names = [f"x{i}" for i in range(5)]
     yield "3 quadrics, 5 vars (dim 2)", "GF(7)", names, [random_form(rng, names, 2, 7) for _ in range(3)]
@@ -57,8 +62,13 @@ def main() -> None:
         pts, t_pts = timed(fw.Space(q, names).system(eqs).count_points)
         ratio = max(t_dim, t_hs, 0 if vs is None else t_vs) / max(t_gb, 1e-9)
         result = f"dim {d}, degree {hs.degree}, GF({q})-points {pts}"
-        print(f"{name:28} {t_gb:8.3f} {t_dim:8.4f} {t_hs:8.4f} {t_vs:8.4f} {t_pts:8.3f} {ratio:7.3f}  {result}", flush=True)
-    print("\nseconds; 'ratio' = slowest of dim/hilbert/vsdim over the basis time; points over GF(101) or GF(7).")
+        print(
+            f"{name:28} {t_gb:8.3f} {t_dim:8.4f} {t_hs:8.4f} {t_vs:8.4f} {t_pts:8.3f} {ratio:7.3f}  {result}",
+            flush=True,
+        )
+    print(
+        "\nseconds; 'ratio' = slowest of dim/hilbert/vsdim over the basis time; points over GF(101) or GF(7)."
+    )
 
 
 if __name__ == "__main__":

@@ -93,7 +93,9 @@ def main(argv: list[str]) -> int:
     # variables is a set of parameters, so a linear change is needed.
     for n in [5, 7, 9]:
         names = [f"x{i}" for i in range(n)]
-        measure(f"edge ideal of the {n}-cycle", P, names, [f"{names[i]}*{names[(i + 1) % n]}" for i in range(n)])
+        measure(
+            f"edge ideal of the {n}-cycle", P, names, [f"{names[i]}*{names[(i + 1) % n]}" for i in range(n)]
+        )
     if "--cyclic8" in argv:
         names, polys = cyclic(8)
         measure("cyclic-8", P, names, polys)

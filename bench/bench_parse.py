@@ -40,8 +40,10 @@ def main() -> int:
     W = fw.Space(32003, names)
     row("linear form in 3000 variables", W, " + ".join(f"{i + 1}*{v}" for i, v in enumerate(names)), 3000)
     flat = max(per_term) / min(per_term)
-    print(f"time per term, largest / smallest over a 100x range of n: {flat:.2f} (target <= 2: "
-          f"{'met' if flat <= 2 else 'missed'})")
+    print(
+        f"time per term, largest / smallest over a 100x range of n: {flat:.2f} (target <= 2: "
+        f"{'met' if flat <= 2 else 'missed'})"
+    )
     return 0
 
 

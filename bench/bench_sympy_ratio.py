@@ -70,7 +70,9 @@ def main() -> int:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--timeout", type=float, default=120.0, help="seconds allowed to sympy per instance")
     args = parser.parse_args()
-    print(f"F4 vs sympy.groebner over GF({P}), grevlex, one thread each (sympy {__import__('sympy').__version__})")
+    print(
+        f"F4 vs sympy.groebner over GF({P}), grevlex, one thread each (sympy {__import__('sympy').__version__})"
+    )
     print(f"{'system':<11} {'fibrewise s':>12} {'sympy s':>10} {'ratio':>9}  same basis")
     verdict = "not measured"
     ours(["x", "y"], ["x^2 - y", "y^2 - x"])  # warm-up: loads the extension before the first timing
@@ -78,7 +80,9 @@ def main() -> int:
         our_seconds, our_leads = ours(names, texts)
         result = theirs(names, texts, args.timeout)
         if result is None:
-            print(f"{name:<11} {our_seconds:>12.4f} {'>' + format(args.timeout, '.0f'):>10} {'':>9}  (sympy timed out)")
+            print(
+                f"{name:<11} {our_seconds:>12.4f} {'>' + format(args.timeout, '.0f'):>10} {'':>9}  (sympy timed out)"
+            )
             continue
         sympy_seconds, sympy_leads = result
         ratio = sympy_seconds / max(our_seconds, 1e-9)

@@ -53,21 +53,31 @@ def changes(cert: dict) -> Iterator[tuple[str, dict]]:
     yield "variables renamed", changed("variables", [v + "_" for v in cert["variables"]])
     if len(cert["variables"]) > 1:
         yield "variables reversed", changed("variables", list(reversed(cert["variables"])))
-    for key in ("parameters", "parameter_symbols", "coordinates", "coordinate_symbols", "inverse", "module_generators"):
+    for key in (
+        "parameters",
+        "parameter_symbols",
+        "coordinates",
+        "coordinate_symbols",
+        "inverse",
+        "module_generators",
+    ):
         entries = cert[key]
         for i, entry in enumerate(entries):
-            yield f"{key}[{i}] dropped", changed(key, entries[:i] + entries[i + 1:])
-            yield f"{key}[{i}] repeated", changed(key, entries[:i + 1] + entries[i:])
-            for text in (altered_text(entry) if "symbols" not in key else [entry + "_", "x"]):
+            yield f"{key}[{i}] dropped", changed(key, entries[:i] + entries[i + 1 :])
+            yield f"{key}[{i}] repeated", changed(key, entries[: i + 1] + entries[i:])
+            for text in altered_text(entry) if "symbols" not in key else [entry + "_", "x"]:
                 if text == entry:
                     continue
-                yield f"{key}[{i}] = {text!r}", changed(key, entries[:i] + [text] + entries[i + 1:])
+                yield f"{key}[{i}] = {text!r}", changed(key, entries[:i] + [text] + entries[i + 1 :])
         yield f"{key} + ['1']", changed(key, entries + ["1"])
     if len(cert["module_generators"]) > 1:
         yield "module generators cut to 1", changed("module_generators", ["1"])
     yield "module generators 1, 1, 1", changed("module_generators", ["1", "1", "1"])
     for i, equation in enumerate(cert["equations"]):
-        yield f"equation {i} dropped", changed("equations", cert["equations"][:i] + cert["equations"][i + 1:])
+        yield (
+            f"equation {i} dropped",
+            changed("equations", cert["equations"][:i] + cert["equations"][i + 1 :]),
+        )
         for j, c in enumerate(equation):
             for text in altered_text(c):
                 if j == 0 and text == "0":

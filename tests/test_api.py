@@ -19,6 +19,7 @@ def R():
 
 # --- fields -----------------------------------------------------------------------------------
 
+
 def test_field_specs_and_round_trip():
     for spec in [7, "7", "GF(7)", "GF(65521)", " GF( 2 ) ".replace(" ", "")]:
         F = fw.field(spec)
@@ -43,6 +44,7 @@ def test_bad_field_specs(spec, message):
 
 
 # --- polynomials ------------------------------------------------------------------------------
+
 
 def test_parse_and_print_round_trip(R):
     f = R.parse("x^2*y - 3/4*z + 1")
@@ -126,6 +128,7 @@ def test_bad_rings_and_orders():
 
 
 # --- systems -----------------------------------------------------------------------------------
+
 
 def test_textbook_bases():
     # Cox, Little, O'Shea §2.7 (from memory): (x^3 - 2xy, x^2y - 2y^2 + x) in grlex has the

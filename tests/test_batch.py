@@ -47,14 +47,19 @@ def read_records(path: Path, torn_tail: bool = False) -> list[dict]:
     """The records of a result file; with ``torn_tail``, an incomplete last line is left out."""
     text = path.read_text(encoding="utf-8")
     if torn_tail:
-        text = text[:text.rfind("\n") + 1]
+        text = text[: text.rfind("\n") + 1]
     assert text == "" or text.endswith("\n"), "every line is complete"
     return [json.loads(line) for line in text.splitlines()]
 
 
 def batch(*args: str, **popen) -> subprocess.Popen:
-    return subprocess.Popen([sys.executable, "-m", "fibrewise.cli", "batch", *map(str, args)],
-                            stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True, **popen)
+    return subprocess.Popen(
+        [sys.executable, "-m", "fibrewise.cli", "batch", *map(str, args)],
+        stdout=subprocess.PIPE,
+        stderr=subprocess.PIPE,
+        text=True,
+        **popen,
+    )
 
 
 def leading_exponents(text: str, names: list[str]) -> tuple[int, ...]:
@@ -70,13 +75,14 @@ def leading_exponents(text: str, names: list[str]) -> tuple[int, ...]:
 def standard_monomial_count(leading: list[tuple[int, ...]], n: int) -> int:
     """Monomials divisible by no leading monomial, grown degree by degree (the set is closed
     under division, so every standard monomial is reached from a smaller one)."""
+
     def standard(m):
         return not any(all(a >= b for a, b in zip(m, lead)) for lead in leading)
 
     layer, count = {(0,) * n}, 0
     while layer:
         count += len(layer)
-        layer = {m[:i] + (m[i] + 1,) + m[i + 1:] for m in layer for i in range(n)}
+        layer = {m[:i] + (m[i] + 1,) + m[i + 1 :] for m in layer for i in range(n)}
         layer = {m for m in layer if standard(m)}
     return count
 
@@ -100,8 +106,16 @@ PRIMES = [int(sympy.prime(i)) for i in range(3500, 3516)]  # 16 primes near 32,6
 
 def katsura_jobs(n: int = 6) -> list[dict]:
     names, eqs = katsura(n)
-    return [{"id": f"katsura{n}-p{p}", "field": f"GF({p})", "variables": names, "polynomials": eqs,
-             "tasks": ["basis"]} for p in PRIMES]
+    return [
+        {
+            "id": f"katsura{n}-p{p}",
+            "field": f"GF({p})",
+            "variables": names,
+            "polynomials": eqs,
+            "tasks": ["basis"],
+        }
+        for p in PRIMES
+    ]
 
 
 def wait_for_lines(path: Path, count: int, proc: subprocess.Popen, limit: float = 60.0) -> None:
@@ -114,8 +128,13 @@ def wait_for_lines(path: Path, count: int, proc: subprocess.Popen, limit: float 
 
 def slow_job(name: str) -> dict:
     """A job far beyond a 2 s limit on any engine: the kills below land while it runs."""
-    return {"id": name, "field": "GF(32003)", "variables": [f"x{i}" for i in range(12)],
-            "polynomials": dense_quadrics(12), "tasks": ["basis"]}
+    return {
+        "id": name,
+        "field": "GF(32003)",
+        "variables": [f"x{i}" for i in range(12)],
+        "polynomials": dense_quadrics(12),
+        "tasks": ["basis"],
+    }
 
 
 def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
@@ -140,7 +159,7 @@ def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
     # written atomically, so it can be left torn (seen once in CI). The resume below must cut it
     # off and run that job again, as it does for the torn line written by hand.
     after_second = read_records(out, torn_tail=True)
-    assert [r["id"] for r in after_second[:len(after_first)]] == [r["id"] for r in after_first]
+    assert [r["id"] for r in after_second[: len(after_first)]] == [r["id"] for r in after_first]
 
     with open(out, "ab") as handle:  # a crash in the middle of writing a line
         handle.write(b'{"id": "katsura6-p3')
@@ -164,9 +183,22 @@ def test_resume_after_sigterm_sigkill_and_a_torn_line(tmp_path):
 
 
 def test_ctrl_c_stops_at_once_and_the_running_job_gets_no_line(tmp_path):
-    jobs = [{"id": "quick", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1"], "tasks": ["basis"]},
-            {"id": "slow", "field": "GF(32003)", "variables": [f"x{i}" for i in range(12)],
-             "polynomials": dense_quadrics(12), "tasks": ["basis"]}]
+    jobs = [
+        {
+            "id": "quick",
+            "field": "GF(7)",
+            "variables": ["x", "y"],
+            "polynomials": ["x*y - 1"],
+            "tasks": ["basis"],
+        },
+        {
+            "id": "slow",
+            "field": "GF(32003)",
+            "variables": [f"x{i}" for i in range(12)],
+            "polynomials": dense_quadrics(12),
+            "tasks": ["basis"],
+        },
+    ]
     source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
     proc = batch(source, "-o", out, "--workers", "1")
     wait_for_lines(out, 1, proc)
@@ -181,15 +213,36 @@ def test_ctrl_c_stops_at_once_and_the_running_job_gets_no_line(tmp_path):
 
 def test_results_agree_with_sympy_and_bad_jobs_get_error_lines(tmp_path):
     jobs = [
-        {"id": "hyperbola-gf7", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1", "x^2 - y"],
-         "tasks": ["basis"]},
-        {"id": 17, "field": "GF(101)", "variables": "x, y, z", "polynomials": ["x*z - y^2", "x^3 - z^2", "y*z + x - 1"],
-         "tasks": ["basis"]},
-        {"id": "unknown-variable", "field": "GF(7)", "variables": ["x"], "polynomials": ["x - t"], "tasks": ["basis"]},
+        {
+            "id": "hyperbola-gf7",
+            "field": "GF(7)",
+            "variables": ["x", "y"],
+            "polynomials": ["x*y - 1", "x^2 - y"],
+            "tasks": ["basis"],
+        },
+        {
+            "id": 17,
+            "field": "GF(101)",
+            "variables": "x, y, z",
+            "polynomials": ["x*z - y^2", "x^3 - z^2", "y*z + x - 1"],
+            "tasks": ["basis"],
+        },
+        {
+            "id": "unknown-variable",
+            "field": "GF(7)",
+            "variables": ["x"],
+            "polynomials": ["x - t"],
+            "tasks": ["basis"],
+        },
         {"id": "bad-field", "field": "GF(10)", "variables": ["x"], "polynomials": ["x"], "tasks": ["basis"]},
         # x*y = 1 and x = 0 have no common solution: the unit ideal, nothing to normalize
-        {"id": "no-solutions", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1", "x"],
-         "tasks": ["basis", "normalize"]},
+        {
+            "id": "no-solutions",
+            "field": "GF(7)",
+            "variables": ["x", "y"],
+            "polynomials": ["x*y - 1", "x"],
+            "tasks": ["basis", "normalize"],
+        },
     ]
     source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
     assert main(["batch", str(source), "-o", str(out), "--workers", "2", "--quiet"]) == 0
@@ -202,7 +255,10 @@ def test_results_agree_with_sympy_and_bad_jobs_get_error_lines(tmp_path):
         assert record["status"] == "ok"
         assert as_sympy(p, names, record["result"]["basis"]) == sympy_basis(p, names, job["polynomials"])
     assert records['"unknown-variable"']["status"] == "error"
-    assert "polynomial 1" in records['"unknown-variable"']["error"] and "'t'" in records['"unknown-variable"']["error"]
+    assert (
+        "polynomial 1" in records['"unknown-variable"']["error"]
+        and "'t'" in records['"unknown-variable"']["error"]
+    )
     assert records['"bad-field"']["status"] == "error" and "GF(10)" in records['"bad-field"']["error"]
 
 
@@ -217,15 +273,45 @@ def dense_quadrics(n: int, p: int = 32003) -> list[str]:
 
 def test_timeout_and_out_of_memory_cost_only_their_own_job(tmp_path):
     jobs = [
-        {"id": "slow", "field": "GF(32003)", "variables": [f"x{i}" for i in range(12)],
-         "polynomials": dense_quadrics(12), "tasks": ["basis"]},
+        {
+            "id": "slow",
+            "field": "GF(32003)",
+            "variables": [f"x{i}" for i in range(12)],
+            "polynomials": dense_quadrics(12),
+            "tasks": ["basis"],
+        },
         # This power has C(304, 4) = 350 million terms: many gigabytes, far over the 2000 MiB limit.
-        {"id": "huge", "field": "GF(7)", "variables": ["x", "y", "z", "w"], "polynomials": ["(x + y + z + w + 1)^300"],
-         "tasks": ["basis"]},
-        {"id": "small", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1", "x^2 - y"], "tasks": ["basis"]},
+        {
+            "id": "huge",
+            "field": "GF(7)",
+            "variables": ["x", "y", "z", "w"],
+            "polynomials": ["(x + y + z + w + 1)^300"],
+            "tasks": ["basis"],
+        },
+        {
+            "id": "small",
+            "field": "GF(7)",
+            "variables": ["x", "y"],
+            "polynomials": ["x*y - 1", "x^2 - y"],
+            "tasks": ["basis"],
+        },
     ]
     source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
-    status = main(["batch", str(source), "-o", str(out), "--workers", "1", "--timeout", "2", "--memory", "2000", "--quiet"])
+    status = main(
+        [
+            "batch",
+            str(source),
+            "-o",
+            str(out),
+            "--workers",
+            "1",
+            "--timeout",
+            "2",
+            "--memory",
+            "2000",
+            "--quiet",
+        ]
+    )
     assert status == 0
     records = {r["id"]: r for r in read_records(out)}
     # (With 300 MiB the default engine's matrices outgrew the worker's limit within 2 s on an
@@ -243,13 +329,19 @@ def test_timeout_and_out_of_memory_cost_only_their_own_job(tmp_path):
 GOOD = {"id": "a", "field": "GF(7)", "variables": ["x"], "polynomials": ["x - 1"], "tasks": ["basis"]}
 
 
-@pytest.mark.parametrize("lines, message", [
-    ([json.dumps(GOOD), json.dumps({**GOOD, "field": "GF(11)"})], ':2: duplicate id "a" (first on line 1)'),
-    ([json.dumps(GOOD), "", '{"id": "b", "field": GF(7)}'], ":3:22: malformed JSON: Expecting value"),
-    ([json.dumps({**GOOD, "tasks": ["dimensions"]})], ':1: unknown task "dimensions"'),
-    ([json.dumps({**GOOD, "id": None})], ':1: "id" must be a string or an integer'),
-    (["[1, 2]"], ":1: a job must be a JSON object"),
-])
+@pytest.mark.parametrize(
+    "lines, message",
+    [
+        (
+            [json.dumps(GOOD), json.dumps({**GOOD, "field": "GF(11)"})],
+            ':2: duplicate id "a" (first on line 1)',
+        ),
+        ([json.dumps(GOOD), "", '{"id": "b", "field": GF(7)}'], ":3:22: malformed JSON: Expecting value"),
+        ([json.dumps({**GOOD, "tasks": ["dimensions"]})], ':1: unknown task "dimensions"'),
+        ([json.dumps({**GOOD, "id": None})], ':1: "id" must be a string or an integer'),
+        (["[1, 2]"], ":1: a job must be a JSON object"),
+    ],
+)
 def test_bad_batch_input_stops_before_any_work(tmp_path, capsys, lines, message):
     source, out = tmp_path / "in.jsonl", tmp_path / "out.jsonl"
     source.write_text("\n".join(lines) + "\n")
@@ -294,21 +386,49 @@ def test_jobs_are_read_once_and_checked(tmp_path):
 
 # Dask ------------------------------------------------------------------------------------------
 
+
 def test_dask_cluster_gives_the_same_lines_and_resumes(tmp_path):
     pytest.importorskip("distributed")
     from distributed import LocalCluster
 
     jobs = katsura_jobs(4)[:3] + [
-        {"id": "unknown-variable", "field": "GF(7)", "variables": ["x"], "polynomials": ["x - t"], "tasks": ["basis"]},
-        {"id": "slow", "field": "GF(32003)", "variables": [f"x{i}" for i in range(12)],
-         "polynomials": dense_quadrics(12), "tasks": ["basis"]},
+        {
+            "id": "unknown-variable",
+            "field": "GF(7)",
+            "variables": ["x"],
+            "polynomials": ["x - t"],
+            "tasks": ["basis"],
+        },
+        {
+            "id": "slow",
+            "field": "GF(32003)",
+            "variables": [f"x{i}" for i in range(12)],
+            "polynomials": dense_quadrics(12),
+            "tasks": ["basis"],
+        },
     ]
     source = write_jobs(tmp_path / "in.jsonl", jobs)
     local, remote = tmp_path / "local.jsonl", tmp_path / "dask.jsonl"
     assert main(["batch", str(source), "-o", str(local), "--timeout", "3", "--quiet"]) == 0
-    with LocalCluster(n_workers=2, threads_per_worker=1, processes=False, protocol="tcp://",
-                      host="127.0.0.1", dashboard_address=None) as cluster:
-        args = ["batch", str(source), "-o", str(remote), "--timeout", "3", "--scheduler", cluster.scheduler_address, "--quiet"]
+    with LocalCluster(
+        n_workers=2,
+        threads_per_worker=1,
+        processes=False,
+        protocol="tcp://",
+        host="127.0.0.1",
+        dashboard_address=None,
+    ) as cluster:
+        args = [
+            "batch",
+            str(source),
+            "-o",
+            str(remote),
+            "--timeout",
+            "3",
+            "--scheduler",
+            cluster.scheduler_address,
+            "--quiet",
+        ]
         assert main(args) == 0
         size = remote.stat().st_size
         assert main(args) == 0  # resume: everything is already there
@@ -341,11 +461,19 @@ def test_dask_job_lost_by_the_cluster_gets_no_line_and_runs_on_resume(tmp_path, 
     from distributed import LocalCluster
 
     names, eqs = katsura(3)
-    jobs = [{"id": job_id, "field": "GF(32003)", "variables": names, "polynomials": eqs, "tasks": ["dimension"]}
-            for job_id in ("before", "victim", "after")]
+    jobs = [
+        {"id": job_id, "field": "GF(32003)", "variables": names, "polynomials": eqs, "tasks": ["dimension"]}
+        for job_id in ("before", "victim", "after")
+    ]
     source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
-    with LocalCluster(n_workers=2, threads_per_worker=1, processes=False, protocol="tcp://",
-                      host="127.0.0.1", dashboard_address=None) as cluster:
+    with LocalCluster(
+        n_workers=2,
+        threads_per_worker=1,
+        processes=False,
+        protocol="tcp://",
+        host="127.0.0.1",
+        dashboard_address=None,
+    ) as cluster:
         args = ["batch", str(source), "-o", str(out), "--scheduler", cluster.scheduler_address, "--quiet"]
         monkeypatch.setattr(fibrewise.batch, "run_in_sandbox", lose_the_victim)
         assert main(args) == 1  # a job was lost: exit status 1, as the README says

@@ -23,8 +23,13 @@ import pytest
 from fibrewise.batch import read_results
 from fibrewise.cli import main
 
-HYPERBOLA = {"id": "hyperbola", "field": "GF(7)", "variables": ["x", "y"], "polynomials": ["x*y - 1", "x^2 - y"],
-             "tasks": ["basis"]}
+HYPERBOLA = {
+    "id": "hyperbola",
+    "field": "GF(7)",
+    "variables": ["x", "y"],
+    "polynomials": ["x*y - 1", "x^2 - y"],
+    "tasks": ["basis"],
+}
 HYPERBOLA_BASIS = ["x^2 - y", "x*y - 1", "y^2 - x"]
 
 
@@ -39,11 +44,14 @@ def records(path: Path) -> list[dict]:
 
 # The output is never the input ------------------------------------------------------------------
 
+
 @pytest.mark.parametrize("how", ["same path", "symbolic link", "hard link", "other spelling"])
 def test_an_output_that_is_the_input_is_refused_and_the_jobs_survive(tmp_path, capsys, how):
     source = write_jobs(tmp_path / "in.jsonl", [HYPERBOLA])
     before = source.read_bytes()
-    output = {"same path": source, "other spelling": tmp_path / "." / "in.jsonl"}.get(how, tmp_path / "out.jsonl")
+    output = {"same path": source, "other spelling": tmp_path / "." / "in.jsonl"}.get(
+        how, tmp_path / "out.jsonl"
+    )
     if how == "symbolic link":
         output.symlink_to(source)
     elif how == "hard link":
@@ -58,12 +66,15 @@ def test_an_output_that_is_the_input_is_refused_and_the_jobs_survive(tmp_path, c
 GOOD_LINE = b'{"id":"old","status":"ok","result":{},"seconds":0.1}\n'
 
 
-@pytest.mark.parametrize("tail, line", [
-    (b'{"note": "not a result"}\n', 2),   # complete JSON that is not a result line
-    (b"some notes of mine\n", 2),          # any other text
-    (b"some notes of mine", 2),            # ... even without its newline: not a torn result line
-    (b"[1, 2, 3]", 2),
-])
+@pytest.mark.parametrize(
+    "tail, line",
+    [
+        (b'{"note": "not a result"}\n', 2),  # complete JSON that is not a result line
+        (b"some notes of mine\n", 2),  # any other text
+        (b"some notes of mine", 2),  # ... even without its newline: not a torn result line
+        (b"[1, 2, 3]", 2),
+    ],
+)
 def test_an_output_whose_last_line_is_not_a_result_is_an_error_and_untouched(tmp_path, capsys, tail, line):
     source = write_jobs(tmp_path / "in.jsonl", [HYPERBOLA])
     output = tmp_path / "out.jsonl"
@@ -83,6 +94,7 @@ def test_only_a_torn_result_line_is_cut(tmp_path):
 
 # Timeouts keep the finished tasks -----------------------------------------------------------------
 
+
 def dense_quadrics(count: int, n: int, p: int = 65521) -> list[str]:
     rng = random.Random(3)
     names = [f"x{i}" for i in range(n)]
@@ -95,8 +107,13 @@ def test_a_timed_out_job_keeps_the_tasks_it_finished(tmp_path):
     # intersection) and the projection's summary come in a fraction of a second, while the 128
     # monic equations of degree 128 of the full certificate take far longer (six quadrics in
     # eight variables finished within the limit on an idle machine).
-    job = {"id": "quadrics", "field": "GF(65521)", "variables": ["x0..x8"], "polynomials": dense_quadrics(7, 9),
-           "tasks": ["dimension", "projection", "normalize"]}
+    job = {
+        "id": "quadrics",
+        "field": "GF(65521)",
+        "variables": ["x0..x8"],
+        "polynomials": dense_quadrics(7, 9),
+        "tasks": ["dimension", "projection", "normalize"],
+    }
     source, output = write_jobs(tmp_path / "in.jsonl", [job, HYPERBOLA]), tmp_path / "out.jsonl"
     assert main(["batch", str(source), "-o", str(output), "--workers", "1", "--timeout", "3", "--quiet"]) == 0
     by_id = {r["id"]: r for r in records(output)}
@@ -109,13 +126,16 @@ def test_a_timed_out_job_keeps_the_tasks_it_finished(tmp_path):
 
 # --retry-failed -----------------------------------------------------------------------------------
 
+
 def test_retry_failed_reruns_error_and_timeout_lines_in_place(tmp_path, capsys):
     jobs = [HYPERBOLA, {**HYPERBOLA, "id": "again", "tasks": ["dimension"]}, {**HYPERBOLA, "id": "fine"}]
     source, output = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
-    lines = [{"id": "hyperbola", "status": "error", "error": "the worker process died", "seconds": None},
-             {"id": "again", "status": "timeout", "error": "over the time limit of 1 s", "seconds": 1},
-             {"id": "fine", "status": "ok", "result": {"basis": ["kept as it was"]}, "seconds": 0.1},
-             {"id": "not-in-this-input", "status": "error", "error": "kept", "seconds": 0.1}]
+    lines = [
+        {"id": "hyperbola", "status": "error", "error": "the worker process died", "seconds": None},
+        {"id": "again", "status": "timeout", "error": "over the time limit of 1 s", "seconds": 1},
+        {"id": "fine", "status": "ok", "result": {"basis": ["kept as it was"]}, "seconds": 0.1},
+        {"id": "not-in-this-input", "status": "error", "error": "kept", "seconds": 0.1},
+    ]
     output.write_text("".join(json.dumps(line) + "\n" for line in lines), encoding="utf-8")
 
     assert main(["batch", str(source), "-o", str(output), "--quiet"]) == 0  # a plain resume
@@ -125,7 +145,12 @@ def test_retry_failed_reruns_error_and_timeout_lines_in_place(tmp_path, capsys):
     summary = json.loads(capsys.readouterr().out)
     assert summary["retried"] == 2 and summary["ok"] == 2 and summary["skipped"] == 1
     after = records(output)
-    assert sorted(r["id"] for r in after) == ["again", "fine", "hyperbola", "not-in-this-input"]  # one line per id
+    assert sorted(r["id"] for r in after) == [
+        "again",
+        "fine",
+        "hyperbola",
+        "not-in-this-input",
+    ]  # one line per id
     by_id = {r["id"]: r for r in after}
     assert by_id["hyperbola"]["status"] == "ok" and by_id["hyperbola"]["result"]["basis"] == HYPERBOLA_BASIS
     assert by_id["again"]["result"] == {"dimension": 0}  # two curves meeting in finitely many points
@@ -134,6 +159,7 @@ def test_retry_failed_reruns_error_and_timeout_lines_in_place(tmp_path, capsys):
 
 # Input reading ------------------------------------------------------------------------------------
 
+
 def test_a_byte_order_mark_is_accepted(tmp_path):
     source = write_jobs(tmp_path / "in.jsonl", [HYPERBOLA], prefix="\ufeff".encode("utf-8"))
     output = tmp_path / "out.jsonl"
@@ -141,11 +167,14 @@ def test_a_byte_order_mark_is_accepted(tmp_path):
     assert records(output)[0]["result"]["basis"] == HYPERBOLA_BASIS
 
 
-@pytest.mark.parametrize("line, column", [
-    ('\ufeff{"id": 1,, "field": "GF(7)"}', 10),   # after a byte-order mark
-    ('{"id": "état", "field": GF(7)}', 25),       # after non-ASCII text: columns count characters
-    ('\t{"id": 1, "field": }', 21),
-])
+@pytest.mark.parametrize(
+    "line, column",
+    [
+        ('\ufeff{"id": 1,, "field": "GF(7)"}', 10),  # after a byte-order mark
+        ('{"id": "état", "field": GF(7)}', 25),  # after non-ASCII text: columns count characters
+        ('\t{"id": 1, "field": }', 21),
+    ],
+)
 def test_malformed_json_is_reported_at_its_column(tmp_path, capsys, line, column):
     source = tmp_path / "in.jsonl"
     source.write_text(line + "\n", encoding="utf-8")
@@ -154,6 +183,7 @@ def test_malformed_json_is_reported_at_its_column(tmp_path, capsys, line, column
 
 
 # A worker dies with its batch -----------------------------------------------------------------------
+
 
 def children_of(pid: int) -> list[int]:
     found = []
@@ -175,11 +205,30 @@ def test_a_worker_killed_with_its_batch_while_parsing_dies_at_once(tmp_path):
     # Reading this polynomial expands a power with about 1.9 million terms: many seconds inside
     # the parser, which is where a worker used to outlive its batch by 25 s.
     names = [f"x{i}" for i in range(6)]
-    job = {"id": "long-parse", "field": "GF(32003)", "variables": names,
-           "polynomials": ["(" + " + ".join(names) + " + 1)^30"], "tasks": ["dimension"]}
+    job = {
+        "id": "long-parse",
+        "field": "GF(32003)",
+        "variables": names,
+        "polynomials": ["(" + " + ".join(names) + " + 1)^30"],
+        "tasks": ["dimension"],
+    }
     source, output = write_jobs(tmp_path / "in.jsonl", [job]), tmp_path / "out.jsonl"
-    proc = subprocess.Popen([sys.executable, "-m", "fibrewise.cli", "batch", str(source), "-o", str(output),
-                             "--workers", "1", "--quiet"], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+    proc = subprocess.Popen(
+        [
+            sys.executable,
+            "-m",
+            "fibrewise.cli",
+            "batch",
+            str(source),
+            "-o",
+            str(output),
+            "--workers",
+            "1",
+            "--quiet",
+        ],
+        stdout=subprocess.DEVNULL,
+        stderr=subprocess.PIPE,
+    )
     try:
         deadline = time.monotonic() + 30
         workers = []

@@ -213,7 +213,9 @@ def test_system_file_header():
 
 
 def cli(*args):
-    run = subprocess.run([sys.executable, "-m", "fibrewise.cli", *map(str, args)], capture_output=True, text=True)
+    run = subprocess.run(
+        [sys.executable, "-m", "fibrewise.cli", *map(str, args)], capture_output=True, text=True
+    )
     return run.returncode, run.stdout, run.stderr
 
 
@@ -251,8 +253,11 @@ def test_cli_solve_analyze_and_basis_on_a_small_file(tmp_path):
     equations = random_system(10, 6, 2, 41)
     expected = brute_force(equations, 10)
     path = tmp_path / "small.txt"
-    path.write_text("field: GF(2)\nboolean: yes\nvariables: x0..x9\n"
-                    + "\n".join(text(e, names(10)) for e in equations) + "\n")
+    path.write_text(
+        "field: GF(2)\nboolean: yes\nvariables: x0..x9\n"
+        + "\n".join(text(e, names(10)) for e in equations)
+        + "\n"
+    )
     for method in ["exhaustive", "basis", "hybrid"]:
         status, out, err = cli("solve", path, "--method", method, "--json", "-q")
         assert status == 0, err
@@ -280,17 +285,28 @@ def test_cli_solve_analyze_and_basis_on_a_small_file(tmp_path):
 def test_batch_jobs_on_boolean_systems():
     equations = random_system(8, 5, 2, 51)
     expected = brute_force(equations, 8)
-    job = check_job({"id": "b", "field": "GF(2)", "variables": "x0..x7", "boolean": True,
-                     "polynomials": [text(e, names(8)) for e in equations],
-                     "tasks": ["dimension", "degree", "points", "solutions", "basis"]})
+    job = check_job(
+        {
+            "id": "b",
+            "field": "GF(2)",
+            "variables": "x0..x7",
+            "boolean": True,
+            "polynomials": [text(e, names(8)) for e in equations],
+            "tasks": ["dimension", "degree", "points", "solutions", "basis"],
+        }
+    )
     record = run_job(job)
     assert record["status"] == "ok", record
     result = record["result"]
-    assert result["points"] == result["degree"] == len(expected) and result["dimension"] == (0 if expected else -1)
+    assert result["points"] == result["degree"] == len(expected) and result["dimension"] == (
+        0 if expected else -1
+    )
     assert sorted(tuple(int(v) for v in p) for p in result["solutions"]["points"]) == sorted(expected)
     assert result["solutions"]["truncated"] is False
     assert not any("^2" in g for g in result["basis"])
     with pytest.raises(JobError, match='"boolean"'):
         check_job({"id": 1, "field": "GF(2)", "variables": "x", "polynomials": ["x"], "boolean": "yes"})
-    record = run_job(check_job({"id": 2, "field": "GF(5)", "variables": "x", "polynomials": ["x"], "boolean": True}))
+    record = run_job(
+        check_job({"id": 2, "field": "GF(5)", "variables": "x", "polynomials": ["x"], "boolean": True})
+    )
     assert record["status"] == "error" and "GF(2)" in record["error"]

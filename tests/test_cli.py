@@ -24,8 +24,13 @@ SUBCOMMANDS = ["analyze", "basis", "normalize", "integral", "points", "curve", "
 
 
 def fibrewise(*args: str, cwd: Path | None = None) -> subprocess.CompletedProcess:
-    return subprocess.run([sys.executable, "-m", "fibrewise.cli", *map(str, args)],
-                          capture_output=True, text=True, cwd=cwd, timeout=120)
+    return subprocess.run(
+        [sys.executable, "-m", "fibrewise.cli", *map(str, args)],
+        capture_output=True,
+        text=True,
+        cwd=cwd,
+        timeout=120,
+    )
 
 
 def fibrewise_json(*args: str) -> dict:
@@ -42,6 +47,7 @@ def write(tmp_path: Path, name: str, text: str) -> Path:
 
 # Brute-force references -------------------------------------------------------------------------
 
+
 def curve_affine_points(p: int) -> int:
     """Points of y^2 = x^3 + 3x + 2 in GF(p)^2, by enumeration."""
     return sum(1 for x in range(p) for y in range(p) if (y * y - x**3 - 3 * x - 2) % p == 0)
@@ -55,6 +61,7 @@ def curve_projective_points(p: int) -> int:
 
 def cipher_keys(plaintext: int, ciphertext: int, constants: list[int], p: int = 101) -> list[int]:
     """Keys of the toy cube cipher (examples/toy_cipher_*.txt) mapping plaintext to ciphertext."""
+
     def encrypt(key: int) -> int:
         s = plaintext
         for c in constants:
@@ -65,6 +72,7 @@ def cipher_keys(plaintext: int, ciphertext: int, constants: list[int], p: int = 
 
 
 # Every subcommand ------------------------------------------------------------------------------
+
 
 @pytest.mark.parametrize("command", SUBCOMMANDS)
 def test_help_shows_an_example(command):
@@ -133,8 +141,9 @@ def test_analyze_plot_writes_a_png(tmp_path):
     pytest.importorskip("matplotlib")
     # The twisted cubic's affine cone (2x2 minors of [[x, y, z], [y, z, w]]): dimension 2, and its
     # Hilbert function is 3s + 1 (Hilbert polynomial of the twisted cubic; Cox-Little-O'Shea).
-    system = write(tmp_path, "cubic.txt", "field: GF(32003)\nvariables: x, y, z, w\n"
-                                          "x*z - y^2\nx*w - y*z\ny*w - z^2\n")
+    system = write(
+        tmp_path, "cubic.txt", "field: GF(32003)\nvariables: x, y, z, w\nx*z - y^2\nx*w - y*z\ny*w - z^2\n"
+    )
     png = tmp_path / "steps.png"
     result = fibrewise_json("analyze", system, "--plot", png)
     assert result["dimension"] == 2
@@ -210,6 +219,7 @@ def klein_quartic_points_by_galois() -> int:
 
 # Bad input -------------------------------------------------------------------------------------
 
+
 def test_bad_field_names_file_line_and_column(tmp_path):
     system = write(tmp_path, "bad.txt", "# a comment\nfield:  GF(10)\nvariables: x\nx - 1\n")
     done = fibrewise("analyze", system)
@@ -241,12 +251,15 @@ def test_malformed_certificate_json(tmp_path):
 
 # Start-up and progress -------------------------------------------------------------------------
 
+
 def test_startup_imports_no_heavy_package():
-    code = ("import sys, contextlib, io\n"
-            "from fibrewise.cli import main\n"
-            "with contextlib.redirect_stdout(io.StringIO()):\n"
-            f"    main(['basis', {str(EXAMPLES / 'toy_cipher_gf101.txt')!r}, '--json'])\n"
-            "print(sorted(m for m in ('galois', 'numba', 'dask', 'distributed', 'matplotlib') if m in sys.modules))\n")
+    code = (
+        "import sys, contextlib, io\n"
+        "from fibrewise.cli import main\n"
+        "with contextlib.redirect_stdout(io.StringIO()):\n"
+        f"    main(['basis', {str(EXAMPLES / 'toy_cipher_gf101.txt')!r}, '--json'])\n"
+        "print(sorted(m for m in ('galois', 'numba', 'dask', 'distributed', 'matplotlib') if m in sys.modules))\n"
+    )
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=60)
     assert done.returncode == 0, done.stderr
     assert done.stdout.strip() == "[]"
@@ -292,7 +305,9 @@ def test_basis_engine_choice():
     # The sampled engine returns the same reduced basis as the default one (the lex basis whose
     # roots are the cipher keys, checked by brute force above); an unknown engine is a usage error.
     default = fibrewise_json("basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex")
-    sampled = fibrewise_json("basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex", "--engine", "f4-sampled")
+    sampled = fibrewise_json(
+        "basis", EXAMPLES / "toy_cipher_gf101.txt", "--order", "lex", "--engine", "f4-sampled"
+    )
     assert sampled["basis"] == default["basis"]
     # engine "auto" is the default, and the stats say what it chose and why
     assert sampled["stats"]["engine"] == "f4-sampled" and default["stats"]["engine"] == "auto"

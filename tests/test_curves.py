@@ -30,7 +30,7 @@ def affine_count(GF, f, chunk: int = 256) -> int:
     elements = GF.elements
     total = 0
     for start in range(0, GF.order, chunk):
-        xs = elements[start:start + chunk]
+        xs = elements[start : start + chunk]
         X = GF(np.repeat(xs.view(np.ndarray), GF.order))
         Y = GF(np.tile(elements.view(np.ndarray), len(xs)))
         total += int(np.count_nonzero(f(X, Y) == 0))
@@ -90,7 +90,11 @@ def test_hermitian_curves_are_maximal(q):
     g = q * (q - 1) // 2
     assert C.genus == g
     GF = galois.GF(q**2)
-    assert C.count_points(1) == q**3 + 1 == projective_plane_count(GF, lambda x, y, z: x**(q + 1) + y**(q + 1) + z**(q + 1))
+    assert (
+        C.count_points(1)
+        == q**3 + 1
+        == projective_plane_count(GF, lambda x, y, z: x ** (q + 1) + y ** (q + 1) + z ** (q + 1))
+    )
     zeta = C.zeta()
     binomial = [1]  # the coefficients of (1 + T)^(2g)
     for _ in range(2 * g):
@@ -100,11 +104,14 @@ def test_hermitian_curves_are_maximal(q):
     assert C.check_bounds(1).maximal
 
 
-@pytest.mark.parametrize("field, equation, f", [
-    ("GF(7)", "y^2 - x^3 - 3*x - 2", lambda x, y: y**2 - x**3 - 3 * x - 2 * x**0),
-    ("GF(101)", "y^2 - x^3 - x - 1", lambda x, y: y**2 - x**3 - x - x**0),
-    ("GF(2)", "y^2 + x*y + x^3 + 1", lambda x, y: y**2 + x * y + x**3 + x**0),
-])
+@pytest.mark.parametrize(
+    "field, equation, f",
+    [
+        ("GF(7)", "y^2 - x^3 - 3*x - 2", lambda x, y: y**2 - x**3 - 3 * x - 2 * x**0),
+        ("GF(101)", "y^2 - x^3 - x - 1", lambda x, y: y**2 - x**3 - x - x**0),
+        ("GF(2)", "y^2 + x*y + x^3 + 1", lambda x, y: y**2 + x * y + x**3 + x**0),
+    ],
+)
 def test_elliptic_curves_follow_hasse(field, equation, f):
     # #E = q + 1 - a and L(T) = 1 - aT + qT^2 (Hasse 1936); the curve has one point at infinity.
     C = curve(field, "x, y", equation)
@@ -168,8 +175,9 @@ def test_large_fields_are_refused_at_once():
 
 
 def run_cli(*args: str) -> subprocess.CompletedProcess:
-    return subprocess.run([sys.executable, "-m", "fibrewise.cli", *map(str, args)],
-                          capture_output=True, text=True, timeout=120)
+    return subprocess.run(
+        [sys.executable, "-m", "fibrewise.cli", *map(str, args)], capture_output=True, text=True, timeout=120
+    )
 
 
 def test_command_line_reports_the_curve_and_refuses_singular_ones(tmp_path):
@@ -190,8 +198,15 @@ def test_command_line_reports_the_curve_and_refuses_singular_ones(tmp_path):
 
 
 def test_batch_task_curve():
-    job = check_job({"id": 1, "field": "GF(7)", "variables": ["x", "y"],
-                     "polynomials": ["y^2 - x^3 - 3*x - 2"], "tasks": ["curve"]})
+    job = check_job(
+        {
+            "id": 1,
+            "field": "GF(7)",
+            "variables": ["x", "y"],
+            "polynomials": ["y^2 - x^3 - 3*x - 2"],
+            "tasks": ["curve"],
+        }
+    )
     record = run_job(job)
     assert record["status"] == "ok", record
     n = affine_count(galois.GF(7), lambda x, y: y**2 - x**3 - 3 * x - 2 * x**0) + 1

@@ -16,7 +16,17 @@ import sympy
 import fibrewise as fw
 from systems import random_poly
 
-FIELD_SPECS = ["GF(4)", "GF(8)", "GF(9)", "GF(2^8)", "GF(3^5)", "GF(2^16)", "GF(2^32)", "GF(2^64)", "GF(3^11)"]
+FIELD_SPECS = [
+    "GF(4)",
+    "GF(8)",
+    "GF(9)",
+    "GF(2^8)",
+    "GF(3^5)",
+    "GF(2^16)",
+    "GF(2^32)",
+    "GF(2^64)",
+    "GF(3^11)",
+]
 
 
 def constant(R, code):
@@ -143,7 +153,11 @@ def test_galois_conversions_check_the_modulus():
 
 def test_integers_in_text_are_integers():
     R = fw.Space("GF(9)", "x")
-    assert R.polynomial(3) == R.polynomial(0) and R.parse("3*x") == R.polynomial(0) and R.polynomial(4) == R.polynomial(1)
+    assert (
+        R.polynomial(3) == R.polynomial(0)
+        and R.parse("3*x") == R.polynomial(0)
+        and R.polynomial(4) == R.polynomial(1)
+    )
     assert str(R.parse("a^2")) == "2"  # default modulus of GF(9) is a^2 + 1
     assert str(R.parse("a^3*x + 1")) == "2*a*x + 1"
 
@@ -200,7 +214,10 @@ def test_rational_bases_match_sympy(seed):
     texts = [random_rational_poly(rng, nvars) for _ in range(rng.randint(1, 3))]
     R = fw.Space("Q", NAMES[:nvars], order=order)
     ours = [[(e, Fraction(c)) for e, c in g.terms()] for g in R.system(texts).basis()]
-    theirs = [[(e, Fraction(int(c.p), int(c.q))) for e, c in t] for t in sympy_terms(texts, nvars, order, domain="Q")]
+    theirs = [
+        [(e, Fraction(int(c.p), int(c.q))) for e, c in t]
+        for t in sympy_terms(texts, nvars, order, domain="Q")
+    ]
     assert normalized(ours) == normalized(theirs), texts
 
 
@@ -212,7 +229,9 @@ def test_bases_modulo_a_255_bit_prime_match_sympy(seed):
     rng = random.Random(2000 + seed)
     nvars = 2 + seed % 2
     order = ["lex", "grlex", "grevlex"][seed % 3]
-    texts = [random_rational_poly(rng, nvars).replace("(", "").replace(")", "") for _ in range(rng.randint(1, 3))]
+    texts = [
+        random_rational_poly(rng, nvars).replace("(", "").replace(")", "") for _ in range(rng.randint(1, 3))
+    ]
     texts = [t.replace("/", "*") for t in texts]  # integer coefficients only: sympy's modulus domain
     R = fw.Space(P255, NAMES[:nvars], order=order)
     ours = [[(e, c % P255) for e, c in g.terms()] for g in R.system(texts).basis()]

@@ -40,8 +40,40 @@ GF9 = fw.Space("GF(9)", "x, y", memory="64MB")
 
 # The parser -------------------------------------------------------------------------------------
 
-TOKENS = ["x", "y", "z", "a", "w", "0", "1", "7", "100", "4294967295", "99999999999999999999", "+", "-", "*",
-          "/", "^", "**", "(", ")", " ", "\n", "\t", ".", ",", "=", "é", "\x00", "^-1", "^2", "^40", "2/3", "x1"]
+TOKENS = [
+    "x",
+    "y",
+    "z",
+    "a",
+    "w",
+    "0",
+    "1",
+    "7",
+    "100",
+    "4294967295",
+    "99999999999999999999",
+    "+",
+    "-",
+    "*",
+    "/",
+    "^",
+    "**",
+    "(",
+    ")",
+    " ",
+    "\n",
+    "\t",
+    ".",
+    ",",
+    "=",
+    "é",
+    "\x00",
+    "^-1",
+    "^2",
+    "^40",
+    "2/3",
+    "x1",
+]
 
 
 @FUZZ
@@ -59,8 +91,10 @@ def test_the_parser_reads_or_refuses_any_text(tokens):
 def expression(depth: int = 3):
     """Polynomial expressions in x, y, z with small exponents, as (text, sympy expression)."""
     x, y, z = sympy.symbols("x y z")
-    leaf = st.one_of(st.sampled_from([("x", x), ("y", y), ("z", z)]),
-                     st.integers(0, 300).map(lambda n: (str(n), sympy.Integer(n))))
+    leaf = st.one_of(
+        st.sampled_from([("x", x), ("y", y), ("z", z)]),
+        st.integers(0, 300).map(lambda n: (str(n), sympy.Integer(n))),
+    )
     if depth == 0:
         return leaf
 
@@ -94,10 +128,34 @@ def test_the_parser_agrees_with_sympy(pair):
 
 # System files -------------------------------------------------------------------------------------
 
-LINES = ["field: GF(7)", "field: GF(9)", "field: Q", "field: GF(10)", "field: GF(2^8)", "field:", "variables: x, y",
-         "variables: x0..x3", "variables: x, x", "variables: 1x", "order: lex", "order: sideways", "x*y - 1",
-         "x^2 + a", "x0*x3 - 1", "(x + y)^3", "x^4294967295", "(x + y + 1)^3000", "# a comment", "", "x ++ y",
-         "unknown: 3", "x: y", "\ufeffx", "x*y - 1  # and a comment", "  y - 2"]
+LINES = [
+    "field: GF(7)",
+    "field: GF(9)",
+    "field: Q",
+    "field: GF(10)",
+    "field: GF(2^8)",
+    "field:",
+    "variables: x, y",
+    "variables: x0..x3",
+    "variables: x, x",
+    "variables: 1x",
+    "order: lex",
+    "order: sideways",
+    "x*y - 1",
+    "x^2 + a",
+    "x0*x3 - 1",
+    "(x + y)^3",
+    "x^4294967295",
+    "(x + y + 1)^3000",
+    "# a comment",
+    "",
+    "x ++ y",
+    "unknown: 3",
+    "x: y",
+    "\ufeffx",
+    "x*y - 1  # and a comment",
+    "  y - 2",
+]
 
 
 @FUZZ
@@ -128,18 +186,42 @@ def test_system_file_bytes_read_or_are_one_clear_error(tmp_path_factory, data):
 
 # Batch input and result files --------------------------------------------------------------------
 
-json_values = st.recursive(st.none() | st.booleans() | st.integers(-3, 10**20) | st.floats(allow_nan=False) | st.text(max_size=8),
-                           lambda inner: st.lists(inner, max_size=3) | st.dictionaries(st.text(max_size=5), inner, max_size=3),
-                           max_leaves=6)
-job_like = st.fixed_dictionaries({"id": st.one_of(st.integers(), st.text(max_size=3))}, optional={
-    "field": st.sampled_from(["GF(7)", "GF(9)", "Q", "GF(4)", 7, "GF(0)", "nope"]) | json_values,
-    "variables": st.sampled_from([["x", "y"], "x, y", "x0..x2", [], ["x", "x"], "x0..x9999999"]) | json_values,
-    "polynomials": st.lists(st.sampled_from(["x*y - 1", "x^2 - y", "x +", "a*x", "(x+y)^200", "t"]), max_size=3) | json_values,
-    "tasks": st.lists(st.sampled_from(["dimension", "degree", "hilbert", "basis", "projection", "normalize", "points",
-                                       "independent_variables", "nothing"]), max_size=3) | json_values,
-    "order": st.sampled_from(["lex", "grevlex", "sideways"]) | json_values,
-    "extra": json_values,
-})
+json_values = st.recursive(
+    st.none() | st.booleans() | st.integers(-3, 10**20) | st.floats(allow_nan=False) | st.text(max_size=8),
+    lambda inner: st.lists(inner, max_size=3) | st.dictionaries(st.text(max_size=5), inner, max_size=3),
+    max_leaves=6,
+)
+job_like = st.fixed_dictionaries(
+    {"id": st.one_of(st.integers(), st.text(max_size=3))},
+    optional={
+        "field": st.sampled_from(["GF(7)", "GF(9)", "Q", "GF(4)", 7, "GF(0)", "nope"]) | json_values,
+        "variables": st.sampled_from([["x", "y"], "x, y", "x0..x2", [], ["x", "x"], "x0..x9999999"])
+        | json_values,
+        "polynomials": st.lists(
+            st.sampled_from(["x*y - 1", "x^2 - y", "x +", "a*x", "(x+y)^200", "t"]), max_size=3
+        )
+        | json_values,
+        "tasks": st.lists(
+            st.sampled_from(
+                [
+                    "dimension",
+                    "degree",
+                    "hilbert",
+                    "basis",
+                    "projection",
+                    "normalize",
+                    "points",
+                    "independent_variables",
+                    "nothing",
+                ]
+            ),
+            max_size=3,
+        )
+        | json_values,
+        "order": st.sampled_from(["lex", "grevlex", "sideways"]) | json_values,
+        "extra": json_values,
+    },
+)
 batch_lines = st.one_of(job_like.map(json.dumps), json_values.map(json.dumps), st.text(max_size=30))
 
 
@@ -200,7 +282,12 @@ SYSTEMS = [
     ("GF(65521)", "x, y", ["y^2 - x^3 - x - 1"], "auto"),
     ("GF(3)", "x, y", ["x^3 - x", "y^2 - x"], "auto"),
     ("GF(2)", "x, y, z", ["(x^2 - x)*(y^2 - y)*z + x*y - z^2"], "auto"),
-    ("GF(32003)", "x, y, z", ["x + 2*y + 2*z - 1", "x^2 + 2*y^2 + 2*z^2 - x", "2*x*y + 2*y*z - y"], "auto"),  # katsura-2
+    (
+        "GF(32003)",
+        "x, y, z",
+        ["x + 2*y + 2*z - 1", "x^2 + 2*y^2 + 2*z^2 - x", "2*x*y + 2*y*z - y"],
+        "auto",
+    ),  # katsura-2
 ]
 QUICK = [0, 1, 2, 3, 4]
 

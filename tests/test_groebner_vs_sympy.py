@@ -58,8 +58,10 @@ def test_sampled_engine_on_katsura_matches_sympy_and_the_published_count():
     ours = {frozenset((tuple(e), c % 32003) for e, c in g.terms()) for g in gb}
     gens = sympy.symbols(names)
     theirs = sympy.groebner([sympy.sympify(t) for t in eqs], *gens, modulus=32003, order="grevlex")
-    assert ours == {frozenset((tuple(m), int(c) % 32003) for m, c in sympy.Poly(g, *gens, modulus=32003).terms())
-                    for g in theirs.exprs}
+    assert ours == {
+        frozenset((tuple(m), int(c) % 32003) for m, c in sympy.Poly(g, *gens, modulus=32003).terms())
+        for g in theirs.exprs
+    }
 
     names, eqs = katsura(7)
     ideal = fw.Space(32003, names, order="grevlex").system(eqs)

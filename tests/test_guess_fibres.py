@@ -26,7 +26,7 @@ def curve_or_surface(k: fw.Field, rng: random.Random, surface: bool) -> fw.Syste
     names = "x, y, z" if surface else "x, y"
     S = random_system(k, names, 1, 3, 4, rng)
     last = S.space.variables[-1]
-    return S.space.system([S.equations[0] + last ** 3])
+    return S.space.system([S.equations[0] + last**3])
 
 
 @pytest.mark.parametrize("spec", FIELDS)
@@ -45,7 +45,7 @@ def test_space_curves_by_fibres_equal_brute_force(spec, rng):
     k = fw.field(spec)
     S = random_system(k, "x, y, z", 2, 2, 3, rng)
     x, y, z = S.space.variables
-    S = S.space.system([S.equations[0] + y ** 2, S.equations[1] + z ** 2])
+    S = S.space.system([S.equations[0] + y**2, S.equations[1] + z**2])
     got = sorted(S.points())
     assert got == brute_force(S)
     assert len(got) == S.count_points()
@@ -84,5 +84,5 @@ def test_points_are_lazy_and_limited():
     first = list(S.points(limit=3))
     assert len(first) == 3
     for x, y in first:
-        assert (y * y - x ** 3 - 7) % 101 == 0
+        assert (y * y - x**3 - 7) % 101 == 0
     assert len(list(S.points())) == S.count_points()

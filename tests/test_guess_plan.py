@@ -22,16 +22,27 @@ def sympy_degree(degrees, n, boolean=False):
     z = sympy.symbols("z")
     numerator = sympy.Integer(1)
     for d in degrees:
-        numerator *= (1 + z ** d) if boolean else (1 - z ** d)
+        numerator *= (1 + z**d) if boolean else (1 - z**d)
     series = ((1 + z) ** n / numerator) if boolean else (numerator / (1 - z) ** n)
     length = sum(d - 1 for d in degrees) + n + 3
     poly = sympy.Poly(sympy.series(series, z, 0, length).removeO(), z)
-    coefficients = [poly.coeff_monomial(z ** i) for i in range(length)]
+    coefficients = [poly.coeff_monomial(z**i) for i in range(length)]
     return next((i for i, c in enumerate(coefficients) if c <= 0), None)
 
 
-@pytest.mark.parametrize("n, degrees", [(4, [2] * 4), (5, [2] * 6), (6, [2] * 8), (8, [2] * 12), (10, [2] * 20),
-                                        (5, [3] * 7), (6, [2, 2, 3, 3, 4, 4, 4]), (7, [2] * 14)])
+@pytest.mark.parametrize(
+    "n, degrees",
+    [
+        (4, [2] * 4),
+        (5, [2] * 6),
+        (6, [2] * 8),
+        (8, [2] * 12),
+        (10, [2] * 20),
+        (5, [3] * 7),
+        (6, [2, 2, 3, 3, 4, 4, 4]),
+        (7, [2] * 14),
+    ],
+)
 def test_semi_regular_degree_against_the_series_expanded_by_sympy(n, degrees):
     assert semi_regular_degree(degrees, n) == sympy_degree(degrees, n)
 
@@ -53,7 +64,7 @@ def linearised_system(rng: random.Random) -> fw.System:
     (a construction of our own)."""
     V = fw.Space("GF(3)", "x1, x2, y1, y2, y3, y4, y5, y6")
     x1, x2, *ys = V.variables
-    monomials = [x1 ** i * x2 ** j for i in range(4) for j in range(4) if i + j <= 3]
+    monomials = [x1**i * x2**j for i in range(4) for j in range(4) if i + j <= 3]
 
     def random_cubic():
         return sum((rng.randrange(1, 3) * m for m in monomials), V.polynomial(0))
@@ -70,7 +81,7 @@ def test_the_plan_guesses_the_variables_that_linearise_the_rest():
     assert best.solving_degree == 1  # linear equations: one matrix of degree 1
     assert best.guesses == 9 and best.total_seconds == pytest.approx(9 * best.seconds)
     assert plan.rows[0].solving_degree > 1
-    assert plan.exhaustive_points == 3 ** 8
+    assert plan.exhaustive_points == 3**8
     d = plan.to_dict()
     assert d["best"] == 2 and json.loads(json.dumps(d)) == d
     assert "best" in str(plan)
@@ -107,6 +118,15 @@ def test_plan_command_and_batch_task(tmp_path, capsys):
 
     from fibrewise.jobs import check_job, run_job
 
-    record = run_job(check_job({"id": 1, "field": "GF(7)", "variables": ["x", "y"],
-                                "polynomials": ["x*y - 1", "x + y"], "tasks": ["plan"]}))
+    record = run_job(
+        check_job(
+            {
+                "id": 1,
+                "field": "GF(7)",
+                "variables": ["x", "y"],
+                "polynomials": ["x*y - 1", "x + y"],
+                "tasks": ["plan"],
+            }
+        )
+    )
     assert record["status"] == "ok" and record["result"]["plan"]["rows"][0]["k"] == 0

@@ -69,8 +69,14 @@ def test_a_dask_cluster_gives_the_same_points_and_survives_a_lost_worker(tmp_pat
 
     S = cipher()
     expected = brute_force(S)
-    with LocalCluster(n_workers=2, threads_per_worker=1, processes=False, protocol="tcp://",
-                      host="127.0.0.1", dashboard_address=None) as cluster:
+    with LocalCluster(
+        n_workers=2,
+        threads_per_worker=1,
+        processes=False,
+        protocol="tcp://",
+        host="127.0.0.1",
+        dashboard_address=None,
+    ) as cluster:
         address = cluster.scheduler_address
         assert sorted(guessed_points(S, ["k1", "k2"], scheduler=address, chunk=3)) == expected
 
@@ -79,18 +85,37 @@ def test_a_dask_cluster_gives_the_same_points_and_survives_a_lost_worker(tmp_pat
                 cluster.scale(1)  # one worker leaves mid-run; its chunks go to the other
 
         progress = str(tmp_path / "progress.jsonl")
-        found = list(guessed_points(S, ["k1", "k2"], scheduler=address, chunk=3, progress=progress,
-                                    on_chunk=lose_a_worker))
+        found = list(
+            guessed_points(
+                S, ["k1", "k2"], scheduler=address, chunk=3, progress=progress, on_chunk=lose_a_worker
+            )
+        )
         assert sorted(found) == expected and len(found) == len(set(found))
 
 
 def test_solve_command_with_guesses(tmp_path, capsys):
     source = tmp_path / "cipher.txt"
     S = cipher()
-    source.write_text("field: GF(7)\nvariables: k1, k2, s, t\n" + "\n".join(str(g) for g in S.equations) + "\n")
+    source.write_text(
+        "field: GF(7)\nvariables: k1, k2, s, t\n" + "\n".join(str(g) for g in S.equations) + "\n"
+    )
     progress = tmp_path / "p.jsonl"
-    assert main(["solve", str(source), "--guess", "k1,k2", "--workers", "2", "--progress", str(progress),
-                 "--quiet"]) == 0
+    assert (
+        main(
+            [
+                "solve",
+                str(source),
+                "--guess",
+                "k1,k2",
+                "--workers",
+                "2",
+                "--progress",
+                str(progress),
+                "--quiet",
+            ]
+        )
+        == 0
+    )
     out = capsys.readouterr().out
     points = [line for line in out.splitlines() if line.startswith("k1 = ")]
     assert len(points) == len(brute_force(S))

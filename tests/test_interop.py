@@ -43,8 +43,10 @@ def test_sympy_round_trip_and_arithmetic_over_the_rationals():
     rng = random.Random(5)
     V = fw.Space("Q", "x, y")
     for _ in range(40):
-        f, g = (random_polynomial(rng, V, lambda r: sympy.Rational(r.randint(-9, 9), r.randint(1, 9)))
-                for _ in range(2))
+        f, g = (
+            random_polynomial(rng, V, lambda r: sympy.Rational(r.randint(-9, 9), r.randint(1, 9)))
+            for _ in range(2)
+        )
         F, G = f.to_sympy(), g.to_sympy()
         assert V.from_sympy(F) == f
         assert sympy_poly((f * g - 3 * g**2).to_sympy(), V) == sympy_poly(F * G - 3 * G**2, V)

@@ -60,7 +60,9 @@ def test_cyclic4_is_positive_dimensional():
 # --- Bézout, semi-regular sequences, classical varieties ----------------------------------------
 
 
-@pytest.mark.parametrize("n,degrees", [(3, [2, 2, 2]), (3, [2, 3, 2]), (4, [2, 3]), (4, [3, 3, 2]), (5, [2, 2, 2])])
+@pytest.mark.parametrize(
+    "n,degrees", [(3, [2, 2, 2]), (3, [2, 3, 2]), (4, [2, 3]), (4, [3, 3, 2]), (5, [2, 2, 2])]
+)
 def test_bezout_degree_of_complete_intersections(rng, n, degrees):
     # Generic forms of degrees d_1..d_c: a complete intersection of degree d_1···d_c and
     # dimension n - c (Bézout; Hartshorne I.7).
@@ -222,7 +224,12 @@ def test_point_counts_against_enumeration(seed):
 
 @pytest.mark.parametrize(
     "p,texts",
-    [(7, ["x^3*y + y^3*z + z^3*x"]), (5, ["x^2 + y^2 + z^2"]), (3, ["x*y - z*w", "x^2 - y*w"]), (11, ["x^4 + y^4 - z^4"])],
+    [
+        (7, ["x^3*y + y^3*z + z^3*x"]),
+        (5, ["x^2 + y^2 + z^2"]),
+        (3, ["x*y - z*w", "x^2 - y*w"]),
+        (11, ["x^4 + y^4 - z^4"]),
+    ],
 )
 def test_projective_counts_against_enumeration(p, texts):
     names = ["x", "y", "z", "w"][: 4 if len(texts) == 2 else 3]
@@ -293,7 +300,9 @@ def test_projective_count_rejects_inhomogeneous_input():
 
 def sympy_leading_exponents(texts, names, p):
     gens = sympy.symbols(names)
-    gb = sympy.groebner([sympy.sympify(t.replace("^", "**")) for t in texts], *gens, modulus=p, order="grevlex")
+    gb = sympy.groebner(
+        [sympy.sympify(t.replace("^", "**")) for t in texts], *gens, modulus=p, order="grevlex"
+    )
     return [sympy.Poly(g, *gens, modulus=p).monoms(order="grevlex")[0] for g in gb.exprs]
 
 

@@ -24,13 +24,34 @@ PENDING: set[str] = set()
 # Names of the first edition, gone everywhere (no aliases). Two of them are the names another
 # program uses, so they are spelled here in pieces: the tree must not contain them at all.
 OLD_NAMES = [
-    "Polynomial" + "Ring", "Ideal", "groebner_basis", "noether_normalization", "vector_space" + "_dimension",
-    "is_maximal", "residue_field_degree", "hilbert_series", "is_subset", "QQ", "read_system",
-    "parse_system", "normal_form_of", "NativeRing",
+    "Polynomial" + "Ring",
+    "Ideal",
+    "groebner_basis",
+    "noether_normalization",
+    "vector_space" + "_dimension",
+    "is_maximal",
+    "residue_field_degree",
+    "hilbert_series",
+    "is_subset",
+    "QQ",
+    "read_system",
+    "parse_system",
+    "normal_form_of",
+    "NativeRing",
 ]
 
-API_CLASSES = [fw.Field, fw.Space, fw.Polynomial, fw.System, fw.ReducedBasis, fw.HilbertSeries,
-               fw.FiniteProjection, fw.IntegralEquation, fw.GroebnerStats, fw.ClosedPoint]
+API_CLASSES = [
+    fw.Field,
+    fw.Space,
+    fw.Polynomial,
+    fw.System,
+    fw.ReducedBasis,
+    fw.HilbertSeries,
+    fw.FiniteProjection,
+    fw.IntegralEquation,
+    fw.GroebnerStats,
+    fw.ClosedPoint,
+]
 
 
 def table_rows(heading: str) -> list[str]:
@@ -38,7 +59,7 @@ def table_rows(heading: str) -> list[str]:
     lines = INTERFACE.splitlines()
     start = next(i for i, line in enumerate(lines) if line.startswith(heading))
     cells = []
-    for line in lines[start + 2:]:  # after the header and the rule
+    for line in lines[start + 2 :]:  # after the header and the rule
         if not line.startswith("|"):
             break
         cells.append(line.split("|")[1])
@@ -59,7 +80,11 @@ def test_every_system_member_of_the_interface_exists():
 
 def examples() -> dict:
     V = fw.Space("GF(7)", "x, y")
-    return {"Field": V.field, "Polynomial": V.parse("x*y"), "FiniteProjection": V.system(["x*y"]).projection()}
+    return {
+        "Field": V.field,
+        "Polynomial": V.parse("x*y"),
+        "FiniteProjection": V.system(["x*y"]).projection(),
+    }
 
 
 @pytest.mark.parametrize("cls", ["Field", "Polynomial", "FiniteProjection"])
@@ -107,15 +132,29 @@ def test_no_old_name_remains_in_the_package():
 def tree_files():
     # rust/python is left out: its Rust code calls the core by the core's own function names
     # (the mathematics' terms); the names it gives Python are checked above through dir(_native).
-    for pattern in ["python/fibrewise/*.py", "python/fibrewise/*.pyi", "tests/*.py",
-                    "bench/*.py", "bench/README.md", "examples/*", "README.md", "DEVELOPERS.md", "CHANGELOG.md"]:
+    for pattern in [
+        "python/fibrewise/*.py",
+        "python/fibrewise/*.pyi",
+        "tests/*.py",
+        "bench/*.py",
+        "bench/README.md",
+        "examples/*",
+        "README.md",
+        "DEVELOPERS.md",
+        "CHANGELOG.md",
+    ]:
         yield from ROOT.glob(pattern)
 
 
 # Where an old name is still right: sympy's own API (its Gröbner function and its rational
 # domain), the tests that the old field spec is refused, and this file's list.
-ALLOWED = [r'domain="QQ"', r"sympy\.groebner", r"unknown field spec 'QQ'", r'"QQ", None',
-           r"\"GF\(2\^8, modulus='a\^8\+a\^4\+a\^3\+a\+1'\)\", None"]
+ALLOWED = [
+    r'domain="QQ"',
+    r"sympy\.groebner",
+    r"unknown field spec 'QQ'",
+    r'"QQ", None',
+    r"\"GF\(2\^8, modulus='a\^8\+a\^4\+a\^3\+a\+1'\)\", None",
+]
 
 
 def test_no_old_name_remains_in_the_tree():

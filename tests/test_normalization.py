@@ -279,7 +279,9 @@ def test_random_ideals_against_sympy(seed, p, nvars):
     names = NAMES[:nvars]
     I = ideal(p, names, texts)
     gens = sympy.symbols(names)
-    basis = sympy.groebner([sympy.sympify(t.replace("^", "**")) for t in texts], *gens, modulus=p, order="grevlex")
+    basis = sympy.groebner(
+        [sympy.sympify(t.replace("^", "**")) for t in texts], *gens, modulus=p, order="grevlex"
+    )
     dim = sympy_dimension(basis, gens)
     if dim < 0:
         with pytest.raises(ValueError):
@@ -293,7 +295,10 @@ def test_random_ideals_against_sympy(seed, p, nvars):
     params = {s: sympy.sympify(str(q).replace("^", "**")) for s, q in zip(t, nn.parameters)}
     for v, coefficients in zip(gens, nn.equations):
         m = len(coefficients) - 1
-        expr = sum(sympy.sympify(c.replace("^", "**"), locals={str(s): s for s in t}) * v ** (m - k) for k, c in enumerate(coefficients))
+        expr = sum(
+            sympy.sympify(c.replace("^", "**"), locals={str(s): s for s in t}) * v ** (m - k)
+            for k, c in enumerate(coefficients)
+        )
         expr = sympy.expand(expr.subs(params, simultaneous=True))
         assert coefficients[0] == "1"
         _, remainder = basis.reduce(expr)

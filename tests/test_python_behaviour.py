@@ -16,6 +16,7 @@ def V():
 
 # --- wrong types: TypeError, naming what was expected -----------------------------------------
 
+
 @pytest.mark.parametrize(
     "call, message",
     [
@@ -53,6 +54,7 @@ def test_wrong_types_raise_type_error(V, call, message):
 
 # --- bad values: ValueError ------------------------------------------------------------------
 
+
 @pytest.mark.parametrize(
     "call, message",
     [
@@ -73,7 +75,10 @@ def test_wrong_types_raise_type_error(V, call, message):
         (lambda V: fw.Space(7, "x, x"), "given twice"),
         (lambda V: fw.Space(7, "x", order="revlex"), "unknown monomial order 'revlex'"),
         (lambda V: V.system(["x"]).count_points(over="GF(5^2)"), "not a finite extension of GF\\(7\\)"),
-        (lambda V: fw.Space("GF(9)", "x").system(["x"]).count_points(over="GF(3^3)"), "not a finite extension of GF\\(3\\^2\\)"),
+        (
+            lambda V: fw.Space("GF(9)", "x").system(["x"]).count_points(over="GF(3^3)"),
+            "not a finite extension of GF\\(3\\^2\\)",
+        ),
     ],
 )
 def test_bad_values_raise_value_error(V, call, message):
@@ -90,6 +95,7 @@ def test_division_by_constants(V):
 
 
 # --- equality, hashing and repr ---------------------------------------------------------------
+
 
 def test_equality_across_spaces_is_false_not_an_error():
     x7 = fw.Space(7, "x, y").parse("x")
@@ -123,6 +129,7 @@ def test_repr_names_the_space():
 
 # --- ParseError from the core's parser --------------------------------------------------------
 
+
 def test_parse_errors_carry_line_and_column(V):
     with pytest.raises(fw.ParseError) as err:
         V.parse("x^2 + y\n  + 3*z\n  - w + 1")
@@ -148,6 +155,7 @@ def test_system_file_errors_are_parse_errors(tmp_path):
 
 # --- variable ranges --------------------------------------------------------------------------
 
+
 def test_variable_ranges_everywhere(tmp_path):
     V = fw.Space("GF(2)", "k0..k3, x, y1..y2")
     assert V.names == ("k0", "k1", "k2", "k3", "x", "y1", "y2")
@@ -163,13 +171,16 @@ def test_variable_ranges_everywhere(tmp_path):
 
 # --- notebooks --------------------------------------------------------------------------------
 
+
 def test_latex_reprs():
     V = fw.Space("Q", "x1, y")
     f = V.parse("3/4*x1^2*y - y + 2")
     assert f._repr_latex_() == r"$\frac{3}{4} x_{1}^{2} y - y + 2$"
     S = V.system([f, "x1 - y"])
-    assert S._repr_latex_() == (r"$\left\{\begin{aligned}\frac{3}{4} x_{1}^{2} y - y + 2 &= 0 \\ "
-                                r"x_{1} - y &= 0\end{aligned}\right.$")
+    assert S._repr_latex_() == (
+        r"$\left\{\begin{aligned}\frac{3}{4} x_{1}^{2} y - y + 2 &= 0 \\ "
+        r"x_{1} - y &= 0\end{aligned}\right.$"
+    )
     assert S.basis()._repr_latex_().startswith(r"$\left[")
     assert fw.field("GF(2^8)")._repr_latex_() == r"$\mathbb{F}_{2^{8}}$"
     assert fw.Space("GF(7)", "x").system(["x^2"]).hilbert()._repr_latex_() == "$1 + t$"

@@ -27,8 +27,13 @@ EXAMPLES = ROOT / "examples"
 
 
 def fibrewise(*args: str, timeout: float = 300, cwd: Path | None = None) -> subprocess.CompletedProcess:
-    return subprocess.run([sys.executable, "-m", "fibrewise.cli", *map(str, args)], capture_output=True,
-                          text=True, timeout=timeout, cwd=cwd)
+    return subprocess.run(
+        [sys.executable, "-m", "fibrewise.cli", *map(str, args)],
+        capture_output=True,
+        text=True,
+        timeout=timeout,
+        cwd=cwd,
+    )
 
 
 def write(tmp_path: Path, name: str, text: str) -> Path:
@@ -39,14 +44,26 @@ def write(tmp_path: Path, name: str, text: str) -> Path:
 
 # Memory budgets ------------------------------------------------------------------------------------
 
-@pytest.mark.parametrize("text, size", [("4GB", 4 * 10**9), ("512MiB", 512 << 20), ("1.5 gib", 3 << 29),
-                                        ("1000", 1000), (123456, 123456)])
+
+@pytest.mark.parametrize(
+    "text, size",
+    [("4GB", 4 * 10**9), ("512MiB", 512 << 20), ("1.5 gib", 3 << 29), ("1000", 1000), (123456, 123456)],
+)
 def test_memory_sizes_read_as_documented(text, size):
     assert fw.Space("GF(7)", "x", memory=text).memory == size
 
 
-@pytest.mark.parametrize("value, kind", [("4 parsecs", ValueError), ("-1GB", ValueError), (0, ValueError),
-                                         (1.5, TypeError), (True, TypeError), ("200%", ValueError)])
+@pytest.mark.parametrize(
+    "value, kind",
+    [
+        ("4 parsecs", ValueError),
+        ("-1GB", ValueError),
+        (0, ValueError),
+        (1.5, TypeError),
+        (True, TypeError),
+        ("200%", ValueError),
+    ],
+)
 def test_bad_memory_sizes_are_errors_naming_the_argument(value, kind):
     with pytest.raises(kind, match="memory"):
         fw.Space("GF(7)", "x", memory=value)
@@ -55,7 +72,9 @@ def test_bad_memory_sizes_are_errors_naming_the_argument(value, kind):
 def test_a_power_over_the_budget_is_a_resource_limit_naming_what_was_built():
     V = fw.Space("GF(7)", "x, y, z", memory="10MB")
     x, y, z = V.variables
-    with pytest.raises(fw.ResourceLimit, match="memory budget of .* exceeded: a polynomial of 4 terms to the power 3000"):
+    with pytest.raises(
+        fw.ResourceLimit, match="memory budget of .* exceeded: a polynomial of 4 terms to the power 3000"
+    ):
         (x + y + z + 1) ** 3000
     with pytest.raises(fw.ResourceLimit, match="memory budget"):
         V.parse("(x + y + z + 1)^3000")
@@ -91,12 +110,16 @@ def test_huge_exponents_raise_instead_of_aborting():
 
 
 def test_a_system_file_with_a_huge_power_is_a_resource_limit_naming_the_line(tmp_path):
-    path = write(tmp_path, "power.txt", """
+    path = write(
+        tmp_path,
+        "power.txt",
+        """
         field: GF(7)
         variables: x, y, z
         x*y - 1
         (x + y + z + 1)^3000
-        """)
+        """,
+    )
     done = fibrewise("basis", path, "--memory", "100MB")
     assert done.returncode == 1, done.stderr
     assert f"{path}:4: memory budget of 95.4 MiB exceeded" in done.stderr
@@ -141,7 +164,9 @@ print("finished", flush=True)
 @pytest.mark.parametrize("name", list(LONG_CALLS))
 def test_ctrl_c_stops_a_long_native_call(name):
     code = SETUP.replace("CALL", LONG_CALLS[name])
-    proc = subprocess.Popen([sys.executable, "-c", code], stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    proc = subprocess.Popen(
+        [sys.executable, "-c", code], stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True
+    )
     try:
         assert proc.stdout.readline().strip() == "ready", proc.stderr.read()
         time.sleep(0.5)  # inside the call now
@@ -161,32 +186,35 @@ V7 = fw.Space("GF(7)", "x, y, z")
 S7 = V7.system(["x*y - 1"])
 
 
-@pytest.mark.parametrize("call, kind, name", [
-    (lambda: S7.basis(max_degree=-1), ValueError, "max_degree"),
-    (lambda: S7.basis(max_degree=2**40), ValueError, "max_degree"),
-    (lambda: S7.basis(threads=-1), ValueError, "threads"),
-    (lambda: S7.basis(max_matrix=2**70), ValueError, "max_matrix"),
-    (lambda: S7.basis(max_degree="3"), TypeError, "max_degree"),
-    (lambda: V7.from_terms([((-1, 0, 0), 1)]), ValueError, "exponent"),
-    (lambda: V7.from_terms([((2**40, 0, 0), 1)]), ValueError, "exponent"),
-    (lambda: V7.variables[0] ** 2**64, ValueError, "exponent"),
-    (lambda: V7.variables[0] ** -1, ValueError, "exponent"),
-    (lambda: S7.ideal_contains(None), TypeError, "System"),
-    (lambda: S7.same_ideal(None), TypeError, "System"),
-    (lambda: fw.System(None, ["x"]), TypeError, "Space"),
-    (lambda: fw.System(V7, None), TypeError, "equations"),
-    (lambda: fw.WeightOrder([1.5, 1, 1]), TypeError, "weights"),
-    (lambda: fw.Space("GF(7)", [None]), TypeError, "variable names"),
-    (lambda: fw.Space("GF(7)", ["x", 3]), TypeError, "variable names"),
-    (lambda: S7.projection(seed=-1), ValueError, "seed"),
-    (lambda: S7.projection(equations="later"), ValueError, "equations"),
-    (lambda: S7.projection(equations=1), TypeError, "equations"),
-    (lambda: S7.count_points(projective="yes"), TypeError, "projective"),
-    (lambda: S7.is_finite_over(None), TypeError, "over"),
-    (lambda: S7.integral_equation("x", over=3), TypeError, "over"),
-    (lambda: fw.field("GF(9)", generator=3), TypeError, "generator"),
-    (lambda: fw.field("GF(9)", generator="2b"), ValueError, "generator"),
-])
+@pytest.mark.parametrize(
+    "call, kind, name",
+    [
+        (lambda: S7.basis(max_degree=-1), ValueError, "max_degree"),
+        (lambda: S7.basis(max_degree=2**40), ValueError, "max_degree"),
+        (lambda: S7.basis(threads=-1), ValueError, "threads"),
+        (lambda: S7.basis(max_matrix=2**70), ValueError, "max_matrix"),
+        (lambda: S7.basis(max_degree="3"), TypeError, "max_degree"),
+        (lambda: V7.from_terms([((-1, 0, 0), 1)]), ValueError, "exponent"),
+        (lambda: V7.from_terms([((2**40, 0, 0), 1)]), ValueError, "exponent"),
+        (lambda: V7.variables[0] ** 2**64, ValueError, "exponent"),
+        (lambda: V7.variables[0] ** -1, ValueError, "exponent"),
+        (lambda: S7.ideal_contains(None), TypeError, "System"),
+        (lambda: S7.same_ideal(None), TypeError, "System"),
+        (lambda: fw.System(None, ["x"]), TypeError, "Space"),
+        (lambda: fw.System(V7, None), TypeError, "equations"),
+        (lambda: fw.WeightOrder([1.5, 1, 1]), TypeError, "weights"),
+        (lambda: fw.Space("GF(7)", [None]), TypeError, "variable names"),
+        (lambda: fw.Space("GF(7)", ["x", 3]), TypeError, "variable names"),
+        (lambda: S7.projection(seed=-1), ValueError, "seed"),
+        (lambda: S7.projection(equations="later"), ValueError, "equations"),
+        (lambda: S7.projection(equations=1), TypeError, "equations"),
+        (lambda: S7.count_points(projective="yes"), TypeError, "projective"),
+        (lambda: S7.is_finite_over(None), TypeError, "over"),
+        (lambda: S7.integral_equation("x", over=3), TypeError, "over"),
+        (lambda: fw.field("GF(9)", generator=3), TypeError, "generator"),
+        (lambda: fw.field("GF(9)", generator="2b"), ValueError, "generator"),
+    ],
+)
 def test_odd_arguments_get_the_right_error_naming_the_argument(call, kind, name):
     with pytest.raises(kind, match=name):
         call()
@@ -194,13 +222,16 @@ def test_odd_arguments_get_the_right_error_naming_the_argument(call, kind, name)
 
 # Lazy projections (issue 21) ---------------------------------------------------------------------
 
+
 def test_lazy_equations_equal_the_eager_ones_and_lie_in_the_ideal():
     V = fw.Space("GF(101)", "x, y, z")
     S = V.system(["x^2 - y*z + 1", "y^3 - x*z - 2"])
     lazy = S.projection()
     assert not lazy.has_equations
     summary = lazy.summary()
-    assert "equations" not in summary and summary["rank"] == lazy.rank and summary["dimension"] == 1  # 2 equations in 3-space
+    assert (
+        "equations" not in summary and summary["rank"] == lazy.rank and summary["dimension"] == 1
+    )  # 2 equations in 3-space
     eager = S.projection(equations="now")
     assert eager.has_equations
     assert lazy.equations == eager.equations  # computed here, on first use
@@ -213,8 +244,13 @@ def test_lazy_equations_equal_the_eager_ones_and_lie_in_the_ideal():
 def test_batch_task_projection_is_the_summary_and_normalize_keeps_the_certificate(tmp_path):
     from fibrewise.cli import main
 
-    job = {"id": 1, "field": "GF(101)", "variables": ["x", "y", "z"], "polynomials": ["x^2 - y*z + 1", "y^3 - x*z - 2"],
-           "tasks": ["projection", "normalize"]}
+    job = {
+        "id": 1,
+        "field": "GF(101)",
+        "variables": ["x", "y", "z"],
+        "polynomials": ["x^2 - y*z + 1", "y^3 - x*z - 2"],
+        "tasks": ["projection", "normalize"],
+    }
     source, out = tmp_path / "in.jsonl", tmp_path / "out.jsonl"
     source.write_text(json.dumps(job) + "\n")
     assert main(["batch", str(source), "-o", str(out), "--quiet"]) == 0
@@ -237,6 +273,7 @@ def test_engine_auto_is_the_default_and_the_stats_say_what_it_chose():
 
 # The generator's name (issue 15) ------------------------------------------------------------------
 
+
 def test_the_generator_of_gf_p_k_can_have_another_name():
     F = fw.field("GF(9)", generator="w")
     assert F.generator == "w" and F.modulus == "w^2 + 1"  # the default modulus of GF(9)
@@ -256,6 +293,7 @@ def test_the_generator_of_gf_p_k_can_have_another_name():
 
 # The command line ------------------------------------------------------------------------------
 
+
 def test_check_accepts_the_normalize_json_output_as_it_is(tmp_path):
     system = EXAMPLES / "curve_code_gf7.txt"
     done = fibrewise("normalize", system, "--json")
@@ -268,9 +306,13 @@ def test_check_accepts_the_normalize_json_output_as_it_is(tmp_path):
 
 
 def test_plot_without_matplotlib_says_how_to_install_it(tmp_path):
-    code = ("import sys; sys.modules['matplotlib'] = None; from fibrewise.cli import main; "
-            f"sys.exit(main(['analyze', {str(EXAMPLES / 'curve_code_gf7.txt')!r}, '--plot', 'x.png']))")
-    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=120, cwd=tmp_path)
+    code = (
+        "import sys; sys.modules['matplotlib'] = None; from fibrewise.cli import main; "
+        f"sys.exit(main(['analyze', {str(EXAMPLES / 'curve_code_gf7.txt')!r}, '--plot', 'x.png']))"
+    )
+    done = subprocess.run(
+        [sys.executable, "-c", code], capture_output=True, text=True, timeout=120, cwd=tmp_path
+    )
     assert done.returncode == 2
     assert "pip install matplotlib" in done.stderr and "Traceback" not in done.stderr
 
@@ -293,11 +335,15 @@ def test_one_element_is_singular():
 
 
 def test_a_variable_named_k_does_not_read_as_the_field(tmp_path):
-    path = write(tmp_path, "k.txt", """
+    path = write(
+        tmp_path,
+        "k.txt",
+        """
         field: GF(7)
         variables: k, m
         k^2 - m^3 - 1
-        """)
+        """,
+    )
     done = fibrewise("normalize", path)
     assert done.returncode == 0, done.stderr
     assert "finite over GF(7)[k]" in done.stdout and "k[k]" not in done.stdout
@@ -316,12 +362,16 @@ def test_non_utf8_input_names_the_file_and_line(tmp_path):
 
 
 def test_a_long_field_name_does_not_pad_every_label(tmp_path):
-    path = write(tmp_path, "big.txt", """
+    path = write(
+        tmp_path,
+        "big.txt",
+        """
         field: GF(2^127 - 1)
         variables: x, y
         x*y - 1
         x - 2
-        """)
+        """,
+    )
     done = fibrewise("analyze", path)
     assert done.returncode == 0, done.stderr
     rows = [line for line in done.stdout.splitlines()[1:] if line.startswith("  ") and line[2] != " "]
@@ -342,7 +392,11 @@ def power_map_cipher(tmp_path: Path, rounds: int = 7, p: int = 65519) -> Path:
         current = names[i + 1] if i + 1 < rounds else str(state)
         lines.append(f"{current} - ({previous} + k + {c})^3")
         previous = names[i + 1] if i + 1 < rounds else None
-    return write(tmp_path, "power_map.txt", f"field: GF({p})\nvariables: {', '.join(names)}\n" + "\n".join(lines) + "\n")
+    return write(
+        tmp_path,
+        "power_map.txt",
+        f"field: GF({p})\nvariables: {', '.join(names)}\n" + "\n".join(lines) + "\n",
+    )
 
 
 def test_analyze_skips_what_it_cannot_afford_and_says_so(tmp_path):

@@ -116,6 +116,7 @@ def test_no_points_and_the_unit_ideal():
 
 # --- univariate systems: galois and sympy -----------------------------------------------------
 
+
 def sympy_roots_and_degrees(coefficients, p):
     """The roots in GF(p) and the degrees of the distinct irreducible factors, by sympy's
     ``factor_list(..., modulus=p)``."""
@@ -194,7 +195,7 @@ SUBFIELD_CASES = [
 def test_closed_points_of_x_to_the_p_to_the_r_minus_x_over_every_extension_kind(spec, r, degrees):
     k = fw.field(spec)
     V = fw.Space(k, "x")
-    f = f"x^{k.characteristic ** r} - x"
+    f = f"x^{k.characteristic**r} - x"
     S = V.system([f])
     assert sorted(P.degree for P in S.closed_points()) == degrees
     roots = list(S.points())
@@ -210,6 +211,7 @@ def test_closed_points_of_x_to_the_p_to_the_r_minus_x_over_every_extension_kind(
 
 
 # --- closed points ----------------------------------------------------------------------------
+
 
 def test_closed_points_split_the_solutions_into_galois_orbits():
     # x^4 - 1 over GF(3) = (x - 1)(x + 1)(x^2 + 1) (sympy's factor_list agrees, checked below);
@@ -244,6 +246,7 @@ def test_closed_points_need_a_zero_dimensional_system():
 
 # --- planted keys in power-map ciphers of our own ---------------------------------------------
 
+
 def encrypt(p, key, plaintext, constants):
     """Rounds s -> (s + key + c)^3 mod p, Python's own modular arithmetic."""
     s = plaintext
@@ -271,6 +274,7 @@ def test_the_planted_key_of_a_power_map_cipher_is_found(p, rounds):
 
 
 # --- galois arrays and extension fields -------------------------------------------------------
+
 
 def test_points_as_galois_arrays_equal_the_ints():
     k = fw.field("GF(2^4)")
@@ -320,13 +324,16 @@ def embedded_brute_force(system, target):
     return sets
 
 
-@pytest.mark.parametrize("base, over, equations", [
-    ("GF(2)", "GF(2^4)", ["x^2 + x + 1", "y^3 + x*y + 1"]),
-    ("GF(3)", "GF(3^2)", ["x^2 + 1 - y^2", "x*y - 1"]),
-    ("GF(4)", "GF(2^4)", ["x^2 + a*x + 1", "y - x^3 - a"]),
-    ("GF(9)", "GF(3^4)", ["x^2 - a", "y^2 - x*y - a^3"]),
-    ("GF(4)", "GF(2^6)", ["x^3 + a", "x*y + a*y^2 + 1"]),
-])
+@pytest.mark.parametrize(
+    "base, over, equations",
+    [
+        ("GF(2)", "GF(2^4)", ["x^2 + x + 1", "y^3 + x*y + 1"]),
+        ("GF(3)", "GF(3^2)", ["x^2 + 1 - y^2", "x*y - 1"]),
+        ("GF(4)", "GF(2^4)", ["x^2 + a*x + 1", "y - x^3 - a"]),
+        ("GF(9)", "GF(3^4)", ["x^2 - a", "y^2 - x*y - a^3"]),
+        ("GF(4)", "GF(2^6)", ["x^3 + a", "x*y + a*y^2 + 1"]),
+    ],
+)
 def test_points_over_an_extension_agree_with_brute_force_in_galois(base, over, equations):
     S = fw.Space(on_galois_modulus(base), "x, y").system(equations)
     target = on_galois_modulus(over)
@@ -372,22 +379,31 @@ def test_a_generator_name_in_a_prime_field_is_an_error(tmp_path):
 
 # --- lex bases by the change of order ---------------------------------------------------------
 
+
 def test_a_lex_basis_of_a_zero_dimensional_system_comes_from_the_change_of_order():
     # Katsura-3 over GF(32003), zero-dimensional: its lex basis equals sympy's
     # (groebner(..., order="lex", modulus=32003)).
     names = "x0, x1, x2, x3"
-    eqs = ["x0 + 2*x1 + 2*x2 + 2*x3 - 1", "x0^2 + 2*x1^2 + 2*x2^2 + 2*x3^2 - x0",
-           "2*x0*x1 + 2*x1*x2 + 2*x2*x3 - x1", "x1^2 + 2*x0*x2 + 2*x1*x3 - x2"]
+    eqs = [
+        "x0 + 2*x1 + 2*x2 + 2*x3 - 1",
+        "x0^2 + 2*x1^2 + 2*x2^2 + 2*x3^2 - x0",
+        "2*x0*x1 + 2*x1*x2 + 2*x2*x3 - x1",
+        "x1^2 + 2*x0*x2 + 2*x1*x3 - x2",
+    ]
     lex = fw.Space(32003, names, order="lex").system(eqs).basis()
     assert "FGLM" in lex.stats.choice
     symbols = sympy.symbols(names.replace(",", ""))
-    reference = sympy.groebner([sympy.sympify(e.replace("^", "**")) for e in eqs], *symbols,
-                               order="lex", modulus=32003)
+    reference = sympy.groebner(
+        [sympy.sympify(e.replace("^", "**")) for e in eqs], *symbols, order="lex", modulus=32003
+    )
     ours = [sympy.Poly(sympy.sympify(str(g).replace("^", "**")), *symbols, modulus=32003) for g in lex]
-    assert [g.monic() for g in ours] == [sympy.Poly(g, *symbols, modulus=32003).monic() for g in reference.exprs]
+    assert [g.monic() for g in ours] == [
+        sympy.Poly(g, *symbols, modulus=32003).monic() for g in reference.exprs
+    ]
 
 
 # --- command line and batch -------------------------------------------------------------------
+
 
 def write(tmp_path, text, name="s.txt"):
     path = tmp_path / name
@@ -430,7 +446,7 @@ def test_solve_points_in_the_generator_and_exit_statuses(tmp_path, capsys):
     # a^2 = -1, so a^4 = 1: a lies in the subgroup of order 4 of GF(9)^*, the squares
     assert out[0] == f"{path}: 2 points over GF(3^2)"
     squares = fw.Space("GF(9)", "x").system(["x^2 - a"])
-    for line in out[1:1 + len(list(squares.points()))]:
+    for line in out[1 : 1 + len(list(squares.points()))]:
         value = line.split(" = ", 1)[1]
         assert str(fw.Space("GF(9)", "x").parse(f"({value})^2")) == "a"
     rational = write(tmp_path, "field: Q\nvariables: x, y\nx^2 - y\n", "q.txt")
@@ -442,8 +458,16 @@ def test_solve_points_in_the_generator_and_exit_statuses(tmp_path, capsys):
 def test_batch_task_solutions(tmp_path):
     from fibrewise.jobs import check_job, run_job
 
-    job = check_job({"id": 1, "field": "GF(5)", "variables": ["x", "y"], "polynomials": ["x*y - 1"],
-                     "tasks": ["solutions", "points"], "limit": 3})
+    job = check_job(
+        {
+            "id": 1,
+            "field": "GF(5)",
+            "variables": ["x", "y"],
+            "polynomials": ["x*y - 1"],
+            "tasks": ["solutions", "points"],
+            "limit": 3,
+        }
+    )
     record = run_job(job)
     assert record["status"] == "ok"
     assert record["result"]["solutions"]["truncated"] is True  # xy = 1 has 4 points over GF(5)
@@ -452,6 +476,11 @@ def test_batch_task_solutions(tmp_path):
         assert int(x) * int(y) % 5 == 1
     full = run_job(check_job({**job, "limit": 10}))
     assert full["result"]["solutions"]["truncated"] is False
-    assert sorted(map(tuple, full["result"]["solutions"]["points"])) == [("1", "1"), ("2", "3"), ("3", "2"), ("4", "4")]
+    assert sorted(map(tuple, full["result"]["solutions"]["points"])) == [
+        ("1", "1"),
+        ("2", "3"),
+        ("3", "2"),
+        ("4", "4"),
+    ]
     with pytest.raises(ValueError, match='"limit"'):
         check_job({**job, "limit": 0})

@@ -25,9 +25,22 @@ def cargo_version() -> str:
 def test_the_wheel_installs_into_a_fresh_environment_and_runs(tmp_path):
     maturin = Path(sys.executable).parent / "maturin"
     # The same interpreter as `maturin develop` used, so that the build reuses its compiled crates.
-    subprocess.run([str(maturin), "build", "--release", "--quiet", "--interpreter", sys.executable,
-                    "--out", str(tmp_path / "dist")],
-                   cwd=ROOT, check=True, capture_output=True, timeout=1800)
+    subprocess.run(
+        [
+            str(maturin),
+            "build",
+            "--release",
+            "--quiet",
+            "--interpreter",
+            sys.executable,
+            "--out",
+            str(tmp_path / "dist"),
+        ],
+        cwd=ROOT,
+        check=True,
+        capture_output=True,
+        timeout=1800,
+    )
     (wheel,) = (tmp_path / "dist").glob("fibrewise-*.whl")
     version = cargo_version()
     assert wheel.name.startswith(f"fibrewise-{version}-cp310-abi3-"), wheel.name
@@ -36,17 +49,43 @@ def test_the_wheel_installs_into_a_fresh_environment_and_runs(tmp_path):
     python = env_dir / "bin" / "python"
     # The run-time dependencies (numpy, galois) come from the test environment, so the test
     # needs no network; fibrewise itself comes only from the wheel.
-    site = subprocess.run([str(python), "-c", "import sysconfig; print(sysconfig.get_paths()['purelib'])"],
-                          check=True, capture_output=True, text=True).stdout.strip()
+    site = subprocess.run(
+        [str(python), "-c", "import sysconfig; print(sysconfig.get_paths()['purelib'])"],
+        check=True,
+        capture_output=True,
+        text=True,
+    ).stdout.strip()
     Path(site, "test-dependencies.pth").write_text(sysconfig.get_paths()["purelib"] + "\n")
-    subprocess.run([str(python), "-m", "pip", "install", "--quiet", "--no-deps", "--no-index", str(wheel)],
-                   check=True, capture_output=True, timeout=600)
+    subprocess.run(
+        [str(python), "-m", "pip", "install", "--quiet", "--no-deps", "--no-index", str(wheel)],
+        check=True,
+        capture_output=True,
+        timeout=600,
+    )
     clean = {k: v for k, v in os.environ.items() if k not in ("VIRTUAL_ENV", "PYTHONPATH")}
-    where = subprocess.run([str(python), "-c", "import fibrewise; print(fibrewise.__version__, fibrewise.__file__)"],
-                           check=True, capture_output=True, text=True, cwd=tmp_path, env=clean).stdout.split()
+    where = subprocess.run(
+        [str(python), "-c", "import fibrewise; print(fibrewise.__version__, fibrewise.__file__)"],
+        check=True,
+        capture_output=True,
+        text=True,
+        cwd=tmp_path,
+        env=clean,
+    ).stdout.split()
     assert where[0] == version and where[1].startswith(str(env_dir)), where
-    done = subprocess.run([str(env_dir / "bin" / "fibrewise"), "analyze", str(ROOT / "examples" / "curve_code_gf7.txt"),
-                           "--json", "-q"], capture_output=True, text=True, cwd=tmp_path, env=clean, timeout=600)
+    done = subprocess.run(
+        [
+            str(env_dir / "bin" / "fibrewise"),
+            "analyze",
+            str(ROOT / "examples" / "curve_code_gf7.txt"),
+            "--json",
+            "-q",
+        ],
+        capture_output=True,
+        text=True,
+        cwd=tmp_path,
+        env=clean,
+        timeout=600,
+    )
     assert done.returncode == 0, done.stderr
     result = json.loads(done.stdout)
     # y^2 = x^3 + 3x + 2 over GF(7): a plane cubic (dimension 1, degree 3) with 8 affine points,

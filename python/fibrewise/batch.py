@@ -63,7 +63,9 @@ def read_jobs(path: str) -> list[dict]:
                 raise BatchInputError(f"{path}:{number}: {e}") from None
             key = _id_key(job["id"])
             if key in first_line:
-                raise BatchInputError(f"{path}:{number}: duplicate id {key} (first on line {first_line[key]})")
+                raise BatchInputError(
+                    f"{path}:{number}: duplicate id {key} (first on line {first_line[key]})"
+                )
             first_line[key] = number
             jobs.append(job)
     except UnicodeDecodeError as e:
@@ -112,18 +114,24 @@ def read_results(path: str) -> list[tuple[dict, bytes]]:
             elif not raw.endswith(b"\n") and _torn(raw):
                 torn_line, torn_offset = number, start
             elif _is_later_good(handle):
-                raise BatchInputError(f"{path}:{number}: damaged result line before good ones; "
-                                      "remove or fix it, then rerun")
+                raise BatchInputError(
+                    f"{path}:{number}: damaged result line before good ones; remove or fix it, then rerun"
+                )
             else:
-                raise BatchInputError(f"{path}:{number}: not a result line ({_snippet(raw)}); the file is "
-                                      "left as it is: is it the right output file? Fix or remove that line, "
-                                      "or write to another file")
+                raise BatchInputError(
+                    f"{path}:{number}: not a result line ({_snippet(raw)}); the file is "
+                    "left as it is: is it the right output file? Fix or remove that line, "
+                    "or write to another file"
+                )
     if torn_line is not None:
         with open(path, "r+b") as handle:
             handle.truncate(torn_offset)
             os.fsync(handle.fileno())
-        print(f"fibrewise batch: {path}:{torn_line}: dropped a torn last line left by an "
-              "interrupted run; that job runs again", file=sys.stderr)
+        print(
+            f"fibrewise batch: {path}:{torn_line}: dropped a torn last line left by an "
+            "interrupted run; that job runs again",
+            file=sys.stderr,
+        )
     return records
 
 
@@ -339,12 +347,21 @@ class Sandbox:
 
         self.errors = tempfile.TemporaryFile()  # the worker's stderr, read if it dies
         # One core per job; numeric libraries must not start thread pools of their own either.
-        env = dict(os.environ, RAYON_NUM_THREADS="1", OPENBLAS_NUM_THREADS="1", OMP_NUM_THREADS="1",
-                   RUST_BACKTRACE="0")
+        env = dict(
+            os.environ,
+            RAYON_NUM_THREADS="1",
+            OPENBLAS_NUM_THREADS="1",
+            OMP_NUM_THREADS="1",
+            RUST_BACKTRACE="0",
+        )
         self.process = subprocess.Popen(
             [sys.executable, "-c", WORKER_CODE, str(self.memory_bytes or 0), str(self.budget or 0)],
-            stdin=subprocess.PIPE, stdout=subprocess.PIPE, stderr=self.errors, env=env,
-            start_new_session=True)
+            stdin=subprocess.PIPE,
+            stdout=subprocess.PIPE,
+            stderr=self.errors,
+            env=env,
+            start_new_session=True,
+        )
         self.unread = bytearray()
         for _, line in self.jobs:  # after a restart: the jobs waiting in the old one's input
             self._send(line)
@@ -384,22 +401,27 @@ class Sandbox:
         data = os.read(self.fileno(), 1 << 20)
         if not data:
             job, _ = self.jobs.popleft()
-            record = {"id": job["id"], "status": "error", "error": self._death_message(), "seconds": None,
-                      **self._tasks_so_far()}
+            record = {
+                "id": job["id"],
+                "status": "error",
+                "error": self._death_message(),
+                "seconds": None,
+                **self._tasks_so_far(),
+            }
             self.restart()
             return [Finished.of(record)]
         self.unread += data
         finished, start = [], 0
-        while (end := self.unread.find(b"\n", start) + 1):
+        while end := self.unread.find(b"\n", start) + 1:
             tab = self.unread.index(b"\t", start)
             kind = bytes(self.unread[start:tab])
             if kind == PARTIAL:
-                name, value = json.loads(self.unread[tab + 1:end])
+                name, value = json.loads(self.unread[tab + 1 : end])
                 self.finished_tasks[name] = value
             else:
                 self.jobs.popleft()
                 self.finished_tasks = {}
-                finished.append(Finished(kind.decode("ascii"), bytes(self.unread[tab + 1:end])))
+                finished.append(Finished(kind.decode("ascii"), bytes(self.unread[tab + 1 : end])))
             start = end
         del self.unread[:start]
         if finished:
@@ -448,9 +470,13 @@ class Sandbox:
         if finished and (self.deadline is None or self.deadline > time.monotonic()):
             return finished  # the running job answered in time; the next one has its own clock
         job, _ = self.jobs.popleft()
-        record = {"id": job["id"], "status": "timeout",
-                  "error": f"over the time limit of {self.timeout:g} s", "seconds": self.timeout,
-                  **self._tasks_so_far()}
+        record = {
+            "id": job["id"],
+            "status": "timeout",
+            "error": f"over the time limit of {self.timeout:g} s",
+            "seconds": self.timeout,
+            **self._tasks_so_far(),
+        }
         self.restart()
         return finished + [Finished.of(record)]
 
@@ -516,8 +542,9 @@ def readable(sandboxes: list[Sandbox], timeout: float | None) -> list[Sandbox]:
     return wait(sandboxes, timeout)  # type: ignore[arg-type, return-value]
 
 
-def run_local(jobs: list[dict], workers: int, timeout: float | None,
-              memory_bytes: int | None) -> Generator[Finished, None, None]:
+def run_local(
+    jobs: list[dict], workers: int, timeout: float | None, memory_bytes: int | None
+) -> Generator[Finished, None, None]:
     """The finished jobs, in completion order, from a pool of ``workers`` sandboxes."""
     if not jobs:
         return
@@ -599,13 +626,15 @@ def dask_client(address: str) -> Any:
     try:
         from distributed import Client
     except ImportError:
-        raise RuntimeError("--scheduler needs the optional packages dask and distributed "
-                           "(pip install dask distributed)") from None
+        raise RuntimeError(
+            "--scheduler needs the optional packages dask and distributed (pip install dask distributed)"
+        ) from None
     return Client(address, timeout="30s")
 
 
-def run_dask(jobs: list[dict], address: str, timeout: float | None,
-             memory_bytes: int | None) -> Generator[Finished | Lost, None, None]:
+def run_dask(
+    jobs: list[dict], address: str, timeout: float | None, memory_bytes: int | None
+) -> Generator[Finished | Lost, None, None]:
     """The finished and the lost jobs, in completion order, computed on the Dask cluster at
     ``address``."""
     from functools import partial
@@ -665,9 +694,18 @@ class _Stop(BaseException):
     """SIGTERM turned into an exception so that the run ends through its cleanup code."""
 
 
-def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
-              timeout: float | None = None, memory_mb: int | None = None, memory_bytes: int | None = None,
-              scheduler: str | None = None, quiet: bool = False, retry_failed: bool = False) -> BatchSummary:
+def run_batch(
+    input_path: str,
+    output_path: str,
+    *,
+    workers: int | None = None,
+    timeout: float | None = None,
+    memory_mb: int | None = None,
+    memory_bytes: int | None = None,
+    scheduler: str | None = None,
+    quiet: bool = False,
+    retry_failed: bool = False,
+) -> BatchSummary:
     """Runs every job of ``input_path`` not yet in ``output_path`` and appends its record there.
     With ``retry_failed``, jobs whose line says error or timeout run again too, and their new
     line replaces the old one (one line per id).
@@ -679,8 +717,9 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
     from .progress import Progress
 
     if _same_file(input_path, output_path):
-        raise BatchInputError(f"{output_path}: the output file is the input file {input_path}; "
-                              "results go to another file (-o)")
+        raise BatchInputError(
+            f"{output_path}: the output file is the input file {input_path}; results go to another file (-o)"
+        )
     jobs = read_jobs(input_path)
     output = ResultFile(output_path)
     try:
@@ -688,15 +727,19 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
         # only jobs of this input: a failed line of another job is not ours to drop
         retried = _failed_ids(results) & {_id_key(job["id"]) for job in jobs} if retry_failed else set()
         if retried:
-            output = output.rewritten([line for record, line in results
-                                       if _id_key(record["id"]) not in retried])
+            output = output.rewritten(
+                [line for record, line in results if _id_key(record["id"]) not in retried]
+            )
     except BatchInputError:
         output.close()
         raise
     done = {_id_key(record["id"]) for record, _ in results} - retried
     todo = [job for job in jobs if _id_key(job["id"]) not in done]
-    summary = BatchSummary(total=len(jobs), skipped=len(jobs) - len(todo),
-                           retried=sum(_id_key(job["id"]) in retried for job in jobs))
+    summary = BatchSummary(
+        total=len(jobs),
+        skipped=len(jobs) - len(todo),
+        retried=sum(_id_key(job["id"]) in retried for job in jobs),
+    )
     memory_bytes = memory_bytes or (memory_mb << 20 if memory_mb else None)
     start = time.monotonic()
     progress = Progress(len(todo), quiet=quiet)
@@ -710,8 +753,11 @@ def run_batch(input_path: str, output_path: str, *, workers: int | None = None,
         for item in records:
             if isinstance(item, Lost):
                 summary.lost += 1
-                print(f"fibrewise batch: job {json.dumps(item.id)} lost by the cluster "
-                      f"({item.error}); it runs again on resume", file=sys.stderr)
+                print(
+                    f"fibrewise batch: job {json.dumps(item.id)} lost by the cluster "
+                    f"({item.error}); it runs again on resume",
+                    file=sys.stderr,
+                )
             else:
                 output.append(item.line)
                 setattr(summary, item.status, getattr(summary, item.status) + 1)
@@ -754,4 +800,3 @@ def _on_sigterm():
         raise _Stop()
 
     return signal.signal(signal.SIGTERM, stop)
-

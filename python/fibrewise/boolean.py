@@ -47,7 +47,12 @@ class MethodChoice:
         return cls(d["method"], d["guess"], d["reason"], dict(d["estimates"]))
 
     def to_dict(self) -> dict:
-        return {"method": self.method, "guess": self.guess, "reason": self.reason, "estimates": self.estimates}
+        return {
+            "method": self.method,
+            "guess": self.guess,
+            "reason": self.reason,
+            "estimates": self.estimates,
+        }
 
     def __str__(self) -> str:
         return f"{self.method}: {self.reason}"
@@ -75,14 +80,18 @@ def check_method(method: object) -> str:
     """``method`` if it is a str; the core checks the name (``auto``, ``exhaustive``, ``basis``,
     ``hybrid``, or ``hybrid:K`` to guess K variables)."""
     if not isinstance(method, str):
-        raise TypeError(f"method must be a str (one of {', '.join(METHOD_NAMES)}), not {type(method).__name__}")
+        raise TypeError(
+            f"method must be a str (one of {', '.join(METHOD_NAMES)}), not {type(method).__name__}"
+        )
     return method
 
 
 def _require_boolean(system: "System", what: str) -> None:
     if not system.space.boolean:
-        raise ValueError(f"{what} is for Boolean systems (Space(..., boolean=True) or 'boolean: yes'); "
-                         f"this system is over {system.space.field} without the field equations")
+        raise ValueError(
+            f"{what} is for Boolean systems (Space(..., boolean=True) or 'boolean: yes'); "
+            f"this system is over {system.space.field} without the field equations"
+        )
 
 
 def _native_space(space: "Space") -> _native.NativeBooleanSpace:
@@ -106,8 +115,15 @@ def general_space(space: "Space") -> "Space":
 # --- bases --------------------------------------------------------------------------------------
 
 
-def basis(system: "System", order: "Order | None", engine: str, field_equations: bool,
-          max_degree: int | None, max_matrix: int | None, threads: int | None) -> ReducedBasis:
+def basis(
+    system: "System",
+    order: "Order | None",
+    engine: str,
+    field_equations: bool,
+    max_degree: int | None,
+    max_matrix: int | None,
+    threads: int | None,
+) -> ReducedBasis:
     """The reduced Boolean Gröbner basis (``System.basis`` on a Boolean space); with
     ``field_equations``, the reduced Gröbner basis of the ideal with the field equations, as
     polynomials of ``general_space`` (x^2 + x is not a polynomial of the Boolean space)."""
@@ -117,16 +133,19 @@ def basis(system: "System", order: "Order | None", engine: str, field_equations:
     check_boolean_flag(field_equations)
     if engine != "auto":
         raise ValueError(f"a Boolean system has one engine, the Boolean F4 (engine='auto'), not {engine!r}")
-    limits = (_optional_count("max_degree", max_degree, 0, 2**32 - 1),
-              _optional_count("max_matrix", max_matrix, 1, 2**64 - 1))
+    limits = (
+        _optional_count("max_degree", max_degree, 0, 2**32 - 1),
+        _optional_count("max_matrix", max_matrix, 1, 2**64 - 1),
+    )
     threads = _optional_count("threads", threads, 1, 4096)
     space = system.space if order is None else system.space.with_order(order)
     key = system._basis_key(space.order, "boolean")
     limited = limits != (None, None)
     gb = None if limited else system._bases.get(key)
     if gb is None:
-        polys, stats = _native_space(space).basis(_gens(system), max_degree=limits[0], max_matrix=limits[1],
-                                            threads=threads)
+        polys, stats = _native_space(space).basis(
+            _gens(system), max_degree=limits[0], max_matrix=limits[1], threads=threads
+        )
         gb = ReducedBasis(space, [Polynomial(space, p) for p in polys], GroebnerStats._from_native(stats))
         if not limited:
             system._bases[key] = gb
@@ -166,11 +185,14 @@ def choose_method(system: "System", method: str = "auto", threads: int | None = 
     _require_boolean(system, "solve_method()")
     check_method(method)
     threads = _optional_count("threads", threads, 1, 4096)
-    return MethodChoice._from_native(_native_space(system.space).choose_method(_gens(system), method, threads))
+    return MethodChoice._from_native(
+        _native_space(system.space).choose_method(_gens(system), method, threads)
+    )
 
 
-def solve(system: "System", method: str = "auto", limit: int | None = None,
-          threads: int | None = None) -> BooleanSolutions:
+def solve(
+    system: "System", method: str = "auto", limit: int | None = None, threads: int | None = None
+) -> BooleanSolutions:
     """The solutions in GF(2)^n (at most ``limit``; all when None, up to 2^26 of them: beyond,
     ``fibrewise.ResourceLimit`` asks for a count or a limit) by ``method``."""
     _require_boolean(system, "solve")
@@ -178,13 +200,17 @@ def solve(system: "System", method: str = "auto", limit: int | None = None,
     limit = _optional_count("limit", limit, 0, 2**63 - 1)
     threads = _optional_count("threads", threads, 1, 4096)
     points, count, choice, stats = _native_space(system.space).solve(_gens(system), method, limit, threads)
-    return BooleanSolutions([tuple(p) for p in points], None if count is None else int(count),
-                            MethodChoice._from_native(choice),
-                            None if stats is None else GroebnerStats._from_native(stats))
+    return BooleanSolutions(
+        [tuple(p) for p in points],
+        None if count is None else int(count),
+        MethodChoice._from_native(choice),
+        None if stats is None else GroebnerStats._from_native(stats),
+    )
 
 
-def points(system: "System", over: "FieldSpec | None" = None, limit: int | None = None,
-           method: str = "auto") -> Iterator[tuple[int, ...]]:
+def points(
+    system: "System", over: "FieldSpec | None" = None, limit: int | None = None, method: str = "auto"
+) -> Iterator[tuple[int, ...]]:
     """``System.points`` on a Boolean space: the solutions as tuples of 0/1 values."""
     _check_over(system, over)
     return iter(solve(system, method=method, limit=limit).points)
@@ -209,8 +235,10 @@ def count_points(system: "System", over: "FieldSpec | None", projective: bool, m
     if not isinstance(projective, bool):
         raise TypeError(f"projective must be a bool, not {type(projective).__name__}")
     if projective:
-        raise ValueError("projective points are not defined for a Boolean system: the field equations "
-                         "x^2 + x are not homogeneous")
+        raise ValueError(
+            "projective points are not defined for a Boolean system: the field equations "
+            "x^2 + x are not homogeneous"
+        )
     _check_over(system, over)
     return count(system, method=method)
 
@@ -236,9 +264,15 @@ def solve_command(system: "System", method: str, limit: int | None, activity: An
     start = time.perf_counter()
     found = solve(system, method=method, limit=limit)
     seconds = time.perf_counter() - start
-    return {"points": [[str(v) for v in p] for p in found.points], "count": found.count,
-            "complete": found.count is not None, "limit": limit, "method": found.choice.to_dict(),
-            "seconds": seconds, "stats": None if found.stats is None else found.stats.to_dict()}
+    return {
+        "points": [[str(v) for v in p] for p in found.points],
+        "count": found.count,
+        "complete": found.count is not None,
+        "limit": limit,
+        "method": found.choice.to_dict(),
+        "seconds": seconds,
+        "stats": None if found.stats is None else found.stats.to_dict(),
+    }
 
 
 def render_solve(result: dict) -> str:
@@ -247,13 +281,21 @@ def render_solve(result: dict) -> str:
     from .report import aligned, plural, seconds
 
     count, shown = result["count"], len(result["points"])
-    found = plural(count, "solution") if count is not None else f"at least {plural(shown, 'solution')} (stopped at the limit)"
+    found = (
+        plural(count, "solution")
+        if count is not None
+        else f"at least {plural(shown, 'solution')} (stopped at the limit)"
+    )
     method = result["method"]
     how = method["method"] + (f" (guessing {method['guess']} variables)" if method.get("guess") else "")
-    rows = [("field", f"{result['field']}, Boolean (v^2 = v)"),
-            ("variables", f"{', '.join(result['variables'])}  (order {result['order']})"),
-            ("polynomials", result["polynomials"]), ("method", how), ("why", method["reason"]),
-            ("time", seconds(result["seconds"]))]
+    rows = [
+        ("field", f"{result['field']}, Boolean (v^2 = v)"),
+        ("variables", f"{', '.join(result['variables'])}  (order {result['order']})"),
+        ("polynomials", result["polynomials"]),
+        ("method", how),
+        ("why", method["reason"]),
+        ("time", seconds(result["seconds"])),
+    ]
     lines = [f"{result['file']}: {found} in GF(2)^{len(result['variables'])}", aligned(rows)]
     if shown:
         lines.append(f"solutions (the values of {_name_span(result['variables'])}, in that order):")

@@ -38,8 +38,14 @@ def _timed(call: Callable[[], Any]) -> tuple[Any, float]:
 
 def _header(system) -> dict:
     space = system.space
-    return {"file": system.path, "field": str(space.field), "variables": list(space.names),
-            "order": str(space.order), "polynomials": len(system.equations), "boolean": space.boolean}
+    return {
+        "file": system.path,
+        "field": str(space.field),
+        "variables": list(space.names),
+        "order": str(space.order),
+        "polynomials": len(system.equations),
+        "boolean": space.boolean,
+    }
 
 
 # ----------------------------------------------------------------------------------------------
@@ -50,9 +56,16 @@ def _basis(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
     order = args.order or system.space.order
     activity.set_step("Groebner basis")
-    gb, seconds = _timed(lambda: system.basis(order, engine=args.engine, field_equations=args.field_equations))
-    return {**_header(system), "order": str(order), "basis": [str(g) for g in gb],
-            "seconds": seconds, "stats": gb.stats.to_dict()}
+    gb, seconds = _timed(
+        lambda: system.basis(order, engine=args.engine, field_equations=args.field_equations)
+    )
+    return {
+        **_header(system),
+        "order": str(order),
+        "basis": [str(g) for g in gb],
+        "seconds": seconds,
+        "stats": gb.stats.to_dict(),
+    }
 
 
 # ----------------------------------------------------------------------------------------------
@@ -86,8 +99,12 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
     result["basis"] = {"size": len(gb), "max_degree": gb.stats.max_degree, "engine": gb.stats.engine}
     dim = part("dimension", "dimension", system.dimension)
     if dim is not None and dim >= 0:
-        part("independent_variables", "independent variables",
-             lambda: [str(v) for v in system.independent_variables()], stage="dimension")
+        part(
+            "independent_variables",
+            "independent variables",
+            lambda: [str(v) for v in system.independent_variables()],
+            stage="dimension",
+        )
         part("degree", "degree", system.degree, stage="hilbert")
         part("hilbert", "Hilbert series", lambda: _hilbert(system))
         if dim == 0:
@@ -127,10 +144,13 @@ def _check_plotting() -> None:
 
 def _hilbert(system) -> dict:
     series = system.hilbert()
-    return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent,
-            "graded": series.graded,
-            "polynomial": [_json_number(c) for c in series.polynomial()],
-            "regularity_index": series.regularity_index()}
+    return {
+        "numerator": list(series.numerator),
+        "denominator_exponent": series.denominator_exponent,
+        "graded": series.graded,
+        "polynomial": [_json_number(c) for c in series.polynomial()],
+        "regularity_index": series.regularity_index(),
+    }
 
 
 def _json_number(c) -> int | str:
@@ -157,18 +177,23 @@ def _cheap_points(system, args, result: dict) -> Callable[[], dict] | None:
         result["points_skipped"] = "--no-points"
         return None
     if args.points is None and dim != 0:
-        bound = None if degree is None else degree * q ** dim
+        bound = None if degree is None else degree * q**dim
         if bound is None or bound > CHEAP_POINTS:
-            result["points_skipped"] = f"up to {bound} points; run 'fibrewise points' to count them" \
-                if bound is not None else "no degree to bound the count; run 'fibrewise points'"
+            result["points_skipped"] = (
+                f"up to {bound} points; run 'fibrewise points' to count them"
+                if bound is not None
+                else "no degree to bound the count; run 'fibrewise points'"
+            )
             return None
     if args.points is None and dim == 0 and len(system.space.names) > 1:
         # The count works in R/I, a space of dimension deg I: beyond a few hundred that can be
         # minutes (shape-position systems are fast, but that is not known beforehand).
         size = result.get("quotient_dimension", degree)
         if size is None or size > CHEAP_QUOTIENT:
-            result["points_skipped"] = (f"the quotient ring has dimension {size}, above {CHEAP_QUOTIENT}; "
-                                        "run 'fibrewise points' (or analyze --points) to count them")
+            result["points_skipped"] = (
+                f"the quotient ring has dimension {size}, above {CHEAP_QUOTIENT}; "
+                "run 'fibrewise points' (or analyze --points) to count them"
+            )
             return None
 
     def count() -> dict:
@@ -232,10 +257,17 @@ def _integral(args: argparse.Namespace, activity) -> dict:
     over = [_polynomial(system.space, g, "--over") for g in args.over]
     activity.set_step("integral equation")
     equation, seconds = _timed(lambda: system.integral_equation(element, over=over))
-    result = {**_header(system), "element": str(element), "over": [str(g) for g in over],
-              "integral": equation is not None, "seconds": seconds}
+    result = {
+        **_header(system),
+        "element": str(element),
+        "over": [str(g) for g in over],
+        "integral": equation is not None,
+        "seconds": seconds,
+    }
     if equation is not None:
-        result.update(equation=str(equation), degree=equation.degree, coefficients=list(map(str, equation.coefficients)))
+        result.update(
+            equation=str(equation), degree=equation.degree, coefficients=list(map(str, equation.coefficients))
+        )
     return result
 
 
@@ -259,7 +291,9 @@ def _solve(args: argparse.Namespace, activity) -> dict:
     system = _system(args)
     if system.space.boolean:
         if args.over is not None or args.closed_points:
-            raise ValueError(f"{system.path}: --over and --closed-points are for systems that are not Boolean")
+            raise ValueError(
+                f"{system.path}: --over and --closed-points are for systems that are not Boolean"
+            )
         from .boolean import solve_command as solve_boolean
 
         return {**_header(system), **solve_boolean(system, args.method, args.limit, activity)}
@@ -297,7 +331,9 @@ def _check(args: argparse.Namespace, activity) -> dict:
         raise ValueError(f"{args.certificate}: a certificate is a JSON object, not {type(saved).__name__}")
     if isinstance(saved.get("certificate"), dict) and "dimension" not in saved:
         saved = saved["certificate"]  # the output of 'fibrewise normalize --json' as it is
-    certificate = {key: value for key, value in saved.items() if key != "system"}  # "system": where it came from
+    certificate = {
+        key: value for key, value in saved.items() if key != "system"
+    }  # "system": where it came from
     from .normalization import check_certificate
 
     activity.set_step("checking the certificate")
@@ -306,8 +342,13 @@ def _check(args: argparse.Namespace, activity) -> dict:
         valid, problems = verdict(outcome)
     except ValueError as e:  # an unreadable certificate
         valid, problems, seconds = False, [str(e)], None
-    return {**_header(system), "certificate": args.certificate, "valid": valid, "problems": problems,
-            "seconds": seconds}
+    return {
+        **_header(system),
+        "certificate": args.certificate,
+        "valid": valid,
+        "problems": problems,
+        "seconds": seconds,
+    }
 
 
 def verdict(outcome: Any) -> tuple[bool, list[str]]:
@@ -326,7 +367,9 @@ def _read_json(path: str) -> Any:
         text = data.decode("utf-8-sig")
     except UnicodeDecodeError as e:
         line = data.count(b"\n", 0, e.start) + 1
-        raise ValueError(f"{path}:{line}: not UTF-8 text (byte 0x{data[e.start]:02x} at offset {e.start})") from None
+        raise ValueError(
+            f"{path}:{line}: not UTF-8 text (byte 0x{data[e.start]:02x} at offset {e.start})"
+        ) from None
     try:
         return json.loads(text)
     except json.JSONDecodeError as e:
@@ -356,9 +399,16 @@ def _curve(args: argparse.Namespace, activity) -> dict:
 def _batch(args: argparse.Namespace, activity) -> dict:
     from .batch import run_batch
 
-    summary = run_batch(args.file, args.output, workers=args.workers, timeout=args.timeout,
-                        memory_bytes=args.memory, scheduler=args.scheduler, quiet=args.quiet,
-                        retry_failed=args.retry_failed)
+    summary = run_batch(
+        args.file,
+        args.output,
+        workers=args.workers,
+        timeout=args.timeout,
+        memory_bytes=args.memory,
+        scheduler=args.scheduler,
+        quiet=args.quiet,
+        retry_failed=args.retry_failed,
+    )
     return {"input": args.file, "output": args.output, **summary.to_dict()}
 
 
@@ -369,29 +419,59 @@ def _batch(args: argparse.Namespace, activity) -> dict:
 FILE_HELP = "system file (field:, variables:, order: headers, then one polynomial a line)"
 
 SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
-    "analyze": ("dimension, degree, Hilbert series, a finite projection and, where cheap, the point count",
-                "example: fibrewise analyze examples/curve_code_gf7.txt --plot steps.png", _analyze),
-    "basis": ("reduced Groebner basis of a system file",
-              "example: fibrewise basis examples/toy_cipher_gf101.txt --order lex", _basis),
-    "normalize": ("finite projection (Noether normalization) with its certificate",
-                  "example: fibrewise normalize examples/curve_code_gf7.txt -o cert.json", _normalize),
-    "integral": ("is an element integral over a subalgebra, and its monic equation",
-                 "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x", _integral),
-    "points": ("number of points with coordinates in the (finite) field",
-               "example: fibrewise points examples/curve_code_gf7_projective.txt --projective", _points),
-    "solve": ("the points with coordinates in the field (finite, or Q for zero-dimensional systems), one per line, "
-              "each checked in every equation "
-              "(Boolean files: exhaustive search, a basis or a hybrid, --method)",
-              "example: fibrewise solve examples/toy_cipher_gf101.txt", _solve),
-    "plan": ("guess-and-determine plan: for k guessed variables, the measured cost of one specialised system, "
-             "q^k, the expected total and the best k",
-             "example: fibrewise plan examples/toy_cipher_gf101.txt --max-guess 2 --plot plan.png", _plan),
-    "curve": ("smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",
-              "example: fibrewise curve examples/curve_genus2_gf16.txt --up-to 4", _curve),
-    "check": ("verify a saved projection certificate against the system file",
-              "example: fibrewise check cert.json examples/curve_code_gf7.txt", _check),
-    "batch": ("run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
-              "example: fibrewise batch examples/batch.jsonl -o results.jsonl --timeout 10", _batch),
+    "analyze": (
+        "dimension, degree, Hilbert series, a finite projection and, where cheap, the point count",
+        "example: fibrewise analyze examples/curve_code_gf7.txt --plot steps.png",
+        _analyze,
+    ),
+    "basis": (
+        "reduced Groebner basis of a system file",
+        "example: fibrewise basis examples/toy_cipher_gf101.txt --order lex",
+        _basis,
+    ),
+    "normalize": (
+        "finite projection (Noether normalization) with its certificate",
+        "example: fibrewise normalize examples/curve_code_gf7.txt -o cert.json",
+        _normalize,
+    ),
+    "integral": (
+        "is an element integral over a subalgebra, and its monic equation",
+        "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x",
+        _integral,
+    ),
+    "points": (
+        "number of points with coordinates in the (finite) field",
+        "example: fibrewise points examples/curve_code_gf7_projective.txt --projective",
+        _points,
+    ),
+    "solve": (
+        "the points with coordinates in the field (finite, or Q for zero-dimensional systems), one per line, "
+        "each checked in every equation "
+        "(Boolean files: exhaustive search, a basis or a hybrid, --method)",
+        "example: fibrewise solve examples/toy_cipher_gf101.txt",
+        _solve,
+    ),
+    "plan": (
+        "guess-and-determine plan: for k guessed variables, the measured cost of one specialised system, "
+        "q^k, the expected total and the best k",
+        "example: fibrewise plan examples/toy_cipher_gf101.txt --max-guess 2 --plot plan.png",
+        _plan,
+    ),
+    "curve": (
+        "smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",
+        "example: fibrewise curve examples/curve_genus2_gf16.txt --up-to 4",
+        _curve,
+    ),
+    "check": (
+        "verify a saved projection certificate against the system file",
+        "example: fibrewise check cert.json examples/curve_code_gf7.txt",
+        _check,
+    ),
+    "batch": (
+        "run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
+        "example: fibrewise batch examples/batch.jsonl -o results.jsonl --timeout 10",
+        _batch,
+    ),
 }
 
 
@@ -426,8 +506,11 @@ def _stages(text: str) -> tuple[str, ...]:
     stages = tuple(s.strip() for s in text.split(",") if s.strip())
     unknown = [s for s in stages if s not in ANALYZE_STAGES]
     if unknown or not stages:
-        raise argparse.ArgumentTypeError(f"unknown stage {unknown[0]!r}: expected {', '.join(ANALYZE_STAGES)}"
-                                         if unknown else "expected stage names")
+        raise argparse.ArgumentTypeError(
+            f"unknown stage {unknown[0]!r}: expected {', '.join(ANALYZE_STAGES)}"
+            if unknown
+            else "expected stage names"
+        )
     return stages
 
 
@@ -436,89 +519,197 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
     from .jobs import TASK_NAMES
 
     if name == "batch":
-        p.add_argument("file", metavar="IN.jsonl", help="one job a line: {\"id\", \"field\", \"variables\", \"polynomials\", "
-                       "\"tasks\"}; tasks: " + ", ".join(TASK_NAMES))
-        p.add_argument("-o", "--output", metavar="OUT.jsonl", required=True,
-                       help="results, one line a job; ids already there are skipped (resume)")
-        p.add_argument("--workers", type=_positive(int), metavar="N", help="worker processes (default: all cores)")
+        p.add_argument(
+            "file",
+            metavar="IN.jsonl",
+            help='one job a line: {"id", "field", "variables", "polynomials", '
+            '"tasks"}; tasks: ' + ", ".join(TASK_NAMES),
+        )
+        p.add_argument(
+            "-o",
+            "--output",
+            metavar="OUT.jsonl",
+            required=True,
+            help="results, one line a job; ids already there are skipped (resume)",
+        )
+        p.add_argument(
+            "--workers", type=_positive(int), metavar="N", help="worker processes (default: all cores)"
+        )
         p.add_argument("--timeout", type=_positive(float), metavar="S", help="time limit per job, in seconds")
-        p.add_argument("--memory", type=_worker_memory, metavar="SIZE",
-                       help="memory limit per worker: 4GB, 512MiB, 25%% of the machine, or a number of MiB "
-                            "(default: 3/4 of the machine's memory shared by the workers)")
-        p.add_argument("--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)")
-        p.add_argument("--retry-failed", action="store_true",
-                       help="run again the jobs whose line says error or timeout, replacing their line")
+        p.add_argument(
+            "--memory",
+            type=_worker_memory,
+            metavar="SIZE",
+            help="memory limit per worker: 4GB, 512MiB, 25%% of the machine, or a number of MiB "
+            "(default: 3/4 of the machine's memory shared by the workers)",
+        )
+        p.add_argument(
+            "--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)"
+        )
+        p.add_argument(
+            "--retry-failed",
+            action="store_true",
+            help="run again the jobs whose line says error or timeout, replacing their line",
+        )
         return
-    p.add_argument("--memory", type=_memory, metavar="SIZE",
-                   help="memory budget of the computation: 4GB, 512MiB, 50%% of the machine "
-                        "(default: 3/4 of the machine's memory); going over it is an error naming what was being built")
+    p.add_argument(
+        "--memory",
+        type=_memory,
+        metavar="SIZE",
+        help="memory budget of the computation: 4GB, 512MiB, 50%% of the machine "
+        "(default: 3/4 of the machine's memory); going over it is an error naming what was being built",
+    )
     if name == "check":
-        p.add_argument("certificate", metavar="CERT.json",
-                       help="a certificate saved by 'fibrewise normalize -o', or the output of 'normalize --json'")
+        p.add_argument(
+            "certificate",
+            metavar="CERT.json",
+            help="a certificate saved by 'fibrewise normalize -o', or the output of 'normalize --json'",
+        )
         p.add_argument("file", metavar="SYSTEM", help=FILE_HELP)
         return
     p.add_argument("file", help=FILE_HELP)
     if name == "basis":
-        p.add_argument("--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)")
-        p.add_argument("--engine", choices=list(_native.ENGINE_NAMES), default="auto",
-                       help="auto (the default: chooses per system and step, and says what it chose), f4, "
-                            "f4-sampled (faster on large systems over finite fields; "
-                            "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
-                            "only; skips most rows that reduce to zero) or buchberger (the reference)")
-        p.add_argument("--field-equations", action="store_true",
-                       help="Boolean files: include the field equations x^2 + x in the basis")
+        p.add_argument(
+            "--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)"
+        )
+        p.add_argument(
+            "--engine",
+            choices=list(_native.ENGINE_NAMES),
+            default="auto",
+            help="auto (the default: chooses per system and step, and says what it chose), f4, "
+            "f4-sampled (faster on large systems over finite fields; "
+            "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
+            "only; skips most rows that reduce to zero) or buchberger (the reference)",
+        )
+        p.add_argument(
+            "--field-equations",
+            action="store_true",
+            help="Boolean files: include the field equations x^2 + x in the basis",
+        )
     elif name == "analyze":
-        p.add_argument("--plot", metavar="FILE.png", help="draw degree and matrix size per Groebner step and the Hilbert "
-                       "function (needs matplotlib)")
-        p.add_argument("--skip", type=_stages, default=(), metavar="STAGE,...",
-                       help="stages to leave out: " + ", ".join(ANALYZE_STAGES) + " (e.g. --skip normalize,points)")
+        p.add_argument(
+            "--plot",
+            metavar="FILE.png",
+            help="draw degree and matrix size per Groebner step and the Hilbert function (needs matplotlib)",
+        )
+        p.add_argument(
+            "--skip",
+            type=_stages,
+            default=(),
+            metavar="STAGE,...",
+            help="stages to leave out: " + ", ".join(ANALYZE_STAGES) + " (e.g. --skip normalize,points)",
+        )
         group = p.add_mutually_exclusive_group()
-        group.add_argument("--points", dest="points", action="store_const", const=True, default=None,
-                           help="count the points even when the count may be large")
-        group.add_argument("--no-points", dest="points", action="store_const", const=False, help="do not count points")
+        group.add_argument(
+            "--points",
+            dest="points",
+            action="store_const",
+            const=True,
+            default=None,
+            help="count the points even when the count may be large",
+        )
+        group.add_argument(
+            "--no-points", dest="points", action="store_const", const=False, help="do not count points"
+        )
     elif name == "normalize":
-        p.add_argument("--strategy", choices=list(_native.STRATEGY_NAMES), default="auto",
-                       help="the kind of change of coordinates to use (default: the simplest that works)")
+        p.add_argument(
+            "--strategy",
+            choices=list(_native.STRATEGY_NAMES),
+            default="auto",
+            help="the kind of change of coordinates to use (default: the simplest that works)",
+        )
         p.add_argument("--seed", type=int, help="seed for random changes of coordinates (reproducible runs)")
         p.add_argument("--no-verify", action="store_true", help="skip re-checking the certificate")
-        p.add_argument("-o", "--output", metavar="CERT.json", help="save the certificate for 'fibrewise check'")
+        p.add_argument(
+            "-o", "--output", metavar="CERT.json", help="save the certificate for 'fibrewise check'"
+        )
     elif name == "integral":
         p.add_argument("--element", required=True, metavar="F", help="the polynomial to test")
-        p.add_argument("--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)")
+        p.add_argument(
+            "--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)"
+        )
     elif name == "curve":
-        p.add_argument("--up-to", type=_positive(int), metavar="R",
-                       help="report N_r for r = 1..R (default: the genus; N_r beyond the genus come from the zeta function)")
+        p.add_argument(
+            "--up-to",
+            type=_positive(int),
+            metavar="R",
+            help="report N_r for r = 1..R (default: the genus; N_r beyond the genus come from the zeta function)",
+        )
     elif name == "plan":
-        p.add_argument("--max-guess", type=int, metavar="K", help="plan k = 0..K guessed variables (default: until "
-                       "more guesses cannot pay)")
-        p.add_argument("--samples", type=_positive(int), default=8, metavar="N",
-                       help="random guesses solved per k (default 8)")
-        p.add_argument("--plot", metavar="FILE.png", help="draw the expected total time against k (needs matplotlib)")
+        p.add_argument(
+            "--max-guess",
+            type=int,
+            metavar="K",
+            help="plan k = 0..K guessed variables (default: until more guesses cannot pay)",
+        )
+        p.add_argument(
+            "--samples",
+            type=_positive(int),
+            default=8,
+            metavar="N",
+            help="random guesses solved per k (default 8)",
+        )
+        p.add_argument(
+            "--plot", metavar="FILE.png", help="draw the expected total time against k (needs matplotlib)"
+        )
     elif name == "points":
-        p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
+        p.add_argument(
+            "--projective", action="store_true", help="count projective points (homogeneous systems)"
+        )
     elif name == "solve":
-        p.add_argument("--over", metavar="GF(q^k)", help="list the points with coordinates in this extension field")
-        p.add_argument("--limit", type=_positive(int), metavar="N", help="at most N points (the report says when there are more)")
-        p.add_argument("--method", default="auto", metavar="METHOD",
-                       help="Boolean systems: auto (the cheapest by a cost estimate), exhaustive, basis, hybrid, "
-                            "or hybrid:K (guess K variables)")
-        p.add_argument("--closed-points", action="store_true",
-                       help="list the closed points (Galois orbits, with their degrees and equations) instead")
-        p.add_argument("--guess", metavar="X1,X2,...", help="guess these variables: solve the specialised system of "
-                       "every guess (see 'fibrewise plan'), points printed as found")
-        p.add_argument("--scheduler", metavar="ADDRESS", help="with --guess: spread the guesses over the Dask "
-                       "cluster at ADDRESS (tcp://host:8786)")
-        p.add_argument("--workers", type=_positive(int), metavar="N", help="with --guess: local worker processes "
-                       "(default 1)")
-        p.add_argument("--progress", metavar="FILE", help="with --guess: record finished chunks in FILE; "
-                       "the same command again resumes where it stopped")
+        p.add_argument(
+            "--over", metavar="GF(q^k)", help="list the points with coordinates in this extension field"
+        )
+        p.add_argument(
+            "--limit",
+            type=_positive(int),
+            metavar="N",
+            help="at most N points (the report says when there are more)",
+        )
+        p.add_argument(
+            "--method",
+            default="auto",
+            metavar="METHOD",
+            help="Boolean systems: auto (the cheapest by a cost estimate), exhaustive, basis, hybrid, "
+            "or hybrid:K (guess K variables)",
+        )
+        p.add_argument(
+            "--closed-points",
+            action="store_true",
+            help="list the closed points (Galois orbits, with their degrees and equations) instead",
+        )
+        p.add_argument(
+            "--guess",
+            metavar="X1,X2,...",
+            help="guess these variables: solve the specialised system of "
+            "every guess (see 'fibrewise plan'), points printed as found",
+        )
+        p.add_argument(
+            "--scheduler",
+            metavar="ADDRESS",
+            help="with --guess: spread the guesses over the Dask cluster at ADDRESS (tcp://host:8786)",
+        )
+        p.add_argument(
+            "--workers",
+            type=_positive(int),
+            metavar="N",
+            help="with --guess: local worker processes (default 1)",
+        )
+        p.add_argument(
+            "--progress",
+            metavar="FILE",
+            help="with --guess: record finished chunks in FILE; "
+            "the same command again resumes where it stopped",
+        )
 
 
 def _parser() -> argparse.ArgumentParser:
     parser = argparse.ArgumentParser(
-        prog="fibrewise", description="Exact analysis of polynomial systems.",
+        prog="fibrewise",
+        description="Exact analysis of polynomial systems.",
         epilog="example: fibrewise analyze examples/toy_cipher_4round_gf101.txt   "
-               "(fibrewise SUBCOMMAND --help for each subcommand)")
+        "(fibrewise SUBCOMMAND --help for each subcommand)",
+    )
     sub = parser.add_subparsers(dest="command", required=True, metavar="SUBCOMMAND")
     for name, (help_text, example, _) in SUBCOMMANDS.items():
         p = sub.add_parser(name, help=help_text, description=help_text, epilog=example)

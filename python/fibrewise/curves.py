@@ -96,9 +96,14 @@ class Zeta:
         return len(a) == 2 * g + 1 and all(a[2 * g - k] == self.q ** (g - k) * a[k] for k in range(g + 1))
 
     def to_dict(self) -> dict:
-        return {"q": self.q, "genus": self.genus, "l_polynomial": list(self.l_polynomial),
-                "numerator": self.numerator, "denominator": self.denominator,
-                "jacobian_order": self.jacobian_order}
+        return {
+            "q": self.q,
+            "genus": self.genus,
+            "l_polynomial": list(self.l_polynomial),
+            "numerator": self.numerator,
+            "denominator": self.denominator,
+            "jacobian_order": self.jacobian_order,
+        }
 
     def __str__(self) -> str:
         return f"Z(T) = ({self.numerator}) / ({self.denominator})"
@@ -129,9 +134,16 @@ class BoundCheck:
         return "within the Hasse-Weil and Serre bounds"
 
     def to_dict(self) -> dict:
-        return {"r": self.r, "points": self.points, "hasse_weil": list(self.hasse_weil),
-                "serre": list(self.serre), "within": self.within, "maximal": self.maximal,
-                "minimal": self.minimal, "note": self.note}
+        return {
+            "r": self.r,
+            "points": self.points,
+            "hasse_weil": list(self.hasse_weil),
+            "serre": list(self.serre),
+            "within": self.within,
+            "maximal": self.maximal,
+            "minimal": self.minimal,
+            "note": self.note,
+        }
 
 
 class Curve:
@@ -205,8 +217,15 @@ class Curve:
         if count is None:
             count = self._zeta.points(r) if self._zeta is not None else self.count_points(r)
         d = self._native.check_bounds(r, count)
-        return BoundCheck(d["r"], int(d["points"]), tuple(d["hasse_weil"]), tuple(d["serre"]),
-                          d["within"], d["maximal"], d["minimal"])
+        return BoundCheck(
+            d["r"],
+            int(d["points"]),
+            tuple(d["hasse_weil"]),
+            tuple(d["serre"]),
+            d["within"],
+            d["maximal"],
+            d["minimal"],
+        )
 
     def __repr__(self) -> str:
         return f"<Curve ({self.model}) over {self.system.space.field}: {self.system}>"
@@ -237,8 +256,11 @@ def _refuse_singular(curve: Curve) -> None:
     field = curve.system.space.field
     points = ["(" + ", ".join(map(str, p)) + ")" for p in curve.singular_points()]
     names = ", ".join(curve.coordinate_names)
-    where = f"singular points over {field} in ({names}): {', '.join(points)}" if points else \
-        f"no singular point over {field}, only over extensions"
+    where = (
+        f"singular points over {field} in ({names}): {', '.join(points)}"
+        if points
+        else f"no singular point over {field}, only over extensions"
+    )
     try:
         reason = f"genus {curve.genus}"
     except ValueError as e:

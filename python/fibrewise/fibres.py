@@ -55,10 +55,12 @@ class ParametricFibres:
         """The points (tuples of ints) over the point ``values`` of GF(q)^d."""
         values = list(values)
         if len(values) != len(self.parameters):
-            raise ValueError(f"a point over the parameters has {len(self.parameters)} coordinates, "
-                             f"got {len(values)}")
-        found, generic = _native.fibre_at(self.system.space._native, *self._natives, self._basis, values,
-                                          self.engine)
+            raise ValueError(
+                f"a point over the parameters has {len(self.parameters)} coordinates, got {len(values)}"
+            )
+        found, generic = _native.fibre_at(
+            self.system.space._native, *self._natives, self._basis, values, self.engine
+        )
         self.non_generic += not generic
         return [tuple(p) for p in found]
 
@@ -67,7 +69,8 @@ class ParametricFibres:
         element indices are the base-q digits of i, least significant first), at most ``limit``,
         and the index of the first fibre not done (``first + count`` unless the limit stopped)."""
         found, following, non_generic = _native.fibre_points(
-            self.system.space._native, *self._natives, self._basis, first, count, limit, self.engine)
+            self.system.space._native, *self._natives, self._basis, first, count, limit, self.engine
+        )
         self.non_generic += non_generic
         return [tuple(p) for p in found], following
 

@@ -71,7 +71,9 @@ class Field:
         if self.degree == 1:
             return str(value)
         p = self.characteristic
-        return polynomial_in_generator([(value // p**i) % p for i in range(self.degree)], self.generator or "a")
+        return polynomial_in_generator(
+            [(value // p**i) % p for i in range(self.degree)], self.generator or "a"
+        )
 
     def contains(self, other: FieldSpec) -> bool:
         """Whether ``other`` is (isomorphic to) a subfield of this field: GF(p^j) lies in
@@ -101,9 +103,13 @@ class Field:
                 p = self.characteristic
                 code = sum(c * p**i for i, c in enumerate(coeffs))
                 # galois would search a primitive element itself, which is what takes the time.
-                self._galois = galois.GF(self.size, irreducible_poly=code, verify=False,
-                                         primitive_element=self._primitive_element(),
-                                         compile="python-calculate")
+                self._galois = galois.GF(
+                    self.size,
+                    irreducible_poly=code,
+                    verify=False,
+                    primitive_element=self._primitive_element(),
+                    compile="python-calculate",
+                )
         return self._galois
 
     def _primitive_element(self) -> Optional[int]:
@@ -227,8 +233,10 @@ def field(spec: FieldSpec, modulus: Optional[str] = None, generator: str = "a") 
         raise TypeError(f"generator must be a str (a name such as 'a'), not {type(generator).__name__}")
     if isinstance(spec, Field) or _is_galois_class(spec):
         if modulus is not None or generator != "a":
-            raise ValueError(f"{spec} already has its modulus and generator: pass the field spec text "
-                             "with modulus= and generator=")
+            raise ValueError(
+                f"{spec} already has its modulus and generator: pass the field spec text "
+                "with modulus= and generator="
+            )
         if isinstance(spec, Field):
             return spec
         coeffs = [int(c) for c in spec.irreducible_poly.coeffs[::-1]]
@@ -237,4 +245,6 @@ def field(spec: FieldSpec, modulus: Optional[str] = None, generator: str = "a") 
         raise TypeError(
             f"a field spec is an int, a str, a galois.GF class or a Field, not {type(spec).__name__}"
         )
-    return Field(_native.NativeField(str(int(spec)) if isinstance(spec, Integral) else spec, modulus, generator))
+    return Field(
+        _native.NativeField(str(int(spec)) if isinstance(spec, Integral) else spec, modulus, generator)
+    )

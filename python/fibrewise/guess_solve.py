@@ -48,8 +48,14 @@ class GuessJob:
     @classmethod
     def of(cls, system: "System", guess: list[str], chunk: int) -> "GuessJob":
         space = system.space
-        return cls(str(space.field), tuple(space.names), str(space.order), tuple(str(g) for g in system.equations),
-                   tuple(guess), chunk)
+        return cls(
+            str(space.field),
+            tuple(space.names),
+            str(space.order),
+            tuple(str(g) for g in system.equations),
+            tuple(guess),
+            chunk,
+        )
 
     @property
     def guesses(self) -> int:
@@ -69,8 +75,12 @@ class GuessJob:
         import hashlib
 
         text = "\n".join([self.field, ",".join(self.variables), self.order, *self.polynomials])
-        return {"system": hashlib.sha256(text.encode()).hexdigest(), "guess": list(self.guess),
-                "chunk": self.chunk, "chunks": self.chunks}
+        return {
+            "system": hashlib.sha256(text.encode()).hexdigest(),
+            "guess": list(self.guess),
+            "chunk": self.chunk,
+            "chunks": self.chunks,
+        }
 
 
 def check_guess(system: "System", guess: list[str]) -> list[str]:
@@ -96,14 +106,16 @@ def solve_chunk(job: GuessJob, index: int) -> tuple[int, list[list[int]]]:
     """The points of the guesses of chunk ``index`` (run by a worker)."""
     from .spaces import Space
 
-    space = Space(job.field, list(job.variables), order=job.order)
+    # Points do not depend on the order: grevlex, whatever order (block, weights) the system's
+    # space has, which the job keeps only to tell runs apart.
+    space = Space(job.field, list(job.variables), order="grevlex")
     gens = [space.parse(p)._native for p in job.polynomials]
     size = space.field.size
     assert size is not None
     guessed = [space.parse(x)._native for x in job.guess]
     found: list[list[int]] = []
     for guess in range(index * job.chunk, min((index + 1) * job.chunk, job.guesses)):
-        values = [(guess // size ** j) % size for j in range(len(guessed))]
+        values = [(guess // size**j) % size for j in range(len(guessed))]
         fixes = [x.sub(space._native.constant(v)) for x, v in zip(guessed, values)]
         found.extend(_native.rational_points(space._native, gens + fixes, None))
     return index, found
@@ -131,8 +143,10 @@ class Progress:
         except json.JSONDecodeError:
             raise ValueError(f"{path}: line 1 is not a progress header") from None
         if header != job.header():
-            raise ValueError(f"{path}: the progress file belongs to another run (system, --guess or chunk size); "
-                             "use a new progress file")
+            raise ValueError(
+                f"{path}: the progress file belongs to another run (system, --guess or chunk size); "
+                "use a new progress file"
+            )
         for number, line in enumerate(lines[1:], 2):
             try:
                 self.done.add(int(json.loads(line)["chunk"]))
@@ -150,15 +164,24 @@ class Progress:
                 os.fsync(f.fileno())
 
 
-def guessed_points(system: "System", guess: list[str], *, workers: int = 1, scheduler: Optional[str] = None,
-                   progress: Optional[str] = None, limit: Optional[int] = None, chunk: Optional[int] = None,
-                   on_chunk: Optional[Callable[[int, int], None]] = None) -> Iterator[tuple]:
+def guessed_points(
+    system: "System",
+    guess: list[str],
+    *,
+    workers: int = 1,
+    scheduler: Optional[str] = None,
+    progress: Optional[str] = None,
+    limit: Optional[int] = None,
+    chunk: Optional[int] = None,
+    on_chunk: Optional[Callable[[int, int], None]] = None,
+) -> Iterator[tuple]:
     """The points of ``system``, by solving the specialised system of every guess of the
     variables ``guess``: chunks on ``workers`` local processes (1: in this process) or on the
     Dask cluster at ``scheduler``; points as their chunks finish, at most ``limit``;
     ``progress``: the file that lets an interrupted run resume. ``on_chunk(done, total)`` hears
     of each finished chunk."""
     check_guess(system, guess)
+    system = system._general()  # a Boolean system with its field equations written out
     size = system.space.field.size
     assert size is not None
     guesses = int(size) ** len(guess)
@@ -177,7 +200,9 @@ def guessed_points(system: "System", guess: list[str], *, workers: int = 1, sche
             on_chunk(len(record.done), job.chunks)
 
 
-def _run(job: GuessJob, todo: list[int], workers: int, scheduler: Optional[str]) -> Iterator[tuple[int, list]]:
+def _run(
+    job: GuessJob, todo: list[int], workers: int, scheduler: Optional[str]
+) -> Iterator[tuple[int, list]]:
     if scheduler is not None:
         yield from _run_dask(job, todo, scheduler)
     elif workers == 1:
@@ -239,7 +264,9 @@ def solve_command(args: Any, activity: Any, header: dict, system: "System") -> d
     import time
 
     if args.over is not None or args.closed_points:
-        raise ValueError("--guess lists the rational points over the file's field; drop --over and --closed-points")
+        raise ValueError(
+            "--guess lists the rational points over the file's field; drop --over and --closed-points"
+        )
     guess = check_guess(system, [x.strip() for x in args.guess.split(",") if x.strip()])
     start = time.perf_counter()
     names = system.space.names
@@ -255,19 +282,34 @@ def solve_command(args: Any, activity: Any, header: dict, system: "System") -> d
     # one point more than --limit tells whether the list was cut
     wanted = None if args.limit is None else args.limit + 1
     truncated = False
-    for point in guessed_points(system, guess, workers=args.workers or 1, scheduler=args.scheduler,
-                                progress=args.progress, limit=wanted, on_chunk=on_chunk):
+    for point in guessed_points(
+        system,
+        guess,
+        workers=args.workers or 1,
+        scheduler=args.scheduler,
+        progress=args.progress,
+        limit=wanted,
+        on_chunk=on_chunk,
+    ):
         if args.limit is not None and len(points) == args.limit:
             truncated = True  # a point beyond the limit exists
             break
         points.append([text(c) for c in point])
         if not args.json:
             print(", ".join(f"{x} = {v}" for x, v in zip(names, points[-1])), flush=True)
-    result: dict[str, Any] = {**header, "guess": guess, "limit": args.limit, "progress": args.progress,
-                              "scheduler": args.scheduler, "workers": args.workers or 1,
-                              "chunks_done": chunks["done"], "chunks": chunks["total"],
-                              "points": points, "truncated": truncated,
-                              "seconds": time.perf_counter() - start}
+    result: dict[str, Any] = {
+        **header,
+        "guess": guess,
+        "limit": args.limit,
+        "progress": args.progress,
+        "scheduler": args.scheduler,
+        "workers": args.workers or 1,
+        "chunks_done": chunks["done"],
+        "chunks": chunks["total"],
+        "points": points,
+        "truncated": truncated,
+        "seconds": time.perf_counter() - start,
+    }
     sys.stdout.flush()
     return result
 
@@ -281,11 +323,21 @@ def render_solve(result: dict) -> str:
     head = f"{result['file']}: {plural(len(result['points']), 'point')} over {result['field']}"
     if result["truncated"]:
         head += " (stopped at --limit)"
-    rows = [("guessed", ", ".join(result["guess"])), ("ran on", where),
-            ("chunks", f"{result['chunks_done']} of {result['chunks']} done"
-                       + (f" (progress in {result['progress']})" if result["progress"] else "")),
-            ("checked", "every point satisfies every equation (substituted before printing)"),
-            ("complete", "yes: every guess was solved" if not result["truncated"] and result["chunks_done"] == result["chunks"]
-             else "no: run the same command again with the same --progress file to go on"),
-            ("time", seconds(result["seconds"]))]
+    rows = [
+        ("guessed", ", ".join(result["guess"])),
+        ("ran on", where),
+        (
+            "chunks",
+            f"{result['chunks_done']} of {result['chunks']} done"
+            + (f" (progress in {result['progress']})" if result["progress"] else ""),
+        ),
+        ("checked", "every point satisfies every equation (substituted before printing)"),
+        (
+            "complete",
+            "yes: every guess was solved"
+            if not result["truncated"] and result["chunks_done"] == result["chunks"]
+            else "no: run the same command again with the same --progress file to go on",
+        ),
+        ("time", seconds(result["seconds"])),
+    ]
     return f"{head}\n{aligned(rows)}"

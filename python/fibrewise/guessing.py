@@ -24,7 +24,8 @@ from __future__ import annotations
 import random
 import statistics
 import time
-from dataclasses import asdict, dataclass, field
+from dataclasses import asdict, dataclass
+from dataclasses import field as dataclass_field
 from typing import TYPE_CHECKING, Any, Optional
 
 if TYPE_CHECKING:
@@ -64,7 +65,7 @@ class GuessPlan:
     field: str
     variables: list[str]
     degrees: list[int]
-    rows: list[GuessRow] = field(default_factory=list)
+    rows: list[GuessRow] = dataclass_field(default_factory=list)
     exhaustive_points: int = 0
     exhaustive_seconds: float = 0.0
 
@@ -114,14 +115,16 @@ def _boolean_series(degrees: list[int], n: int, length: int) -> list[int]:
     return coefficients
 
 
-def guess_plan(system: "System", max_guess: Optional[int] = None, samples: int = 8,
-               seed: Optional[int] = None) -> GuessPlan:
+def guess_plan(
+    system: "System", max_guess: Optional[int] = None, samples: int = 8, seed: Optional[int] = None
+) -> GuessPlan:
     """The measured guess-and-determine plan of ``system`` (see the module's description)."""
     from .systems import _optional_count
 
     max_guess = _optional_count("max_guess", max_guess, 0, len(system.space.names))
-    samples = _optional_count("samples", samples, 1, 10_000)
-    assert samples is not None
+    checked_samples = _optional_count("samples", samples, 1, 10_000)
+    assert checked_samples is not None
+    samples = checked_samples
     size = system.space.field.size
     if size is None:
         raise ValueError(f"a guess plan is for finite fields; {system.space.field} is not one")
@@ -198,11 +201,17 @@ def _measure(system: "System", guessed: list[str], samples: int, rng: random.Ran
     rows, columns, nonzeros = _largest_matrix(stats)
     n = len(system.space.names) - len(guessed)
     return GuessRow(
-        k=len(guessed), variables=list(guessed), samples=len(runs), seconds=seconds,
+        k=len(guessed),
+        variables=list(guessed),
+        samples=len(runs),
+        seconds=seconds,
         solving_degree=int(statistics.median_low(s.max_degree for s in stats)),
-        largest_matrix=[rows, columns], guesses=guesses, total_seconds=guesses * seconds,
+        largest_matrix=[rows, columns],
+        guesses=guesses,
+        total_seconds=guesses * seconds,
         memory_bytes=nonzeros * BYTES_PER_ENTRY,
-        predicted_degree=semi_regular_degree([g.degree() for g in system.equations], n, system.space.boolean))
+        predicted_degree=semi_regular_degree([g.degree() for g in system.equations], n, system.space.boolean),
+    )
 
 
 def _largest_matrix(stats: list["GroebnerStats"]) -> tuple[int, int, int]:
@@ -229,8 +238,11 @@ def render_plan(result: dict[str, Any]) -> str:
     from .report import aligned, seconds
 
     head = f"{result.get('file') or 'system'}: guess-and-determine plan over {result['field']}"
-    lines = [head, f"{'k':>3}  {'guessed':<22}  {'one system':>10}  {'degree':>6}  {'(semi-reg.)':>11}  "
-                   f"{'largest matrix':>17}  {'q^k':>9}  {'expected total':>14}  {'memory':>8}"]
+    lines = [
+        head,
+        f"{'k':>3}  {'guessed':<22}  {'one system':>10}  {'degree':>6}  {'(semi-reg.)':>11}  "
+        f"{'largest matrix':>17}  {'q^k':>9}  {'expected total':>14}  {'memory':>8}",
+    ]
     for r in result["rows"]:
         guessed = ", ".join(r["variables"]) or "-"
         if len(guessed) > 22:
@@ -239,16 +251,29 @@ def render_plan(result: dict[str, Any]) -> str:
         rows_, columns = r["largest_matrix"]
         matrix = f"{rows_} x {columns}" if rows_ else "-"
         mark = "  <- best" if r["k"] == result["best"] else ""
-        lines.append(f"{r['k']:>3}  {guessed:<22}  {seconds(r['seconds']):>10}  {r['solving_degree']:>6}  {predicted:>11}  "
-                     f"{matrix:>17}  {r['guesses']:>9.3g}  {_duration(r['total_seconds']):>14}  "
-                     f"{_size(r['memory_bytes']):>8}{mark}")
-    rows = [("exhaustive search", f"{result['exhaustive_points']:.3g} points, about "
-                                  f"{_duration(result['exhaustive_seconds'])} at this library's evaluation speed"),
-            ("degree", "the highest degree reached by one specialised system (its solving degree); in "
-                       "brackets the degree of regularity of a semi-regular sequence of degrees "
-                       f"{result['degrees']} in n - k variables (Bardet-Faugere-Salvy 2004)"),
-            ("caution", "an estimate from a few random guesses per k on this machine, one thread each, CPU time; "
-                        "not a bound: other guesses may cost more")]
+        lines.append(
+            f"{r['k']:>3}  {guessed:<22}  {seconds(r['seconds']):>10}  {r['solving_degree']:>6}  {predicted:>11}  "
+            f"{matrix:>17}  {r['guesses']:>9.3g}  {_duration(r['total_seconds']):>14}  "
+            f"{_size(r['memory_bytes']):>8}{mark}"
+        )
+    rows = [
+        (
+            "exhaustive search",
+            f"{result['exhaustive_points']:.3g} points, about "
+            f"{_duration(result['exhaustive_seconds'])} at this library's evaluation speed",
+        ),
+        (
+            "degree",
+            "the highest degree reached by one specialised system (its solving degree); in "
+            "brackets the degree of regularity of a semi-regular sequence of degrees "
+            f"{result['degrees']} in n - k variables (Bardet-Faugere-Salvy 2004)",
+        ),
+        (
+            "caution",
+            "an estimate from a few random guesses per k on this machine, one thread each, CPU time; "
+            "not a bound: other guesses may cost more",
+        ),
+    ]
     return "\n".join(lines) + "\n" + aligned(rows)
 
 

@@ -63,7 +63,9 @@ def polynomial_from_sympy(space: "Space", expr: Any) -> "Polynomial":
     free = sorted(expr.free_symbols, key=lambda s: s.name)
     unknown = [s.name for s in free if s.name not in allowed]
     if unknown:
-        raise ValueError(f"from_sympy: unknown symbol '{unknown[0]}' (the variables are {', '.join(space.names)})")
+        raise ValueError(
+            f"from_sympy: unknown symbol '{unknown[0]}' (the variables are {', '.join(space.names)})"
+        )
     expr = expr.xreplace({s: sympy.Symbol(s.name) for s in free})
     gens = [sympy.Symbol(n) for n in allowed]
     try:

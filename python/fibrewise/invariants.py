@@ -186,4 +186,3 @@ def count_points(system: "System", over: Optional["FieldSpec"] = None, projectiv
         raise ValueError(f"points are counted over a finite field, not {system.space.field}")
     space = system.space
     return _native.count_points(space._native, [g._native for g in system.equations], projective)
-

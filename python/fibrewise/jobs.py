@@ -18,8 +18,19 @@ from .names import expand_names
 # Most points the "solutions" task lists unless the job gives "limit" (the result says when cut).
 SOLUTIONS_LIMIT = 1000
 
-TASK_NAMES = ("dimension", "independent_variables", "degree", "hilbert", "projection", "normalize", "points", "basis",
-              "solutions", "curve", "plan")
+TASK_NAMES = (
+    "dimension",
+    "independent_variables",
+    "degree",
+    "hilbert",
+    "projection",
+    "normalize",
+    "points",
+    "basis",
+    "solutions",
+    "curve",
+    "plan",
+)
 DEFAULT_TASKS = ("dimension",)
 JOB_KEYS = ("id", "field", "variables", "polynomials", "tasks", "order", "limit", "boolean")
 
@@ -72,14 +83,25 @@ def check_job(obj: Any) -> dict:
     boolean = obj.get("boolean", False)
     if not isinstance(boolean, bool):
         raise JobError('"boolean" must be true or false')
-    return {"id": obj["id"], "field": obj["field"], "variables": variables, "polynomials": polys,
-            "tasks": tasks, "order": order, "limit": limit, "boolean": boolean}
+    return {
+        "id": obj["id"],
+        "field": obj["field"],
+        "variables": variables,
+        "polynomials": polys,
+        "tasks": tasks,
+        "order": order,
+        "limit": limit,
+        "boolean": boolean,
+    }
 
 
 def _hilbert(system) -> dict:
     series = system.hilbert()
-    return {"numerator": list(series.numerator), "denominator_exponent": series.denominator_exponent,
-            "graded": series.graded}
+    return {
+        "numerator": list(series.numerator),
+        "denominator_exponent": series.denominator_exponent,
+        "graded": series.graded,
+    }
 
 
 def _points(system) -> int:
@@ -135,8 +157,9 @@ TASKS: dict[str, Callable[[Any], Any]] = {
 }
 
 
-def compute_tasks(job: dict, on_task: Callable[[str, Any], None] | None = None,
-                  memory: int | None = None) -> dict:
+def compute_tasks(
+    job: dict, on_task: Callable[[str, Any], None] | None = None, memory: int | None = None
+) -> dict:
     """The results of a checked job's tasks, by task name; raises on bad input. ``on_task(name,
     value)`` hears of each task as it finishes (a batch worker passes them on at once, so that a
     job killed at its time limit keeps the tasks it finished). ``memory``: the memory budget in
@@ -144,8 +167,9 @@ def compute_tasks(job: dict, on_task: Callable[[str, Any], None] | None = None,
     from .solving import solutions_task
     from .spaces import Space
 
-    space = Space(job["field"], job["variables"], order=job["order"], memory=memory,
-                  boolean=job.get("boolean", False))
+    space = Space(
+        job["field"], job["variables"], order=job["order"], memory=memory, boolean=job.get("boolean", False)
+    )
     system = space.system(_polynomials(space, job["polynomials"]))
     tasks = {**TASKS, "solutions": lambda S: solutions_task(S, job.get("limit", SOLUTIONS_LIMIT))}
     results = {}

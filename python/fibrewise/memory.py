@@ -20,8 +20,22 @@ from typing import Optional, Union
 
 Memory = Union[int, str, None]
 
-_UNITS = {"": 1, "b": 1, "k": 10**3, "kb": 10**3, "m": 10**6, "mb": 10**6, "g": 10**9, "gb": 10**9,
-          "t": 10**12, "tb": 10**12, "kib": 2**10, "mib": 2**20, "gib": 2**30, "tib": 2**40}
+_UNITS = {
+    "": 1,
+    "b": 1,
+    "k": 10**3,
+    "kb": 10**3,
+    "m": 10**6,
+    "mb": 10**6,
+    "g": 10**9,
+    "gb": 10**9,
+    "t": 10**12,
+    "tb": 10**12,
+    "kib": 2**10,
+    "mib": 2**20,
+    "gib": 2**30,
+    "tib": 2**40,
+}
 _SIZE = re.compile(r"^\s*(\d+(?:\.\d*)?|\.\d+)\s*([A-Za-z]*|%)\s*$")
 #: Budgets are counted in 64-bit bytes.
 _MOST = 2**64 - 1
@@ -51,7 +65,9 @@ def parse_memory(value: Memory, name: str = "memory") -> Optional[int]:
     if value is None:
         return None
     if isinstance(value, bool) or not isinstance(value, (Integral, str)):
-        raise TypeError(f"{name} must be a size such as '4GB' or a number of bytes, not {type(value).__name__}")
+        raise TypeError(
+            f"{name} must be a size such as '4GB' or a number of bytes, not {type(value).__name__}"
+        )
     if isinstance(value, Integral):
         number = int(value)
     else:
@@ -65,7 +81,9 @@ def _size_of_text(text: str, name: str) -> int:
     m = _SIZE.match(text)
     unit = m.group(2).lower() if m else None
     if not m or (unit != "%" and unit not in _UNITS):
-        raise ValueError(f"{name}: {text!r} is not a size (expected e.g. '4GB', '512MiB', '50%' or a number of bytes)")
+        raise ValueError(
+            f"{name}: {text!r} is not a size (expected e.g. '4GB', '512MiB', '50%' or a number of bytes)"
+        )
     amount = float(m.group(1))
     if unit == "%":
         total = machine_memory()

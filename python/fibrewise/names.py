@@ -56,7 +56,9 @@ def expand_names(variables: Variables) -> list[str]:
 def _expand_range(item: str) -> list[str]:
     m = _RANGE.match(item)
     if not m or m.group(1) != m.group(3):
-        raise ValueError(f"variable range '{item}': expected a name and two numbers with one prefix, such as x0..x63")
+        raise ValueError(
+            f"variable range '{item}': expected a name and two numbers with one prefix, such as x0..x63"
+        )
     first, last = int(m.group(2)), int(m.group(4))
     if last < first:
         raise ValueError(f"variable range '{item}': {last} is below {first}")

@@ -85,7 +85,9 @@ class FiniteProjection:
     "linear" or "nonlinear") and ``homogeneous``.
     """
 
-    def __init__(self, system: "System", certificate: dict, native: Optional[_native.NativeProjection] = None):
+    def __init__(
+        self, system: "System", certificate: dict, native: Optional[_native.NativeProjection] = None
+    ):
         self.system = system
         self._certificate = {k: certificate[k] for k in CERTIFICATE_KEYS}
         # The native projection computes the equations on first use; None once they are here.
@@ -189,7 +191,9 @@ class FiniteProjection:
         if len(point) != self.dimension:
             raise ValueError(f"the fibre needs a point with {self.dimension} coordinates, got {len(point)}")
         space = self.system.space
-        return space.system(list(self.system.equations) + [p - space.polynomial(a) for p, a in zip(self.parameters, point)])
+        return space.system(
+            list(self.system.equations) + [p - space.polynomial(a) for p, a in zip(self.parameters, point)]
+        )
 
     def fiber_points(self, point: Sequence[int]) -> list[tuple]:
         """The rational points (tuples of ints) of the fibre over a point of k^d, from the
@@ -206,8 +210,12 @@ class FiniteProjection:
         return f"FiniteProjection(dimension={self.dimension}, parameters=[{params}], rank={self.rank}, strategy={self.strategy!r})"
 
 
-def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optional[int] = None,
-                      equations: EquationsWhen = "lazy") -> FiniteProjection:
+def finite_projection(
+    system: "System",
+    strategy: Strategy = "auto",
+    seed: Optional[int] = None,
+    equations: EquationsWhen = "lazy",
+) -> FiniteProjection:
     """A finite projection of ``system``: the simplest kind of change that works (``strategy``
     "auto"), or only "variables", "linear" or "nonlinear". ``seed`` fixes every random choice.
     ``equations``: "lazy" (computed on first use of ``.equations``) or "now".
@@ -226,7 +234,10 @@ def finite_projection(system: "System", strategy: Strategy = "auto", seed: Optio
     # The search starts from the grevlex basis: hand over the one already computed, if any.
     grevlex = system._cached_basis("grevlex")
     summary, native = _native.finite_projection_lazy(
-        space._native, [g._native for g in system.equations], strategy=strategy, seed=(seed or 0) % 2**64,
+        space._native,
+        [g._native for g in system.equations],
+        strategy=strategy,
+        seed=(seed or 0) % 2**64,
         grevlex_basis=None if grevlex is None else [g._native for g in grevlex],
     )
     projection = FiniteProjection(system, summary, native)
@@ -251,7 +262,9 @@ def check_certificate(certificate: dict, system: "System") -> list[str]:
     if "field" in certificate and str(certificate["field"]) != str(space.field):
         problems.append(f"the certificate is over {certificate['field']}, the system over {space.field}")
     if "variables" in certificate and list(certificate["variables"]) != list(space.names):
-        problems.append(f"the certificate has variables {certificate['variables']}, the system {list(space.names)}")
+        problems.append(
+            f"the certificate has variables {certificate['variables']}, the system {list(space.names)}"
+        )
     if problems:
         return problems
     try:
@@ -301,8 +314,15 @@ def shape_problems(certificate: dict) -> list[str]:
 
 def json_type(value: object) -> str:
     """The JSON name of a value's type, as a certificate's reader sees it."""
-    names = {bool: "a boolean", int: "a number", float: "a number", str: "a string", list: "a list",
-             dict: "an object", type(None): "null"}
+    names = {
+        bool: "a boolean",
+        int: "a number",
+        float: "a number",
+        str: "a string",
+        list: "a list",
+        dict: "an object",
+        type(None): "null",
+    }
     return names.get(type(value), type(value).__name__)
 
 
@@ -311,7 +331,9 @@ class IntegralEquation:
     modulo a system's ideal. ``coefficients`` are texts [1, c_{m-1}, ..., c_0] in ``symbols`` (t1..tr,
     standing for g1..gr)."""
 
-    def __init__(self, element: Polynomial, over: list[Polynomial], symbols: list[str], coefficients: list[str]):
+    def __init__(
+        self, element: Polynomial, over: list[Polynomial], symbols: list[str], coefficients: list[str]
+    ):
         self.element = element
         self.over = over
         self.symbols = symbols
@@ -353,13 +375,17 @@ def _over(system: "System", over: Sequence[Coercible]) -> list[Polynomial]:
     return [system.space.polynomial(g) for g in over]
 
 
-def integral_equation(system: "System", f: Coercible, over: Sequence[Coercible]) -> Optional[IntegralEquation]:
+def integral_equation(
+    system: "System", f: Coercible, over: Sequence[Coercible]
+) -> Optional[IntegralEquation]:
     """The monic relation of least degree of ``f`` over k[over] in R/I, or None when ``f`` is not
     integral over it (elimination with tag variables)."""
     system = system._general()  # a Boolean system with its field equations written out
     space = system.space
     element, gs = space.polynomial(f), _over(system, over)
-    found = _native.integral_equation(space._native, [g._native for g in system.equations], element._native, [g._native for g in gs])
+    found = _native.integral_equation(
+        space._native, [g._native for g in system.equations], element._native, [g._native for g in gs]
+    )
     if found is None:
         return None
     symbols, coefficients = found
@@ -376,7 +402,9 @@ def is_finite_over(system: "System", over: Sequence[Coercible]) -> bool:
     system = system._general()  # a Boolean system with its field equations written out
     space = system.space
     gs = _over(system, over)
-    return _native.is_finite_over(space._native, [g._native for g in system.equations], [g._native for g in gs])
+    return _native.is_finite_over(
+        space._native, [g._native for g in system.equations], [g._native for g in gs]
+    )
 
 
 __all__ = [

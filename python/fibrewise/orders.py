@@ -17,7 +17,9 @@ class BlockOrder:
 
     def __init__(self, blocks: Sequence[tuple[Union[OrderName, "WeightOrder"], Sequence[str]]]):
         if isinstance(blocks, (str, bytes)) or not isinstance(blocks, Sequence):
-            raise TypeError(f"a block order takes a list of (order, variable names), not {type(blocks).__name__}")
+            raise TypeError(
+                f"a block order takes a list of (order, variable names), not {type(blocks).__name__}"
+            )
         self.blocks = []
         for block in blocks:
             if not isinstance(block, (tuple, list)) or len(block) != 2:
@@ -81,9 +83,13 @@ def native_order(order: Order, names: Sequence[str]):
             idx = []
             for n in block_names:
                 if n not in names:
-                    raise ValueError(f"block order: unknown variable '{n}' (the variables are {', '.join(names)})")
+                    raise ValueError(
+                        f"block order: unknown variable '{n}' (the variables are {', '.join(names)})"
+                    )
                 idx.append(list(names).index(n))
             sub = [names[i] for i in idx]
             blocks.append((native_order(inner, sub), idx))
         return ("block", blocks)
-    raise TypeError(f"a monomial order is 'lex', 'grlex', 'grevlex', a BlockOrder or a WeightOrder, not {order!r}")
+    raise TypeError(
+        f"a monomial order is 'lex', 'grlex', 'grevlex', a BlockOrder or a WeightOrder, not {order!r}"
+    )

@@ -13,6 +13,7 @@ def series_coefficients(numerator: list[int], denominator_exponent: int, count: 
     """The first ``count`` coefficients of N(t) / (1 - t)^D: the values of the Hilbert function
     (1 / (1 - t)^D = sum over i of C(i + D - 1, D - 1) t^i)."""
     d = denominator_exponent
+
     def inverse_power(i: int) -> int:
         return (1 if i == 0 else 0) if d == 0 else comb(i + d - 1, d - 1)
 
@@ -82,9 +83,16 @@ def draw_plan(path: str, result: dict) -> None:
 
     rows = result["rows"]
     fig, ax = plt.subplots(figsize=(6, 4))
-    ax.semilogy([r["k"] for r in rows], [max(r["total_seconds"], 1e-9) for r in rows], "o-", label="expected total")
-    ax.semilogy([r["k"] for r in rows], [max(r["seconds"], 1e-9) for r in rows], "s--", alpha=0.6,
-                label="one specialised system")
+    ax.semilogy(
+        [r["k"] for r in rows], [max(r["total_seconds"], 1e-9) for r in rows], "o-", label="expected total"
+    )
+    ax.semilogy(
+        [r["k"] for r in rows],
+        [max(r["seconds"], 1e-9) for r in rows],
+        "s--",
+        alpha=0.6,
+        label="one specialised system",
+    )
     ax.set_xlabel("guessed variables k")
     ax.set_ylabel("seconds")
     ax.set_title(f"{result.get('file') or 'system'}: best k = {result['best']}", fontsize=9)

@@ -52,8 +52,16 @@ class _Line:
 class Progress:
     """``done / total`` with rate and time left: ``batch  120/2000 jobs  310.4 jobs/s  about 6 s left``."""
 
-    def __init__(self, total: int, label: str = "batch", *, stream: TextIO | None = None,
-                 quiet: bool = False, delay: float = 1.0, interval: float = 0.1):
+    def __init__(
+        self,
+        total: int,
+        label: str = "batch",
+        *,
+        stream: TextIO | None = None,
+        quiet: bool = False,
+        delay: float = 1.0,
+        interval: float = 0.1,
+    ):
         self.total, self.label, self.done = total, label, 0
         self.stream = stream if stream is not None else sys.stderr
         self.enabled = wants_display(self.stream, quiet)
@@ -86,8 +94,15 @@ class Progress:
 class Activity:
     """Context manager showing ``label: step  3.2 s`` while one long computation runs."""
 
-    def __init__(self, label: str, *, stream: TextIO | None = None, quiet: bool = False,
-                 delay: float = 1.0, interval: float = 0.2):
+    def __init__(
+        self,
+        label: str,
+        *,
+        stream: TextIO | None = None,
+        quiet: bool = False,
+        delay: float = 1.0,
+        interval: float = 0.2,
+    ):
         self.label, self.step = label, ""
         self.stream = stream if stream is not None else sys.stderr
         self.enabled = wants_display(self.stream, quiet)

@@ -7,7 +7,11 @@ from __future__ import annotations
 from fractions import Fraction
 from typing import Any, Callable
 
-STRATEGY_WORDS = {"variables": "no change of coordinates", "linear": "linear change", "nonlinear": "nonlinear change"}
+STRATEGY_WORDS = {
+    "variables": "no change of coordinates",
+    "linear": "linear change",
+    "nonlinear": "nonlinear change",
+}
 
 
 def aligned(rows: list[tuple[str, Any]], indent: str = "  ") -> str:
@@ -84,8 +88,7 @@ def _variables(result: dict) -> str:
 
 def _header_rows(result: dict) -> list[tuple[str, Any]]:
     field = result["field"] + (", Boolean (v^2 = v)" if result.get("boolean") else "")
-    return [("field", field), ("variables", _variables(result)),
-            ("polynomials", result["polynomials"])]
+    return [("field", field), ("variables", _variables(result)), ("polynomials", result["polynomials"])]
 
 
 def _failed_parts(result: dict) -> list[tuple[str, Any]]:
@@ -106,13 +109,20 @@ def render_analyze(result: dict) -> str:
         rows.append(("independent variables", ", ".join(result["independent_variables"]) or "(none)"))
     rows.append(("degree", result.get("degree")))
     if "quotient_dimension" in result:
-        rows.append(("quotient dimension", f"{result['quotient_dimension']}  (solutions over the algebraic closure, with multiplicity)"))
+        rows.append(
+            (
+                "quotient dimension",
+                f"{result['quotient_dimension']}  (solutions over the algebraic closure, with multiplicity)",
+            )
+        )
     series = result.get("hilbert")
     if series:
         kind = "graded" if series.get("graded", True) else "affine"
-        rows += [("Hilbert series", f"{hilbert_series_text(series)}  ({kind})"),
-                 ("Hilbert polynomial", polynomial_in(series["polynomial"], "s")),
-                 ("regularity index", series["regularity_index"])]
+        rows += [
+            ("Hilbert series", f"{hilbert_series_text(series)}  ({kind})"),
+            ("Hilbert polynomial", polynomial_in(series["polynomial"], "s")),
+            ("regularity index", series["regularity_index"]),
+        ]
     if result.get("projection"):
         rows.append(("projection", finite_over(result["projection"], result["field"])))
     points = _points_text(result)
@@ -120,8 +130,13 @@ def render_analyze(result: dict) -> str:
         points += f" over {result['field']}"
     rows.append(("points", points))
     basis = result["basis"]
-    rows.append(("Groebner basis", f"{plural(basis['size'], 'polynomial')}, highest degree reached "
-                                   f"{basis['max_degree']}, {seconds(result.get('seconds_basis'))}"))
+    rows.append(
+        (
+            "Groebner basis",
+            f"{plural(basis['size'], 'polynomial')}, highest degree reached "
+            f"{basis['max_degree']}, {seconds(result.get('seconds_basis'))}",
+        )
+    )
     if result.get("solve_method"):
         rows.append(("solve method", "{method}: {reason}".format(**result["solve_method"])))
     rows += _failed_parts(result)
@@ -147,12 +162,20 @@ def _points_text(result: dict) -> str | None:
 def render_basis(result: dict) -> str:
     n = len(result["basis"])
     stats = result["stats"]
-    head = (f"reduced Groebner basis: {plural(n, 'polynomial')} over {result['field']} in "
-            f"{', '.join(result['variables'])} ({result['order']})")
+    head = (
+        f"reduced Groebner basis: {plural(n, 'polynomial')} over {result['field']} in "
+        f"{', '.join(result['variables'])} ({result['order']})"
+    )
     body = "\n".join(f"  {g}" for g in result["basis"])
     engine = stats["engine"] + (f" ({stats['choice']})" if stats.get("choice") else "")
-    tail = aligned([("time", seconds(result["seconds"])), ("engine", engine),
-                    ("highest degree", stats["max_degree"]), ("zero reductions", stats["zero_reductions"])])
+    tail = aligned(
+        [
+            ("time", seconds(result["seconds"])),
+            ("engine", engine),
+            ("highest degree", stats["max_degree"]),
+            ("zero reductions", stats["zero_reductions"]),
+        ]
+    )
     return "\n".join(part for part in (head, body, tail) if part)
 
 
@@ -164,15 +187,23 @@ def render_normalize(result: dict) -> str:
         ("parameters", "\n".join(f"{t} = {p}" for t, p in zip(symbols, cert["parameters"])) or "(none)"),
         ("coordinates", _coordinates_text(cert)),
         ("inverse", "\n".join(f"{x} = {e}" for x, e in zip(result["variables"], cert["inverse"]))),
-        ("equations", "\n".join(_equation_text(x, coeffs) for x, coeffs in zip(result["variables"], cert["equations"]))),
+        (
+            "equations",
+            "\n".join(_equation_text(x, coeffs) for x, coeffs in zip(result["variables"], cert["equations"])),
+        ),
         ("module generators", ", ".join(map(str, cert["module_generators"]))),
         ("rank", cert["rank"]),
         ("strategy", cert["strategy"]),
         ("time", seconds(result["seconds"])),
     ]
     if "verified" in result:
-        rows.append(("certificate", f"{'verified' if result['verified'] else 'FAILED verification'} "
-                                    f"({seconds(result['seconds_verify'])})"))
+        rows.append(
+            (
+                "certificate",
+                f"{'verified' if result['verified'] else 'FAILED verification'} "
+                f"({seconds(result['seconds_verify'])})",
+            )
+        )
         rows.append(("problems", "\n".join(result["problems"]) or None))
     if result.get("saved"):
         rows.append(("saved to", result["saved"]))
@@ -224,7 +255,11 @@ def render_integral(result: dict) -> str:
     else:
         head = f"{result['element']} is not integral over {base}"
         rows = []
-    rows += [("field", result["field"]), ("variables", _variables(result)), ("time", seconds(result["seconds"]))]
+    rows += [
+        ("field", result["field"]),
+        ("variables", _variables(result)),
+        ("time", seconds(result["seconds"])),
+    ]
     return f"{result['file']}: {head}\n{aligned(rows)}"
 
 
@@ -246,11 +281,24 @@ def render_batch(result: dict) -> str:
     head = f"batch {result['input']} -> {result['output']}: {plural(ran, 'job')} run"
     if result["interrupted"]:
         head += f", interrupted by {result['interrupted']} (rerun the same command to resume)"
-    rows = [("ok", result["ok"]), ("error", result["error"]), ("timeout", result["timeout"]),
-            ("retried", f"{result['retried']} (error and timeout lines replaced)" if result.get("retried") else None),
-            ("skipped", f"{result['skipped']} (already in {result['output']})"),
-            ("lost", f"{result['lost']} (by the cluster; rerun the same command to run them)" if result.get("lost") else None),
-            ("total in input", result["total"]), ("time", seconds(result["seconds"]))]
+    rows = [
+        ("ok", result["ok"]),
+        ("error", result["error"]),
+        ("timeout", result["timeout"]),
+        (
+            "retried",
+            f"{result['retried']} (error and timeout lines replaced)" if result.get("retried") else None,
+        ),
+        ("skipped", f"{result['skipped']} (already in {result['output']})"),
+        (
+            "lost",
+            f"{result['lost']} (by the cluster; rerun the same command to run them)"
+            if result.get("lost")
+            else None,
+        ),
+        ("total in input", result["total"]),
+        ("time", seconds(result["seconds"])),
+    ]
     if ran and result["seconds"]:
         rows.append(("rate", f"{ran / result['seconds']:.1f} jobs/s"))
     return f"{head}\n{aligned(rows)}"
@@ -264,16 +312,26 @@ def render_solve(result: dict) -> str:
 
 def render_curve(result: dict) -> str:
     zeta = result["zeta"]
-    head = f"{result['file']}: smooth {result['model']} curve of genus {result['genus']} over {result['field']}"
+    head = (
+        f"{result['file']}: smooth {result['model']} curve of genus {result['genus']} over {result['field']}"
+    )
     counts = [f"N_{b['r']} = {b['points']}  ({b['note']})" for b in result["bounds"]]
     rows = _header_rows(result) + [
-        ("model", result["model"]), ("genus", result["genus"]),
+        ("model", result["model"]),
+        ("genus", result["genus"]),
         ("points over GF(q^r)", "\n".join(counts)),
-        ("counted", f"N_1..N_{result['counted_up_to']} fibre by fibre; later N_r from L(T)"
-                    if result["counted_up_to"] else "genus 0: N_r = q^r + 1, nothing to count"),
+        (
+            "counted",
+            f"N_1..N_{result['counted_up_to']} fibre by fibre; later N_r from L(T)"
+            if result["counted_up_to"]
+            else "genus 0: N_r = q^r + 1, nothing to count",
+        ),
         ("L(T)", zeta["numerator"]),
         ("zeta function", f"Z(T) = L(T) / ({zeta['denominator']})"),
-        ("Jacobian order", f"{zeta['jacobian_order']}  (L(1), points of the Jacobian over {result['field']})"),
+        (
+            "Jacobian order",
+            f"{zeta['jacobian_order']}  (L(1), points of the Jacobian over {result['field']})",
+        ),
         ("time", seconds(result["seconds"])),
     ]
     return f"{head}\n{aligned(rows)}"
@@ -281,11 +339,21 @@ def render_curve(result: dict) -> str:
 
 RENDERERS: dict[str, Callable[[dict], str]] = {
     "curve": render_curve,
-    "analyze": render_analyze, "basis": render_basis, "normalize": render_normalize,
-    "integral": render_integral, "points": render_points, "check": render_check, "batch": render_batch,
+    "analyze": render_analyze,
+    "basis": render_basis,
+    "normalize": render_normalize,
+    "integral": render_integral,
+    "points": render_points,
+    "check": render_check,
+    "batch": render_batch,
     "plan": lambda result: _guessing().render_plan(result),
-    "solve": lambda result: _boolean_report().render_solve(result) if isinstance(result.get("method"), dict)
-    else _guessing_solve().render_solve(result) if "guess" in result else render_solve(result),
+    "solve": lambda result: (
+        _boolean_report().render_solve(result)
+        if isinstance(result.get("method"), dict)
+        else _guessing_solve().render_solve(result)
+        if "guess" in result
+        else render_solve(result)
+    ),
 }
 
 

@@ -41,7 +41,8 @@ def require_finite(k: Field, what: str) -> None:
     if k.size is None:
         raise ValueError(
             f"{what} over {k}: this needs a finite field ({SUPPORTED}); over Q only the points and "
-            "closed points of the system itself (zero-dimensional, no over=) are listed")
+            "closed points of the system itself (zero-dimensional, no over=) are listed"
+        )
 
 
 def in_field(system: "System", over: "FieldSpec") -> "System":
@@ -62,8 +63,10 @@ def embedding(system: "System", over: "FieldSpec") -> tuple["System", Optional[i
     if target == base:
         return system, None
     if not target.contains(base):
-        raise ValueError(f"{target} is not a finite extension of {base}: GF(p^j) lies in GF(p^k) only "
-                         "for the same p and j dividing k")
+        raise ValueError(
+            f"{target} is not a finite extension of {base}: GF(p^j) lies in GF(p^k) only "
+            "for the same p and j dividing k"
+        )
     space = Space(target, system.space.names, order=system.space.order)
     natives, image = _native.embed(system.space._native, [g._native for g in system.equations], space._native)
     embedded = System(space, [Polynomial(space, g) for g in natives])
@@ -90,8 +93,9 @@ def point_converter(k: Field, as_galois: bool) -> Callable[[list], Any]:
     return k.to_galois
 
 
-def points(system: "System", over: Optional["FieldSpec"] = None, limit: Optional[int] = None,
-           as_galois: bool = False) -> Iterator[Any]:
+def points(
+    system: "System", over: Optional["FieldSpec"] = None, limit: Optional[int] = None, as_galois: bool = False
+) -> Iterator[Any]:
     """The rational points of the system, or its points with coordinates in the extension
     ``over``; at most ``limit`` of them. Arguments are checked at once; the points come lazily."""
     limit = _optional_limit(limit)
@@ -109,8 +113,10 @@ def _points_over_q(system: "System", limit: Optional[int]) -> Iterator[Point]:
     """Points in Q^n of a zero-dimensional system: a finite list, computed in one call."""
     dimension = system.dimension()
     if dimension > 0:
-        raise ValueError(f"points over Q: the system has dimension {dimension}, so its rational points are "
-                         "not a finite list; points are listed over Q for zero-dimensional systems only")
+        raise ValueError(
+            f"points over Q: the system has dimension {dimension}, so its rational points are "
+            "not a finite list; points are listed over Q for zero-dimensional systems only"
+        )
     return _points_over_q_list(system, limit)
 
 
@@ -233,16 +239,21 @@ class RationalClosedPoint(ClosedPoint):
         self.residue_space = Space(space.field, ["t"])
         self._form_text = " + ".join(f"({c})*{space.names[i]}" for i, c in form) or "0"
         self.form = space.parse(self._form_text)
-        self.minimal_polynomial = self.residue_space.from_terms(([i], c) for i, c in enumerate(minimal_polynomial))
-        self.coordinates = tuple(self.residue_space.from_terms(([i], c) for i, c in enumerate(g))
-                                 for g in coordinates)
+        self.minimal_polynomial = self.residue_space.from_terms(
+            ([i], c) for i, c in enumerate(minimal_polynomial)
+        )
+        self.coordinates = tuple(
+            self.residue_space.from_terms(([i], c) for i, c in enumerate(g)) for g in coordinates
+        )
         self._minimal_coefficients = minimal_polynomial
         self._coordinate_coefficients = coordinates
         self._equations: Optional[tuple[Polynomial, ...]] = None
 
     def _of_form(self, coefficients: list) -> str:
         """g(u) as text in the space's variables, for g given by its coefficients."""
-        powers = (f"({c})" if i == 0 else f"({c})*({self._form_text})^{i}" for i, c in enumerate(coefficients))
+        powers = (
+            f"({c})" if i == 0 else f"({c})*({self._form_text})^{i}" for i, c in enumerate(coefficients)
+        )
         return " + ".join(powers) or "0"
 
     @property
@@ -251,8 +262,10 @@ class RationalClosedPoint(ClosedPoint):
             from .systems import System
 
             gens = [self._lex.parse(self._of_form(self._minimal_coefficients))]
-            gens += [self._lex.parse(f"{x} - ({self._of_form(g)})")
-                     for x, g in zip(self.space.names, self._coordinate_coefficients)]
+            gens += [
+                self._lex.parse(f"{x} - ({self._of_form(g)})")
+                for x, g in zip(self.space.names, self._coordinate_coefficients)
+            ]
             self._equations = tuple(System(self._lex, gens).basis(order="lex"))
         return self._equations
 
@@ -286,8 +299,8 @@ def closed_points(system: "System") -> list[ClosedPoint]:
     """The closed points of a zero-dimensional system over a finite field or Q, by increasing
     degree; ``ValueError`` for a system of positive dimension."""
     if system.space.field.size is None:
-        found = _native.closed_points_over_q(system.space._native, [g._native for g in system.equations])
-        return [RationalClosedPoint(system.space, *point) for point in found]
+        over_q = _native.closed_points_over_q(system.space._native, [g._native for g in system.equations])
+        return [RationalClosedPoint(system.space, *point) for point in over_q]
     lex = system.space.with_order("lex")
     found = _native.closed_points(system.space._native, [g._native for g in system.equations])
     return [ClosedPoint(lex, degree, [Polynomial(lex, g) for g in equations]) for degree, equations in found]

@@ -16,6 +16,7 @@ from typing import Any, Optional
 from .report import aligned, plural, seconds
 from .solutions import RationalClosedPoint, closed_points, embedding, points
 
+
 def solution_texts(system, limit: Optional[int], over: Optional[str] = None) -> dict:
     """``{"points": [[text, ...], ...], "truncated": bool, "field": ..., "generator_image": ...}``:
     the points over the system's field (or ``over``), at most ``limit`` of them."""
@@ -23,8 +24,11 @@ def solution_texts(system, limit: Optional[int], over: Optional[str] = None) -> 
     wanted = None if limit is None else limit + 1  # one more tells whether the list was cut
     found = [[target.space.field.element_text(c) for c in p] for p in points(target, limit=wanted)]
     truncated = limit is not None and len(found) > limit
-    result: dict[str, Any] = {"points": found[:limit] if truncated else found, "truncated": truncated,
-                              "field": str(target.space.field)}
+    result: dict[str, Any] = {
+        "points": found[:limit] if truncated else found,
+        "truncated": truncated,
+        "field": str(target.space.field),
+    }
     if image is not None:
         result["generator_image"] = target.space.field.element_text(image)
     return result
@@ -38,8 +42,11 @@ def closed_point_texts(system) -> list[dict]:
     for cp in closed_points(system):
         entry: dict[str, Any] = {"degree": cp.degree, "equations": [str(g) for g in cp.equations]}
         if isinstance(cp, RationalClosedPoint):
-            entry.update(form=str(cp.form), minimal_polynomial=str(cp.minimal_polynomial),
-                         coordinates=[str(g) for g in cp.coordinates])
+            entry.update(
+                form=str(cp.form),
+                minimal_polynomial=str(cp.minimal_polynomial),
+                coordinates=[str(g) for g in cp.coordinates],
+            )
         rational = cp.rational_point()
         if rational is not None:
             entry["point"] = [system.space.field.element_text(c) for c in rational]
@@ -66,8 +73,11 @@ def solve_command(args: argparse.Namespace, activity, header: dict, system) -> d
 
 
 def render_solve(result: dict) -> str:
-    rows = [("field", result["field"]), ("variables", ", ".join(result["variables"])),
-            ("polynomials", result["polynomials"])]
+    rows = [
+        ("field", result["field"]),
+        ("variables", ", ".join(result["variables"])),
+        ("polynomials", result["polynomials"]),
+    ]
     if "closed_points" in result:
         found = result["closed_points"]
         degrees = sorted({p["degree"] for p in found})
@@ -96,8 +106,11 @@ def _closed_point_line(names: list[str], point: dict) -> str:
     if "point" in point:
         return _point_line(names, point["point"])
     if "minimal_polynomial" in point:
-        return (f"degree {point['degree']}: " + _point_line(names, point["coordinates"])
-                + f", where t = {point['form']} is a root of {point['minimal_polynomial']}")
+        return (
+            f"degree {point['degree']}: "
+            + _point_line(names, point["coordinates"])
+            + f", where t = {point['form']} is a root of {point['minimal_polynomial']}"
+        )
     return f"degree {point['degree']}: " + ", ".join(f"{g} = 0" for g in point["equations"])
 
 
@@ -105,4 +118,3 @@ def solutions_task(system, limit: int) -> dict:
     """The batch task ``solutions``: ``{"points": [[text, ...], ...], "truncated": bool}``."""
     found = solution_texts(system, limit)
     return {"points": found["points"], "truncated": found["truncated"]}
-

@@ -27,6 +27,7 @@ if TYPE_CHECKING:
 # text, an int or a fraction (constants), a galois scalar of the field, or a sympy expression.
 Coercible = Union["Polynomial", str, int, Fraction, Any]
 
+
 class Space:
     """Affine space k^n with named coordinates and a monomial order (the default for bases).
 
@@ -44,8 +45,15 @@ class Space:
     the solutions of its systems are points of GF(2)^n (see ``fibrewise.boolean``).
     """
 
-    def __init__(self, field_spec: FieldSpec, variables: Variables, order: Order = "grevlex", boolean: bool = False,
-                 *, memory: Memory = None):
+    def __init__(
+        self,
+        field_spec: FieldSpec,
+        variables: Variables,
+        order: Order = "grevlex",
+        boolean: bool = False,
+        *,
+        memory: Memory = None,
+    ):
         from .boolean import check_boolean_flag
 
         self.field: Field = field(field_spec)
@@ -53,8 +61,9 @@ class Space:
         self.order: Order = order
         self.boolean: bool = check_boolean_flag(boolean)
         self.memory: int | None = parse_memory(memory)
-        self._native = _native.NativeSpace(self.field._native, list(self.names), native_order(order, self.names),
-                                           memory=self.memory)
+        self._native = _native.NativeSpace(
+            self.field._native, list(self.names), native_order(order, self.names), memory=self.memory
+        )
         self._boolean = _native.NativeBooleanSpace(self._native) if boolean else None
 
     def with_order(self, order: Order) -> "Space":
@@ -97,7 +106,9 @@ class Space:
         if isinstance(value, str):
             return self.parse(value)
         if isinstance(value, (bool, float, complex)):
-            raise TypeError(f"a {type(value).__name__} is not an element of {self.field} (use an int or a Fraction)")
+            raise TypeError(
+                f"a {type(value).__name__} is not an element of {self.field} (use an int or a Fraction)"
+            )
         if isinstance(value, Integral):
             # As text, an int is an integer in every field (3 = 0 in GF(9)).
             return self.parse(str(int(value)))
@@ -306,7 +317,9 @@ class Polynomial:
                 raise ValueError(f"evaluate: no value for {', '.join(missing)}")
             point = [point[v] for v in names]
         if isinstance(point, (str, bytes)) or not isinstance(point, Sequence):
-            raise TypeError(f"evaluate takes a sequence or a mapping of coordinates, not {type(point).__name__}")
+            raise TypeError(
+                f"evaluate takes a sequence or a mapping of coordinates, not {type(point).__name__}"
+            )
         if len(point) != len(names):
             raise ValueError(f"evaluate: {len(point)} coordinates for {len(names)} variables")
         return self._native.evaluate(list(point))
@@ -318,7 +331,9 @@ class Polynomial:
         names = self.space.names
         unknown = [n for n in images if n not in names]
         if unknown:
-            raise ValueError(f"substitute: unknown variable '{unknown[0]}' (the variables are {', '.join(names)})")
+            raise ValueError(
+                f"substitute: unknown variable '{unknown[0]}' (the variables are {', '.join(names)})"
+            )
         native = [self.space.polynomial(images[v])._native if v in images else None for v in names]
         return Polynomial(self.space, self._native.substitute(native))
 

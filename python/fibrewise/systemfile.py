@@ -47,8 +47,9 @@ def _text_of(data: bytes, path: str) -> str:
     except UnicodeDecodeError as e:
         line = data.count(b"\n", 0, e.start) + 1
         column = e.start - (data.rfind(b"\n", 0, e.start) + 1) + 1
-        raise SystemFileError(path, line, column, f"not UTF-8 text (byte 0x{data[e.start]:02x}); "
-                              "save the file as UTF-8") from None
+        raise SystemFileError(
+            path, line, column, f"not UTF-8 text (byte 0x{data[e.start]:02x}); save the file as UTF-8"
+        ) from None
 
 
 def parse_system_text(lines: Iterable[str], path: str = "<text>", memory=None) -> System:
@@ -124,5 +125,7 @@ def _boolean_header(headers: dict[str, tuple[str, int, int]], f, path: str) -> b
         raise SystemFileError(path, line, col, f"'boolean:' is yes or no, not {value!r}")
     boolean = BOOLEAN_VALUES[value.lower()]
     if boolean and str(f) != "GF(2)":
-        raise SystemFileError(path, line, col, f"'boolean: yes' needs the field GF(2); the file's field is {f}")
+        raise SystemFileError(
+            path, line, col, f"'boolean: yes' needs the field GF(2); the file's field is {f}"
+        )
     return boolean

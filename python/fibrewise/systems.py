@@ -59,7 +59,9 @@ class GroebnerStats:
     @classmethod
     def _from_native(cls, d: dict) -> "GroebnerStats":
         steps = [StepStats(**s) for s in d["steps"]]
-        return cls(d["engine"], d["seconds"], d["zero_reductions"], d["max_degree"], steps, d.get("choice", ""))
+        return cls(
+            d["engine"], d["seconds"], d["zero_reductions"], d["max_degree"], steps, d.get("choice", "")
+        )
 
     def to_dict(self) -> dict:
         return {
@@ -115,7 +117,9 @@ class ReducedBasis(Sequence[Polynomial]):
         return "[" + ", ".join(str(g) for g in self.polys) + "]"
 
     def __repr__(self) -> str:
-        return f"<ReducedBasis of {len(self.polys)} polynomials over {self.space}, order {self.order!r}: {self}>"
+        return (
+            f"<ReducedBasis of {len(self.polys)} polynomials over {self.space}, order {self.order!r}: {self}>"
+        )
 
     def _repr_latex_(self) -> str:
         from .interop import latex_polynomial
@@ -209,8 +213,10 @@ class System:
             from . import boolean
 
             return boolean.basis(self, order, engine, field_equations, max_degree, max_matrix, threads)
-        limits = (_optional_count("max_degree", max_degree, 0, 2**32 - 1),
-                  _optional_count("max_matrix", max_matrix, 1, 2**64 - 1))
+        limits = (
+            _optional_count("max_degree", max_degree, 0, 2**32 - 1),
+            _optional_count("max_matrix", max_matrix, 1, 2**64 - 1),
+        )
         threads = _optional_count("threads", threads, 1, 4096)
         space = self.space if order is None else self.space.with_order(order)
         key = self._basis_key(space.order, engine)
@@ -316,7 +322,9 @@ class System:
         """The degree [k(P) : k] of the closed point; ``ValueError`` if the solutions are not one."""
         return invariants.closed_point_degree(self)
 
-    def count_points(self, over: "FieldSpec | None" = None, projective: bool = False, *, method: str = "auto") -> int:
+    def count_points(
+        self, over: "FieldSpec | None" = None, projective: bool = False, *, method: str = "auto"
+    ) -> int:
         """Points with coordinates in the field, or in the extension ``over`` (affine, or for
         homogeneous equations projective). ``method`` is for Boolean systems (see ``points``)."""
         if self.space.boolean:
@@ -329,8 +337,14 @@ class System:
 
     # --- solutions (python/fibrewise/solutions.py; Boolean spaces: python/fibrewise/boolean.py) --
 
-    def points(self, over: "FieldSpec | None" = None, limit: int | None = None,
-               as_galois: bool = False, *, method: str = "auto") -> Iterator[Any]:
+    def points(
+        self,
+        over: "FieldSpec | None" = None,
+        limit: int | None = None,
+        as_galois: bool = False,
+        *,
+        method: str = "auto",
+    ) -> Iterator[Any]:
         """Iterator over the points with coordinates in the finite field, or in the extension
         ``over`` (``"GF(7^3)"``; the generator of GF(p^j) is sent to a root of its modulus
         there): tuples of ints (residues for GF(p), integer representations for GF(p^k)), or
@@ -347,7 +361,9 @@ class System:
 
             return boolean.points(self, over=over, limit=limit, method=method)
         if method != "auto":
-            raise ValueError(f"method={method!r} chooses how Boolean systems are solved; this space is not Boolean")
+            raise ValueError(
+                f"method={method!r} chooses how Boolean systems are solved; this space is not Boolean"
+            )
         from .solutions import points
 
         return points(self, over=over, limit=limit, as_galois=as_galois)
@@ -385,8 +401,9 @@ class System:
 
     # --- finite projections (python/fibrewise/normalization.py) -----------------------------
 
-    def projection(self, strategy: Strategy = "auto", seed: int | None = None,
-                   equations: "EquationsWhen" = "lazy") -> "FiniteProjection":
+    def projection(
+        self, strategy: Strategy = "auto", seed: int | None = None, equations: "EquationsWhen" = "lazy"
+    ) -> "FiniteProjection":
         """A finite projection onto d-space (Noether normalization) with its certificate.
         Parameters, coordinates, rank, module generators and strategy come at about the cost of
         one basis; the monic equations (``.equations``) are computed on first use, or at once

@@ -141,7 +141,10 @@ fn main() {
     let args: Vec<String> = std::env::args().collect();
     // `--engine N [N ...]`: only the engine runs on those n (m = 2n), no time budget.
     if let Some(at) = args.iter().position(|a| a == "--engine") {
-        for n in args[at + 1..].iter().map(|a| a.parse::<usize>().expect("n")) {
+        for n in args[at + 1..]
+            .iter()
+            .map(|a| a.parse::<usize>().expect("n"))
+        {
             let load = load_average();
             let (seconds, cpu, summary) = engine(n, f64::INFINITY).expect("no budget");
             println!(

@@ -122,7 +122,12 @@ fn run_one(label: &str, threads: usize) -> Result<(), String> {
     let (name, engine) = engine_of(label_engine);
     let sys = system(name).ok_or_else(|| format!("unknown system {name}"))?;
     let (seconds, s, basis) = match field {
-        "" => solve(PrimeField::new(PRIME).map_err(|e| e.to_string())?, &sys, engine, threads)?,
+        "" => solve(
+            PrimeField::new(PRIME).map_err(|e| e.to_string())?,
+            &sys,
+            engine,
+            threads,
+        )?,
         "p255" => {
             let p = (BigUint::from(1u8) << 255u32) - 19u32;
             let field = BigPrimeField::<4>::new(&p).map_err(|e| e.to_string())?;

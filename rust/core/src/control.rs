@@ -185,7 +185,11 @@ impl Control {
             return Ok(());
         };
         // Reading the clock on every call would cost more than most callers' work.
-        if !self.calls.fetch_add(1, Ordering::Relaxed).is_multiple_of(256) {
+        if !self
+            .calls
+            .fetch_add(1, Ordering::Relaxed)
+            .is_multiple_of(256)
+        {
             return Ok(());
         }
         let due = {

@@ -42,6 +42,9 @@ pub fn random_poly<F: crate::field::Field>(
             })
             .collect();
         let monomial = crate::monomial::Monomial::from_exponents(exponents).unwrap();
-        (monomial, crate::univariate::random_element(&ring.field, rng))
+        (
+            monomial,
+            crate::univariate::random_element(&ring.field, rng),
+        )
     }))
 }

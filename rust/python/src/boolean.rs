@@ -204,7 +204,9 @@ impl NativeBooleanSpace {
     ) -> PyResult<NativePoly> {
         let b = self.basis_of(&basis)?;
         let f = self.to_boolean(&f)?;
-        let nf = long_run::run(py, Limits::default(), self.memory, |control| b.normal_form(&f, control))?;
+        let nf = long_run::run(py, Limits::default(), self.memory, |control| {
+            b.normal_form(&f, control)
+        })?;
         self.to_general(&nf)
     }
 
@@ -215,7 +217,9 @@ impl NativeBooleanSpace {
         basis: Vec<PyRef<'_, NativePoly>>,
     ) -> PyResult<BigUint> {
         let b = self.basis_of(&basis)?;
-        long_run::run(py, Limits::default(), self.memory, |control| b.count_solutions(control))
+        long_run::run(py, Limits::default(), self.memory, |control| {
+            b.count_solutions(control)
+        })
     }
 
     /// The method the cost estimate picks for `gens` on `threads` threads (all: None).

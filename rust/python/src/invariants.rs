@@ -13,7 +13,7 @@ use fibrewise_core::control::Limits;
 use fibrewise_core::groebner::{ReducedBasis, Stats};
 use fibrewise_core::hilbert::{series_of_basis, HilbertSeries};
 use fibrewise_core::zerodim::{
-    maximal, radical, quotient_dimension as core_vs_dimension, Quotient,
+    maximal, quotient_dimension as core_vs_dimension, radical, Quotient,
 };
 use fibrewise_core::{dimension, points, Ring};
 use pyo3::prelude::*;

@@ -198,7 +198,11 @@ fn closed_points(
 }
 
 /// Polynomials of a ring the core made (the lex ring of a closed point) as native handles.
-pub(crate) fn native_polys<F: Kind>(ring: Ring<F>, polys: Vec<Poly<F>>, memory: Option<u64>) -> Vec<NativePoly> {
+pub(crate) fn native_polys<F: Kind>(
+    ring: Ring<F>,
+    polys: Vec<Poly<F>>,
+    memory: Option<u64>,
+) -> Vec<NativePoly> {
     let ring = F::wrap_ring(Arc::new(ring));
     polys
         .into_iter()

@@ -221,11 +221,12 @@ impl<const W: usize> Assembly<W> {
         for (p, &c) in pivot_cols.iter().chain(&other_cols).enumerate() {
             position[c as usize] = p as u32;
         }
-        let renumber = |row: Vec<u32>| -> Vec<u32> {
-            row.into_iter().map(|c| position[c as usize]).collect()
-        };
+        let renumber =
+            |row: Vec<u32>| -> Vec<u32> { row.into_iter().map(|c| position[c as usize]).collect() };
         let lead_first = |mut row: Vec<u32>| {
-            let lead = (0..row.len()).min_by_key(|&i| row[i]).expect("pivot rows are nonzero");
+            let lead = (0..row.len())
+                .min_by_key(|&i| row[i])
+                .expect("pivot rows are nonzero");
             row.swap(0, lead);
             row
         };

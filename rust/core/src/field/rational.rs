@@ -72,7 +72,11 @@ impl Field for RationalField {
     /// 0, 1, −1, 2, −2, ...: small integers first, as linear changes of coordinates want.
     fn element_from_index(&self, i: u64) -> BigRational {
         let magnitude = BigInt::from(i.div_ceil(2));
-        BigRational::from_integer(if i.is_multiple_of(2) { -magnitude } else { magnitude })
+        BigRational::from_integer(if i.is_multiple_of(2) {
+            -magnitude
+        } else {
+            magnitude
+        })
     }
     fn size_hint(&self) -> f64 {
         f64::INFINITY

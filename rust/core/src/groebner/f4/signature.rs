@@ -737,9 +737,7 @@ fn reducer_picker<'e, C: Send + Sync>(
                     && c.h_power <= room
             });
             for c in fitting {
-                if best.is_none_or(|b| {
-                    order.cmp_by(n, sig_of(c), sig_of(b)) == Ordering::Less
-                }) {
+                if best.is_none_or(|b| order.cmp_by(n, sig_of(c), sig_of(b)) == Ordering::Less) {
                     best = Some(c);
                 }
             }
