@@ -16,13 +16,13 @@
 use crate::control::Control;
 use crate::dimension::krull_dimension;
 use crate::error::{Error, Result};
+use crate::field::field_size;
 use crate::field::Field;
 use crate::groebner::reduce::reduced_basis;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::monomial::Monomial;
-use crate::order::{Block, MonomialOrder};
+use crate::order::{MonomialOrder, OrderBlock};
 use crate::poly::{Poly, Ring};
-use crate::rng::field_size;
 use crate::univariate;
 
 use super::solve::{check_point, collect_points, digits, zero_dimensional_points};
@@ -371,17 +371,20 @@ pub fn joint_ring<F: Field>(ring: &Ring<F>, d: usize) -> Result<Ring<F>> {
     let mut names = ring.names().to_vec();
     names.extend((1..=d).map(|j| format!("{prefix}{j}")));
     let order = MonomialOrder::Block(vec![
-        Block {
+        OrderBlock {
             order: MonomialOrder::Grevlex,
             vars: (0..n).collect(),
         },
-        Block {
+        OrderBlock {
             order: MonomialOrder::Grevlex,
             vars: (n..n + d).collect(),
         },
     ]);
     Ring::new(ring.field.clone(), names, order)
 }
+
+/// The terms of a polynomial of k[x, t] grouped by their x-monomial: (x-part, [(t-part, c)]).
+type TermsByX<F> = Vec<(Monomial, Vec<(Monomial, <F as Field>::Elem)>)>;
 
 /// A polynomial of k[x, t] as x-monomials (decreasing) with coefficients in k[t]. The block
 /// order compares x-parts first, so equal x-parts are adjacent in the sorted terms.
@@ -390,7 +393,7 @@ fn split_by_x<F: Field>(
     n: usize,
     parameter_ring: &Ring<F>,
 ) -> Result<ParametricElement<F>> {
-    let mut groups: Vec<(Monomial, Vec<(Monomial, F::Elem)>)> = Vec::new();
+    let mut groups: TermsByX<F> = Vec::new();
     for (m, c) in g.terms() {
         let (x, t) = m.exponents().split_at(n);
         let x = Monomial::from_exponents(x.to_vec())?;

@@ -55,7 +55,7 @@ fn random_curves_and_surfaces_agree_with_brute_force() {
                 // A surface in three variables over (x, y), and a space curve over z.
                 let space = ring_over(field.clone(), &["x", "y", "z"]);
                 let g = space.add(&random_poly(&space, &mut rng, 4, 2), &parse_poly(&space, "z^2").unwrap());
-                check_against_brute_force(&space, &[g.clone()], &[space.var(0), space.var(1)]);
+                check_against_brute_force(&space, std::slice::from_ref(&g), &[space.var(0), space.var(1)]);
                 let h = space.add(&random_poly(&space, &mut rng, 4, 2), &parse_poly(&space, "x*y").unwrap());
                 check_against_brute_force(&space, &[g, h], &[space.var(2)]);
             }
