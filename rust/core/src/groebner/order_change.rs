@@ -61,10 +61,12 @@ fn by_change_of_order<F: Field>(
     let grevlex = groebner_basis(&grevlex_ring, &adopted, engine, control)?;
     let (polys, mut stats) = change_order(&grevlex, ring, control)?;
     stats.engine = engine.name().to_string();
-    stats.choice = format!(
-        "grevlex basis ({}), then {}",
-        grevlex.stats.choice, stats.choice
-    );
+    let how = if grevlex.stats.choice.is_empty() {
+        format!("by {}", engine.name())
+    } else {
+        format!("({})", grevlex.stats.choice)
+    };
+    stats.choice = format!("grevlex basis {how}, then {}", stats.choice);
     let mut steps = grevlex.stats.steps;
     steps.append(&mut stats.steps);
     stats.steps = steps;
