@@ -387,10 +387,7 @@ def test_jobs_are_read_once_and_checked(tmp_path):
 # Dask ------------------------------------------------------------------------------------------
 
 
-def test_dask_cluster_gives_the_same_lines_and_resumes(tmp_path):
-    pytest.importorskip("distributed")
-    from distributed import LocalCluster
-
+def test_dask_cluster_gives_the_same_lines_and_resumes(tmp_path, loopback_cluster):
     jobs = katsura_jobs(4)[:3] + [
         {
             "id": "unknown-variable",
@@ -410,29 +407,21 @@ def test_dask_cluster_gives_the_same_lines_and_resumes(tmp_path):
     source = write_jobs(tmp_path / "in.jsonl", jobs)
     local, remote = tmp_path / "local.jsonl", tmp_path / "dask.jsonl"
     assert main(["batch", str(source), "-o", str(local), "--timeout", "3", "--quiet"]) == 0
-    with LocalCluster(
-        n_workers=2,
-        threads_per_worker=1,
-        processes=False,
-        protocol="tcp://",
-        host="127.0.0.1",
-        dashboard_address=None,
-    ) as cluster:
-        args = [
-            "batch",
-            str(source),
-            "-o",
-            str(remote),
-            "--timeout",
-            "3",
-            "--scheduler",
-            cluster.scheduler_address,
-            "--quiet",
-        ]
-        assert main(args) == 0
-        size = remote.stat().st_size
-        assert main(args) == 0  # resume: everything is already there
-        assert remote.stat().st_size == size
+    args = [
+        "batch",
+        str(source),
+        "-o",
+        str(remote),
+        "--timeout",
+        "3",
+        "--scheduler",
+        loopback_cluster.scheduler_address,
+        "--quiet",
+    ]
+    assert main(args) == 0
+    size = remote.stat().st_size
+    assert main(args) == 0  # resume: everything is already there
+    assert remote.stat().st_size == size
 
     def essence(path: Path) -> dict:
         return {r["id"]: (r["status"], r.get("result"), r.get("error")) for r in read_records(path)}
@@ -456,31 +445,30 @@ def lose_the_victim(job: dict, timeout, memory_bytes) -> dict:
     return _run_in_sandbox(job, timeout, memory_bytes)
 
 
-def test_dask_job_lost_by_the_cluster_gets_no_line_and_runs_on_resume(tmp_path, monkeypatch, capsys):
-    pytest.importorskip("distributed")
-    from distributed import LocalCluster
-
+def test_dask_job_lost_by_the_cluster_gets_no_line_and_runs_on_resume(
+    tmp_path, loopback_cluster, monkeypatch, capsys
+):
     names, eqs = katsura(3)
     jobs = [
         {"id": job_id, "field": "GF(32003)", "variables": names, "polynomials": eqs, "tasks": ["dimension"]}
         for job_id in ("before", "victim", "after")
     ]
     source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
-    with LocalCluster(
-        n_workers=2,
-        threads_per_worker=1,
-        processes=False,
-        protocol="tcp://",
-        host="127.0.0.1",
-        dashboard_address=None,
-    ) as cluster:
-        args = ["batch", str(source), "-o", str(out), "--scheduler", cluster.scheduler_address, "--quiet"]
-        monkeypatch.setattr(fibrewise.batch, "run_in_sandbox", lose_the_victim)
-        assert main(args) == 1  # a job was lost: exit status 1, as the README says
-        assert 'job "victim" lost by the cluster (ConnectionError: worker lost)' in capsys.readouterr().err
-        assert sorted(r["id"] for r in read_records(out)) == ["after", "before"]  # the batch went on
-        monkeypatch.undo()
-        assert main(args) == 0  # the resume runs the lost job, and only it
+    args = [
+        "batch",
+        str(source),
+        "-o",
+        str(out),
+        "--scheduler",
+        loopback_cluster.scheduler_address,
+        "--quiet",
+    ]
+    monkeypatch.setattr(fibrewise.batch, "run_in_sandbox", lose_the_victim)
+    assert main(args) == 1  # a job was lost: exit status 1, as the README says
+    assert 'job "victim" lost by the cluster (ConnectionError: worker lost)' in capsys.readouterr().err
+    assert sorted(r["id"] for r in read_records(out)) == ["after", "before"]  # the batch went on
+    monkeypatch.undo()
+    assert main(args) == 0  # the resume runs the lost job, and only it
     records = read_records(out)
     assert sorted(r["id"] for r in records) == ["after", "before", "victim"]
     # katsura-3 has 2^3 = 8 solutions, so dimension 0 (from memory).

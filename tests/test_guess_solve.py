@@ -63,34 +63,21 @@ def test_guess_arguments_are_checked():
             list(guessed_points(S, guess))
 
 
-def test_a_dask_cluster_gives_the_same_points_and_survives_a_lost_worker(tmp_path):
-    pytest.importorskip("distributed")
-    from distributed import LocalCluster
-
+def test_a_dask_cluster_gives_the_same_points_and_survives_a_lost_worker(tmp_path, loopback_cluster):
     S = cipher()
     expected = brute_force(S)
-    with LocalCluster(
-        n_workers=2,
-        threads_per_worker=1,
-        processes=False,
-        protocol="tcp://",
-        host="127.0.0.1",
-        dashboard_address=None,
-    ) as cluster:
-        address = cluster.scheduler_address
-        assert sorted(guessed_points(S, ["k1", "k2"], scheduler=address, chunk=3)) == expected
+    address = loopback_cluster.scheduler_address
+    assert sorted(guessed_points(S, ["k1", "k2"], scheduler=address, chunk=3)) == expected
 
-        def lose_a_worker(done, total):
-            if done == 2:
-                cluster.scale(1)  # one worker leaves mid-run; its chunks go to the other
+    def lose_a_worker(done, total):
+        if done == 2:
+            loopback_cluster.scale(1)  # one worker leaves mid-run; its chunks go to the other
 
-        progress = str(tmp_path / "progress.jsonl")
-        found = list(
-            guessed_points(
-                S, ["k1", "k2"], scheduler=address, chunk=3, progress=progress, on_chunk=lose_a_worker
-            )
-        )
-        assert sorted(found) == expected and len(found) == len(set(found))
+    progress = str(tmp_path / "progress.jsonl")
+    found = list(
+        guessed_points(S, ["k1", "k2"], scheduler=address, chunk=3, progress=progress, on_chunk=lose_a_worker)
+    )
+    assert sorted(found) == expected and len(found) == len(set(found))
 
 
 def test_solve_command_with_guesses(tmp_path, capsys):
