@@ -30,6 +30,28 @@ def test_guessing_gives_the_points_of_the_solver_and_of_brute_force():
     assert len(list(guessed_points(S, ["k1"], limit=1))) == min(1, len(expected))
 
 
+def test_guessing_on_a_boolean_space_gives_every_point_of_brute_force(rng):
+    """On a Boolean space the field equations are implicit: the guessed run must still find
+    exactly the points of GF(2)^8, compared with evaluating every one of the 256 points."""
+    import itertools
+
+    V = fw.Space("GF(2)", "x0..x7", boolean=True)
+    names = V.names
+    polys = []
+    for _ in range(4):  # fewer equations than unknowns after the guesses: finite only with x^2 = x
+        quadratic = [f"{a}*{b}" for i, a in enumerate(names) for b in names[i + 1 :] if rng.random() < 0.3]
+        polys.append(" + ".join(quadratic + [a for a in names if rng.random() < 0.5] + ["1"]))
+    S = V.system(polys)
+    expected = [
+        point
+        for point in itertools.product((0, 1), repeat=8)
+        if all(g.evaluate(dict(zip(names, point))) == 0 for g in S.equations)
+    ]
+    assert expected, "the seeded system has points"
+    found = sorted(tuple(int(v) for v in p) for p in guessed_points(S, ["x0", "x1"], chunk=1))
+    assert found == expected
+
+
 def test_a_local_process_pool_gives_the_same_points():
     S = cipher()
     assert sorted(guessed_points(S, ["k1", "k2"], workers=2, chunk=4)) == brute_force(S)
