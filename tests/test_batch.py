@@ -19,7 +19,7 @@ from pathlib import Path
 import pytest
 import sympy
 
-import fibrewise.batch
+import fibrewise.batch.cluster
 from fibrewise.batch import BatchInputError, finished_ids, read_jobs
 from fibrewise.cli import main
 
@@ -434,7 +434,7 @@ def test_dask_cluster_gives_the_same_lines_and_resumes(tmp_path, loopback_cluste
         assert standard_monomial_count([leading_exponents(g, names) for g in basis], len(names)) == 16
 
 
-_run_in_sandbox = fibrewise.batch.run_in_sandbox
+_run_in_sandbox = fibrewise.batch.cluster.run_in_sandbox
 
 
 def lose_the_victim(job: dict, timeout, memory_bytes) -> dict:
@@ -463,7 +463,7 @@ def test_dask_job_lost_by_the_cluster_gets_no_line_and_runs_on_resume(
         loopback_cluster.scheduler_address,
         "--quiet",
     ]
-    monkeypatch.setattr(fibrewise.batch, "run_in_sandbox", lose_the_victim)
+    monkeypatch.setattr(fibrewise.batch.cluster, "run_in_sandbox", lose_the_victim)
     assert main(args) == 1  # a job was lost: exit status 1, as the README says
     assert 'job "victim" lost by the cluster (ConnectionError: worker lost)' in capsys.readouterr().err
     assert sorted(r["id"] for r in read_records(out)) == ["after", "before"]  # the batch went on
