@@ -320,7 +320,8 @@ def test_plot_without_matplotlib_says_how_to_install_it(tmp_path):
 def test_every_help_example_runs(tmp_path):
     from fibrewise.cli import SUBCOMMANDS
 
-    for name, (_, example, _) in SUBCOMMANDS.items():
+    for name, command in SUBCOMMANDS.items():
+        example = command.example
         if name in ("check", "batch", "analyze"):  # need files made by another step, or a plot
             continue
         words = example.removeprefix("example: fibrewise ").split()

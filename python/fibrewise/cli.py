@@ -13,7 +13,10 @@ import json
 import os
 import sys
 import time
+from dataclasses import dataclass
 from typing import Any, Callable, Sequence
+
+from . import report
 
 EXIT_OK, EXIT_FAILED, EXIT_BAD_INPUT, EXIT_INTERRUPTED = 0, 1, 2, 130
 # An analyze run counts points itself only when the count is small: at most about this many.
@@ -209,9 +212,7 @@ def _summary(result: dict) -> str:
     """The main answer in one line: ``dimension 2, degree 6; finite over k[x + y, z] of rank 6 (linear change)``."""
     dim = result.get("dimension")
     if dim is None:
-        from .report import plural
-
-        return f"reduced Groebner basis of {plural(result['basis']['size'], 'polynomial')} (dimension not available in this build)"
+        return f"reduced Groebner basis of {report.plural(result['basis']['size'], 'polynomial')} (dimension not available in this build)"
     if dim < 0:
         return "no solutions: the equations generate the unit ideal (dimension -1)"
     text = f"dimension {dim}"
@@ -219,9 +220,7 @@ def _summary(result: dict) -> str:
         text += f", degree {result['degree']}"
     norm = result.get("projection")
     if norm is not None:
-        from .report import finite_over
-
-        text += "; " + finite_over(norm, result.get("field"))
+        text += "; " + report.finite_over(norm, result.get("field"))
     return text
 
 
@@ -413,66 +412,10 @@ def _batch(args: argparse.Namespace, activity) -> dict:
 
 
 # ----------------------------------------------------------------------------------------------
-# Parser and main
+# Arguments of each subcommand
 
 
 FILE_HELP = "system file (field:, variables:, order: headers, then one polynomial a line)"
-
-SUBCOMMANDS: dict[str, tuple[str, str, Callable]] = {
-    "analyze": (
-        "dimension, degree, Hilbert series, a finite projection and, where cheap, the point count",
-        "example: fibrewise analyze examples/curve_code_gf7.txt --plot steps.png",
-        _analyze,
-    ),
-    "basis": (
-        "reduced Groebner basis of a system file",
-        "example: fibrewise basis examples/toy_cipher_gf101.txt --order lex",
-        _basis,
-    ),
-    "normalize": (
-        "finite projection (Noether normalization) with its certificate",
-        "example: fibrewise normalize examples/curve_code_gf7.txt -o cert.json",
-        _normalize,
-    ),
-    "integral": (
-        "is an element integral over a subalgebra, and its monic equation",
-        "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x",
-        _integral,
-    ),
-    "points": (
-        "number of points with coordinates in the (finite) field",
-        "example: fibrewise points examples/curve_code_gf7_projective.txt --projective",
-        _points,
-    ),
-    "solve": (
-        "the points with coordinates in the field (finite, or Q for zero-dimensional systems), one per line, "
-        "each checked in every equation "
-        "(Boolean files: exhaustive search, a basis or a hybrid, --method)",
-        "example: fibrewise solve examples/toy_cipher_gf101.txt",
-        _solve,
-    ),
-    "plan": (
-        "guess-and-determine plan: for k guessed variables, the measured cost of one specialised system, "
-        "q^k, the expected total and the best k",
-        "example: fibrewise plan examples/toy_cipher_gf101.txt --max-guess 2 --plot plan.png",
-        _plan,
-    ),
-    "curve": (
-        "smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",
-        "example: fibrewise curve examples/curve_genus2_gf16.txt --up-to 4",
-        _curve,
-    ),
-    "check": (
-        "verify a saved projection certificate against the system file",
-        "example: fibrewise check cert.json examples/curve_code_gf7.txt",
-        _check,
-    ),
-    "batch": (
-        "run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
-        "example: fibrewise batch examples/batch.jsonl -o results.jsonl --timeout 10",
-        _batch,
-    ),
-}
 
 
 def _positive(kind: type) -> Callable[[str], Any]:
@@ -514,44 +457,13 @@ def _stages(text: str) -> tuple[str, ...]:
     return stages
 
 
-def _add_options(name: str, p: argparse.ArgumentParser) -> None:
-    from . import _native
-    from .jobs import TASK_NAMES
+def _file_arguments(p: argparse.ArgumentParser) -> None:
+    """What every subcommand on a system file takes: the file and the memory budget."""
+    p.add_argument("file", help=FILE_HELP)
+    _memory_argument(p)
 
-    if name == "batch":
-        p.add_argument(
-            "file",
-            metavar="IN.jsonl",
-            help='one job a line: {"id", "field", "variables", "polynomials", '
-            '"tasks"}; tasks: ' + ", ".join(TASK_NAMES),
-        )
-        p.add_argument(
-            "-o",
-            "--output",
-            metavar="OUT.jsonl",
-            required=True,
-            help="results, one line a job; ids already there are skipped (resume)",
-        )
-        p.add_argument(
-            "--workers", type=_positive(int), metavar="N", help="worker processes (default: all cores)"
-        )
-        p.add_argument("--timeout", type=_positive(float), metavar="S", help="time limit per job, in seconds")
-        p.add_argument(
-            "--memory",
-            type=_worker_memory,
-            metavar="SIZE",
-            help="memory limit per worker: 4GB, 512MiB, 25%% of the machine, or a number of MiB "
-            "(default: 3/4 of the machine's memory shared by the workers)",
-        )
-        p.add_argument(
-            "--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)"
-        )
-        p.add_argument(
-            "--retry-failed",
-            action="store_true",
-            help="run again the jobs whose line says error or timeout, replacing their line",
-        )
-        return
+
+def _memory_argument(p: argparse.ArgumentParser) -> None:
     p.add_argument(
         "--memory",
         type=_memory,
@@ -559,148 +471,351 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
         help="memory budget of the computation: 4GB, 512MiB, 50%% of the machine "
         "(default: 3/4 of the machine's memory); going over it is an error naming what was being built",
     )
-    if name == "check":
-        p.add_argument(
-            "certificate",
-            metavar="CERT.json",
-            help="a certificate saved by 'fibrewise normalize -o', or the output of 'normalize --json'",
-        )
-        p.add_argument("file", metavar="SYSTEM", help=FILE_HELP)
-        return
-    p.add_argument("file", help=FILE_HELP)
-    if name == "basis":
-        p.add_argument(
-            "--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)"
-        )
-        p.add_argument(
-            "--engine",
-            choices=list(_native.ENGINE_NAMES),
-            default="auto",
-            help="auto (the default: chooses per system and step, and says what it chose), f4, "
-            "f4-sampled (faster on large systems over finite fields; "
-            "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
-            "only; skips most rows that reduce to zero) or buchberger (the reference)",
-        )
-        p.add_argument(
-            "--field-equations",
-            action="store_true",
-            help="Boolean files: include the field equations x^2 + x in the basis",
-        )
-    elif name == "analyze":
-        p.add_argument(
-            "--plot",
-            metavar="FILE.png",
-            help="draw degree and matrix size per Groebner step and the Hilbert function (needs matplotlib)",
-        )
-        p.add_argument(
-            "--skip",
-            type=_stages,
-            default=(),
-            metavar="STAGE,...",
-            help="stages to leave out: " + ", ".join(ANALYZE_STAGES) + " (e.g. --skip normalize,points)",
-        )
-        group = p.add_mutually_exclusive_group()
-        group.add_argument(
-            "--points",
-            dest="points",
-            action="store_const",
-            const=True,
-            default=None,
-            help="count the points even when the count may be large",
-        )
-        group.add_argument(
-            "--no-points", dest="points", action="store_const", const=False, help="do not count points"
-        )
-    elif name == "normalize":
-        p.add_argument(
-            "--strategy",
-            choices=list(_native.STRATEGY_NAMES),
-            default="auto",
-            help="the kind of change of coordinates to use (default: the simplest that works)",
-        )
-        p.add_argument("--seed", type=int, help="seed for random changes of coordinates (reproducible runs)")
-        p.add_argument("--no-verify", action="store_true", help="skip re-checking the certificate")
-        p.add_argument(
-            "-o", "--output", metavar="CERT.json", help="save the certificate for 'fibrewise check'"
-        )
-    elif name == "integral":
-        p.add_argument("--element", required=True, metavar="F", help="the polynomial to test")
-        p.add_argument(
-            "--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)"
-        )
-    elif name == "curve":
-        p.add_argument(
-            "--up-to",
-            type=_positive(int),
-            metavar="R",
-            help="report N_r for r = 1..R (default: the genus; N_r beyond the genus come from the zeta function)",
-        )
-    elif name == "plan":
-        p.add_argument(
-            "--max-guess",
-            type=int,
-            metavar="K",
-            help="plan k = 0..K guessed variables (default: until more guesses cannot pay)",
-        )
-        p.add_argument(
-            "--samples",
-            type=_positive(int),
-            default=8,
-            metavar="N",
-            help="random guesses solved per k (default 8)",
-        )
-        p.add_argument(
-            "--plot", metavar="FILE.png", help="draw the expected total time against k (needs matplotlib)"
-        )
-    elif name == "points":
-        p.add_argument(
-            "--projective", action="store_true", help="count projective points (homogeneous systems)"
-        )
-    elif name == "solve":
-        p.add_argument(
-            "--over", metavar="GF(q^k)", help="list the points with coordinates in this extension field"
-        )
-        p.add_argument(
-            "--limit",
-            type=_positive(int),
-            metavar="N",
-            help="at most N points (the report says when there are more)",
-        )
-        p.add_argument(
-            "--method",
-            default="auto",
-            metavar="METHOD",
-            help="Boolean systems: auto (the cheapest by a cost estimate), exhaustive, basis, hybrid, "
-            "or hybrid:K (guess K variables)",
-        )
-        p.add_argument(
-            "--closed-points",
-            action="store_true",
-            help="list the closed points (Galois orbits, with their degrees and equations) instead",
-        )
-        p.add_argument(
-            "--guess",
-            metavar="X1,X2,...",
-            help="guess these variables: solve the specialised system of "
-            "every guess (see 'fibrewise plan'), points printed as found",
-        )
-        p.add_argument(
-            "--scheduler",
-            metavar="ADDRESS",
-            help="with --guess: spread the guesses over the Dask cluster at ADDRESS (tcp://host:8786)",
-        )
-        p.add_argument(
-            "--workers",
-            type=_positive(int),
-            metavar="N",
-            help="with --guess: local worker processes (default 1)",
-        )
-        p.add_argument(
-            "--progress",
-            metavar="FILE",
-            help="with --guess: record finished chunks in FILE; "
-            "the same command again resumes where it stopped",
-        )
+
+
+def _basis_arguments(p: argparse.ArgumentParser) -> None:
+    from . import _native
+
+    _file_arguments(p)
+    p.add_argument(
+        "--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)"
+    )
+    p.add_argument(
+        "--engine",
+        choices=list(_native.ENGINE_NAMES),
+        default="auto",
+        help="auto (the default: chooses per system and step, and says what it chose), f4, "
+        "f4-sampled (faster on large systems over finite fields; "
+        "wrong with probability at most 2^-80 per matrix), f4-signature (exact, grlex/grevlex "
+        "only; skips most rows that reduce to zero) or buchberger (the reference)",
+    )
+    p.add_argument(
+        "--field-equations",
+        action="store_true",
+        help="Boolean files: include the field equations x^2 + x in the basis",
+    )
+
+
+def _analyze_arguments(p: argparse.ArgumentParser) -> None:
+    _file_arguments(p)
+    p.add_argument(
+        "--plot",
+        metavar="FILE.png",
+        help="draw degree and matrix size per Groebner step and the Hilbert function (needs matplotlib)",
+    )
+    p.add_argument(
+        "--skip",
+        type=_stages,
+        default=(),
+        metavar="STAGE,...",
+        help="stages to leave out: " + ", ".join(ANALYZE_STAGES) + " (e.g. --skip normalize,points)",
+    )
+    group = p.add_mutually_exclusive_group()
+    group.add_argument(
+        "--points",
+        dest="points",
+        action="store_const",
+        const=True,
+        default=None,
+        help="count the points even when the count may be large",
+    )
+    group.add_argument(
+        "--no-points", dest="points", action="store_const", const=False, help="do not count points"
+    )
+
+
+def _normalize_arguments(p: argparse.ArgumentParser) -> None:
+    from . import _native
+
+    _file_arguments(p)
+    p.add_argument(
+        "--strategy",
+        choices=list(_native.STRATEGY_NAMES),
+        default="auto",
+        help="the kind of change of coordinates to use (default: the simplest that works)",
+    )
+    p.add_argument("--seed", type=int, help="seed for random changes of coordinates (reproducible runs)")
+    p.add_argument("--no-verify", action="store_true", help="skip re-checking the certificate")
+    p.add_argument("-o", "--output", metavar="CERT.json", help="save the certificate for 'fibrewise check'")
+
+
+def _integral_arguments(p: argparse.ArgumentParser) -> None:
+    _file_arguments(p)
+    p.add_argument("--element", required=True, metavar="F", help="the polynomial to test")
+    p.add_argument(
+        "--over", nargs="*", default=[], metavar="G", help="generators of the subalgebra (none: over k)"
+    )
+
+
+def _points_arguments(p: argparse.ArgumentParser) -> None:
+    _file_arguments(p)
+    p.add_argument("--projective", action="store_true", help="count projective points (homogeneous systems)")
+
+
+def _solve_arguments(p: argparse.ArgumentParser) -> None:
+    _file_arguments(p)
+    p.add_argument(
+        "--over", metavar="GF(q^k)", help="list the points with coordinates in this extension field"
+    )
+    p.add_argument(
+        "--limit",
+        type=_positive(int),
+        metavar="N",
+        help="at most N points (the report says when there are more)",
+    )
+    p.add_argument(
+        "--method",
+        default="auto",
+        metavar="METHOD",
+        help="Boolean systems: auto (the cheapest by a cost estimate), exhaustive, basis, hybrid, "
+        "or hybrid:K (guess K variables)",
+    )
+    p.add_argument(
+        "--closed-points",
+        action="store_true",
+        help="list the closed points (Galois orbits, with their degrees and equations) instead",
+    )
+    p.add_argument(
+        "--guess",
+        metavar="X1,X2,...",
+        help="guess these variables: solve the specialised system of "
+        "every guess (see 'fibrewise plan'), points printed as found",
+    )
+    p.add_argument(
+        "--scheduler",
+        metavar="ADDRESS",
+        help="with --guess: spread the guesses over the Dask cluster at ADDRESS (tcp://host:8786)",
+    )
+    p.add_argument(
+        "--workers",
+        type=_positive(int),
+        metavar="N",
+        help="with --guess: local worker processes (default 1)",
+    )
+    p.add_argument(
+        "--progress",
+        metavar="FILE",
+        help="with --guess: record finished chunks in FILE; the same command again resumes where it stopped",
+    )
+
+
+def _plan_arguments(p: argparse.ArgumentParser) -> None:
+    _file_arguments(p)
+    p.add_argument(
+        "--max-guess",
+        type=int,
+        metavar="K",
+        help="plan k = 0..K guessed variables (default: until more guesses cannot pay)",
+    )
+    p.add_argument(
+        "--samples",
+        type=_positive(int),
+        default=8,
+        metavar="N",
+        help="random guesses solved per k (default 8)",
+    )
+    p.add_argument(
+        "--plot", metavar="FILE.png", help="draw the expected total time against k (needs matplotlib)"
+    )
+
+
+def _curve_arguments(p: argparse.ArgumentParser) -> None:
+    _file_arguments(p)
+    p.add_argument(
+        "--up-to",
+        type=_positive(int),
+        metavar="R",
+        help="report N_r for r = 1..R (default: the genus; N_r beyond the genus come from the zeta function)",
+    )
+
+
+def _check_arguments(p: argparse.ArgumentParser) -> None:
+    p.add_argument(
+        "certificate",
+        metavar="CERT.json",
+        help="a certificate saved by 'fibrewise normalize -o', or the output of 'normalize --json'",
+    )
+    p.add_argument("file", metavar="SYSTEM", help=FILE_HELP)
+    _memory_argument(p)
+
+
+def _batch_arguments(p: argparse.ArgumentParser) -> None:
+    from .jobs import TASK_NAMES
+
+    p.add_argument(
+        "file",
+        metavar="IN.jsonl",
+        help='one job a line: {"id", "field", "variables", "polynomials", "tasks"}; tasks: '
+        + ", ".join(TASK_NAMES),
+    )
+    p.add_argument(
+        "-o",
+        "--output",
+        metavar="OUT.jsonl",
+        required=True,
+        help="results, one line a job; ids already there are skipped (resume)",
+    )
+    p.add_argument(
+        "--workers", type=_positive(int), metavar="N", help="worker processes (default: all cores)"
+    )
+    p.add_argument("--timeout", type=_positive(float), metavar="S", help="time limit per job, in seconds")
+    p.add_argument(
+        "--memory",
+        type=_worker_memory,
+        metavar="SIZE",
+        help="memory limit per worker: 4GB, 512MiB, 25%% of the machine, or a number of MiB "
+        "(default: 3/4 of the machine's memory shared by the workers)",
+    )
+    p.add_argument(
+        "--scheduler", metavar="ADDRESS", help="run on the Dask cluster at ADDRESS (tcp://host:8786)"
+    )
+    p.add_argument(
+        "--retry-failed",
+        action="store_true",
+        help="run again the jobs whose line says error or timeout, replacing their line",
+    )
+
+
+# ----------------------------------------------------------------------------------------------
+# Reports and exit status of each subcommand (the reports themselves are in report.py)
+
+
+def _render_plan(result: dict) -> str:
+    from .guessing import render_plan
+
+    return render_plan(result)
+
+
+def _render_solve(result: dict) -> str:
+    """Boolean solving, guessed solving and plain solving report differently."""
+    if isinstance(result.get("method"), dict):
+        from .boolean import render_solve as render_boolean
+
+        return render_boolean(result)
+    if "guess" in result:
+        from .guess_solve import render_solve as render_guessed
+
+        return render_guessed(result)
+    from .solving import render_solve
+
+    return render_solve(result)
+
+
+def _ok(result: dict) -> int:
+    return EXIT_OK
+
+
+def _batch_status(result: dict) -> int:
+    if result.get("interrupted"):
+        return 143 if result["interrupted"] == "SIGTERM" else EXIT_INTERRUPTED
+    return EXIT_FAILED if result.get("lost") else EXIT_OK
+
+
+def _check_status(result: dict) -> int:
+    return EXIT_OK if result["valid"] else EXIT_FAILED
+
+
+def _normalize_status(result: dict) -> int:
+    return EXIT_FAILED if result.get("verified") is False else EXIT_OK
+
+
+# ----------------------------------------------------------------------------------------------
+# The subcommands
+
+
+@dataclass(frozen=True)
+class Subcommand:
+    """One subcommand: its help line and example, its arguments, what it computes (a JSON-ready
+    dict), the human report of that dict and the exit status it means."""
+
+    help: str
+    example: str
+    arguments: Callable[[argparse.ArgumentParser], None]
+    run: Callable[[argparse.Namespace, Any], dict]
+    render: Callable[[dict], str]
+    exit_status: Callable[[dict], int] = _ok
+    own_progress: bool = False  # draws its own progress display (jobs done / total)
+
+
+SUBCOMMANDS: dict[str, Subcommand] = {
+    "analyze": Subcommand(
+        "dimension, degree, Hilbert series, a finite projection and, where cheap, the point count",
+        "example: fibrewise analyze examples/curve_code_gf7.txt --plot steps.png",
+        _analyze_arguments,
+        _analyze,
+        report.render_analyze,
+    ),
+    "basis": Subcommand(
+        "reduced Groebner basis of a system file",
+        "example: fibrewise basis examples/toy_cipher_gf101.txt --order lex",
+        _basis_arguments,
+        _basis,
+        report.render_basis,
+    ),
+    "normalize": Subcommand(
+        "finite projection (Noether normalization) with its certificate",
+        "example: fibrewise normalize examples/curve_code_gf7.txt -o cert.json",
+        _normalize_arguments,
+        _normalize,
+        report.render_normalize,
+        _normalize_status,
+    ),
+    "integral": Subcommand(
+        "is an element integral over a subalgebra, and its monic equation",
+        "example: fibrewise integral examples/curve_code_gf7.txt --element y --over x",
+        _integral_arguments,
+        _integral,
+        report.render_integral,
+    ),
+    "points": Subcommand(
+        "number of points with coordinates in the (finite) field",
+        "example: fibrewise points examples/curve_code_gf7_projective.txt --projective",
+        _points_arguments,
+        _points,
+        report.render_points,
+    ),
+    "solve": Subcommand(
+        "the points with coordinates in the field (finite, or Q for zero-dimensional systems), one per line, "
+        "each checked in every equation "
+        "(Boolean files: exhaustive search, a basis or a hybrid, --method)",
+        "example: fibrewise solve examples/toy_cipher_gf101.txt",
+        _solve_arguments,
+        _solve,
+        _render_solve,
+    ),
+    "plan": Subcommand(
+        "guess-and-determine plan: for k guessed variables, the measured cost of one specialised system, "
+        "q^k, the expected total and the best k",
+        "example: fibrewise plan examples/toy_cipher_gf101.txt --max-guess 2 --plot plan.png",
+        _plan_arguments,
+        _plan,
+        _render_plan,
+    ),
+    "curve": Subcommand(
+        "smoothness, genus, point counts over GF(q^r), zeta function and Jacobian order of a curve",
+        "example: fibrewise curve examples/curve_genus2_gf16.txt --up-to 4",
+        _curve_arguments,
+        _curve,
+        report.render_curve,
+    ),
+    "check": Subcommand(
+        "verify a saved projection certificate against the system file",
+        "example: fibrewise check cert.json examples/curve_code_gf7.txt",
+        _check_arguments,
+        _check,
+        report.render_check,
+        _check_status,
+    ),
+    "batch": Subcommand(
+        "run a JSON-lines file of jobs in worker processes or on a Dask cluster, resumably",
+        "example: fibrewise batch examples/batch.jsonl -o results.jsonl --timeout 10",
+        _batch_arguments,
+        _batch,
+        report.render_batch,
+        _batch_status,
+        own_progress=True,
+    ),
+}
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -711,9 +826,9 @@ def _parser() -> argparse.ArgumentParser:
         "(fibrewise SUBCOMMAND --help for each subcommand)",
     )
     sub = parser.add_subparsers(dest="command", required=True, metavar="SUBCOMMAND")
-    for name, (help_text, example, _) in SUBCOMMANDS.items():
-        p = sub.add_parser(name, help=help_text, description=help_text, epilog=example)
-        _add_options(name, p)
+    for name, command in SUBCOMMANDS.items():
+        p = sub.add_parser(name, help=command.help, description=command.help, epilog=command.example)
+        command.arguments(p)
         p.add_argument("--json", action="store_true", help="print one JSON object")
         p.add_argument("-q", "--quiet", action="store_true", help="no progress display on stderr")
     return parser
@@ -721,12 +836,13 @@ def _parser() -> argparse.ArgumentParser:
 
 def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
+    command = SUBCOMMANDS[args.command]
     from .progress import Activity
 
     try:
-        # a batch draws its own progress (jobs done / total); the others show what they compute
-        with Activity(f"fibrewise {args.command}", quiet=args.quiet or args.command == "batch") as activity:
-            result = SUBCOMMANDS[args.command][2](args, activity)
+        # the others show what they compute
+        with Activity(f"fibrewise {args.command}", quiet=args.quiet or command.own_progress) as activity:
+            result = command.run(args, activity)
     except ValueError as e:
         return _fail(args, str(e), EXIT_BAD_INPUT)
     except OSError as e:
@@ -736,26 +852,12 @@ def main(argv: Sequence[str] | None = None) -> int:
         return _fail(args, f"{type(e).__name__}: {e}", EXIT_FAILED)
     except KeyboardInterrupt:
         return _fail(args, "interrupted", EXIT_INTERRUPTED)
-    from .report import render
-
-    text = json.dumps(result) if args.json else render(args.command, result)
+    text = json.dumps(result) if args.json else command.render(result)
     try:
         print(text, flush=True)
     except BrokenPipeError:  # `fibrewise ... | head`: the reader has seen enough
         os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
-    return _exit_status(args.command, result)
-
-
-def _exit_status(command: str, result: dict) -> int:
-    if command == "batch" and result.get("interrupted"):
-        return 143 if result["interrupted"] == "SIGTERM" else EXIT_INTERRUPTED
-    if command == "batch" and result.get("lost"):
-        return EXIT_FAILED
-    if command == "check" and not result["valid"]:
-        return EXIT_FAILED
-    if command == "normalize" and result.get("verified") is False:
-        return EXIT_FAILED
-    return EXIT_OK
+    return command.exit_status(result)
 
 
 def _fail(args: argparse.Namespace, message: str, status: int) -> int:

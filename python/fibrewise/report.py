@@ -5,7 +5,7 @@ and the ``--json`` output always say the same thing."""
 from __future__ import annotations
 
 from fractions import Fraction
-from typing import Any, Callable
+from typing import Any
 
 STRATEGY_WORDS = {
     "variables": "no change of coordinates",
@@ -304,12 +304,6 @@ def render_batch(result: dict) -> str:
     return f"{head}\n{aligned(rows)}"
 
 
-def render_solve(result: dict) -> str:
-    from .solving import render_solve as render
-
-    return render(result)
-
-
 def render_curve(result: dict) -> str:
     zeta = result["zeta"]
     head = (
@@ -335,45 +329,3 @@ def render_curve(result: dict) -> str:
         ("time", seconds(result["seconds"])),
     ]
     return f"{head}\n{aligned(rows)}"
-
-
-RENDERERS: dict[str, Callable[[dict], str]] = {
-    "curve": render_curve,
-    "analyze": render_analyze,
-    "basis": render_basis,
-    "normalize": render_normalize,
-    "integral": render_integral,
-    "points": render_points,
-    "check": render_check,
-    "batch": render_batch,
-    "plan": lambda result: _guessing().render_plan(result),
-    "solve": lambda result: (
-        _boolean_report().render_solve(result)
-        if isinstance(result.get("method"), dict)
-        else _guessing_solve().render_solve(result)
-        if "guess" in result
-        else render_solve(result)
-    ),
-}
-
-
-def _boolean_report():
-    from . import boolean
-
-    return boolean
-
-
-def _guessing_solve():
-    from . import guess_solve
-
-    return guess_solve
-
-
-def _guessing():
-    from . import guessing
-
-    return guessing
-
-
-def render(command: str, result: dict) -> str:
-    return RENDERERS[command](result)
