@@ -34,6 +34,13 @@ class Space:
     ``Space("GF(7)", "x, y, z", order="grevlex")``. Polynomials move freely between spaces that
     differ only in the order.
 
+    >>> V = Space("GF(7)", "x, y")
+    >>> x, y = V.variables
+    >>> str((x + y) ** 7)  # the Frobenius: (x + y)^p = x^p + y^p in characteristic p
+    'x^7 + y^7'
+    >>> str(V.parse("3*x*y - 10"))  # residues print between -p/2 and p/2
+    '3*x*y - 3'
+
     ``memory="4GB"`` (or ``"512MiB"``, ``"50%"`` of the machine, or a number of bytes; see
     ``fibrewise.memory``) is the memory budget of every computation in this space: its
     polynomials' products, powers and substitutions, and the bases, invariants, projections and

@@ -276,7 +276,14 @@ class System:
 
     def dimension(self) -> int:
         """Krull dimension of the solution set; -1 when there are no solutions over the
-        algebraic closure."""
+        algebraic closure.
+
+        >>> from fibrewise import Space
+        >>> Space("GF(7)", "x, y, z").system(["x*y - z", "x - 1"]).dimension()  # the line y = z
+        1
+        >>> Space("GF(7)", "x").system(["x", "x - 1"]).dimension()
+        -1
+        """
         return invariants.dimension(self)
 
     def independent_variables(self) -> list[Polynomial]:
@@ -289,7 +296,15 @@ class System:
 
     def degree(self) -> int:
         """The degree of the solution set (of the ideal: with multiplicity); on a Boolean
-        space the number of solutions."""
+        space the number of solutions.
+
+        >>> from fibrewise import Space
+        >>> V = Space("Q", "x, y")
+        >>> V.system(["x^2 + y^2 - 1", "x*y - 2"]).degree()  # two conics: 2 * 2 (Bezout's bound)
+        4
+        >>> V.system(["x^2"]).degree()  # the double line: multiplicity counts
+        2
+        """
         if self.space.boolean:
             return self._boolean_count()
         return invariants.degree(self)
@@ -326,7 +341,16 @@ class System:
         self, over: "FieldSpec | None" = None, projective: bool = False, *, method: str = "auto"
     ) -> int:
         """Points with coordinates in the field, or in the extension ``over`` (affine, or for
-        homogeneous equations projective). ``method`` is for Boolean systems (see ``points``)."""
+        homogeneous equations projective). ``method`` is for Boolean systems (see ``points``).
+
+        The circle x^2 + y^2 = 1 over GF(p) has p - (-1/p) points (a handbook fact): p + 1 for
+        p = 7, and p^2 + 1 over GF(7^2), where -1 is a square.
+
+        >>> from fibrewise import Space
+        >>> circle = Space("GF(7)", "x, y").system(["x^2 + y^2 - 1"])
+        >>> circle.count_points(), circle.count_points(over="GF(7^2)")
+        (8, 48)
+        """
         if self.space.boolean:
             from . import boolean
 
@@ -355,7 +379,13 @@ class System:
         cost estimate, see ``solve_method``), ``"exhaustive"`` (Gray-code enumeration of GF(2)^n,
         n <= 64), ``"basis"`` (the Boolean Gröbner engine) or ``"hybrid"`` (guess some variables,
         run the engine on each guess; ``"hybrid:K"`` guesses K). ``method`` is for Boolean
-        spaces only."""
+        spaces only.
+
+        >>> from fibrewise import Space
+        >>> S = Space("GF(7)", "x, y").system(["x^2 + y^2 - 1", "x - y"])  # 2x^2 = 1: x = 2, 5
+        >>> sorted(S.points())
+        [(2, 2), (5, 5)]
+        """
         if self.space.boolean:
             from . import boolean
 
@@ -370,7 +400,13 @@ class System:
 
     def closed_points(self) -> "list[ClosedPoint]":
         """The Galois orbits of the solutions of a zero-dimensional system over a finite field,
-        as ``ClosedPoint`` objects (degree, triangular set, points in the residue field)."""
+        as ``ClosedPoint`` objects (degree, triangular set, points in the residue field).
+
+        >>> from fibrewise import Space
+        >>> S = Space("GF(7)", "x, y").system(["x^2 + 1", "y - 3"])  # -1 is no square mod 7
+        >>> [P.degree for P in S.closed_points()]
+        [2]
+        """
         from .solutions import closed_points
 
         return closed_points(self._general())
@@ -407,7 +443,13 @@ class System:
         """A finite projection onto d-space (Noether normalization) with its certificate.
         Parameters, coordinates, rank, module generators and strategy come at about the cost of
         one basis; the monic equations (``.equations``) are computed on first use, or at once
-        with ``equations="now"``."""
+        with ``equations="now"``.
+
+        >>> from fibrewise import Space
+        >>> P = Space("GF(7)", "x, y").system(["x^2 + y^2 - 1"]).projection()
+        >>> [str(p) for p in P.parameters], P.rank  # x is a root of x^2 + (y^2 - 1) over k[y]
+        (['y'], 2)
+        """
         from .normalization import finite_projection
 
         return finite_projection(self, strategy=strategy, seed=seed, equations=equations)
