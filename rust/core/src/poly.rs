@@ -6,7 +6,7 @@
 
 use crate::control::{check_memory_default, try_with_capacity, Control};
 use crate::error::{Error, Result};
-use crate::field::Field;
+use crate::field::{Field, FieldIndexed};
 use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use std::cmp::Ordering;
@@ -68,6 +68,18 @@ impl<F: Field> Poly<F> {
             },
         )
     }
+}
+
+/// [`Poly`] as a family of types indexed by the field (for [`Field::as_rationals`]).
+pub struct PolyOver;
+impl FieldIndexed for PolyOver {
+    type Of<F: Field> = Poly<F>;
+}
+
+/// [`Ring`] as a family of types indexed by the field (for [`Field::as_rationals`]).
+pub struct RingOver;
+impl FieldIndexed for RingOver {
+    type Of<F: Field> = Ring<F>;
 }
 
 #[derive(Clone, Debug, PartialEq)]

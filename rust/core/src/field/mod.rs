@@ -146,6 +146,25 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     fn from_montgomery_limbs(&self, _limbs: &[u64]) -> Self::Elem {
         self.zero()
     }
+
+    // Hooks for methods special to the rationals (the multi-modular Gröbner basis, maximality by
+    // a primitive element): generic code asks for the QQ view of a value and gets `None` over
+    // every other field, with the types checked by the compiler (no run-time downcast).
+
+    /// `value` as the same value over QQ when this field is QQ; `None` otherwise.
+    fn as_rationals<W: FieldIndexed>(_value: &W::Of<Self>) -> Option<&W::Of<RationalField>> {
+        None
+    }
+    /// A value over QQ as the same value over this field when it is QQ; `None` otherwise.
+    fn from_rationals<W: FieldIndexed>(_value: W::Of<RationalField>) -> Option<W::Of<Self>> {
+        None
+    }
+}
+
+/// A family of types indexed by a field (a ring over F, a polynomial over F, a basis over F):
+/// what the hooks [`Field::as_rationals`] and [`Field::from_rationals`] carry across.
+pub trait FieldIndexed {
+    type Of<F: Field>;
 }
 
 /// Number of field elements when it fits 64 bits (`u64::MAX` for larger finite fields, `None`

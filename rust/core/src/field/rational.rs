@@ -6,7 +6,7 @@
 //! ([`crate::groebner::modular`]); plain field arithmetic here serves parsing, printing,
 //! evaluation and the final verification of a lifted basis.
 
-use super::Field;
+use super::{Field, FieldIndexed};
 use num_bigint::BigInt;
 use num_rational::BigRational;
 use num_traits::{One, Signed, Zero};
@@ -89,6 +89,13 @@ impl Field for RationalField {
     }
     fn pth_root(&self, _a: &BigRational) -> Option<BigRational> {
         None
+    }
+
+    fn as_rationals<W: FieldIndexed>(value: &W::Of<Self>) -> Option<&W::Of<RationalField>> {
+        Some(value)
+    }
+    fn from_rationals<W: FieldIndexed>(value: W::Of<RationalField>) -> Option<W::Of<Self>> {
+        Some(value)
     }
 }
 

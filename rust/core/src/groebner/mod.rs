@@ -18,7 +18,7 @@ pub mod stats;
 
 use crate::control::Control;
 use crate::error::Result;
-use crate::field::Field;
+use crate::field::{Field, FieldIndexed};
 use crate::poly::{Poly, Ring};
 pub use stats::{Stats, StepStats};
 
@@ -86,6 +86,12 @@ impl Engine {
 
 /// A reduced Gröbner basis of an ideal for the order of `ring`: monic, sorted by decreasing
 /// leading monomial. The unit ideal has basis `[1]`, the zero ideal the empty basis.
+/// [`ReducedBasis`] as a family of types indexed by the field (for [`Field::as_rationals`]).
+pub struct BasisOver;
+impl FieldIndexed for BasisOver {
+    type Of<F: Field> = ReducedBasis<F>;
+}
+
 #[derive(Clone, Debug)]
 pub struct ReducedBasis<F: Field> {
     pub ring: Ring<F>,

@@ -17,18 +17,17 @@
 //!   does. For homogeneous I the equality is proved outright: I ⊆ ⟨G⟩ and the Hilbert function
 //!   of I mod p is at most that of I (Arnold 2003, Thm 5.13).
 
-use super::{groebner_basis, Engine, ReducedBasis, Stats};
+use super::{groebner_basis, BasisOver, Engine, ReducedBasis, Stats};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::{integer_scale, primality, Field, PrimeField, RationalField};
 use crate::monomial::Monomial;
-use crate::poly::{Poly, Ring};
+use crate::poly::{Poly, PolyOver, Ring, RingOver};
 use num_bigint::{BigInt, Sign};
 use num_integer::Integer;
 use num_rational::BigRational;
 use num_traits::{One, Signed, ToPrimitive, Zero};
 use rayon::prelude::*;
-use std::any::Any;
 use std::collections::{BTreeMap, HashMap};
 
 /// Routes `groebner_basis` over QQ to the multi-modular method; `None` for other fields.
@@ -38,20 +37,13 @@ pub(crate) fn route_rationals<F: Field>(
     engine: Engine,
     control: &Control,
 ) -> Option<Result<ReducedBasis<F>>> {
-    let ring_q = (ring as &dyn Any).downcast_ref::<Ring<RationalField>>()?;
+    let ring_q = F::as_rationals::<RingOver>(ring)?;
     let gens_q: Vec<Poly<RationalField>> = gens
         .iter()
-        .map(|g| {
-            (g as &dyn Any)
-                .downcast_ref::<Poly<RationalField>>()
-                .cloned()
-        })
+        .map(|g| F::as_rationals::<PolyOver>(g).cloned())
         .collect::<Option<_>>()?;
-    let result = rational_groebner_basis(ring_q, &gens_q, engine, control).map(|gb| {
-        *(Box::new(gb) as Box<dyn Any>)
-            .downcast::<ReducedBasis<F>>()
-            .expect("F is QQ")
-    });
+    let result = rational_groebner_basis(ring_q, &gens_q, engine, control)
+        .map(|gb| F::from_rationals::<BasisOver>(gb).expect("F is QQ"));
     Some(result)
 }
 

@@ -18,17 +18,16 @@ use super::maximal::reduced_quotient;
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::{Field, RationalField};
-use crate::groebner::ReducedBasis;
+use crate::groebner::{BasisOver, ReducedBasis};
 use crate::monomial::Monomial;
 use crate::poly::{Poly, Ring};
 use crate::univariate::degree;
 use num_bigint::BigInt;
 use num_rational::BigRational;
-use std::any::Any;
 
 /// Routes `is_maximal` over QQ here; `None` for other fields.
 pub(crate) fn route<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> Option<Result<bool>> {
-    let gb = (gb as &dyn Any).downcast_ref::<ReducedBasis<RationalField>>()?;
+    let gb = F::as_rationals::<BasisOver>(gb)?;
     Some(is_maximal_over_rationals(gb, control))
 }
 
