@@ -12,35 +12,19 @@ the ratio to GF(65521); the targets below are goals, not assertions.
 
 from __future__ import annotations
 
+import pathlib
 import sys
 import time
 
-import fibrewise as fw
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent.parent / "tests"))
+
+import fibrewise as fw  # noqa: E402
+from systems import cyclic, katsura  # noqa: E402
 
 P255 = 2**255 - 19
 # Goals: a 255-bit prime within 10x of a word-size prime, GF(2^8) (tables) within 2x, Q within
 # (number of primes used + 2)x.
 TARGETS = {"GF(2^8)": 2.0, f"GF({P255})": 10.0}
-
-
-def cyclic(n: int) -> tuple[list[str], list[str]]:
-    xs = [f"x{i}" for i in range(n)]
-    eqs = [" + ".join("*".join(xs[(i + j) % n] for j in range(k)) for i in range(n)) for k in range(1, n)]
-    return xs, eqs + ["*".join(xs) + " - 1"]
-
-
-def katsura(n: int) -> tuple[list[str], list[str]]:
-    xs = [f"u{i}" for i in range(n + 1)]
-
-    def u(i: int) -> str | None:
-        return xs[abs(i)] if abs(i) <= n else None
-
-    eqs = []
-    for m in range(n):
-        products = [f"{u(i)}*{u(m - i)}" for i in range(-n, n + 1) if u(i) and u(m - i)]
-        eqs.append(" + ".join(products) + f" - {xs[m]}")
-    eqs.append(xs[0] + "".join(f" + 2*{x}" for x in xs[1:]) + " - 1")
-    return xs, eqs
 
 
 def timed(spec: str, system: tuple[list[str], list[str]]) -> tuple[float, int, str]:

@@ -17,11 +17,15 @@ Usage: python bench/bench_normalization.py [--cyclic8] [--large]
 
 from __future__ import annotations
 
+import pathlib
 import random
 import sys
 import time
 
-import fibrewise as fw
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent.parent / "tests"))
+
+import fibrewise as fw  # noqa: E402
+from systems import cyclic, katsura  # noqa: E402
 
 P = 32003
 
@@ -35,25 +39,9 @@ def random_quadrics(n: int, m: int, seed: int) -> tuple[list[str], list[str]]:
 
 
 def katsura_minus_one(n: int) -> tuple[list[str], list[str]]:
-    names = [f"u{i}" for i in range(n + 1)]
-
-    def u(i: int) -> str:
-        return names[abs(i)] if abs(i) <= n else "0"
-
-    polys = ["u0 + " + " + ".join(f"2*{v}" for v in names[1:]) + " - 1"]
-    for m in range(n):
-        terms = [f"{u(l)}*{u(m - l)}" for l in range(-n, n + 1) if abs(l) <= n and abs(m - l) <= n]
-        polys.append(" + ".join(terms) + f" - {names[m]}")
+    """katsura-n without its last equation: a curve."""
+    names, polys = katsura(n)
     return names, polys[:-1]
-
-
-def cyclic(n: int) -> tuple[list[str], list[str]]:
-    names = [f"c{i}" for i in range(n)]
-    polys = []
-    for k in range(1, n):
-        polys.append(" + ".join("*".join(names[(i + j) % n] for j in range(k)) for i in range(n)))
-    polys.append("*".join(names) + " - 1")
-    return names, polys
 
 
 def timed(f):

@@ -1,28 +1,33 @@
-"""Benchmark systems as polynomial text, from their standard definitions (REFERENCE-VALUES.md),
-and random small systems. Shared by the tests and bench/bench_invariants.py."""
+"""Benchmark systems as polynomial text, and random small systems, for the tests and the
+benchmarks. The standard systems (cyclic, katsura, eco, noon) come from the one generator in the
+core (``fibrewise_core::systems``, definitions in tests/REFERENCE.md), which the core's own tests
+and benchmarks use too."""
 
 import itertools
 
+from fibrewise._native import standard_system
+
 
 def cyclic(n):
-    """For k = 1..n-1 the sum over i of x_i ... x_{i+k-1} (indices mod n), and x_0...x_{n-1} - 1."""
-    v = [f"x{i}" for i in range(n)]
-    eqs = [" + ".join("*".join(v[(i + j) % n] for j in range(k)) for i in range(n)) for k in range(1, n)]
-    return v, eqs + ["*".join(v) + " - 1"]
+    """cyclic-n in x0..x{n-1}: for k = 1..n-1 the sum over i of x_i ... x_{i+k-1} (indices mod n),
+    and x_0...x_{n-1} - 1."""
+    return standard_system("cyclic", n)
 
 
 def katsura(n):
-    """sum_l u_l = 1 and sum_l u_l u_{m-l} = u_m (m < n), l in -n..n, u_{-l} = u_l, u_l = 0 past n."""
-    v = [f"u{i}" for i in range(n + 1)]
+    """katsura-n in u0..un: sum_l u_l = 1 and sum_l u_l u_{m-l} = u_m (m < n), l in -n..n,
+    u_{-l} = u_l, u_l = 0 past n."""
+    return standard_system("katsura", n)
 
-    def u(l):
-        return abs(l) if abs(l) <= n else None
 
-    eqs = [" + ".join(["u0"] + [f"2*u{l}" for l in range(1, n + 1)]) + " - 1"]
-    for m in range(n):
-        pairs = [(u(l), u(m - l)) for l in range(-n, n + 1)]
-        eqs.append(" + ".join(f"u{a}*u{b}" for a, b in pairs if a is not None and b is not None) + f" - u{m}")
-    return v, eqs
+def eco(n):
+    """eco-n in x1..xn."""
+    return standard_system("eco", n)
+
+
+def noon(n):
+    """noon-n in x1..xn (coefficients times 10: 10 x_i sum_{j != i} x_j^2 - 11 x_i + 10)."""
+    return standard_system("noon", n)
 
 
 def random_form(rng, names, degree, p):

@@ -22,20 +22,7 @@ import sympy
 import fibrewise.batch.cluster
 from fibrewise.batch import BatchInputError, finished_ids, read_jobs
 from fibrewise.cli import main
-
-
-def katsura(n: int) -> tuple[list[str], list[str]]:
-    """katsura-n: u_0..u_n; sum_l u_l = 1 and sum_l u_l u_{m-l} = u_m (m < n), u_{-l} = u_l."""
-    names = [f"u{i}" for i in range(n + 1)]
-
-    def u(l: int) -> str | None:
-        return names[abs(l)] if abs(l) <= n else None
-
-    eqs = [" + ".join(u(l) for l in range(-n, n + 1)) + " - 1"]
-    for m in range(n):
-        terms = [f"{u(l)}*{u(m - l)}" for l in range(-n, n + 1) if u(l) and u(m - l)]
-        eqs.append(" + ".join(terms) + f" - {names[m]}")
-    return names, eqs
+from systems import katsura
 
 
 def write_jobs(path: Path, jobs: list[dict]) -> Path:
@@ -191,13 +178,7 @@ def test_ctrl_c_stops_at_once_and_the_running_job_gets_no_line(tmp_path):
             "polynomials": ["x*y - 1"],
             "tasks": ["basis"],
         },
-        {
-            "id": "slow",
-            "field": "GF(32003)",
-            "variables": [f"x{i}" for i in range(12)],
-            "polynomials": dense_quadrics(12),
-            "tasks": ["basis"],
-        },
+        slow_job("slow"),
     ]
     source, out = write_jobs(tmp_path / "in.jsonl", jobs), tmp_path / "out.jsonl"
     proc = batch(source, "-o", out, "--workers", "1")
@@ -273,13 +254,7 @@ def dense_quadrics(n: int, p: int = 32003) -> list[str]:
 
 def test_timeout_and_out_of_memory_cost_only_their_own_job(tmp_path):
     jobs = [
-        {
-            "id": "slow",
-            "field": "GF(32003)",
-            "variables": [f"x{i}" for i in range(12)],
-            "polynomials": dense_quadrics(12),
-            "tasks": ["basis"],
-        },
+        slow_job("slow"),
         # This power has C(304, 4) = 350 million terms: many gigabytes, far over the 2000 MiB limit.
         {
             "id": "huge",
@@ -396,13 +371,7 @@ def test_dask_cluster_gives_the_same_lines_and_resumes(tmp_path, loopback_cluste
             "polynomials": ["x - t"],
             "tasks": ["basis"],
         },
-        {
-            "id": "slow",
-            "field": "GF(32003)",
-            "variables": [f"x{i}" for i in range(12)],
-            "polynomials": dense_quadrics(12),
-            "tasks": ["basis"],
-        },
+        slow_job("slow"),
     ]
     source = write_jobs(tmp_path / "in.jsonl", jobs)
     local, remote = tmp_path / "local.jsonl", tmp_path / "dask.jsonl"

@@ -1,6 +1,6 @@
 """Type stubs of the native module (Rust, pyo3). Users call the wrappers in ``fibrewise``."""
 
-from typing import Any, Optional, Sequence, final
+from typing import Any, Literal, Optional, Sequence, final
 
 from .names import Engine, Strategy
 
@@ -161,6 +161,11 @@ def closed_points_over_q(
 def embed(
     space: NativeSpace, gens: list[NativePoly], target: NativeSpace
 ) -> tuple[list[NativePoly], Any | None]: ...
+
+# the standard benchmark systems, generated once in the core (rust/python/src/corpus.rs)
+def standard_system(
+    name: Literal["cyclic", "katsura", "eco", "noon"], n: int
+) -> tuple[list[str], list[str]]: ...
 
 # fibres over parameters from one parametric basis (rust/python/src/fibres.rs)
 def parametric_basis(

@@ -7,6 +7,7 @@ use pyo3::prelude::*;
 mod basis;
 mod boolean;
 mod convert;
+mod corpus;
 mod curves;
 mod dispatch;
 mod errors;
@@ -35,6 +36,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
         fibrewise_core::normalization::STRATEGY_NAMES.to_vec(),
     )?;
     basis::register(m)?;
+    corpus::register(m)?;
     curves::register(m)?;
     boolean::register(m)?;
     fibres::register(m)?;

@@ -9,6 +9,7 @@ use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::Ring;
+use crate::systems::{cyclic, katsura, System};
 
 fn basis(p: u64, vars: &[&str], gens: &[&str]) -> ReducedBasis<PrimeField> {
     let names = vars.iter().map(|s| s.to_string()).collect();
@@ -17,26 +18,19 @@ fn basis(p: u64, vars: &[&str], gens: &[&str]) -> ReducedBasis<PrimeField> {
     groebner_basis(&r, &gens, Engine::default(), &Control::new()).unwrap()
 }
 
-const CYCLIC5: [&str; 5] = [
-    "a + b + c + d + e",
-    "a*b + b*c + c*d + d*e + e*a",
-    "a*b*c + b*c*d + c*d*e + d*e*a + e*a*b",
-    "a*b*c*d + b*c*d*e + c*d*e*a + d*e*a*b + e*a*b*c",
-    "a*b*c*d*e - 1",
-];
+/// The basis of a system of the shared benchmark corpus ([`crate::systems`]).
+fn corpus_basis(p: u64, system: &System) -> ReducedBasis<PrimeField> {
+    basis(p, &strs(&system.vars), &strs(&system.equations))
+}
 
-const KATSURA4: [&str; 5] = [
-    "u0 + 2*u1 + 2*u2 + 2*u3 + 2*u4 - 1",
-    "u0*u0 + 2*u1*u1 + 2*u2*u2 + 2*u3*u3 + 2*u4*u4 - u0",
-    "2*u0*u1 + 2*u1*u2 + 2*u2*u3 + 2*u3*u4 - u1",
-    "2*u0*u2 + u1*u1 + 2*u1*u3 + 2*u2*u4 - u2",
-    "2*u0*u3 + 2*u1*u2 + 2*u1*u4 - u3",
-];
+fn strs(texts: &[String]) -> Vec<&str> {
+    texts.iter().map(String::as_str).collect()
+}
 
 #[test]
 fn cyclic5_has_70_solutions() {
     // Cyclic-5: 70 solutions, all simple (Björck and Fröberg 1991, from memory).
-    let gb = basis(32003, &["a", "b", "c", "d", "e"], &CYCLIC5);
+    let gb = corpus_basis(32003, &cyclic(5));
     let c = Control::new();
     assert_eq!(quotient_dimension(&gb, &c).unwrap(), 70);
     assert_eq!(Quotient::new(gb.clone(), &c).unwrap().dimension(), 70);
@@ -46,7 +40,7 @@ fn cyclic5_has_70_solutions() {
 #[test]
 fn katsura4_has_16_solutions() {
     // Katsura-n has 2^n solutions (Katsura 1990, from memory): the Bézout bound.
-    let gb = basis(32003, &["u0", "u1", "u2", "u3", "u4"], &KATSURA4);
+    let gb = corpus_basis(32003, &katsura(4));
     let c = Control::new();
     assert_eq!(quotient_dimension(&gb, &c).unwrap(), 16);
     assert_eq!(count_solutions(&gb, Engine::default(), &c).unwrap(), 16);
@@ -155,11 +149,11 @@ fn positive_dimensional_ideals_are_rejected() {
 fn quotient_powers_agree_with_powers_of_normal_forms() {
     // Two independent routes to x^q in R/I: vector arithmetic on the multiplication matrices,
     // and repeated squaring of polynomials with a normal form after each product.
-    let gb = basis(32003, &["a", "b", "c", "d", "e"], &CYCLIC5);
+    let gb = corpus_basis(32003, &cyclic(5));
     let c = Control::new();
     let q = Quotient::new(gb.clone(), &c).unwrap();
     let ring = &gb.ring;
-    let f = crate::parse::parse_poly(ring, "a + 2*b*c - e^2").unwrap();
+    let f = crate::parse::parse_poly(ring, "x0 + 2*x1*x2 - x4^2").unwrap();
     for exponent in [vec![32003u64], vec![5, 1]] {
         let by_vectors = q.element(&q.power(&q.coordinates(&f).unwrap(), &exponent, &c).unwrap());
         let by_polys = crate::frobenius::power_modulo(&gb, &f, &exponent, &c).unwrap();
@@ -171,11 +165,8 @@ fn quotient_powers_agree_with_powers_of_normal_forms() {
 fn multiplication_matrices_agree_with_the_division_algorithm() {
     // Border normal forms are built from earlier ones; each column must equal the remainder of
     // x_i·b_j by the division algorithm (Cox–Little–O'Shea §2.3).
-    for (vars, gens) in [
-        (&["a", "b", "c", "d", "e"][..], &CYCLIC5[..]),
-        (&["u0", "u1", "u2", "u3", "u4"][..], &KATSURA4[..]),
-    ] {
-        let gb = basis(32003, vars, gens);
+    for system in [cyclic(5), katsura(4)] {
+        let gb = corpus_basis(32003, &system);
         let c = Control::new();
         let q = Quotient::new(gb.clone(), &c).unwrap();
         let ring = &gb.ring;
@@ -297,7 +288,7 @@ fn shape_lex_basis_is_found_from_krylov_sequences() {
     // Katsura-4 over GF(32003) is in shape position for u4 (16 simple solutions, Bézout's bound
     // 2^4 reached; Katsura 1990, from memory): the lex basis is u_i − g_i(u4) and a degree-16
     // eliminant, and the Krylov route must find it.
-    let gb = basis(32003, &["u0", "u1", "u2", "u3", "u4"], &KATSURA4);
+    let gb = corpus_basis(32003, &katsura(4));
     let quotient = Quotient::new(gb.clone(), &Control::new()).unwrap();
     let lex = gb.ring.with_order(MonomialOrder::Lex).unwrap();
     let polys = shape::shape_lex_basis(&quotient, &lex, &Control::new())
@@ -307,7 +298,7 @@ fn shape_lex_basis_is_found_from_krylov_sequences() {
     let reference = direct_basis_text(
         PrimeField::new(32003).unwrap(),
         &["u0", "u1", "u2", "u3", "u4"],
-        &KATSURA4,
+        &strs(&katsura(4).equations),
         MonomialOrder::Lex,
     );
     let mut got: Vec<String> = polys.iter().map(|p| lex.format(p)).collect();
