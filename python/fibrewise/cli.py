@@ -315,7 +315,7 @@ def _plan(args: argparse.Namespace, activity) -> dict:
         _check_plotting()
     system = _system(args)
     activity.set_step("measuring specialised systems")
-    plan, seconds = _timed(lambda: system.guess_plan(args.max_guess, args.samples))
+    plan, seconds = _timed(lambda: system.guess_plan(args.max_guess, args.samples, budget=args.budget))
     result = {**_header(system), **plan.to_dict(), "seconds": seconds}
     if args.plot:
         from .plot import draw_plan
@@ -636,6 +636,8 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
             help="report N_r for r = 1..R (default: the genus; N_r beyond the genus come from the zeta function)",
         )
     elif name == "plan":
+        from .guessing import DEFAULT_BUDGET
+
         p.add_argument(
             "--max-guess",
             type=int,
@@ -648,6 +650,14 @@ def _add_options(name: str, p: argparse.ArgumentParser) -> None:
             default=8,
             metavar="N",
             help="random guesses solved per k (default 8)",
+        )
+        p.add_argument(
+            "--budget",
+            type=_positive(float),
+            default=DEFAULT_BUDGET,
+            metavar="SECONDS",
+            help="wall-clock seconds one sample may take; a k whose sample goes over is reported "
+            f"as over budget, with lower bounds (default {DEFAULT_BUDGET:g}; inf: no limit)",
         )
         p.add_argument(
             "--plot", metavar="FILE.png", help="draw the expected total time against k (needs matplotlib)"
