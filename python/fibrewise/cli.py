@@ -757,7 +757,7 @@ def main(argv: Sequence[str] | None = None) -> int:
 
 
 def _exit_status(command: str, result: dict) -> int:
-    if command == "batch" and result.get("interrupted"):
+    if command in ("batch", "solve") and result.get("interrupted"):
         return 143 if result["interrupted"] == "SIGTERM" else EXIT_INTERRUPTED
     if command == "batch" and result.get("lost"):
         return EXIT_FAILED
