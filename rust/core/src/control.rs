@@ -5,9 +5,11 @@
 //! (e.g. one that asks Python whether Ctrl-C was pressed) runs at most every `poll_interval`.
 //!
 //! Time: a caller may give a computation a time limit ([`Limits::max_time`]); the clock is read
-//! on the same schedule as the interrupt poll, and past the deadline every check (of this
-//! control and of its children) returns [`Error::ResourceLimit`], so the computation stops as
-//! cleanly as on Ctrl-C, on its own thread, within a few checks.
+//! on the same schedule as the interrupt poll (a control's first check, then every 256), and
+//! past the deadline every check (of this control and of its children) returns
+//! [`Error::ResourceLimit`], so the computation stops as cleanly as on Ctrl-C, on its own
+//! thread, as promptly (where each check covers much work, such as a block of matrix rows, the
+//! 256 checks can take a good fraction of a second).
 //!
 //! Memory: a computation has a budget in bytes (by default a fraction of the machine's memory).
 //! Every allocation whose size depends on the input is announced first with
