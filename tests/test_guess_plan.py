@@ -4,7 +4,9 @@ against references outside the project:
 - the semi-regular degree of regularity against the power series of prod(1 - z^d_i)/(1 - z)^n
   (and (1 + z)^n / prod(1 + z^d_i) over GF(2)) expanded by sympy, and against Macaulay's bound
   1 + sum(d_i - 1) for n equations in n variables (a regular sequence; Lazard 1983, from memory);
-- a system built so that guessing two variables leaves linear equations: the plan picks them.
+- a system built so that guessing two variables leaves linear equations: the plan picks them;
+- a dense system whose whole basis is far beyond the budget of one sample (Bézout's bound
+  20^3 solutions): the plan stops that sample, marks its row and picks a k it could measure.
 """
 
 import json
@@ -115,6 +117,20 @@ def test_plan_command_and_batch_task(tmp_path, capsys):
     out = capsys.readouterr().out
     assert "<- best" in out and "exhaustive search" in out
     assert main(["plan", str(source), "--max-guess", "-1", "--quiet"]) == 2
+    with pytest.raises(SystemExit, match="2"):  # argparse refuses it
+        main(["plan", str(source), "--budget", "0", "--quiet"])
+    assert main(["plan", str(source), "--budget", "nan", "--quiet"]) == 2
+    hard = tmp_path / "dense.txt"
+    S = dense_system(20)
+    hard.write_text("field: GF(32003)\nvariables: x, y, z\n" + "\n".join(map(str, S.equations)) + "\n")
+    assert (
+        main(
+            ["plan", str(hard), "--max-guess", "1", "--samples", "1", "--budget", "0.25", "--json", "--quiet"]
+        )
+        == 0
+    )
+    over = json.loads(capsys.readouterr().out)
+    assert over["budget"] == 0.25 and over["rows"][0]["over_budget"] and over["best"] == 1
 
     from fibrewise.jobs import check_job, run_job
 
@@ -130,3 +146,73 @@ def test_plan_command_and_batch_task(tmp_path, capsys):
         )
     )
     assert record["status"] == "ok" and record["result"]["plan"]["rows"][0]["k"] == 0
+
+
+def dense_system(degree: int) -> fw.System:
+    """Three dense random polynomials of the given degree in x, y, z over GF(32003) (coefficients
+    from a seeded generator): up to degree^3 solutions (Bézout's bound); for degree 20 a basis
+    of seconds, far beyond a budget of a quarter of a second, while a guess of x leaves three
+    equations in two unknowns (no solution for almost every guess: milliseconds) and a guess of
+    x and y a gcd of univariate polynomials."""
+    rng = random.Random(17)
+    V = fw.Space("GF(32003)", "x, y, z")
+    terms = [
+        (i, j, k) for i in range(degree + 1) for j in range(degree + 1 - i) for k in range(degree + 1 - i - j)
+    ]
+
+    def dense():
+        return " + ".join(f"{rng.randrange(1, 32003)}*x^{i}*y^{j}*z^{k}" for i, j, k in terms)
+
+    return V.system([dense() for _ in range(3)])
+
+
+def test_a_sample_over_the_budget_is_stopped_and_its_row_marked():
+    S = dense_system(20)
+    plan = S.guess_plan(max_guess=2, samples=3, budget=0.25)
+    whole = plan.rows[0]
+    # k = 0 stopped at its first sample: a lower bound, no degree or matrix measured
+    assert whole.over_budget and whole.samples == 1 and whole.solving_degree is None
+    assert whole.total_seconds == whole.seconds and whole.largest_matrix == [0, 0]
+    best = plan.best
+    assert best.k > 0 and not best.over_budget and best.solving_degree is not None
+    d = plan.to_dict()
+    assert d["budget"] == 0.25 and d["rows"][0]["over_budget"] and json.loads(json.dumps(d)) == d
+    text = str(plan)
+    assert "over budget" in text and "> " in text
+
+
+def test_budgets_are_checked_and_none_means_no_limit():
+    S = fw.Space("GF(7)", "x, y").system(["x*y - 1", "x + y"])
+    for budget in (0, -1, float("nan"), "1", True):
+        with pytest.raises(ValueError, match="budget"):
+            S.guess_plan(max_guess=0, samples=1, budget=budget)
+    for budget in (None, float("inf")):
+        plan = S.guess_plan(max_guess=1, samples=1, budget=budget)
+        assert plan.budget is None and not any(r.over_budget for r in plan.rows)
+    import inspect
+
+    from fibrewise.guessing import DEFAULT_BUDGET
+
+    assert inspect.signature(fw.System.guess_plan).parameters["budget"].default == DEFAULT_BUDGET
+
+
+def test_a_basis_stops_at_its_time_limit():
+    """``basis(max_seconds=...)``: the engine stops at the time limit with ResourceLimit, on the
+    general engines and on the Boolean one; bad limits are refused."""
+    with pytest.raises(fw.ResourceLimit, match="time limit of 0.001 s exceeded"):
+        dense_system(20).basis(max_seconds=0.001)
+    B = fw.Space("GF(2)", "x0..x39", boolean=True)
+    rng = random.Random(3)
+    names = B.names
+    quadratics = [
+        " + ".join(f"{a}*{b}" for i, a in enumerate(names) for b in names[i + 1 :] if rng.random() < 0.5)
+        + " + 1"
+        for _ in range(40)
+    ]
+    with pytest.raises(fw.ResourceLimit, match="time limit"):
+        B.system(quadratics).basis(max_seconds=0.001)
+    S = fw.Space("GF(7)", "x, y").system(["x*y - 1", "x + y"])
+    for bad in (0, -2.0, float("inf"), float("nan")):
+        with pytest.raises(ValueError, match="max_seconds"):
+            S.basis(max_seconds=bad)
+    assert [str(g) for g in S.basis(max_seconds=60)] == [str(g) for g in S.basis()]

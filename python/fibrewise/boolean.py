@@ -123,6 +123,7 @@ def basis(
     max_degree: int | None,
     max_matrix: int | None,
     threads: int | None,
+    max_seconds: float | None = None,
 ) -> ReducedBasis:
     """The reduced Boolean Gröbner basis (``System.basis`` on a Boolean space); with
     ``field_equations``, the reduced Gröbner basis of the ideal with the field equations, as
@@ -144,7 +145,11 @@ def basis(
     gb = None if limited else system._bases.get(key)
     if gb is None:
         polys, stats = _native_space(space).basis(
-            _gens(system), max_degree=limits[0], max_matrix=limits[1], threads=threads
+            _gens(system),
+            max_degree=limits[0],
+            max_matrix=limits[1],
+            threads=threads,
+            max_seconds=max_seconds,
         )
         gb = ReducedBasis(space, [Polynomial(space, p) for p in polys], GroebnerStats._from_native(stats))
         if not limited:

@@ -314,7 +314,7 @@ def _plan(args: argparse.Namespace, activity) -> dict:
         _check_plotting()
     system = _system(args)
     activity.set_step("measuring specialised systems")
-    plan, seconds = _timed(lambda: system.guess_plan(args.max_guess, args.samples))
+    plan, seconds = _timed(lambda: system.guess_plan(args.max_guess, args.samples, budget=args.budget))
     result = {**_header(system), **plan.to_dict(), "seconds": seconds}
     if args.plot:
         from .plot import draw_plan
@@ -600,6 +600,8 @@ def _solve_arguments(p: argparse.ArgumentParser) -> None:
 
 
 def _plan_arguments(p: argparse.ArgumentParser) -> None:
+    from .guessing import DEFAULT_BUDGET
+
     _file_arguments(p)
     p.add_argument(
         "--max-guess",
@@ -613,6 +615,14 @@ def _plan_arguments(p: argparse.ArgumentParser) -> None:
         default=8,
         metavar="N",
         help="random guesses solved per k (default 8)",
+    )
+    p.add_argument(
+        "--budget",
+        type=_positive(float),
+        default=DEFAULT_BUDGET,
+        metavar="SECONDS",
+        help="wall-clock seconds one sample may take; a k whose sample goes over is reported "
+        f"as over budget, with lower bounds (default {DEFAULT_BUDGET:g}; inf: no limit)",
     )
     p.add_argument(
         "--plot", metavar="FILE.png", help="draw the expected total time against k (needs matplotlib)"
@@ -705,10 +715,19 @@ def _ok(result: dict) -> int:
     return EXIT_OK
 
 
+def _interrupted_status(result: dict) -> int:
+    """A run stopped by a signal: 143 for SIGTERM, 130 for Ctrl-C (its report is still shown)."""
+    return 143 if result["interrupted"] == "SIGTERM" else EXIT_INTERRUPTED
+
+
 def _batch_status(result: dict) -> int:
     if result.get("interrupted"):
-        return 143 if result["interrupted"] == "SIGTERM" else EXIT_INTERRUPTED
+        return _interrupted_status(result)
     return EXIT_FAILED if result.get("lost") else EXIT_OK
+
+
+def _solve_status(result: dict) -> int:
+    return _interrupted_status(result) if result.get("interrupted") else EXIT_OK
 
 
 def _check_status(result: dict) -> int:
@@ -782,6 +801,7 @@ SUBCOMMANDS: dict[str, Subcommand] = {
         _solve_arguments,
         _solve,
         _render_solve,
+        _solve_status,
     ),
     "plan": Subcommand(
         "guess-and-determine plan: for k guessed variables, the measured cost of one specialised system, "

@@ -190,6 +190,7 @@ class System:
         max_matrix: int | None = None,
         threads: int | None = None,
         field_equations: bool = False,
+        max_seconds: float | None = None,
     ) -> ReducedBasis:
         """The reduced Gröbner basis for ``order`` (default: the space's order).
 
@@ -201,8 +202,9 @@ class System:
         rows that would reduce to zero: faster on systems whose degrees do not fall, such as
         katsura-n, slower on most others — or ``"buchberger"``, the reference engine.
 
-        ``max_degree`` and ``max_matrix`` (rows × columns) bound the work: going over raises
-        ``fibrewise.ResourceLimit``. Ctrl-C raises ``KeyboardInterrupt`` promptly.
+        ``max_degree`` and ``max_matrix`` (rows × columns) bound the work, and ``max_seconds``
+        its wall-clock time: going over raises ``fibrewise.ResourceLimit`` (the engine stops
+        cleanly, as on Ctrl-C). Ctrl-C raises ``KeyboardInterrupt`` promptly.
 
         On a Boolean space the Boolean engine computes the basis with the field equations
         x^2 + x implicit; ``field_equations=True`` includes them (the reduced basis of the
@@ -212,7 +214,9 @@ class System:
         if self.space.boolean or field_equations:
             from . import boolean
 
-            return boolean.basis(self, order, engine, field_equations, max_degree, max_matrix, threads)
+            return boolean.basis(
+                self, order, engine, field_equations, max_degree, max_matrix, threads, max_seconds
+            )
         limits = (
             _optional_count("max_degree", max_degree, 0, 2**32 - 1),
             _optional_count("max_matrix", max_matrix, 1, 2**64 - 1),
@@ -230,6 +234,7 @@ class System:
             max_degree=limits[0],
             max_matrix=limits[1],
             threads=threads,
+            max_seconds=max_seconds,
         )
         gb = ReducedBasis(space, [Polynomial(space, p) for p in polys], GroebnerStats._from_native(stats))
         if not limited:
@@ -474,13 +479,17 @@ class System:
 
     # --- curves (python/fibrewise/curves.py) -------------------------------------------------
 
-    def guess_plan(self, max_guess: int | None = None, samples: int = 8) -> "GuessPlan":
+    def guess_plan(
+        self, max_guess: int | None = None, samples: int = 8, *, budget: float | None = 10.0
+    ) -> "GuessPlan":
         """Guess and determine, measured: for k = 0..max_guess guessed variables, which ones, the
         median time and solving degree of one specialised system (``samples`` random guesses),
-        q^k, the expected total, and the best k (``fibrewise.guessing``). An estimate, not a bound."""
+        q^k, the expected total, and the best k (``fibrewise.guessing``). An estimate, not a bound.
+        ``budget``: wall-clock seconds one sample may take (``None``: no limit); a k whose
+        sample goes over is marked over budget, its times lower bounds."""
         from .guessing import guess_plan
 
-        return guess_plan(self, max_guess, samples)
+        return guess_plan(self, max_guess, samples, budget=budget)
 
     def curve(self) -> "Curve":
         """The solution set as a curve over the (finite) field: smoothness, genus, counts over

@@ -4,6 +4,13 @@
 //! cheap: a counter, and every few thousand calls a clock read; the caller's interrupt callback
 //! (e.g. one that asks Python whether Ctrl-C was pressed) runs at most every `poll_interval`.
 //!
+//! Time: a caller may give a computation a time limit ([`Limits::max_time`]); the clock is read
+//! on the same schedule as the interrupt poll (a control's first check, then every 256), and
+//! past the deadline every check (of this control and of its children) returns
+//! [`Error::ResourceLimit`], so the computation stops as cleanly as on Ctrl-C, on its own
+//! thread, as promptly (where each check covers much work, such as a block of matrix rows, the
+//! 256 checks can take a good fraction of a second).
+//!
 //! Memory: a computation has a budget in bytes (by default a fraction of the machine's memory).
 //! Every allocation whose size depends on the input is announced first with
 //! [`Control::check_memory`] (or made through [`Control::try_vec`]), which ends the computation
@@ -26,6 +33,8 @@ pub struct Limits {
     pub max_matrix_entries: Option<u64>,
     /// Number of worker threads (None: all cores).
     pub threads: Option<usize>,
+    /// Wall-clock time the computation may take, counted from when the control is made.
+    pub max_time: Option<Duration>,
 }
 
 pub struct Control {
@@ -38,6 +47,48 @@ pub struct Control {
     poll_interval: Duration,
     /// Bytes the big allocations of this computation may hold at once; `None`: no budget.
     memory_budget: Option<u64>,
+    /// When the time limit runs out (shared with the children, which cannot extend it).
+    deadline: Option<Deadline>,
+}
+
+/// The end of a time limit, and the limit itself for the message.
+#[derive(Clone, Copy, Debug)]
+struct Deadline {
+    at: Instant,
+    limit: Duration,
+}
+
+impl Deadline {
+    /// `None` when the limit is so far off that the clock cannot represent it (no limit).
+    fn after(limit: Duration) -> Option<Deadline> {
+        Some(Deadline {
+            at: Instant::now().checked_add(limit)?,
+            limit,
+        })
+    }
+
+    fn earlier(a: Option<Deadline>, b: Option<Deadline>) -> Option<Deadline> {
+        match (a, b) {
+            (Some(a), Some(b)) => Some(if b.at < a.at { b } else { a }),
+            (a, b) => a.or(b),
+        }
+    }
+
+    fn check(&self) -> Result<()> {
+        if Instant::now() >= self.at {
+            return Err(Error::ResourceLimit(format!(
+                "time limit of {} exceeded",
+                format_seconds(self.limit)
+            )));
+        }
+        Ok(())
+    }
+}
+
+/// A duration in seconds, to the millisecond, without trailing zeros ("0.25 s", "10 s").
+fn format_seconds(d: Duration) -> String {
+    let text = format!("{:.3}", d.as_secs_f64());
+    format!("{} s", text.trim_end_matches('0').trim_end_matches('.'))
 }
 
 /// The fraction of the machine's memory a computation may use when its caller set no budget.
@@ -120,13 +171,17 @@ impl Control {
             last_poll: Mutex::new(Instant::now()),
             poll_interval: Duration::from_millis(20),
             memory_budget: default_memory_budget(),
+            deadline: None,
         }
     }
 
     /// A control for one part of this computation with other limits (e.g. a degree bound on a
-    /// trial basis that may be abandoned): the same interruption, stop flag and memory budget.
+    /// trial basis that may be abandoned): the same interruption, stop flag, memory budget and
+    /// deadline (a time limit in `limits` can only bring the deadline closer).
     pub fn child(&self, limits: Limits) -> Control {
+        let own = limits.max_time.and_then(Deadline::after);
         Control {
+            deadline: Deadline::earlier(self.deadline, own),
             interrupt: self.interrupt.clone(),
             limits,
             calls: AtomicU64::new(0),
@@ -170,20 +225,23 @@ impl Control {
         self
     }
 
+    /// The caller's limits; a time limit starts counting now.
     pub fn with_limits(mut self, limits: Limits) -> Self {
+        self.deadline = limits.max_time.and_then(Deadline::after);
         self.limits = limits;
         self
     }
 
-    /// Returns `Err(Interrupted)` once the interrupt callback has said stop.
+    /// Returns `Err(Interrupted)` once the interrupt callback has said stop, and
+    /// `Err(ResourceLimit)` once the time limit has run out.
     #[inline]
     pub fn check(&self) -> Result<()> {
         if self.stopped.load(Ordering::Relaxed) {
             return Err(Error::Interrupted);
         }
-        let Some(interrupt) = &self.interrupt else {
+        if self.interrupt.is_none() && self.deadline.is_none() {
             return Ok(());
-        };
+        }
         // Reading the clock on every call would cost more than most callers' work.
         if !self
             .calls
@@ -192,6 +250,12 @@ impl Control {
         {
             return Ok(());
         }
+        if let Some(deadline) = &self.deadline {
+            deadline.check()?;
+        }
+        let Some(interrupt) = &self.interrupt else {
+            return Ok(());
+        };
         let due = {
             let mut last = self.last_poll.lock().unwrap_or_else(|e| e.into_inner());
             if last.elapsed() >= self.poll_interval {
@@ -231,5 +295,59 @@ impl Control {
             ))),
             _ => Ok(()),
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn limited(max_time: Duration) -> Control {
+        Control::new().with_limits(Limits {
+            max_time: Some(max_time),
+            ..Default::default()
+        })
+    }
+
+    #[test]
+    fn a_spent_time_limit_stops_the_next_check_with_resource_limit() {
+        let control = limited(Duration::ZERO);
+        let err = control.check().unwrap_err();
+        assert!(
+            matches!(err, Error::ResourceLimit(ref m) if m == "time limit of 0 s exceeded"),
+            "{err}"
+        );
+        // the children share the deadline, also with limits of their own
+        let child = control.child(Limits {
+            max_degree: Some(3),
+            ..Default::default()
+        });
+        assert!(matches!(child.check(), Err(Error::ResourceLimit(_))));
+    }
+
+    #[test]
+    fn a_distant_time_limit_lets_the_work_go_on() {
+        let control = limited(Duration::from_secs(3600));
+        for _ in 0..10_000 {
+            control.check().unwrap();
+        }
+        // a child cannot push the deadline further away, only bring it closer
+        let longer = control.child(Limits {
+            max_time: Some(Duration::MAX),
+            ..Default::default()
+        });
+        assert!(longer.check().is_ok());
+        let shorter = control.child(Limits {
+            max_time: Some(Duration::ZERO),
+            ..Default::default()
+        });
+        assert!(shorter.check().is_err() && control.check().is_ok());
+    }
+
+    #[test]
+    fn seconds_are_written_without_trailing_zeros() {
+        assert_eq!(format_seconds(Duration::from_millis(250)), "0.25 s");
+        assert_eq!(format_seconds(Duration::from_secs(10)), "10 s");
+        assert_eq!(format_seconds(Duration::from_millis(1500)), "1.5 s");
     }
 }

@@ -1,6 +1,6 @@
 //! Reduced Gröbner bases and normal forms: conversion and dispatch to `fibrewise_core::groebner`.
 
-use crate::convert::limits;
+use crate::convert::{limits, with_time_limit};
 use crate::dispatch::{with_ring, Kind};
 use crate::long_run;
 use crate::space::{NativePoly, NativeSpace};
@@ -57,7 +57,8 @@ pub fn stats_to_py<'py>(py: Python<'py>, stats: &Stats) -> PyResult<Bound<'py, P
 
 /// Reduced Gröbner basis of `gens` for the order of `space`; returns (basis, stats dict).
 #[pyfunction]
-#[pyo3(signature = (space, gens, engine="auto", max_degree=None, max_matrix=None, threads=None))]
+#[pyo3(signature = (space, gens, engine="auto", max_degree=None, max_matrix=None, threads=None, max_seconds=None))]
+#[allow(clippy::too_many_arguments)] // the keyword arguments of System.basis, passed through
 fn reduced_basis<'py>(
     py: Python<'py>,
     space: &NativeSpace,
@@ -66,9 +67,10 @@ fn reduced_basis<'py>(
     max_degree: Option<u32>,
     max_matrix: Option<u64>,
     threads: Option<usize>,
+    max_seconds: Option<f64>,
 ) -> PyResult<(Vec<NativePoly>, Bound<'py, PyDict>)> {
     let engine = engine_by_name(engine)?;
-    let limits = limits(max_degree, max_matrix, threads)?;
+    let limits = with_time_limit(limits(max_degree, max_matrix, threads)?, max_seconds)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
         let gb = long_run::run(py, limits, space.memory, |control| core_basis(r, &gens, engine, control))?;

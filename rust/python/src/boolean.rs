@@ -6,7 +6,7 @@
 //! the two by `BooleanRing::from_poly` (every exponent above 0 becomes 1) and `to_poly`.
 
 use crate::basis::stats_to_py;
-use crate::convert::limits;
+use crate::convert::{limits, with_time_limit};
 use crate::dispatch::{same_variables_and_field, AnyPoly, AnyRing};
 use crate::errors::IntoPy;
 use crate::long_run;
@@ -166,7 +166,7 @@ impl NativeBooleanSpace {
     }
 
     /// The reduced Boolean Gröbner basis of `gens` and the engine's statistics.
-    #[pyo3(signature = (gens, max_degree=None, max_matrix=None, threads=None))]
+    #[pyo3(signature = (gens, max_degree=None, max_matrix=None, threads=None, max_seconds=None))]
     fn basis<'py>(
         &self,
         py: Python<'py>,
@@ -174,9 +174,10 @@ impl NativeBooleanSpace {
         max_degree: Option<u32>,
         max_matrix: Option<u64>,
         threads: Option<usize>,
+        max_seconds: Option<f64>,
     ) -> PyResult<(Vec<NativePoly>, Bound<'py, PyDict>)> {
         let gens = self.to_booleans(&gens)?;
-        let limits = limits(max_degree, max_matrix, threads)?;
+        let limits = with_time_limit(limits(max_degree, max_matrix, threads)?, max_seconds)?;
         let b = long_run::run(py, limits, self.memory, |control| {
             boolean::basis(&self.ring, &gens, control)
         })?;

@@ -8,6 +8,7 @@ use fibrewise_core::order::{MonomialOrder, OrderBlock};
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
 use pyo3::types::{PyString, PyTuple};
+use std::time::Duration;
 
 pub fn order_from_py(spec: &Bound<'_, PyAny>, nvars: usize) -> PyResult<MonomialOrder> {
     let order = parse_order(spec)?;
@@ -65,5 +66,25 @@ pub fn limits(
         max_degree,
         max_matrix_entries: max_matrix,
         threads,
+        max_time: None,
+    })
+}
+
+/// `limits` with a time limit of `max_seconds` (a positive, finite number of seconds).
+pub fn with_time_limit(limits: Limits, max_seconds: Option<f64>) -> PyResult<Limits> {
+    let Some(seconds) = max_seconds else {
+        return Ok(limits);
+    };
+    let max_time = Duration::try_from_secs_f64(seconds)
+        .ok()
+        .filter(|_| seconds > 0.0)
+        .ok_or_else(|| {
+            PyValueError::new_err(format!(
+                "max_seconds must be a positive finite number of seconds, not {seconds}"
+            ))
+        })?;
+    Ok(Limits {
+        max_time: Some(max_time),
+        ..limits
     })
 }

@@ -20,6 +20,19 @@ fn parsed(r: &Ring<PrimeField>, texts: &[&str]) -> Vec<String> {
         .collect()
 }
 
+/// katsura-n over GF(32003) in grevlex: its ring and equations.
+fn katsura_32003(n: usize) -> (Ring<PrimeField>, Vec<crate::poly::Poly<PrimeField>>) {
+    let s = crate::systems::katsura(n);
+    let r = Ring::new(
+        PrimeField::new(32003).unwrap(),
+        s.vars.clone(),
+        MonomialOrder::Grevlex,
+    )
+    .unwrap();
+    let gens = s.polys(&r).unwrap();
+    (r, gens)
+}
+
 #[test]
 fn grlex_example_from_cox_little_oshea() {
     // Cox, Little, O'Shea, Ideals, Varieties, and Algorithms, §2.7 (from memory):
@@ -93,6 +106,27 @@ fn degree_limit_and_interrupt() {
     assert_eq!(err, crate::Error::Interrupted);
 }
 
+/// A spent time limit ends every engine with `ResourceLimit` at its first check, never with a
+/// basis (katsura-7 has one of 128 solutions, many steps away). A fresh control per engine: the
+/// clock is read on a control's first check and then every 256 checks.
+#[test]
+fn every_engine_stops_at_its_time_limit() {
+    let (r, gens) = katsura_32003(7);
+    for name in ENGINE_NAMES {
+        let engine = Engine::from_name(name).unwrap();
+        let spent = Control::new().with_limits(crate::control::Limits {
+            max_time: Some(std::time::Duration::ZERO),
+            ..Default::default()
+        });
+        let err = groebner_basis(&r, &gens, engine, &spent).unwrap_err();
+        assert!(
+            matches!(err, crate::Error::ResourceLimit(ref m) if m.contains("time limit")),
+            "{}: {err}",
+            engine.name()
+        );
+    }
+}
+
 #[test]
 fn the_highest_degree_is_that_of_the_largest_polynomial_handled() {
     // (x^3 + y, y^3 + x): coprime leading monomials, no pair to reduce, no step; the highest
@@ -120,14 +154,7 @@ fn the_highest_degree_is_that_of_the_largest_polynomial_handled() {
 /// builds no matrix, applies it to each S-polynomial as a one-row matrix.
 #[test]
 fn the_matrix_limit_fires_before_the_matrix_is_built() {
-    let s = crate::systems::katsura(9);
-    let r = Ring::new(
-        PrimeField::new(32003).unwrap(),
-        s.vars.clone(),
-        MonomialOrder::Grevlex,
-    )
-    .unwrap();
-    let gens = s.polys(&r).unwrap();
+    let (r, gens) = katsura_32003(9);
     let limit = 100_000u64;
     let limited = Control::new().with_limits(crate::control::Limits {
         max_matrix_entries: Some(limit),
@@ -150,14 +177,7 @@ fn the_matrix_limit_fires_before_the_matrix_is_built() {
             engine.name()
         );
     }
-    let small = crate::systems::katsura(4);
-    let r = Ring::new(
-        PrimeField::new(32003).unwrap(),
-        small.vars.clone(),
-        MonomialOrder::Grevlex,
-    )
-    .unwrap();
-    let gens = small.polys(&r).unwrap();
+    let (r, gens) = katsura_32003(4);
     let tiny = Control::new().with_limits(crate::control::Limits {
         max_matrix_entries: Some(4),
         ..Default::default()
