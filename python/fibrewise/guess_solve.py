@@ -30,6 +30,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, Callable, Generator, Iterator, Optional
 
 from . import _native
+from .signals import Terminated, raise_on_sigterm, restore_sigterm
 
 if TYPE_CHECKING:
     from .systems import System
@@ -377,23 +378,6 @@ def _run_dask(job: GuessJob, todo: list[int], address: str) -> Generator[tuple[i
             client.cancel([f for f in futures if not f.done()])
 
 
-class Terminated(BaseException):
-    """SIGTERM during ``solve --guess``, turned into an exception so that the run records what
-    it delivered before it ends."""
-
-
-def _on_sigterm() -> Any:
-    """Installs the handler that raises :class:`Terminated`; returns the previous one (``None``
-    outside the main thread, where signals cannot be handled)."""
-    if threading.current_thread() is not threading.main_thread():
-        return None
-
-    def stop(signum: int, frame: Any) -> None:
-        raise Terminated()
-
-    return signal.signal(signal.SIGTERM, stop)
-
-
 def solve_command(args: Any, activity: Any, header: dict, system: "System") -> dict:
     """``fibrewise solve FILE --guess x1,x2``: points printed as their chunks finish (with
     ``--json`` collected into the one JSON object instead), then the summary. Ctrl-C and SIGTERM
@@ -433,7 +417,7 @@ def solve_command(args: Any, activity: Any, header: dict, system: "System") -> d
         write=write,
     )
     interrupted = None
-    previous = _on_sigterm()
+    previous = raise_on_sigterm()
     delivery = run.points()
     try:
         for _ in delivery:
@@ -444,8 +428,7 @@ def solve_command(args: Any, activity: Any, header: dict, system: "System") -> d
         interrupted = "SIGTERM"
     finally:
         delivery.close()  # records what was delivered of a chunk cut short
-        if previous is not None:
-            signal.signal(signal.SIGTERM, previous)
+        restore_sigterm(previous)
     result: dict[str, Any] = {
         **header,
         "guess": guess,

@@ -5,14 +5,13 @@ from __future__ import annotations
 
 import json
 import os
-import signal
 import sys
-import threading
 import time
 from dataclasses import dataclass
 from typing import Generator
 
 from ..progress import Progress
+from ..signals import Terminated, raise_on_sigterm, restore_sigterm
 from .cluster import Lost, run_dask
 from .jobfile import BatchInputError, id_key, read_jobs
 from .local import run_local
@@ -33,10 +32,6 @@ class BatchSummary:
 
     def to_dict(self) -> dict:
         return dict(self.__dict__)
-
-
-class _Stop(BaseException):
-    """SIGTERM turned into an exception so that the run ends through its cleanup code."""
 
 
 def run_batch(
@@ -86,7 +81,7 @@ def run_batch(
     memory_bytes = memory_bytes or (memory_mb << 20 if memory_mb else None)
     start = time.monotonic()
     progress = Progress(len(todo), quiet=quiet)
-    previous = _on_sigterm()
+    previous = raise_on_sigterm()
     records: Generator[Finished | Lost, None, None] | None = None
     try:
         if scheduler:
@@ -107,15 +102,14 @@ def run_batch(
             progress.advance()
     except KeyboardInterrupt:
         summary.interrupted = "SIGINT"
-    except _Stop:
+    except Terminated:
         summary.interrupted = "SIGTERM"
     finally:
         if records is not None:
             records.close()  # stops the workers; a job still running gets no line
         progress.close()
         output.close()
-        if previous is not None:
-            signal.signal(signal.SIGTERM, previous)
+        restore_sigterm(previous)
         summary.seconds = round(time.monotonic() - start, 3)
     return summary
 
@@ -133,13 +127,3 @@ def _failed_ids(results: list[tuple[dict, bytes]]) -> set[str]:
     """Ids whose (last) line says error or timeout."""
     last = {id_key(record["id"]): record["status"] for record, _ in results}
     return {key for key, status in last.items() if status in ("error", "timeout")}
-
-
-def _on_sigterm():
-    if threading.current_thread() is not threading.main_thread():
-        return None
-
-    def stop(signum, frame):
-        raise _Stop()
-
-    return signal.signal(signal.SIGTERM, stop)
