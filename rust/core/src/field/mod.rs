@@ -16,7 +16,7 @@ mod spec;
 
 pub use bigprime::BigPrimeField;
 pub use extension::{BinaryField, ExtensionField, Modulus, TableField};
-pub use prime::PrimeField;
+pub use prime::{inverse_mod_word, PrimeField};
 pub use rational::{integer_scale, RationalField};
 pub use spec::{extension_field, prime_field, AnyField};
 

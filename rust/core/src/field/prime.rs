@@ -40,12 +40,20 @@ impl PrimeField {
             };
             return Err(Error::invalid(format!("GF({p}): {p} is not a prime{why}")));
         }
+        Ok(Self::known_prime(p))
+    }
+
+    /// GF(p) for a `p` already known to be a prime below 2^63 (the word modulus of a field), so
+    /// that its Barrett reduction and inverse serve other word arithmetic (the F4 kernels)
+    /// without a second primality test.
+    pub(crate) fn known_prime(p: u64) -> Self {
+        debug_assert!((2..Self::MAX_MODULUS).contains(&p));
         let mu = u128::MAX / p as u128 + u128::from(u128::MAX % p as u128 == p as u128 - 1);
-        Ok(PrimeField {
+        PrimeField {
             p,
             mu_hi: (mu >> 64) as u64,
             mu_lo: mu as u64,
-        })
+        }
     }
 
     #[inline]
@@ -75,23 +83,30 @@ impl PrimeField {
         self.reduce_u128(a as u128 * b as u128)
     }
 
-    /// Inverse by the extended Euclidean algorithm.
-    fn inverse(&self, a: u64) -> Option<u64> {
-        if a == 0 {
-            return None;
-        }
-        // p < 2^63, and every remainder and Bézout coefficient of the extended Euclidean
-        // algorithm stays within ±p, so 64-bit signed words suffice (far cheaper than 128-bit
-        // division).
-        let (mut r0, mut r1) = (self.p as i64, a as i64);
-        let (mut t0, mut t1) = (0i64, 1i64);
-        while r1 != 0 {
-            let q = r0 / r1;
-            (r0, r1) = (r1, r0 - q * r1);
-            (t0, t1) = (t1, t0 - q * t1);
-        }
-        Some(t0.rem_euclid(self.p as i64) as u64)
+    /// Inverse of a residue, `None` for 0.
+    #[inline]
+    pub fn inverse(&self, a: u64) -> Option<u64> {
+        inverse_mod_word(a, self.p)
     }
+}
+
+/// The inverse of a modulo a prime p < 2^63 (a reduced), by the extended Euclidean algorithm;
+/// `None` for a = 0. The one word inverse of the core: the field, the F4 kernels and the
+/// quotient algebras use it.
+pub fn inverse_mod_word(a: u64, p: u64) -> Option<u64> {
+    if a == 0 {
+        return None;
+    }
+    // p < 2^63, and every remainder and Bézout coefficient of the extended Euclidean algorithm
+    // stays within ±p, so 64-bit signed words suffice (far cheaper than 128-bit division).
+    let (mut r0, mut r1) = (p as i64, a as i64);
+    let (mut t0, mut t1) = (0i64, 1i64);
+    while r1 != 0 {
+        let q = r0 / r1;
+        (r0, r1) = (r1, r0 - q * r1);
+        (t0, t1) = (t1, t0 - q * t1);
+    }
+    Some(t0.rem_euclid(p as i64) as u64)
 }
 
 impl Field for PrimeField {

@@ -16,7 +16,7 @@
 
 use crate::field::field_size;
 use crate::field::montgomery::{from_limbs, Montgomery};
-use crate::field::Field;
+use crate::field::{inverse_mod_word, Field, PrimeField};
 use crate::vector_unit::VectorUnit;
 use std::marker::PhantomData;
 
@@ -107,16 +107,9 @@ impl Word for u32 {
     }
 }
 
-/// Inverse modulo p by the extended Euclidean algorithm (a ≠ 0 mod p).
+/// Inverse modulo p of a pivot (a ≠ 0 mod p).
 fn inv_mod(a: u64, p: u64) -> u64 {
-    let (mut r0, mut r1) = (p as i128, a as i128);
-    let (mut t0, mut t1) = (0i128, 1i128);
-    while r1 != 0 {
-        let q = r0 / r1;
-        (r0, r1) = (r1, r0 - q * r1);
-        (t0, t1) = (t1, t0 - q * t1);
-    }
-    t0.rem_euclid(p as i128) as u64
+    inverse_mod_word(a, p).expect("a pivot is nonzero")
 }
 
 /// The LANES entries of column `c` in an interleaved accumulator.
@@ -329,10 +322,12 @@ impl<F: Field, W: Word> Arith<F> for SmallPrime<W> {
     }
 }
 
-/// GF(p) for 2^31 ≤ p < 2^63: u64 coefficients, u128 accumulator below p^2.
+/// GF(p) for 2^31 ≤ p < 2^63: u64 coefficients, u128 accumulator below p^2, reduced by the
+/// field's own Barrett reduction (no 128-bit division).
 pub struct LargePrime {
     p: u64,
     p2: u128,
+    word: PrimeField,
 }
 
 impl LargePrime {
@@ -340,6 +335,7 @@ impl LargePrime {
         LargePrime {
             p,
             p2: p as u128 * p as u128,
+            word: PrimeField::known_prime(p),
         }
     }
 }
@@ -367,7 +363,7 @@ impl<F: Field> Arith<F> for LargePrime {
     }
     #[inline]
     fn settle(&self, a: &u128) -> u64 {
-        (*a % self.p as u128) as u64
+        self.word.reduce_u128(*a) // a < p^2 < p·2^64
     }
     #[inline]
     fn is_zero(&self, c: &u64) -> bool {
@@ -381,7 +377,7 @@ impl<F: Field> Arith<F> for LargePrime {
     }
     #[inline]
     fn mul(&self, a: &u64, b: &u64) -> u64 {
-        ((*a as u128 * *b as u128) % self.p as u128) as u64
+        self.word.mul_u64(*a, *b)
     }
     fn inv(&self, a: &u64) -> u64 {
         inv_mod(*a, self.p)
