@@ -127,6 +127,21 @@ def test_elliptic_curves_follow_hasse(field, equation, f):
         assert zeta.points(2) == C.count_points(2) == affine_count(galois.GF(q * q), f) + 1
 
 
+@pytest.mark.parametrize("field, p", [("GF(2^8)", 2), ("GF(3^5)", 3)])
+def test_quartic_fibres_by_the_fixed_size_path_against_brute_force(field, p):
+    # A plane quartic of our own whose fibres over x are quartics in y (the fixed-size Frobenius
+    # path: semilinear squarings in characteristic 2, square-and-multiply in characteristic 3),
+    # N_1 against galois brute force over all of P^2 (a is the field's generator, integer p).
+    C = curve(field, "x, y, z", "x^3*y + y^3*z + z^3*x + a*y^4 + x^2*z^2")
+    assert C.is_smooth() and C.genus == 3
+    GF = fw.field(field).galois_field()
+    a = GF(p)
+    expected = projective_plane_count(
+        GF, lambda x, y, z: x**3 * y + y**3 * z + z**3 * x + a * y**4 + x**2 * z**2
+    )
+    assert C.count_points(1) == expected
+
+
 def test_genus_two_curve_over_gf16_and_its_jacobian():
     # The example of examples/curve_genus2_gf16.txt: y^2 + xy = x^5 + a x^2 + 1 over GF(16).
     # N_1, N_2, N_3 by brute force over GF(16), GF(256), GF(4096) (a mapped to a root of its
@@ -165,6 +180,100 @@ def test_singular_curves_are_refused_naming_their_singular_points():
         _ = C.genus
     with pytest.raises(ValueError, match="singular"):
         C.zeta()
+
+
+def test_singular_closed_points_over_extensions_against_brute_force():
+    # (x^2 + z^2)^2 + y^2 z^2 over GF(3) is singular at (+-i : 0 : 1), conjugate over GF(3) (-1 is
+    # not a square mod 3), and at (0 : 1 : 0). Every point of P^2(GF(3^r)), r = 1, 2, 4, where F
+    # and its three partials vanish (galois brute force) is a point of exactly one listed closed
+    # point whose degree divides r.
+    C = curve("GF(3)", "x, y, z", "(x^2 + z^2)^2 + y^2*z^2")
+    assert not C.is_smooth() and C.singular_points() == [(0, 1, 0)]
+    closed = C.singular_closed_points()
+    assert [p.degree for p in closed] == [1, 2]
+    assert closed[0].rational_point() == (0, 1, 0) and str(closed[1].residue_field) == "GF(3^2)"
+
+    def F(x, y, z):
+        return (x**2 + z**2) ** 2 + y**2 * z**2
+
+    partials = [
+        lambda x, y, z: x * (x**2 + z**2),  # dF/dx = 4x(x^2 + z^2) = x(x^2 + z^2) mod 3
+        lambda x, y, z: 2 * y * z**2,
+        lambda x, y, z: z * (x**2 + z**2) + 2 * y**2 * z,
+    ]
+    for r in (1, 2, 4):
+        GF = fw.field(f"GF(3^{r})").galois_field()  # the integer representation of fibrewise's GF(3^r)
+        brute = set()
+        for p in projective_plane_points(GF):
+            x, y, z = GF(p[0]), GF(p[1]), GF(p[2])
+            if F(x, y, z) == 0 and all(d(x, y, z) == 0 for d in partials):
+                brute.add(p)
+        listed = set()
+        for point in closed:
+            if r % point.degree == 0:
+                system = fw.Space("GF(3)", list(C.coordinate_names)).system([str(g) for g in point.equations])
+                listed |= {tuple(int(c) for c in q) for q in system.points(over=f"GF(3^{r})")}
+        assert listed == brute, r
+
+
+def projective_plane_points(GF) -> list[tuple[int, int, int]]:
+    """P^2(GF) with the first nonzero coordinate 1, as integer triples."""
+    q = GF.order
+    return [(1, b, c) for b in range(q) for c in range(q)] + [(0, 1, c) for c in range(q)] + [(0, 0, 1)]
+
+
+def projective_space_count(GF, equations) -> int:
+    """Points of P^3(GF) where every F(X0, X1, X2, X3) in ``equations`` vanishes (normalized with
+    the first nonzero coordinate 1, chart by chart, vectorized over the chart)."""
+    q = GF.order
+    total = 0
+    for lead in range(4):
+        free = 3 - lead
+        grid = np.indices((q,) * free).reshape(free, -1) if free else np.zeros((0, 1), dtype=int)
+        size = grid.shape[1]
+        coords = [GF(np.zeros(size, dtype=int)) for _ in range(lead)] + [GF(np.ones(size, dtype=int))]
+        coords += [GF(row) for row in grid]
+        ok = np.ones(size, dtype=bool)
+        for F in equations:
+            ok &= F(*coords) == 0
+        total += int(np.count_nonzero(ok))
+    return total
+
+
+@pytest.mark.parametrize(
+    "field, equations, fs",
+    [
+        # The twisted cubic: genus 0, N_r = q^r + 1 (handbook fact).
+        (
+            "GF(3)",
+            ["x*z - y^2", "y*w - z^2", "x*w - y*z"],
+            [
+                lambda x, y, z, w: x * z - y**2,
+                lambda x, y, z, w: y * w - z**2,
+                lambda x, y, z, w: x * w - y * z,
+            ],
+        ),
+        # y^2 + xy = x^3 + 1 in P^3 by (1 : x : y : x^2) (see the Rust test of the same curve).
+        (
+            "GF(2)",
+            ["x*w - y^2", "z^2 + y*z + y*w + x^2"],
+            [lambda x, y, z, w: x * w - y**2, lambda x, y, z, w: z**2 + y * z + y * w + x**2],
+        ),
+    ],
+)
+def test_space_curves_by_projection_against_brute_force(field, equations, fs):
+    C = fw.Space(field, "x, y, z, w").system(equations).curve()
+    assert C.is_smooth()
+    p = fw.field(field).size
+    r_max = max(r for r in range(1, 13) if p**r <= 4096 and (p**r) ** 3 <= 2**18)
+    for r in range(1, r_max + 1):
+        assert C.count_points(r) == projective_space_count(galois.GF(p**r), fs), r
+    if len(equations) == 3:
+        assert C.model == "space curve" and C.genus == 0
+        assert C.count_points(11) == 3**11 + 1  # GF(3^11), beyond 2^16 elements
+    else:
+        assert C.model == "complete intersection" and C.genus == 1
+        assert C.zeta().points(r_max) == C.count_points(r_max)
 
 
 def test_large_fields_are_refused_at_once():

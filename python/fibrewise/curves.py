@@ -4,21 +4,29 @@ function and the order of the Jacobian.
 ``System.curve()`` reads a system as a curve (see ``Curve``); everything is computed in the Rust
 core (``fibrewise_core::curves``):
 
-- homogeneous equations in three or more variables: a projective curve (one equation in P^2, or
-  a complete intersection of n - 2 equations in P^(n-1)); an affine equation in two variables:
+- homogeneous equations in three or more variables: a projective curve (one equation in P^2, a
+  complete intersection of n - 2 equations in P^(n-1), or a space curve given by more equations,
+  such as the twisted cubic); an affine equation in two variables:
   a hyperelliptic model y^2 + h(x)*y = f(x) with its smooth projective model, or else the
   projective closure of the plane curve;
 - smoothness by the Jacobian criterion, over the algebraic closure (one Gröbner basis);
 - the genus: (d - 1)(d - 2)/2 for a smooth plane curve of degree d, the arithmetic genus from the
-  Hilbert polynomial for a smooth complete intersection, ceil(max(2 deg h, deg f)/2) - 1 for a
+  Hilbert polynomial for a smooth curve in P^(n-1), n >= 4, ceil(max(2 deg h, deg f)/2) - 1 for a
   hyperelliptic model;
-- N_r = #C(GF(q^r)) fibre by fibre over the x-line (one root count per Frobenius orbit of x);
+- N_r = #C(GF(q^r)) fibre by fibre over the x-line (one root count per Frobenius orbit of x), for
+  curves in P^(n-1), n >= 4, fibre by fibre over a projection onto one coordinate (one
+  specialised parametric basis per Frobenius orbit of its values);
+- the singular points: those with coordinates in GF(q), and every singular point over the
+  algebraic closure as closed points (one Galois orbit each, with its degree and residue field);
 - the zeta function Z(T) = L(T) / ((1 - T)(1 - qT)) from N_1..N_g (Weil), N_r for every r from L,
   the Jacobian's order L(1), and the Hasse–Weil and Serre bounds.
 
 What a result proves: the counts are exact, and L(T) is the exact L-polynomial of the smooth
 projective curve when the curve is geometrically irreducible, which smooth plane curves, smooth
-complete intersections and smooth hyperelliptic models are. Singular curves other than
+complete intersections and smooth hyperelliptic models are. A smooth space curve given by more
+than n - 2 equations is assumed to be connected (hence irreducible), not checked: for a
+disconnected one the arithmetic genus, and so the zeta function, would be wrong (its counts stay
+exact). Singular curves other than
 hyperelliptic models are refused (``ValueError``), and so are fields where counting fibre by
 fibre is out of reach (``fibrewise.ResourceLimit``: about 2^28 root counts at most, so an
 elliptic curve over a 61-bit prime is refused at once rather than run for years). The zeta
@@ -32,8 +40,10 @@ from numbers import Integral
 from typing import TYPE_CHECKING, Any
 
 from . import _native
+from .spaces import Polynomial, Space
 
 if TYPE_CHECKING:
+    from .solutions import ClosedPoint
     from .systems import System
 
 
@@ -149,8 +159,9 @@ class BoundCheck:
 class Curve:
     """A curve over a finite field, read from a ``System`` (``System.curve()``).
 
-    ``model``: ``"plane"``, ``"complete intersection"``, ``"plane closure"`` (the projective
-    closure of an affine plane curve) or ``"hyperelliptic"`` (y^2 + h(x)*y = f(x) with its smooth
+    ``model``: ``"plane"``, ``"complete intersection"``, ``"space curve"`` (more equations than a
+    complete intersection), ``"plane closure"`` (the projective closure of an affine plane curve)
+    or ``"hyperelliptic"`` (y^2 + h(x)*y = f(x) with its smooth
     projective model). Counts are on the smooth projective model.
     """
 
@@ -184,6 +195,21 @@ class Curve:
         hyperelliptic equation. A curve may be singular only at points over extensions: then
         this list is empty and ``is_smooth()`` is False."""
         return [tuple(p) for p in self._native.singular_points()]
+
+    def singular_closed_points(self) -> list["ClosedPoint"]:
+        """Every singular point over the algebraic closure, one Galois orbit at a time (see
+        ``ClosedPoint``): its ``degree``, ``residue_field`` GF(q^degree) and ``points()`` there.
+        Projective points are normalized with their first nonzero coordinate 1 (the maximal ideal
+        contains the equations of that chart), in the coordinates ``coordinate_names``; for a
+        hyperelliptic equation, the affine singular points. ``ValueError`` when the singular locus
+        is not finite (a multiple component)."""
+        from .solutions import ClosedPoint
+
+        space = Space(self.system.space.field, list(self.coordinate_names), order="lex")
+        return [
+            ClosedPoint(space, degree, [Polynomial(space, g) for g in equations])
+            for degree, equations in self._native.singular_closed_points()
+        ]
 
     @property
     def coordinate_names(self) -> tuple[str, ...]:
@@ -252,15 +278,18 @@ def curve_summary(system: "System", up_to: int | None = None) -> dict:
 
 
 def _refuse_singular(curve: Curve) -> None:
-    """Raises ``ValueError``: why a singular curve is out of scope, and where it is singular."""
+    """Raises ``ValueError``: why a singular curve is out of scope, and where it is singular (the
+    singular closed points, with their degrees)."""
     field = curve.system.space.field
-    points = ["(" + ", ".join(map(str, p)) + ")" for p in curve.singular_points()]
     names = ", ".join(curve.coordinate_names)
-    where = (
-        f"singular points over {field} in ({names}): {', '.join(points)}"
-        if points
-        else f"no singular point over {field}, only over extensions"
-    )
+    try:
+        closed = curve.singular_closed_points()
+        where = f"singular points in ({names}) over {field} and its extensions: " + ", ".join(
+            str(p.rational_point()) if p.degree == 1 else f"the closed point {p} of degree {p.degree}"
+            for p in closed
+        )
+    except ValueError as e:
+        where = str(e)
     try:
         reason = f"genus {curve.genus}"
     except ValueError as e:

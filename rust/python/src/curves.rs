@@ -7,6 +7,7 @@ use crate::basis::polys_in;
 use crate::dispatch::{with_ring, Kind};
 use crate::errors::to_py;
 use crate::long_run;
+use crate::solutions::native_polys;
 use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::control::Limits;
 use fibrewise_core::curves::bounds::BoundCheck;
@@ -107,14 +108,16 @@ impl NativeCurve {
         with_curve!(&self.curve, c => c.genus().map_err(to_py))
     }
 
-    /// "hyperelliptic", "plane", "plane closure" (of an affine curve) or "complete intersection".
+    /// "hyperelliptic", "plane", "plane closure" (of an affine curve), "complete intersection"
+    /// or "space curve" (more equations than a complete intersection).
     fn model(&self) -> &'static str {
         use fibrewise_core::curves::Model;
         with_curve!(&self.curve, c => match &c.model {
             Model::Hyperelliptic { .. } => "hyperelliptic",
             Model::Projective { closure_of_affine: true, .. } => "plane closure",
             Model::Projective { ring, .. } if ring.nvars() == 3 => "plane",
-            Model::Projective { .. } => "complete intersection",
+            Model::Projective { ring, gens, .. } if gens.len() + 2 == ring.nvars() => "complete intersection",
+            Model::Projective { .. } => "space curve",
         })
     }
 
@@ -149,6 +152,18 @@ impl NativeCurve {
                 .iter()
                 .map(|p| p.iter().map(|x| c.field.coefficient_to_py(py, x)).collect())
                 .collect()
+        })
+    }
+
+    /// The singular closed points: (degree, reduced lex basis of the maximal ideal) for each,
+    /// by increasing degree, in the coordinates of `coordinate_names` with the lex order.
+    fn singular_closed_points(&self, py: Python<'_>) -> PyResult<Vec<(usize, Vec<NativePoly>)>> {
+        with_curve!(&self.curve, c => {
+            let points = long_run::run(py, Limits::default(), self.memory, |control| c.singular_closed_points(control))?;
+            Ok(points
+                .into_iter()
+                .map(|p| (p.degree, native_polys(p.equations.ring, p.equations.polys, self.memory)))
+                .collect())
         })
     }
 

@@ -297,3 +297,227 @@ fn weil_bound_rejects_counts_of_no_curve() {
         .unwrap()
         .satisfies_functional_equation());
 }
+
+/// Distinct roots of p in the field, by trying every element.
+fn brute_force_roots<F: Field>(field: &F, p: &[F::Elem]) -> u128 {
+    let size = crate::field::field_size(field).unwrap();
+    (0..size)
+        .filter(|&i| {
+            let a = field.element_from_index(i);
+            field.is_zero(&crate::univariate::evaluate(field, p, &a))
+        })
+        .count() as u128
+}
+
+/// Random polynomials of degree 0..=10 (beyond the fixed-size path too), some with many roots
+/// (products of linear factors, repeated ones included), counted against brute force.
+fn root_counts_agree_with_brute_force<F: Field>(field: F, polynomials: usize) {
+    use crate::univariate::{from_roots, multiply, random_element};
+    let counter = root_count::RootCounter::new(&field).unwrap();
+    let mut rng = crate::rng::Rng::new(7);
+    for n in 0..polynomials {
+        let degree = n % 11;
+        let mut p: Vec<F::Elem> = (0..=degree)
+            .map(|_| random_element(&field, &mut rng))
+            .collect();
+        if n % 3 == 0 {
+            let roots: Vec<F::Elem> = (0..1 + n % 4)
+                .map(|_| random_element(&field, &mut rng))
+                .collect();
+            let repeated = [roots.clone(), roots[..1].to_vec()].concat();
+            p = multiply(&field, &p, &from_roots(&field, &repeated));
+        }
+        let expected = if p.iter().all(|c| field.is_zero(c)) {
+            crate::field::field_size(&field).unwrap() as u128
+        } else {
+            brute_force_roots(&field, &p)
+        };
+        assert_eq!(
+            counter.count(&p, &Control::new()).unwrap(),
+            expected,
+            "{} over {}",
+            crate::univariate::format(&field, &p, "y"),
+            field.spec()
+        );
+    }
+}
+
+#[test]
+fn root_counts_of_the_fibre_path_equal_brute_force() {
+    // Tables (GF(2^4), GF(3^5)), a prime field, and the bit-packed GF(2^17) where the counts
+    // of the benchmark run; the quadratics exercise the trace and square criteria.
+    for spec in ["GF(16)", "GF(3^5)", "GF(101)"] {
+        with_any_field!(AnyField::parse(spec).unwrap(), k => root_counts_agree_with_brute_force(k, 300));
+    }
+    let AnyField::Binary(k) = AnyField::parse("GF(2^17)").unwrap() else {
+        panic!("GF(2^17) is bit-packed")
+    };
+    root_counts_agree_with_brute_force(k, 24);
+    // The zero polynomial vanishes everywhere; y^2 + y + 1 has no root in GF(2^17) (odd degree
+    // over GF(2): GF(4) is not a subfield) and y^2 + y two in GF(4).
+    let gf = AnyField::parse("GF(2^17)").unwrap();
+    with_any_field!(gf, k => {
+        let counter = root_count::RootCounter::new(&k).unwrap();
+        assert_eq!(counter.count(&[k.zero()], &Control::new()).unwrap(), 1 << 17);
+        assert_eq!(counter.count(&[k.one(), k.one(), k.one()], &Control::new()).unwrap(), 0);
+    });
+    with_any_field!(AnyField::parse("GF(4)").unwrap(), k => {
+        let counter = root_count::RootCounter::new(&k).unwrap();
+        assert_eq!(counter.count(&[k.zero(), k.one(), k.one()], &Control::new()).unwrap(), 2);
+    });
+}
+
+/// Every element of GF(q^r) is walked once, and the weights of each orbit {x, x^q, ...} add up
+/// to its length (orbits made here by powering).
+fn orbit_weights_cover_the_field<F: Field>(field: F, q: u64, r: u32) {
+    let orbits = frobenius_orbits::FrobeniusOrbits::new(&field, q, r).unwrap();
+    let size = orbits.size();
+    let mut weight_of = std::collections::HashMap::new();
+    // Two runs, to check that a walk started in the middle agrees with one from the start.
+    for (start, end) in [(0, size / 2 + 1), (size / 2 + 1, size)] {
+        let mut walk = orbits.walk_from(start);
+        for i in start..end {
+            assert!(weight_of
+                .insert(walk.element().clone(), walk.weight())
+                .is_none());
+            if i + 1 < end {
+                walk.advance();
+            }
+        }
+    }
+    assert_eq!(weight_of.len() as u64, size);
+    for x in weight_of.keys() {
+        let mut orbit = vec![x.clone()];
+        let mut y = field.pow(x, q);
+        while y != *x {
+            orbit.push(y.clone());
+            y = field.pow(&y, q);
+        }
+        let total: u128 = orbit.iter().map(|y| weight_of[y]).sum();
+        assert_eq!(total, orbit.len() as u128, "orbit of {}", field.format(x));
+    }
+}
+
+#[test]
+fn frobenius_orbits_are_walked_once_with_their_lengths() {
+    for (spec, q, r) in [
+        ("GF(2^6)", 4, 3),
+        ("GF(2^6)", 2, 6),
+        ("GF(3^4)", 9, 2),
+        ("GF(7)", 7, 1),
+    ] {
+        with_any_field!(AnyField::parse(spec).unwrap(), k => orbit_weights_cover_the_field(k, q, r));
+    }
+    let AnyField::Binary(k) = AnyField::parse("GF(2^18)").unwrap() else {
+        panic!("GF(2^18) is bit-packed")
+    };
+    orbit_weights_cover_the_field(k, 64, 3);
+}
+
+#[test]
+fn twisted_cubic_beyond_two_to_the_sixteen() {
+    // The twisted cubic (s^3 : s^2 t : s t^2 : t^3), cut out by the 2 × 2 minors (not a complete
+    // intersection): genus 0 and N_r = q^r + 1 (handbook fact), here over GF(2^17).
+    let curve = curve_over(
+        PrimeField::new(2).unwrap(),
+        &["x", "y", "z", "w"],
+        &["x*z - y^2", "y*w - z^2", "x*w - y*z"],
+    );
+    assert!(curve.is_smooth());
+    assert_eq!(curve.genus().unwrap(), 0);
+    for r in [1u32, 2, 3, 17] {
+        assert_eq!(
+            curve.count_points(r, &Control::new()).unwrap(),
+            (1u128 << r) + 1
+        );
+    }
+}
+
+#[test]
+fn elliptic_curve_as_two_quadrics_counts_as_its_plane_cubic() {
+    // E: y^2 + xy = x^3 + 1 over GF(2) embedded in P^3 by (1 : x : y : x^2) (the functions with
+    // poles of order ≤ 4 at the point at infinity): X0 X3 = X1^2 and
+    // X2^2 + X1 X2 = X1 X3 + X0^2 (x^3 = x · x^2). An embedding, so N_r are those of the plane
+    // cubic; N_1 by brute force, and N_17 over GF(2^17) from L(T) = 1 − aT + 2T^2 (Hasse). The
+    // coordinates are named a..d: the name a of GF(2^r)'s generator must not get in the way.
+    let space = curve_over(
+        PrimeField::new(2).unwrap(),
+        &["a", "b", "c", "d"],
+        &["a*d - b^2", "c^2 + b*c + b*d + a^2"],
+    );
+    let cubic = "y^2*z + x*y*z + x^3 + z^3";
+    let plane = curve_over(PrimeField::new(2).unwrap(), &["x", "y", "z"], &[cubic]);
+    assert!(space.is_smooth() && plane.is_smooth());
+    assert_eq!(space.genus().unwrap(), 1);
+    assert_eq!(counts(&space, 4), counts(&plane, 4));
+    let n1 = brute_force_plane("GF(2)", cubic);
+    assert_eq!(space.count_points(1, &Control::new()).unwrap(), n1);
+    let a = 3 - n1 as i64;
+    let zeta = Zeta::from_counts(2, 1, &[n1]).unwrap();
+    assert_eq!(l_polynomial(&zeta), vec![1, -a, 2]);
+    let n17 = space.count_points(17, &Control::new()).unwrap();
+    assert_eq!(zeta.points(17), BigInt::from(n17));
+    assert_eq!(n17, plane.count_points(17, &Control::new()).unwrap());
+}
+
+#[test]
+fn singular_closed_points_over_extensions() {
+    // (x^2 + z^2)^2 + y^2 z^2 over GF(3): singular where x^2 + z^2 = y = 0, two points
+    // (±i : 0 : 1) conjugate over GF(3) (−1 is not a square mod 3), and at (0 : 1 : 0); the
+    // closed points against every point of P^2(GF(9)) where F and its partials vanish.
+    let equation = "(x^2 + z^2)^2 + y^2*z^2";
+    let curve = curve_over(PrimeField::new(3).unwrap(), &["x", "y", "z"], &[equation]);
+    assert!(!curve.is_smooth());
+    let closed = curve.singular_closed_points(&Control::new()).unwrap();
+    assert_eq!(
+        closed.iter().map(|p| p.degree).collect::<Vec<_>>(),
+        vec![1, 2]
+    );
+    assert_eq!(
+        curve.singular_points(&Control::new()).unwrap(),
+        vec![vec![0, 1, 0]]
+    );
+    let AnyField::Table(gf9) = AnyField::parse("GF(9)").unwrap() else {
+        panic!("GF(9) has tables")
+    };
+    let mut listed = Vec::new();
+    for p in &closed {
+        let r = &p.equations.ring;
+        listed.extend(
+            crate::points::extension::points_over(
+                r,
+                &p.equations.polys,
+                gf9.clone(),
+                |c| gf9.from_i64(*c as i64),
+                None,
+                Engine::Auto,
+                &Control::new(),
+            )
+            .unwrap(),
+        );
+    }
+    listed.sort_by_key(|p| p.iter().map(|&c| c as u64).collect::<Vec<_>>());
+    let ring = ring_over(gf9.clone(), &["x", "y", "z"]);
+    let f = parse_poly(&ring, equation).unwrap();
+    let mut equations = vec![f.clone()];
+    for i in 0..3 {
+        equations.push(jacobian::partial_derivative(&ring, &f, i).unwrap());
+    }
+    // P^2(GF(9)) with the first nonzero coordinate 1, as the closed points' charts have it.
+    let elements = gf9.small_elements(9).unwrap();
+    let mut brute = Vec::new();
+    for a in &elements {
+        for b in &elements {
+            brute.push(vec![1, *a, *b]);
+        }
+        brute.push(vec![0, 1, *a]);
+    }
+    brute.push(vec![0, 0, 1]);
+    brute.retain(|p| {
+        equations
+            .iter()
+            .all(|g| gf9.is_zero(&ring.evaluate(g, p).unwrap()))
+    });
+    brute.sort_by_key(|p| p.iter().map(|&c| c as u64).collect::<Vec<_>>());
+    assert_eq!(listed, brute);
+}
