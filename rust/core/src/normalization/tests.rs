@@ -425,26 +425,6 @@ fn small_exponents_first_on_a_sparse_system_over_gf7() {
 }
 
 #[test]
-fn equations_over_gf7_interpolate_in_an_extension() {
-    // The system above: its monic equations have coefficients of higher degree in the
-    // parameters than GF(7) has points, so the characteristic polynomials are interpolated
-    // over an extension of GF(7) (it took minutes by Berkowitz's algorithm over GF(7)[t]). The
-    // whole certificate is checked from the ideal alone.
-    let r = ring(7, &["v0", "v1", "v2", "v3"]);
-    let gens = polys(
-        &r,
-        &[
-            "4*v2*v3^2 + 12*v0^3*v1^2*v3 + 26*v0^2*v1^3*v2^3",
-            "43*v1^2*v2^2*v3^3 + 4*v0^2*v1^3*v2*v3^2",
-        ],
-    );
-    let projection = project(&r, &gens, None, &Options::default(), &Control::new()).unwrap();
-    let certificate = projection.into_certificate(&Control::new()).unwrap();
-    assert_eq!(certificate.equations.len(), 4);
-    assert_verifies(&certificate, &gens);
-}
-
-#[test]
 fn lazy_equations_equal_eager_ones() {
     // The summary and the equations computed apart give the certificate computed at once.
     let cases: [(u64, &[&str], &[&str]); 3] = [
