@@ -29,8 +29,8 @@ impl NativeField {
     #[new]
     #[pyo3(signature = (spec, modulus=None, generator="a"))]
     fn new(py: Python<'_>, spec: &str, modulus: Option<&str>, generator: &str) -> PyResult<Self> {
-        let field = long_run::run(py, Limits::default(), None, |_| {
-            AnyField::parse_with(spec, modulus, generator)
+        let field = long_run::run(py, Limits::default(), None, |control| {
+            AnyField::parse_within(spec, modulus, generator, control)
         })?;
         Ok(NativeField { field })
     }

@@ -13,6 +13,7 @@ use super::{
     BigPrimeField, BinaryField, ExtensionField, Field, Modulus, PrimeField, RationalField,
     TableField,
 };
+use crate::control::Control;
 use crate::error::{Error, Result};
 use num_bigint::BigUint;
 use num_traits::ToPrimitive;
@@ -49,6 +50,17 @@ impl AnyField {
     /// generator called `generator` in every polynomial text (`a` by default; only GF(p^k),
     /// k ≥ 2, has one). A spec `GF(p)[b]/(f)` names its generator itself.
     pub fn parse_with(spec: &str, modulus: Option<&str>, generator: &str) -> Result<Self> {
+        AnyField::parse_within(spec, modulus, generator, &Control::new())
+    }
+
+    /// [`AnyField::parse_with`], stopping with `Interrupted` when `control` says so: the
+    /// default modulus of a large GF(p^k) is a search over about k candidates.
+    pub fn parse_within(
+        spec: &str,
+        modulus: Option<&str>,
+        generator: &str,
+        control: &Control,
+    ) -> Result<Self> {
         let text = spec.trim();
         if text == "Q" || (!text.is_empty() && text.bytes().all(|b| b.is_ascii_digit())) {
             if modulus.is_some() || generator != DEFAULT_GENERATOR {
@@ -59,7 +71,7 @@ impl AnyField {
             if text == "Q" {
                 return Ok(AnyField::Rational(RationalField));
             }
-            return AnyField::from_order(spec, text, None, generator);
+            return AnyField::from_order(spec, text, None, generator, control);
         }
         if let Some((base, name, quotient)) = quotient_form(text) {
             if modulus.is_some() || (generator != DEFAULT_GENERATOR && generator != name) {
@@ -67,20 +79,32 @@ impl AnyField {
                     "field spec '{spec}' already gives the modulus and the generator's name"
                 )));
             }
-            return AnyField::from_quotient(spec, base, quotient, name);
+            return AnyField::from_quotient(spec, base, quotient, name, control);
         }
-        AnyField::from_order(spec, gf_inner(spec, text)?, modulus, generator)
+        AnyField::from_order(spec, gf_inner(spec, text)?, modulus, generator, control)
     }
 
     /// `GF(p)[b]/(f)`: GF(p^k) with k the degree of f, generator b.
-    fn from_quotient(spec: &str, base: &str, modulus: &str, generator: &str) -> Result<Self> {
+    fn from_quotient(
+        spec: &str,
+        base: &str,
+        modulus: &str,
+        generator: &str,
+        control: &Control,
+    ) -> Result<Self> {
         let prime = small_prime(spec, &parse_prime(spec, base)?)?;
-        let modulus = Modulus::parse_in(prime, None, modulus, generator);
+        let modulus = Modulus::parse_within(prime, None, modulus, generator, control);
         extension_field(modulus.map_err(|e| prefixed(spec, e))?)
     }
 
     /// The field of order `order` (`q` or `p^k`), optionally on a given modulus text.
-    fn from_order(spec: &str, order: &str, modulus: Option<&str>, generator: &str) -> Result<Self> {
+    fn from_order(
+        spec: &str,
+        order: &str,
+        modulus: Option<&str>,
+        generator: &str,
+        control: &Control,
+    ) -> Result<Self> {
         let number = |t: &str| -> Result<BigUint> {
             let t = t.trim();
             if t.is_empty() || !t.bytes().all(|b| b.is_ascii_digit()) {
@@ -139,12 +163,13 @@ impl AnyField {
             ))),
             (_, Some(text)) => {
                 let base = small_prime(spec, &p)?;
-                let modulus = Modulus::parse_in(base, Some(k), text, generator);
+                let modulus = Modulus::parse_within(base, Some(k), text, generator, control);
                 extension_field(modulus.map_err(|e| prefixed(spec, e))?)
             }
             (_, None) => {
                 let base = small_prime(spec, &p)?;
-                let modulus = Modulus::first_irreducible(base, k)?.with_generator(generator);
+                let modulus = Modulus::first_irreducible_within(base, k, control)?
+                    .with_generator(generator);
                 extension_field(modulus.map_err(|e| prefixed(spec, e))?)
             }
         }

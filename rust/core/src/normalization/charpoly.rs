@@ -11,8 +11,9 @@
 //! works in every characteristic, GF(2) included.
 
 use super::scalars::{invert_all, Generic, Scalars, Words, LANES};
+use super::zech::ZechExtension;
 use crate::control::Control;
-use crate::error::Result;
+use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::poly::{Poly, Ring};
 #[cfg(target_arch = "x86_64")]
@@ -26,11 +27,17 @@ pub fn characteristic_polynomial<F: Field>(
     a: &[Vec<Poly<F>>],
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
-    match interpolation_grid(ring, a) {
-        Some((bounds, total, mean)) => {
-            let set = LowerSet::new(&bounds, total);
-            by_interpolation(ring, a, &set, mean, control)
-        }
+    let Some(grid) = interpolation_grid(ring, a) else {
+        return berkowitz(ring, a, control);
+    };
+    let points = grid.bounds.iter().max().map_or(1, |&b| b + 1);
+    let q = crate::field::field_size(&ring.field).unwrap_or(u64::MAX);
+    if points <= q {
+        return by_interpolation(ring, a, &grid, control);
+    }
+    // Too few elements for the points: interpolate in an extension of the field.
+    match ZechExtension::new(&ring.field, points, control)? {
+        Some(large) => interpolate_in(&large, ring, a, &grid, control),
         None => berkowitz(ring, a, control),
     }
 }
@@ -41,14 +48,18 @@ const MAX_INTERPOLATION_VALUES: u64 = 20_000_000;
 /// A cycle mean λ* as a fraction (numerator, denominator); `None` when the graph has no cycle.
 type CycleMean = Option<(i64, i64)>;
 
-/// Degree bounds in each t_i and in total for the coefficients, and the largest cycle mean of
-/// the entries' total degrees (the total degree of the coefficient of x^k is at most
-/// ⌊(r - k)·λ*⌋), when the field has enough points for them and the grid is small enough;
-/// `None` otherwise.
-fn interpolation_grid<F: Field>(
-    ring: &Ring<F>,
-    a: &[Vec<Poly<F>>],
-) -> Option<(Vec<u64>, u64, CycleMean)> {
+/// The points that determine the coefficients: the lower set of exponents under the degree
+/// bounds in each t_i and in total, and the largest cycle mean of the entries' total degrees
+/// (the total degree of the coefficient of x^k is at most ⌊(r - k)·λ*⌋).
+struct Grid {
+    /// bounds[i]: the degree bound in t_i; interpolation needs bounds[i] + 1 distinct points.
+    bounds: Vec<u64>,
+    set: LowerSet,
+    mean: CycleMean,
+}
+
+/// The interpolation grid, when it is small enough; `None` otherwise.
+fn interpolation_grid<F: Field>(ring: &Ring<F>, a: &[Vec<Poly<F>>]) -> Option<Grid> {
     let d = ring.nvars();
     let r = a.len();
     let degree_in = |p: &Poly<F>, i: usize| {
@@ -86,18 +97,14 @@ fn interpolation_grid<F: Field>(
             rows.min(cols).min(cycles).min(total_bound)
         })
         .collect();
-    let q = crate::field::field_size(&ring.field).unwrap_or(u64::MAX);
-    if bounds.iter().any(|&b| b >= q) {
-        return None;
-    }
     let points = bounds
         .iter()
         .try_fold(1u64, |acc, &b| acc.checked_mul(b + 1))?;
-    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then_some((
+    (points.checked_mul(r as u64 + 1)? <= MAX_INTERPOLATION_VALUES).then(|| Grid {
+        set: LowerSet::new(&bounds, total_bound),
         bounds,
-        total_bound,
-        total_mean,
-    ))
+        mean: total_mean,
+    })
 }
 
 /// The largest mean degree λ* of a cycle, given the degree of each entry (`None` for a zero
@@ -152,13 +159,12 @@ fn cycle_bound(mean: CycleMean, k: usize) -> u64 {
 fn by_interpolation<F: Field>(
     ring: &Ring<F>,
     a: &[Vec<Poly<F>>],
-    set: &LowerSet,
-    mean: CycleMean,
+    grid: &Grid,
     control: &Control,
 ) -> Result<Vec<Poly<F>>> {
     match Words::new(&ring.field) {
-        Some(words) => interpolate_in(&words, ring, a, set, mean, control),
-        None => interpolate_in(&Generic(&ring.field), ring, a, set, mean, control),
+        Some(words) => interpolate_in(&words, ring, a, grid, control),
+        None => interpolate_in(&Generic(&ring.field), ring, a, grid, control),
     }
 }
 
@@ -166,19 +172,14 @@ fn interpolate_in<S: Scalars>(
     s: &S,
     ring: &Ring<S::Base>,
     a: &[Vec<Poly<S::Base>>],
-    set: &LowerSet,
-    mean: CycleMean,
+    grid: &Grid,
     control: &Control,
 ) -> Result<Vec<Poly<S::Base>>> {
+    let (set, mean) = (&grid.set, grid.mean);
     let field = &ring.field;
     let r = a.len();
     let longest = set.exponents.iter().flatten().copied().max().unwrap_or(0);
-    let nodes = Nodes::new(
-        s,
-        (0..=u64::from(longest))
-            .map(|j| s.import(&field.element_from_index(j)))
-            .collect(),
-    );
+    let nodes = Nodes::new(s, (0..=u64::from(longest)).map(|j| s.point(j)).collect());
     let entries = EntryTerms::new(s, a);
     let columns = Columns::new(r, |j, k| !a[j][k].is_zero());
     let projection = projection_vector(s, field, r);
@@ -219,10 +220,12 @@ fn interpolate_in<S: Scalars>(
             .zip(coefficients)
             .filter(|(_, c)| !s.is_zero(c))
             .map(|(alpha, c)| {
-                Ok((
-                    crate::Monomial::from_exponents(alpha.clone())?,
-                    s.export(&c),
-                ))
+                let c = s.export(&c).ok_or_else(|| {
+                    Error::invalid(
+                        "internal error: an interpolated coefficient lies outside the field",
+                    )
+                })?;
+                Ok((crate::Monomial::from_exponents(alpha.clone())?, c))
             })
             .collect::<Result<Vec<_>>>()?;
         out.push(ring.from_terms(terms));
@@ -822,22 +825,85 @@ mod tests {
                 })
                 .collect();
             let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
-            let (bounds, total, mean) = interpolation_grid(&ring, &a).unwrap();
+            let grid = interpolation_grid(&ring, &a).unwrap();
             let expected = berkowitz(&ring, &a, &Control::new()).unwrap();
             assert_eq!(fast, expected, "{nvars} variables, size {size}");
             // The same interpolation in the field's own arithmetic, the path of every field
             // that is not a word-size prime field.
-            let set = LowerSet::new(&bounds, total);
-            let generic = interpolate_in(
-                &Generic(&ring.field),
-                &ring,
-                &a,
-                &set,
-                mean,
-                &Control::new(),
-            );
+            let generic = interpolate_in(&Generic(&ring.field), &ring, &a, &grid, &Control::new());
             assert_eq!(generic.unwrap(), expected, "{nvars} variables, size {size}");
         }
+    }
+
+    /// A random r × r matrix over `ring` whose entries have up to three terms with exponents
+    /// below `most` in each variable.
+    fn random_polynomial_matrix<F: Field>(
+        ring: &Ring<F>,
+        rng: &mut crate::normalization::changes::Rng,
+        size: usize,
+        most: u64,
+    ) -> Vec<Vec<Poly<F>>> {
+        let q = crate::field::field_size(&ring.field).unwrap();
+        (0..size)
+            .map(|_| {
+                (0..size)
+                    .map(|_| {
+                        let terms = (0..3).map(|_| {
+                            let e = (0..ring.nvars())
+                                .map(|_| (rng.next_u64() % most) as u32)
+                                .collect();
+                            let c = ring.field.element_from_index(rng.next_u64() % q);
+                            (crate::Monomial::from_exponents(e).unwrap(), c)
+                        });
+                        ring.from_terms(terms)
+                    })
+                    .collect()
+            })
+            .collect()
+    }
+
+    /// Over fields with fewer elements than the degrees need as points (GF(2), GF(7), GF(4)),
+    /// interpolation runs in an extension of the field and gives what Berkowitz's algorithm
+    /// gives over the field itself, on random matrices whose degree bounds exceed the field.
+    #[test]
+    fn interpolation_in_an_extension_agrees_with_berkowitz() {
+        fn agree<F: Field>(field: F, seed: u64) {
+            let mut rng = crate::normalization::changes::Rng::new(seed);
+            let q = crate::field::field_size(&field).unwrap();
+            let mut extended = 0;
+            for (nvars, size) in [(1, 3), (1, 6), (2, 4), (2, 6), (3, 3)] {
+                let names = ["s", "t", "u"][..nvars]
+                    .iter()
+                    .map(|v| v.to_string())
+                    .collect();
+                let ring = Ring::new(field.clone(), names, MonomialOrder::Grevlex).unwrap();
+                let a = random_polynomial_matrix(&ring, &mut rng, size, 4);
+                let grid = interpolation_grid(&ring, &a).unwrap();
+                if grid.bounds.iter().any(|&b| b >= q) {
+                    extended += 1;
+                }
+                let expected = berkowitz(&ring, &a, &Control::new()).unwrap();
+                let fast = characteristic_polynomial(&ring, &a, &Control::new()).unwrap();
+                assert_eq!(
+                    fast,
+                    expected,
+                    "{} {nvars} variables, size {size}",
+                    field.spec()
+                );
+            }
+            assert!(
+                extended >= 3,
+                "{}: the extension must be exercised",
+                field.spec()
+            );
+        }
+        agree(PrimeField::new(2).unwrap(), 1);
+        agree(PrimeField::new(7).unwrap(), 2);
+        let crate::field::AnyField::Table(gf4) = crate::field::AnyField::parse("GF(4)").unwrap()
+        else {
+            panic!("GF(4) is a table field")
+        };
+        agree(gf4, 3);
     }
 
     /// The sequence u·(A^T)^k e_1, k < 2r, of one matrix, through the lanes.

@@ -27,6 +27,7 @@ pub mod division;
 pub mod finiteness;
 pub mod nagata;
 pub mod scalars;
+pub mod zech;
 
 #[cfg(test)]
 mod check_tests;

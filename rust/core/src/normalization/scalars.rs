@@ -36,8 +36,14 @@ pub trait Scalars {
     {
         pairs.fold(self.zero(), |acc, (a, b)| self.mul_add(&acc, a, b))
     }
+    /// The j-th interpolation point: distinct for j < [`Scalars::points`].
+    fn point(&self, j: u64) -> Self::E;
+    /// How many distinct points there are (the number of elements, `u64::MAX` when larger).
+    fn points(&self) -> u64;
     fn import(&self, a: &<Self::Base as Field>::Elem) -> Self::E;
-    fn export(&self, a: &Self::E) -> <Self::Base as Field>::Elem;
+    /// The element of the base field, or `None` when `a` lies outside it (scalars in an
+    /// extension of the base field).
+    fn export(&self, a: &Self::E) -> Option<<Self::Base as Field>::Elem>;
 
     /// Sums of products for [`LANES`] independent problems side by side: `acc[l] += a[l]·b[l]`
     /// with no reduction in between, so that the loop over the lanes can run on vector units.
@@ -101,11 +107,17 @@ impl<F: Field> Scalars for Generic<'_, F> {
     fn inv(&self, a: &F::Elem) -> Option<F::Elem> {
         self.0.inv(a)
     }
+    fn point(&self, j: u64) -> F::Elem {
+        self.0.element_from_index(j)
+    }
+    fn points(&self) -> u64 {
+        crate::field::field_size(self.0).unwrap_or(u64::MAX)
+    }
     fn import(&self, a: &F::Elem) -> F::Elem {
         a.clone()
     }
-    fn export(&self, a: &F::Elem) -> F::Elem {
-        a.clone()
+    fn export(&self, a: &F::Elem) -> Option<F::Elem> {
+        Some(a.clone())
     }
 
     type Lanes = [F::Elem; LANES];
@@ -212,11 +224,17 @@ impl<F: Field> Scalars for Words<'_, F> {
         }
         self.reduce(self.reduce(carries) * self.carry + self.reduce(low))
     }
+    fn point(&self, j: u64) -> u64 {
+        self.field.to_word(&self.field.element_from_index(j))
+    }
+    fn points(&self) -> u64 {
+        self.p
+    }
     fn import(&self, a: &F::Elem) -> u64 {
         self.field.to_word(a)
     }
-    fn export(&self, a: &u64) -> F::Elem {
-        self.field.from_word(*a)
+    fn export(&self, a: &u64) -> Option<F::Elem> {
+        Some(self.field.from_word(*a))
     }
 
     /// Each lane sums its products (each below 2^64, of residues below p < 2^32, which

@@ -8,6 +8,7 @@
 
 mod binary;
 mod modulus;
+mod squaring;
 mod table;
 
 pub use binary::BinaryField;

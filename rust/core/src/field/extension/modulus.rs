@@ -16,6 +16,7 @@
 //! GF(2^k), k ≤ 2000, deg g stays below 16 in practice; irreducibles of this form have density
 //! about 1/k, so about k candidates are tried), and reductions modulo it cost O(k·deg g).
 
+use super::squaring::BinarySquaring;
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::{Field, PrimeField};
@@ -72,6 +73,11 @@ pub(crate) fn prime_divisors(mut n: u64) -> Vec<u64> {
 impl Modulus {
     /// f = Σ coeffs[i] a^i over GF(p); made monic. Errors if f has degree < 2 or is reducible.
     pub fn new(base: PrimeField, coeffs: Vec<u64>) -> Result<Self> {
+        Modulus::new_within(base, coeffs, &Control::new())
+    }
+
+    /// [`Modulus::new`], stopping with `Interrupted` when `control` says so.
+    pub fn new_within(base: PrimeField, coeffs: Vec<u64>, control: &Control) -> Result<Self> {
         let p = base.modulus();
         let coeffs = univariate::trimmed(&base, coeffs.into_iter().map(|c| c % p).collect());
         if coeffs.len() < 3 {
@@ -87,24 +93,31 @@ impl Modulus {
             is_default: false,
             generator: DEFAULT_GENERATOR.to_string(),
         };
-        if let Some(why) = m.reducibility_witness()? {
+        if let Some(why) = m.reducibility_witness(control)? {
             return Err(Error::invalid(format!(
                 "the modulus {} is reducible over GF({p}){why}",
                 m.text()
             )));
         }
-        m.is_default = m.is_first_irreducible()?;
+        m.is_default = m.is_first_irreducible(control)?;
         Ok(m)
     }
 
     /// The default modulus of GF(p^k) (see the module doc): the first irreducible.
     pub fn first_irreducible(base: PrimeField, k: u32) -> Result<Self> {
+        Modulus::first_irreducible_within(base, k, &Control::new())
+    }
+
+    /// [`Modulus::first_irreducible`], stopping with `Interrupted` when `control` says so (the
+    /// search tests about k candidates, each by k Frobenius steps).
+    pub fn first_irreducible_within(base: PrimeField, k: u32, control: &Control) -> Result<Self> {
         if k < 2 {
             return Err(Error::invalid("an extension field needs degree k >= 2"));
         }
         let sieve = SmallFactors::new(&base, k as usize);
         let mut candidates = Candidates::new(base.modulus(), k as usize);
         while let Some(lower) = candidates.next() {
+            control.check()?;
             let mut coeffs = lower.to_vec();
             coeffs.push(1);
             let m = Modulus {
@@ -116,7 +129,7 @@ impl Modulus {
             if sieve.divides(&m) {
                 continue;
             }
-            if m.reducibility_witness()?.is_none() {
+            if m.reducibility_witness(control)?.is_none() {
                 return Ok(m);
             }
         }
@@ -128,8 +141,8 @@ impl Modulus {
 
     /// Whether f is the first irreducible of its degree, i.e. no candidate before it in the
     /// counting order is irreducible.
-    fn is_first_irreducible(&self) -> Result<bool> {
-        let first = Modulus::first_irreducible(self.base.clone(), self.degree())?;
+    fn is_first_irreducible(&self, control: &Control) -> Result<bool> {
+        let first = Modulus::first_irreducible_within(self.base.clone(), self.degree(), control)?;
         Ok(first.coeffs == self.coeffs)
     }
 
@@ -141,11 +154,28 @@ impl Modulus {
     /// The modulus written in the generator `name`, which the field then keeps as its
     /// generator's name.
     pub fn parse_in(base: PrimeField, k: Option<u32>, text: &str, name: &str) -> Result<Self> {
-        let modulus = Modulus::parse_text(base, k, text, name)?;
+        Modulus::parse_within(base, k, text, name, &Control::new())
+    }
+
+    /// [`Modulus::parse_in`], stopping with `Interrupted` when `control` says so.
+    pub fn parse_within(
+        base: PrimeField,
+        k: Option<u32>,
+        text: &str,
+        name: &str,
+        control: &Control,
+    ) -> Result<Self> {
+        let modulus = Modulus::parse_text(base, k, text, name, control)?;
         modulus.with_generator(name)
     }
 
-    fn parse_text(base: PrimeField, k: Option<u32>, text: &str, name: &str) -> Result<Self> {
+    fn parse_text(
+        base: PrimeField,
+        k: Option<u32>,
+        text: &str,
+        name: &str,
+        control: &Control,
+    ) -> Result<Self> {
         check_generator_name(name)?;
         let ring = Ring::new(base.clone(), vec![name.to_string()], MonomialOrder::Lex)?;
         let f = parse_poly(&ring, text).map_err(|e| match e {
@@ -166,7 +196,7 @@ impl Modulus {
         for (m, c) in f.terms() {
             coeffs[m.exponents()[0] as usize] = *c;
         }
-        Modulus::new(base, coeffs)
+        Modulus::new_within(base, coeffs, control)
     }
 
     pub fn characteristic(&self) -> u64 {
@@ -198,14 +228,13 @@ impl Modulus {
     }
 
     /// None if irreducible; otherwise a short reason for the error message.
-    fn reducibility_witness(&self) -> Result<Option<String>> {
+    fn reducibility_witness(&self, control: &Control) -> Result<Option<String>> {
         let f = &self.coeffs;
         let n = self.degree() as usize;
         if f[0] == 0 {
             return Ok(Some(" (a divides it)".into()));
         }
-        let control = Control::new();
-        let frobenius = Frobenius::new(self);
+        let mut frobenius = Powers::new(self);
         let x: Dense = vec![0, 1];
         // powers[i] = x^(p^i) mod f, kept for i = n / r.
         let wanted: Vec<usize> = prime_divisors(n as u64)
@@ -215,12 +244,16 @@ impl Modulus {
         let mut h = x.clone();
         let mut kept = Vec::new();
         for i in 1..=n {
-            h = frobenius.apply(&h);
+            control.check()?;
+            frobenius.step();
+            if i == 1 || i == n || wanted.contains(&i) {
+                h = frobenius.current();
+            }
             if i == 1 {
                 let roots =
                     univariate::gcd(&self.base, &univariate::subtract(&self.base, &h, &x), f);
                 if roots.len() > 1 {
-                    let root = univariate::roots(&self.base, &roots, &control)?[0];
+                    let root = univariate::roots(&self.base, &roots, control)?[0];
                     return Ok(Some(format!(" (a = {root} is a root)")));
                 }
             }
@@ -274,6 +307,52 @@ struct Frobenius<'a> {
 
 /// Up to this characteristic the Frobenius map spreads coefficients instead of squaring.
 const SPREAD_LIMIT: u64 = 64;
+
+/// The powers x^(p^i) mod f one after the other: on packed bits in characteristic 2 when f is
+/// sparse enough ([`BinarySquaring`]), else by [`Frobenius`] on dense coefficients.
+enum Powers<'a> {
+    Packed {
+        squaring: BinarySquaring,
+        bits: Vec<u64>,
+    },
+    Dense {
+        frobenius: Frobenius<'a>,
+        h: Dense,
+    },
+}
+
+impl<'a> Powers<'a> {
+    /// Starts at x.
+    fn new(modulus: &'a Modulus) -> Self {
+        let x: Dense = vec![0, 1];
+        match BinarySquaring::new(&modulus.coeffs).filter(|_| modulus.characteristic() == 2) {
+            Some(squaring) => Powers::Packed {
+                bits: squaring.pack(&x),
+                squaring,
+            },
+            None => Powers::Dense {
+                frobenius: Frobenius::new(modulus),
+                h: x,
+            },
+        }
+    }
+
+    /// x^(p^i) ↦ x^(p^(i+1)).
+    fn step(&mut self) {
+        match self {
+            Powers::Packed { squaring, bits } => *bits = squaring.square(bits),
+            Powers::Dense { frobenius, h } => *h = frobenius.apply(h),
+        }
+    }
+
+    /// The current power, dense.
+    fn current(&self) -> Dense {
+        match self {
+            Powers::Packed { squaring, bits } => squaring.unpack(bits),
+            Powers::Dense { h, .. } => h.clone(),
+        }
+    }
+}
 
 impl<'a> Frobenius<'a> {
     fn new(modulus: &'a Modulus) -> Self {
