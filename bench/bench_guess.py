@@ -8,13 +8,18 @@
    local worker processes against one (in-process), wall-clock and CPU seconds, target >= 1.8x
    (needs two free cores, so the load average is printed beside it; the two-worker time
    includes starting the processes). `python bench/bench_guess.py --workers` runs only this one.
+   A worker computes on one core (worker processes set RAYON_NUM_THREADS=1), so this process is
+   held to one thread as well: the one-worker run is one core, not the engine's own threads.
 """
 
 from __future__ import annotations
 
+import os
 import pathlib
 import sys
 import time
+
+os.environ.setdefault("RAYON_NUM_THREADS", "1")  # before the core's thread pool starts
 
 sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent.parent / "tests"))
 
@@ -98,8 +103,6 @@ def cpu_of_children() -> float:
 def workers(rounds: int = 6) -> None:
     """One worker (in this process) against two worker processes on the guess split the plan
     chooses; wall-clock and CPU seconds of both, and the load average beside them."""
-    import os
-
     S = toy_cipher(rounds)
     if rounds == 6:  # the system of the README's tour, written out in examples/
         example = fw.System.read(str(EXAMPLES / "toy_cipher_6round_gf503.txt"))

@@ -332,12 +332,20 @@ def _run(
         yield from _run_processes(job, todo, workers)
 
 
+def _one_thread() -> None:
+    """A worker process computes on one thread (read by the core's thread pool when it starts)."""
+    os.environ["RAYON_NUM_THREADS"] = "1"
+
+
 def _run_processes(job: GuessJob, todo: list[int], workers: int) -> Generator[tuple[int, list], None, None]:
     import multiprocessing
     from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
 
-    # spawn: the workers start clean, without the parent's rayon threads.
-    with ProcessPoolExecutor(workers, mp_context=multiprocessing.get_context("spawn")) as pool:
+    # spawn: the workers start clean, without the parent's rayon threads; each computes on one
+    # core (as batch workers do), so that N workers use N cores and do not oversubscribe them.
+    with ProcessPoolExecutor(
+        workers, mp_context=multiprocessing.get_context("spawn"), initializer=_one_thread
+    ) as pool:
         pending = iter(todo)
         in_flight = {pool.submit(solve_chunk, job, i) for i in _take(pending, 2 * workers)}
         try:
