@@ -22,6 +22,7 @@ RUST_BENCHES: list[str] = [
     "bench_univariate",
     "bench_solutions",
     "bench_curves",
+    "bench_small_fields",
 ]
 
 
