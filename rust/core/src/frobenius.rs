@@ -3,7 +3,7 @@
 //! normal forms rather than an expansion to degree q.
 
 use crate::control::Control;
-use crate::error::{Error, Result};
+use crate::error::Result;
 use crate::field::Field;
 use crate::groebner::ReducedBasis;
 use crate::poly::Poly;
@@ -28,14 +28,4 @@ pub fn power_modulo<F: Field>(
         }
     }
     Ok(acc)
-}
-
-/// q as limbs for a finite field; an error naming the field otherwise.
-pub fn field_order_limbs<F: Field>(field: &F, what: &str) -> Result<Vec<u64>> {
-    field.order_limbs().ok_or_else(|| {
-        Error::invalid(format!(
-            "{what} needs a finite field; {} is infinite",
-            field.spec()
-        ))
-    })
 }

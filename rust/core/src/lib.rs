@@ -2,9 +2,11 @@
 //!
 //! Pure Rust; knows nothing of Python. Layout: one algorithm per module.
 //! - [`field`]: the `Field` trait and concrete fields: GF(p) for word-size and multi-precision
-//!   primes, GF(p^k), the rationals QQ; field specs read into [`field::AnyField`].
+//!   primes, GF(p^k), the rationals Q, all kinds in [`field::AnyField`]; [`field_spec`] reads
+//!   field specs and moduli from text.
 //! - [`monomial`], [`order`], [`poly`], [`parse`]: exponent vectors, monomial orders,
-//!   sparse polynomials and the polynomial text syntax.
+//!   sparse polynomials and the polynomial text syntax; [`monomial_ideal`]: Hilbert series of
+//!   monomial ideals.
 //! - [`groebner`]: Gröbner basis engines and what is computed from a basis (normal forms,
 //!   membership, ideal comparison).
 //! - [`dimension`], [`hilbert`], [`zerodim`], [`points`]: invariants read off a basis: Krull
@@ -21,11 +23,13 @@ pub mod curves;
 pub mod dimension;
 pub mod error;
 pub mod field;
+pub mod field_spec;
 pub mod frobenius;
 pub mod groebner;
 pub mod hilbert;
 pub mod integrality;
 pub mod monomial;
+pub mod monomial_ideal;
 pub mod normalization;
 pub mod order;
 pub mod parse;

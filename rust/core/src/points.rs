@@ -21,8 +21,9 @@
 use crate::control::Control;
 use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
+use crate::field::field_order_limbs;
 use crate::field::Field;
-use crate::frobenius::{field_order_limbs, power_modulo};
+use crate::frobenius::power_modulo;
 use crate::groebner::ReducedBasis;
 use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
@@ -265,6 +266,7 @@ pub mod closed;
 pub mod extension;
 pub mod fibres;
 pub mod rational;
+pub mod rational_roots;
 pub mod solve;
 
 #[cfg(test)]

@@ -47,6 +47,17 @@ fn basis_of<F: Kind>(
     })
 }
 
+/// Runs `$call` (an expression in the reduced basis `$gb` and the `$control` of the run) on the
+/// basis given as native polynomials of `space`, with the GIL released, as a long run.
+macro_rules! on_basis {
+    ($py:expr, $space:expr, $basis:expr, |$gb:ident, $control:ident| $call:expr) => {
+        with_ring!(&$space.ring, r => {
+            let $gb = basis_of($space, r, &$basis)?;
+            long_run::run($py, Limits::default(), $space.memory, |$control| $call)
+        })
+    };
+}
+
 fn leading_monomials<F: Kind>(
     space: &NativeSpace,
     r: &Ring<F>,
@@ -88,11 +99,10 @@ fn hilbert_series(
     space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<(Vec<i128>, u32, bool)> {
-    with_ring!(&space.ring, r => {
-        let gb = basis_of(space, r, &basis)?;
-        let s = long_run::run(py, Limits::default(), space.memory, |control| series_of_basis(&gb, control))?;
-        Ok((s.numerator, s.denominator_exponent, s.affine))
-    })
+    let s = on_basis!(py, space, basis, |gb, control| series_of_basis(
+        &gb, control
+    ))?;
+    Ok((s.numerator, s.denominator_exponent, s.affine))
 }
 
 fn series(numerator: Vec<i128>, denominator_exponent: u32) -> HilbertSeries {
@@ -128,10 +138,9 @@ fn quotient_dimension(
     space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<u128> {
-    with_ring!(&space.ring, r => {
-        let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), space.memory, |control| core_vs_dimension(&gb, control))
-    })
+    on_basis!(py, space, basis, |gb, control| core_vs_dimension(
+        &gb, control
+    ))
 }
 
 /// Exponent vectors of the standard monomials, increasing in the ring's order.
@@ -141,11 +150,10 @@ fn standard_monomials(
     space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<Vec<Vec<u32>>> {
-    with_ring!(&space.ring, r => {
-        let gb = basis_of(space, r, &basis)?;
-        let q = long_run::run(py, Limits::default(), space.memory, |control| Quotient::new(gb, control))?;
-        Ok(q.standard_monomials().iter().map(|m| m.exponents().to_vec()).collect())
-    })
+    let monomials = on_basis!(py, space, basis, |gb, control| {
+        Quotient::new(gb, control).map(|q| q.standard_monomials().to_vec())
+    })?;
+    Ok(monomials.iter().map(|m| m.exponents().to_vec()).collect())
 }
 
 /// Matrix of multiplication by `f` on the standard monomials; column j is the image of the j-th.
@@ -179,10 +187,9 @@ fn count_solutions(
     engine: &str,
 ) -> PyResult<u128> {
     let engine = engine_by_name(engine)?;
-    with_ring!(&space.ring, r => {
-        let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), space.memory, |control| radical::count_solutions(&gb, engine, control))
-    })
+    on_basis!(py, space, basis, |gb, control| radical::count_solutions(
+        &gb, engine, control
+    ))
 }
 
 #[pyfunction]
@@ -191,10 +198,9 @@ fn is_closed_point(
     space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<bool> {
-    with_ring!(&space.ring, r => {
-        let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), space.memory, |control| maximal::is_maximal(&gb, control))
-    })
+    on_basis!(py, space, basis, |gb, control| maximal::is_maximal(
+        &gb, control
+    ))
 }
 
 #[pyfunction]
@@ -203,9 +209,8 @@ fn closed_point_degree(
     space: &NativeSpace,
     basis: Vec<PyRef<'_, NativePoly>>,
 ) -> PyResult<u128> {
-    with_ring!(&space.ring, r => {
-        let gb = basis_of(space, r, &basis)?;
-        long_run::run(py, Limits::default(), space.memory, |control| maximal::residue_field_degree(&gb, control))
+    on_basis!(py, space, basis, |gb, control| {
+        maximal::residue_field_degree(&gb, control)
     })
 }
 

@@ -11,15 +11,19 @@ mod kinds;
 pub mod montgomery;
 pub mod primality;
 mod prime;
+pub mod random;
 mod rational;
 mod spec;
 
 pub use bigprime::BigPrimeField;
 pub use extension::{BinaryField, ExtensionField, Modulus, TableField};
 pub use prime::{inverse_mod_word, PrimeField};
+pub use random::uniform_element;
 pub use rational::{integer_scale, RationalField};
+pub(crate) use spec::small_prime;
 pub use spec::{extension_field, prime_field, AnyField};
 
+use crate::error::{Error, Result};
 use std::fmt::Debug;
 use std::hash::Hash;
 
@@ -76,9 +80,9 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     /// Used for enumeration in tests and for random choices (a random i).
     fn element_from_index(&self, i: u64) -> Self::Elem;
     /// A random element: uniform over the whole field when it is finite, however large (see
-    /// [`crate::rng::uniform_element`]); for an infinite field, one of the first 2^16 elements.
+    /// [`uniform_element`]); for an infinite field, one of the first 2^16 elements.
     fn random(&self, rng: &mut crate::rng::Rng) -> Self::Elem {
-        crate::rng::uniform_element(self, rng)
+        uniform_element(self, rng)
     }
     /// Elements of a finite field listed by [`Field::element_from_index`]; `None` for infinite
     /// fields or fields with more than `limit` elements.
@@ -174,6 +178,16 @@ pub fn field_size<F: Field>(field: &F) -> Option<u64> {
         .order()
         .and_then(|q| q.parse().ok())
         .or_else(|| field.order().map(|_| u64::MAX))
+}
+
+/// q as limbs for a finite field; an error naming the field otherwise.
+pub fn field_order_limbs<F: Field>(field: &F, what: &str) -> Result<Vec<u64>> {
+    field.order_limbs().ok_or_else(|| {
+        Error::invalid(format!(
+            "{what} needs a finite field; {} is infinite",
+            field.spec()
+        ))
+    })
 }
 
 #[cfg(test)]

@@ -3,6 +3,8 @@
 
 use super::*;
 use crate::field::PrimeField;
+use crate::monomial::Monomial;
+use crate::monomial_ideal::product_of_one_minus;
 use crate::parse::parse_poly;
 use crate::test_support::{numbered_ring_32003, ring_32003};
 

@@ -14,8 +14,8 @@
 use super::solve::check_point;
 use crate::control::Control;
 use crate::error::Result;
+use crate::field::field_order_limbs;
 use crate::field::Field;
-use crate::frobenius::field_order_limbs;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};

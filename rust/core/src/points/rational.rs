@@ -7,7 +7,7 @@
 //! separating u_c has a minimal polynomial m of degree D (Kronecker's primitive element). Then
 //! x_i ≡ g_i(u_c) in A (the shape representation from Krylov sequences, Faugère and Mou 2011,
 //! retried with another random functional in the rare unlucky case), and the rational points are
-//! (g_1(t), ..., g_n(t)) for the rational roots t of m ([`crate::univariate::rational_roots`],
+//! (g_1(t), ..., g_n(t)) for the rational roots t of m ([`crate::points::rational_roots`],
 //! p-adic lifting). Each point is checked in every input polynomial before it is returned.
 //!
 //! The closed points over Q (the Galois orbits of the solutions) are the irreducible factors
@@ -22,9 +22,10 @@ use crate::error::{Error, Result};
 use crate::field::RationalField;
 use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
+use crate::points::rational_roots::rational_roots;
 use crate::poly::{Poly, Ring};
 use crate::rng::Rng;
-use crate::univariate::{self, degree, rational_roots::rational_roots, Univariate};
+use crate::univariate::{self, degree, Univariate};
 use crate::zerodim::irreducible::irreducible_factors;
 use crate::zerodim::maximal_rational::separating_candidate;
 use crate::zerodim::radical::zero_dimensional_radical;

@@ -22,8 +22,8 @@
 use crate::control::Control;
 use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
+use crate::field::field_order_limbs;
 use crate::field::Field;
-use crate::frobenius::field_order_limbs;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};

@@ -6,8 +6,8 @@
 use super::{degree, divide, gcd::gcd_checked, monomial, subtract, Modulo, Univariate};
 use crate::control::Control;
 use crate::error::Result;
+use crate::field::field_order_limbs;
 use crate::field::Field;
-use crate::frobenius::field_order_limbs;
 
 /// x^q mod f (deg f ≥ 1), q the field order.
 pub fn frobenius_of_x<F: Field>(

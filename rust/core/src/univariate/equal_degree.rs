@@ -16,8 +16,8 @@ use super::{
 };
 use crate::control::Control;
 use crate::error::Result;
+use crate::field::field_order_limbs;
 use crate::field::Field;
-use crate::frobenius::field_order_limbs;
 use crate::rng::Rng;
 use num_bigint::BigUint;
 

@@ -16,7 +16,6 @@
 //!   fields (Cantor and Zassenhaus 1981; von zur Gathen and Shoup 1992), roots as the factors of
 //!   degree 1. The polynomial x^q − x is never written down: x^q is computed modulo the
 //!   polynomial by repeated squaring, so q may be as large as 2^512 or a power p^k;
-//! - [`rational_roots`]: the rational roots of a polynomial over Q by p-adic lifting;
 //! - [`all_values`]: the values at every element of a small field by a transform over its
 //!   multiplicative group, the faster route to the roots when q is close to the degree.
 
@@ -29,7 +28,6 @@ pub mod half_gcd;
 pub mod multiply;
 pub mod ntt;
 pub mod ntt_wide;
-pub mod rational_roots;
 pub mod roots;
 pub mod squarefree;
 

@@ -483,9 +483,12 @@ fn random_draws_cover_fields_beyond_two_to_the_sixty_four() {
     let draws = |f: &dyn Fn(&mut Rng) -> bool, rng: &mut Rng| (0..200).filter(|_| f(rng)).count();
     let counts = [
         draws(&|r| top(&random_element(&binary, r)), &mut rng),
-        draws(&|r| top(&crate::rng::uniform_element(&binary, r)), &mut rng),
+        draws(
+            &|r| top(&crate::field::uniform_element(&binary, r)),
+            &mut rng,
+        ),
         draws(&|r| high(&random_element(&big, r)), &mut rng),
-        draws(&|r| high(&crate::rng::uniform_element(&big, r)), &mut rng),
+        draws(&|r| high(&crate::field::uniform_element(&big, r)), &mut rng),
         draws(&|r| top(&r.nonzero(&binary)), &mut rng),
     ];
     assert!(counts.iter().all(|&c| in_range(c)), "{counts:?}");

@@ -14,8 +14,8 @@ use super::Quotient;
 use crate::control::Control;
 use crate::dimension::krull_dimension;
 use crate::error::{Error, Result};
+use crate::field::field_order_limbs;
 use crate::field::Field;
-use crate::frobenius::field_order_limbs;
 use crate::groebner::ReducedBasis;
 use crate::univariate::degree;
 

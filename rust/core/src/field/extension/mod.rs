@@ -12,6 +12,7 @@ mod squaring;
 mod table;
 
 pub use binary::BinaryField;
+pub(crate) use modulus::check_generator_name;
 pub(crate) use modulus::prime_divisors;
 pub use modulus::{Modulus, DEFAULT_GENERATOR};
 pub use table::{TableField, MAX_TABLE_ORDER};

@@ -20,9 +20,6 @@ use super::squaring::BinarySquaring;
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::{Field, PrimeField};
-use crate::order::MonomialOrder;
-use crate::parse::parse_poly;
-use crate::poly::Ring;
 use crate::univariate::{self, gcd::inverse_mod, Modulo, Univariate};
 
 /// A dense polynomial over GF(p) (coefficients in 0..p, low degree first, no trailing zeros).
@@ -144,59 +141,6 @@ impl Modulus {
     fn is_first_irreducible(&self, control: &Control) -> Result<bool> {
         let first = Modulus::first_irreducible_within(self.base.clone(), self.degree(), control)?;
         Ok(first.coeffs == self.coeffs)
-    }
-
-    /// The modulus written in `a` (e.g. `a^8+a^4+a^3+a+1`); its degree must be `k` if given.
-    pub fn parse(base: PrimeField, k: Option<u32>, text: &str) -> Result<Self> {
-        Modulus::parse_in(base, k, text, DEFAULT_GENERATOR)
-    }
-
-    /// The modulus written in the generator `name`, which the field then keeps as its
-    /// generator's name.
-    pub fn parse_in(base: PrimeField, k: Option<u32>, text: &str, name: &str) -> Result<Self> {
-        Modulus::parse_within(base, k, text, name, &Control::new())
-    }
-
-    /// [`Modulus::parse_in`], stopping with `Interrupted` when `control` says so.
-    pub fn parse_within(
-        base: PrimeField,
-        k: Option<u32>,
-        text: &str,
-        name: &str,
-        control: &Control,
-    ) -> Result<Self> {
-        let modulus = Modulus::parse_text(base, k, text, name, control)?;
-        modulus.with_generator(name)
-    }
-
-    fn parse_text(
-        base: PrimeField,
-        k: Option<u32>,
-        text: &str,
-        name: &str,
-        control: &Control,
-    ) -> Result<Self> {
-        check_generator_name(name)?;
-        let ring = Ring::new(base.clone(), vec![name.to_string()], MonomialOrder::Lex)?;
-        let f = parse_poly(&ring, text).map_err(|e| match e {
-            Error::Parse {
-                message, column, ..
-            } => Error::invalid(format!("modulus '{text}': column {column}: {message}")),
-            other => other,
-        })?;
-        let degree = f.degree().unwrap_or(0) as usize;
-        if let Some(k) = k {
-            if degree != k as usize {
-                return Err(Error::invalid(format!(
-                    "modulus '{text}' has degree {degree}, but the field needs degree {k}"
-                )));
-            }
-        }
-        let mut coeffs = vec![0u64; degree + 1];
-        for (m, c) in f.terms() {
-            coeffs[m.exponents()[0] as usize] = *c;
-        }
-        Modulus::new_within(base, coeffs, control)
     }
 
     pub fn characteristic(&self) -> u64 {
@@ -499,7 +443,7 @@ impl SmallFactors {
 }
 
 /// A generator name must read as one name in polynomial texts.
-fn check_generator_name(name: &str) -> Result<()> {
+pub(crate) fn check_generator_name(name: &str) -> Result<()> {
     let mut chars = name.chars();
     let starts_well = chars
         .next()

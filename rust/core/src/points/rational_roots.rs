@@ -11,10 +11,10 @@
 //! and each candidate is kept only when f vanishes at it exactly: nothing rests on a bound being
 //! tight, the bounds only guarantee that no root is missed.
 
-use super::{roots, squarefree_part};
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::{integer_scale, PrimeField, RationalField};
+use crate::univariate::{roots, squarefree_part};
 use crate::zerodim::hensel::reduce_mod;
 use crate::zerodim::irreducible::good_primes;
 use num_bigint::BigInt;
@@ -24,7 +24,7 @@ use num_traits::{Signed, Zero};
 
 /// The distinct rational roots of f ≠ 0, increasing.
 pub fn rational_roots(f: &[BigRational], control: &Control) -> Result<Vec<BigRational>> {
-    let f = super::trimmed(&RationalField, f.to_vec());
+    let f = crate::univariate::trimmed(&RationalField, f.to_vec());
     if f.is_empty() {
         return Err(Error::invalid(
             "rational roots of the zero polynomial: every number is a root",
