@@ -200,7 +200,8 @@ def test_bad_input_errors():
 
 
 def test_system_file_header():
-    S = parse_system_text(["field: GF(2)", "boolean: yes", "variables: x0..x3", "x0*x1 + x2", "x3 + 1"])
+    text = parse_system_text(["field: GF(2)", "boolean: yes", "variables: x0..x3", "x0*x1 + x2", "x3 + 1"])
+    S = text.space.system(text.equations)
     assert S.space.boolean and S.count_points() == 4  # by hand: x3 = 1, x2 = x0*x1, x0 and x1 free
     for lines, line, column, message in [
         (["field: GF(3)", "boolean: yes", "variables: x", "x"], 2, 10, "needs the field GF(2)"),

@@ -20,7 +20,8 @@ from .normalization import CertificateError, FiniteProjection, IntegralEquation
 from .orders import BlockOrder, WeightOrder
 from .solutions import ClosedPoint
 from .spaces import Polynomial, Space
-from .systems import GroebnerStats, ReducedBasis, StepStats, System
+from .bases import GroebnerStats, ReducedBasis, StepStats
+from .systems import System
 
 __all__ = [
     "BlockOrder",

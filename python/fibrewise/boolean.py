@@ -14,16 +14,20 @@ estimate of running time and never changes an answer.
 
 from __future__ import annotations
 
+import time
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, Iterator, Optional
 
-from .systems import GroebnerStats, ReducedBasis, _optional_count
+from . import _native
+from .bases import BasisLimits, GroebnerStats, ReducedBasis, kept_basis
+from .fields import field
+from .names import optional_count
+from .report import aligned, plural, seconds
+from .spaces import Polynomial, Space, check_boolean_flag
 
 if TYPE_CHECKING:
-    from . import _native
     from .fields import FieldSpec
     from .orders import Order
-    from .spaces import Coercible, Polynomial, Space
     from .systems import System
 
 METHOD_NAMES = ("auto", "exhaustive", "basis", "hybrid")
@@ -70,12 +74,6 @@ class BooleanSolutions:
     stats: Optional[GroebnerStats]
 
 
-def check_boolean_flag(value: object) -> bool:
-    if not isinstance(value, bool):
-        raise TypeError(f"boolean must be True or False, not {type(value).__name__}")
-    return value
-
-
 def check_method(method: object) -> str:
     """``method`` if it is a str; the core checks the name (``auto``, ``exhaustive``, ``basis``,
     ``hybrid``, or ``hybrid:K`` to guess K variables)."""
@@ -107,8 +105,6 @@ def _gens(system: "System") -> list:
 
 def general_space(space: "Space") -> "Space":
     """The space over GF(2) with the same variables and order, without the field equations."""
-    from .spaces import Space
-
     return Space(space.field, list(space.names), order=space.order)
 
 
@@ -128,47 +124,25 @@ def basis(
     """The reduced Boolean Gröbner basis (``System.basis`` on a Boolean space); with
     ``field_equations``, the reduced Gröbner basis of the ideal with the field equations, as
     polynomials of ``general_space`` (x^2 + x is not a polynomial of the Boolean space)."""
-    from .spaces import Polynomial
-
     _require_boolean(system, "field_equations=True")
     check_boolean_flag(field_equations)
     if engine != "auto":
         raise ValueError(f"a Boolean system has one engine, the Boolean F4 (engine='auto'), not {engine!r}")
-    limits = (
-        _optional_count("max_degree", max_degree, 0, 2**32 - 1),
-        _optional_count("max_matrix", max_matrix, 1, 2**64 - 1),
-    )
-    threads = _optional_count("threads", threads, 1, 4096)
+    limits = BasisLimits.checked(max_degree, max_matrix, threads, max_seconds)
     space = system.space if order is None else system.space.with_order(order)
-    key = system._basis_key(space.order, "boolean")
-    limited = limits != (None, None)
-    gb = None if limited else system._bases.get(key)
-    if gb is None:
-        polys, stats = _native_space(space).basis(
-            _gens(system),
-            max_degree=limits[0],
-            max_matrix=limits[1],
-            threads=threads,
-            max_seconds=max_seconds,
-        )
-        gb = ReducedBasis(space, [Polynomial(space, p) for p in polys], GroebnerStats._from_native(stats))
-        if not limited:
-            system._bases[key] = gb
+    gens = _gens(system)
+    gb = kept_basis(
+        system._bases,
+        system._basis_key(space.order, "boolean"),
+        space,
+        limits,
+        lambda space, limits: _native_space(space).basis(gens, **limits.keywords()),
+    )
     if not field_equations:
         return gb
     home = general_space(space)
     polys = _native_space(space).with_field_equations([g._native for g in gb])
     return ReducedBasis(home, [Polynomial(home, p) for p in polys], gb.stats)
-
-
-def normal_form(gb: ReducedBasis, f: "Coercible") -> "Polynomial":
-    """The normal form of ``f`` modulo the ideal of a reduced Boolean basis (with the field
-    equations): the unique representative whose monomials no leading monomial divides."""
-    from .spaces import Polynomial
-
-    space = gb.space
-    p = space.polynomial(f)
-    return Polynomial(space, _native_space(space).normal_form([g._native for g in gb], p._native))
 
 
 def with_field_equations(system: "System") -> "System":
@@ -189,7 +163,7 @@ def choose_method(system: "System", method: str = "auto", threads: int | None = 
     """The method ``solve``/``points``/``count_points`` would use, and why (without solving)."""
     _require_boolean(system, "solve_method()")
     check_method(method)
-    threads = _optional_count("threads", threads, 1, 4096)
+    threads = optional_count("threads", threads, 1, 4096)
     return MethodChoice._from_native(
         _native_space(system.space).choose_method(_gens(system), method, threads)
     )
@@ -202,8 +176,8 @@ def solve(
     ``fibrewise.ResourceLimit`` asks for a count or a limit) by ``method``."""
     _require_boolean(system, "solve")
     check_method(method)
-    limit = _optional_count("limit", limit, 0, 2**63 - 1)
-    threads = _optional_count("threads", threads, 1, 4096)
+    limit = optional_count("limit", limit, 0, 2**63 - 1)
+    threads = optional_count("threads", threads, 1, 4096)
     points, count, choice, stats = _native_space(system.space).solve(_gens(system), method, limit, threads)
     return BooleanSolutions(
         [tuple(p) for p in points],
@@ -229,7 +203,7 @@ def count(system: "System", method: str = "auto", threads: int | None = None) ->
     cached = system._bases.get(system._basis_key(system.space.order, "boolean"))
     if method == "auto" and cached is not None:
         return int(_native_space(system.space).count_of_basis([g._native for g in cached]))
-    threads = _optional_count("threads", threads, 1, 4096)
+    threads = optional_count("threads", threads, 1, 4096)
     number, _ = _native_space(system.space).count(_gens(system), method, threads)
     return int(number)
 
@@ -251,8 +225,6 @@ def count_points(system: "System", over: "FieldSpec | None", projective: bool, m
 def _check_over(system: "System", over: "FieldSpec | None") -> None:
     if over is None:
         return
-    from .fields import field
-
     target = field(over)
     if target.size is None or target.characteristic != 2:
         raise ValueError(f"{target} is not a finite extension of GF(2), the field of a Boolean system")
@@ -263,19 +235,17 @@ def _check_over(system: "System", over: "FieldSpec | None") -> None:
 
 def solve_command(system: "System", method: str, limit: int | None, activity: Any) -> dict:
     """The JSON-ready result of ``fibrewise solve`` on a Boolean system file."""
-    import time
-
     activity.set_step(f"solving (method {method})")
     start = time.perf_counter()
     found = solve(system, method=method, limit=limit)
-    seconds = time.perf_counter() - start
+    elapsed = time.perf_counter() - start
     return {
         "points": [[str(v) for v in p] for p in found.points],
         "count": found.count,
         "complete": found.count is not None,
         "limit": limit,
         "method": found.choice.to_dict(),
-        "seconds": seconds,
+        "seconds": elapsed,
         "stats": None if found.stats is None else found.stats.to_dict(),
     }
 
@@ -283,8 +253,6 @@ def solve_command(system: "System", method: str, limit: int | None, activity: An
 def render_solve(result: dict) -> str:
     """The human report of ``fibrewise solve`` on a Boolean system: the count and the method,
     then one line per solution, its bits in the order of the variables."""
-    from .report import aligned, plural, seconds
-
     count, shown = result["count"], len(result["points"])
     found = (
         plural(count, "solution")

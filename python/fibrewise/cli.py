@@ -2,8 +2,8 @@
 
 ``fibrewise SUBCOMMAND FILE [options]``; ``--json`` prints one JSON object. Each subcommand computes
 a JSON-ready dict; ``report`` turns it into the short human report. Bad input exits with status 2
-and one message naming the file, line and column. Heavy packages (galois, numba, matplotlib, dask)
-are imported only by the commands that need them, so start-up stays fast.
+and one message naming the file, line and column. Heavy optional packages (galois, matplotlib, dask)
+are imported only by the code that needs them, so start-up stays fast.
 """
 
 from __future__ import annotations
@@ -16,7 +16,16 @@ import time
 from dataclasses import dataclass
 from typing import Any, Callable, Sequence
 
-from . import report
+from . import _native, boolean, guess_solve, report, solving
+from .batch import run_batch
+from .curves import curve_summary
+from .guessing import DEFAULT_BUDGET, render_plan
+from .jobs import TASK_NAMES
+from .memory import parse_memory
+from .normalization import check_certificate
+from .plot import draw_analysis, draw_plan
+from .progress import Activity
+from .systems import System
 
 EXIT_OK, EXIT_FAILED, EXIT_BAD_INPUT, EXIT_INTERRUPTED = 0, 1, 2, 130
 # An analyze run counts points itself only when the count is small: at most about this many.
@@ -28,8 +37,6 @@ ANALYZE_STAGES = ("dimension", "hilbert", "normalize", "points")
 
 
 def _system(args: argparse.Namespace):
-    from .systems import System
-
     return System.read(args.file, memory=args.memory)
 
 
@@ -129,8 +136,6 @@ def _analyze(args: argparse.Namespace, activity) -> dict:
     result["summary"] = _summary(result)
     result["stats"] = gb.stats.to_dict()
     if args.plot:
-        from .plot import draw_analysis
-
         activity.set_step("plot")
         draw_analysis(args.plot, result)
         result["plot"] = args.plot
@@ -293,20 +298,14 @@ def _solve(args: argparse.Namespace, activity) -> dict:
             raise ValueError(
                 f"{system.path}: --over and --closed-points are for systems that are not Boolean"
             )
-        from .boolean import solve_command as solve_boolean
-
-        return {**_header(system), **solve_boolean(system, args.method, args.limit, activity)}
+        return {**_header(system), **boolean.solve_command(system, args.method, args.limit, activity)}
     if args.method != "auto":
         raise ValueError(f"{system.path}: --method chooses how Boolean systems ('boolean: yes') are solved")
     if args.guess is not None:
-        from .guess_solve import solve_command as solve_by_guessing
-
-        return solve_by_guessing(args, activity, _header(system), system)
+        return guess_solve.solve_command(args, activity, _header(system), system)
     if args.scheduler is not None or args.workers is not None or args.progress is not None:
         raise ValueError("--scheduler, --workers and --progress spread the guesses of --guess")
-    from .solving import solve_command
-
-    return solve_command(args, activity, _header(system), system)
+    return solving.solve_command(args, activity, _header(system), system)
 
 
 def _plan(args: argparse.Namespace, activity) -> dict:
@@ -317,8 +316,6 @@ def _plan(args: argparse.Namespace, activity) -> dict:
     plan, seconds = _timed(lambda: system.guess_plan(args.max_guess, args.samples, budget=args.budget))
     result = {**_header(system), **plan.to_dict(), "seconds": seconds}
     if args.plot:
-        from .plot import draw_plan
-
         draw_plan(args.plot, result)
     return result
 
@@ -333,8 +330,6 @@ def _check(args: argparse.Namespace, activity) -> dict:
     certificate = {
         key: value for key, value in saved.items() if key != "system"
     }  # "system": where it came from
-    from .normalization import check_certificate
-
     activity.set_step("checking the certificate")
     try:
         outcome, seconds = _timed(lambda: check_certificate(certificate, system))
@@ -380,8 +375,6 @@ def _read_json(path: str) -> Any:
 
 
 def _curve(args: argparse.Namespace, activity) -> dict:
-    from .curves import curve_summary
-
     system = _system(args)
     activity.set_step("curve: smoothness, genus, point counts, zeta function")
     try:
@@ -396,8 +389,6 @@ def _curve(args: argparse.Namespace, activity) -> dict:
 
 
 def _batch(args: argparse.Namespace, activity) -> dict:
-    from .batch import run_batch
-
     summary = run_batch(
         args.file,
         args.output,
@@ -432,8 +423,6 @@ def _positive(kind: type) -> Callable[[str], Any]:
 
 
 def _memory(text: str) -> int | None:
-    from .memory import parse_memory
-
     try:
         return parse_memory(int(text) if text.isdigit() else text)
     except ValueError as e:
@@ -474,8 +463,6 @@ def _memory_argument(p: argparse.ArgumentParser) -> None:
 
 
 def _basis_arguments(p: argparse.ArgumentParser) -> None:
-    from . import _native
-
     _file_arguments(p)
     p.add_argument(
         "--order", choices=["lex", "grlex", "grevlex"], help="monomial order (default: the file's)"
@@ -525,8 +512,6 @@ def _analyze_arguments(p: argparse.ArgumentParser) -> None:
 
 
 def _normalize_arguments(p: argparse.ArgumentParser) -> None:
-    from . import _native
-
     _file_arguments(p)
     p.add_argument(
         "--strategy",
@@ -600,8 +585,6 @@ def _solve_arguments(p: argparse.ArgumentParser) -> None:
 
 
 def _plan_arguments(p: argparse.ArgumentParser) -> None:
-    from .guessing import DEFAULT_BUDGET
-
     _file_arguments(p)
     p.add_argument(
         "--max-guess",
@@ -650,8 +633,6 @@ def _check_arguments(p: argparse.ArgumentParser) -> None:
 
 
 def _batch_arguments(p: argparse.ArgumentParser) -> None:
-    from .jobs import TASK_NAMES
-
     p.add_argument(
         "file",
         metavar="IN.jsonl",
@@ -691,24 +672,16 @@ def _batch_arguments(p: argparse.ArgumentParser) -> None:
 
 
 def _render_plan(result: dict) -> str:
-    from .guessing import render_plan
-
     return render_plan(result)
 
 
 def _render_solve(result: dict) -> str:
     """Boolean solving, guessed solving and plain solving report differently."""
     if isinstance(result.get("method"), dict):
-        from .boolean import render_solve as render_boolean
-
-        return render_boolean(result)
+        return boolean.render_solve(result)
     if "guess" in result:
-        from .guess_solve import render_solve as render_guessed
-
-        return render_guessed(result)
-    from .solving import render_solve
-
-    return render_solve(result)
+        return guess_solve.render_solve(result)
+    return solving.render_solve(result)
 
 
 def _ok(result: dict) -> int:
@@ -857,8 +830,6 @@ def _parser() -> argparse.ArgumentParser:
 def main(argv: Sequence[str] | None = None) -> int:
     args = _parser().parse_args(argv)
     command = SUBCOMMANDS[args.command]
-    from .progress import Activity
-
     try:
         # the others show what they compute
         with Activity(f"fibrewise {args.command}", quiet=args.quiet or command.own_progress) as activity:

@@ -40,10 +40,10 @@ from numbers import Integral
 from typing import TYPE_CHECKING, Any
 
 from . import _native
+from .solutions import ClosedPoint
 from .spaces import Polynomial, Space
 
 if TYPE_CHECKING:
-    from .solutions import ClosedPoint
     from .systems import System
 
 
@@ -196,15 +196,13 @@ class Curve:
         this list is empty and ``is_smooth()`` is False."""
         return [tuple(p) for p in self._native.singular_points()]
 
-    def singular_closed_points(self) -> list["ClosedPoint"]:
+    def singular_closed_points(self) -> list[ClosedPoint]:
         """Every singular point over the algebraic closure, one Galois orbit at a time (see
         ``ClosedPoint``): its ``degree``, ``residue_field`` GF(q^degree) and ``points()`` there.
         Projective points are normalized with their first nonzero coordinate 1 (the maximal ideal
         contains the equations of that chart), in the coordinates ``coordinate_names``; for a
         hyperelliptic equation, the affine singular points. ``ValueError`` when the singular locus
         is not finite (a multiple component)."""
-        from .solutions import ClosedPoint
-
         space = Space(self.system.space.field, list(self.coordinate_names), order="lex")
         return [
             ClosedPoint(space, degree, [Polynomial(space, g) for g in equations])

@@ -15,6 +15,7 @@ from __future__ import annotations
 from typing import TYPE_CHECKING, Iterator, Optional, Sequence
 
 from . import _native
+from .fields import require_finite
 from .names import Engine
 from .spaces import Polynomial
 
@@ -33,8 +34,6 @@ class ParametricFibres:
     ``non_generic``: how many fibres enumerated so far needed a basis of their own."""
 
     def __init__(self, system: "System", parameters: Sequence[Polynomial], engine: Engine = "auto"):
-        from .solutions import require_finite
-
         require_finite(system.space.field, "fibres")
         self.system = system
         self.parameters = list(parameters)

@@ -119,13 +119,12 @@ class Field:
         q = self.size
         if q is None or q - 1 >= 2**40:
             return None
-        from .spaces import Polynomial, Space
-
         primes = _prime_factors(q - 1)
-        space = Space(self, ["u" if self.generator != "u" else "v"])
+        # Powers of constants, computed by the core in a ring of one variable over this field.
+        ring = _native.NativeSpace(self._native, ["u" if self.generator != "u" else "v"], "grevlex")
         for g in range(self.characteristic, q):
-            c = Polynomial(space, space._native.constant(g))
-            if all((c ** ((q - 1) // r)).terms() != [((0,), 1)] for r in primes):
+            c = ring.constant(g)
+            if all(c.pow((q - 1) // r).terms() != [([0], 1)] for r in primes):
                 return g
         return None
 
@@ -248,3 +247,12 @@ def field(spec: FieldSpec, modulus: Optional[str] = None, generator: str = "a") 
     return Field(
         _native.NativeField(str(int(spec)) if isinstance(spec, Integral) else spec, modulus, generator)
     )
+
+
+def require_finite(k: Field, what: str) -> None:
+    """``ValueError`` unless ``k`` is a finite field."""
+    if k.size is None:
+        raise ValueError(
+            f"{what} over {k}: this needs a finite field (GF(p) and GF(p^k)); over Q only the points and "
+            "closed points of the system itself (zero-dimensional, no over=) are listed"
+        )

@@ -21,16 +21,25 @@ run finished every chunk (the summary says so).
 from __future__ import annotations
 
 import functools
+import hashlib
 import json
+import multiprocessing
 import os
 import signal
+import sys
 import threading
+import time
+from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
 from contextlib import closing, contextmanager
 from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any, Callable, Generator, Iterator, Optional
 
 from . import _native
+from .batch import dask_client
+from .fields import field
+from .report import aligned, plural, seconds
 from .signals import Terminated, raise_on_sigterm, restore_sigterm
+from .spaces import Space
 
 if TYPE_CHECKING:
     from .systems import System
@@ -70,8 +79,6 @@ class GuessJob:
 
     @property
     def guesses(self) -> int:
-        from .fields import field
-
         size = field(self.field).size
         assert size is not None
         return int(size) ** len(self.guess)
@@ -83,8 +90,6 @@ class GuessJob:
     def header(self) -> dict[str, Any]:
         """The first line of a progress file: a resume must be the same run (the system by a
         digest of its text, which keeps the file small)."""
-        import hashlib
-
         text = "\n".join([self.field, ",".join(self.variables), self.order, *self.polynomials])
         return {
             "system": hashlib.sha256(text.encode()).hexdigest(),
@@ -117,8 +122,6 @@ def chunk_size(guesses: int, workers: int) -> int:
 def _parsed(job: GuessJob) -> tuple[Any, list, list, int]:
     """The space, equations and guessed variables of a job, read once per worker process (a
     worker solves many chunks of one job)."""
-    from .spaces import Space
-
     # Points do not depend on the order: grevlex, whatever order (block, weights) the system's
     # space has, which the job keeps only to tell runs apart.
     space = Space(job.field, list(job.variables), order="grevlex")
@@ -338,9 +341,6 @@ def _one_thread() -> None:
 
 
 def _run_processes(job: GuessJob, todo: list[int], workers: int) -> Generator[tuple[int, list], None, None]:
-    import multiprocessing
-    from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
-
     # spawn: the workers start clean, without the parent's rayon threads; each computes on one
     # core (as batch workers do), so that N workers use N cores and do not oversubscribe them.
     with ProcessPoolExecutor(
@@ -364,8 +364,6 @@ def _take(items: Iterator[int], count: int) -> list[int]:
 
 
 def _run_dask(job: GuessJob, todo: list[int], address: str) -> Generator[tuple[int, list], None, None]:
-    from .batch import dask_client
-
     from distributed import as_completed
 
     with dask_client(address) as client:
@@ -391,9 +389,6 @@ def solve_command(args: Any, activity: Any, header: dict, system: "System") -> d
     ``--json`` collected into the one JSON object instead), then the summary. Ctrl-C and SIGTERM
     end the run with what it delivered (and recorded in the progress file), as the summary or
     the JSON object, and the interrupted exit status."""
-    import sys
-    import time
-
     if args.over is not None or args.closed_points:
         raise ValueError(
             "--guess lists the rational points over the file's field; drop --over and --closed-points"
@@ -457,8 +452,6 @@ def solve_command(args: Any, activity: Any, header: dict, system: "System") -> d
 
 def render_solve(result: dict) -> str:
     """The summary after the streamed points (the points themselves are printed as found)."""
-    from .report import aligned, plural, seconds
-
     processes = f"{result['workers']} local process" + ("es" if result["workers"] > 1 else "")
     where = f"the Dask cluster at {result['scheduler']}" if result["scheduler"] else processes
     head = f"{result['file']}: {plural(len(result['points']), 'point')} over {result['field']}"

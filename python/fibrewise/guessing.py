@@ -36,9 +36,12 @@ from dataclasses import field as dataclass_field
 from typing import TYPE_CHECKING, Any, Callable, Optional, TypeVar
 
 from ._native import ResourceLimit
+from .names import optional_count
+from .report import aligned, seconds
 
 if TYPE_CHECKING:
-    from .systems import GroebnerStats, System
+    from .bases import GroebnerStats
+    from .systems import System
 
 T = TypeVar("T")
 
@@ -143,10 +146,8 @@ def guess_plan(
 ) -> GuessPlan:
     """The measured guess-and-determine plan of ``system`` (see the module's description);
     ``budget``: wall-clock seconds one sample solve may take (``None`` or infinity: no limit)."""
-    from .systems import _optional_count
-
-    max_guess = _optional_count("max_guess", max_guess, 0, len(system.space.names))
-    checked_samples = _optional_count("samples", samples, 1, 10_000)
+    max_guess = optional_count("max_guess", max_guess, 0, len(system.space.names))
+    checked_samples = optional_count("samples", samples, 1, 10_000)
     assert checked_samples is not None
     samples = checked_samples
     budget = check_budget(budget)
@@ -323,8 +324,6 @@ def _evaluation_seconds(system: "System", rng: random.Random) -> float:
 def render_plan(result: dict[str, Any]) -> str:
     """The plan as a table (``fibrewise plan``; ``result``: ``GuessPlan.to_dict()`` and the
     command's header)."""
-    from .report import aligned, seconds
-
     head = f"{result.get('file') or 'system'}: guess-and-determine plan over {result['field']}"
     lines = [
         head,

@@ -15,6 +15,8 @@ from typing import TYPE_CHECKING, Optional
 import numpy
 
 from . import _native
+from .interop import latex_polynomial
+from .solutions import in_field
 from .spaces import Coercible, Polynomial
 
 if TYPE_CHECKING:
@@ -76,8 +78,6 @@ class HilbertSeries:
         return f"<HilbertSeries ({kind}) {self}>"
 
     def _repr_latex_(self) -> str:
-        from .interop import latex_polynomial
-
         top = latex_polynomial(str(self).split(" / ")[0].strip("()"))
         d = self.denominator_exponent
         if d == 0:
@@ -179,8 +179,6 @@ def count_points(system: "System", over: Optional["FieldSpec"] = None, projectiv
     if not isinstance(projective, bool):
         raise TypeError(f"projective must be a bool, not {type(projective).__name__}")
     if over is not None:
-        from .solutions import in_field
-
         system = in_field(system, over)
     if system.space.field.size is None:
         raise ValueError(f"points are counted over a finite field, not {system.space.field}")

@@ -13,7 +13,10 @@ from __future__ import annotations
 import time
 from typing import Any, Callable
 
+from .curves import curve_summary
 from .names import expand_names
+from .solving import solutions_task
+from .spaces import Space
 
 # Most points the "solutions" task lists unless the job gives "limit" (the result says when cut).
 SOLUTIONS_LIMIT = 1000
@@ -138,8 +141,6 @@ def _normalize(system) -> dict | None:
 
 def _curve(system) -> dict:
     """Model, genus, N_1..N_g, the zeta function and the bounds (``fibrewise.curves``)."""
-    from .curves import curve_summary
-
     return curve_summary(system)
 
 
@@ -164,9 +165,6 @@ def compute_tasks(
     value)`` hears of each task as it finishes (a batch worker passes them on at once, so that a
     job killed at its time limit keeps the tasks it finished). ``memory``: the memory budget in
     bytes of every computation of the job (None: the default)."""
-    from .solving import solutions_task
-    from .spaces import Space
-
     space = Space(
         job["field"], job["variables"], order=job["order"], memory=memory, boolean=job.get("boolean", False)
     )

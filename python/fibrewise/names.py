@@ -1,5 +1,6 @@
-"""Names: of engines, normalization strategies and monomial orders (as ``Literal`` types), and
-variable names with their ranges (``x0..x63``), shared by spaces, system files and batch jobs.
+"""Names and counts the API is given: of engines, normalization strategies and monomial orders
+(as ``Literal`` types), variable names with their ranges (``x0..x63``), shared by spaces, system
+files and batch jobs, and limit arguments (``optional_count``).
 
 The core holds the one list of engine and strategy names (``fibrewise._native.ENGINE_NAMES``,
 ``STRATEGY_NAMES``) and checks every name it is given; the ``Literal`` types here repeat them
@@ -9,7 +10,8 @@ for type checkers, and a test keeps the two equal.
 from __future__ import annotations
 
 import re
-from typing import Literal, Sequence, Union, get_args
+from numbers import Integral
+from typing import Literal, Optional, Sequence, Union, get_args
 
 Engine = Literal["auto", "f4", "f4-sampled", "f4-signature", "buchberger"]
 Strategy = Literal["auto", "variables", "linear", "nonlinear"]
@@ -26,6 +28,17 @@ def check_name(kind: str, value: object, names: tuple[str, ...]) -> str:
     if not isinstance(value, str):
         raise TypeError(f"{kind} must be a str (one of {', '.join(names)}), not {type(value).__name__}")
     return value
+
+
+def optional_count(name: str, value: Optional[int], least: int, most: int) -> Optional[int]:
+    """A limit argument: None, or an int in [least, most] (TypeError, ValueError otherwise)."""
+    if value is None:
+        return None
+    if isinstance(value, bool) or not isinstance(value, Integral):
+        raise TypeError(f"{name} must be an int, not {type(value).__name__}")
+    if not least <= value <= most:
+        raise ValueError(f"{name} must be between {least} and {most}, got {value}")
+    return int(value)
 
 
 Variables = Union[str, Sequence[str]]

@@ -26,11 +26,11 @@ from numbers import Integral
 from typing import TYPE_CHECKING, Literal, Optional, Sequence, get_args
 
 from . import _native
+from .fibres import ParametricFibres
 from .names import STRATEGY_NAMES, Strategy, check_name
 from .spaces import Coercible, Polynomial
 
 if TYPE_CHECKING:
-    from .fibres import ParametricFibres
     from .systems import System
 
 _IDENTIFIER = re.compile(r"[A-Za-z_][A-Za-z0-9_]*")
@@ -199,8 +199,6 @@ class FiniteProjection:
         """The rational points (tuples of ints) of the fibre over a point of k^d, from the
         parametric basis of the projection (computed on first use, then specialised: no basis
         per fibre where the specialisation is generic; see ``fibrewise.fibres``)."""
-        from .fibres import ParametricFibres
-
         if self._fibres is None:
             self._fibres = ParametricFibres(self.system, self.parameters)
         return self._fibres.fibre(point)

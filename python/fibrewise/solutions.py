@@ -25,7 +25,9 @@ from __future__ import annotations
 from typing import TYPE_CHECKING, Any, Callable, Iterator, Optional
 
 from . import _native
-from .fields import Field, field
+from .fibres import ParametricFibres
+from .fields import Field, field, require_finite
+from .names import optional_count
 from .spaces import Polynomial, Space
 
 if TYPE_CHECKING:
@@ -33,16 +35,6 @@ if TYPE_CHECKING:
     from .systems import System
 
 Point = tuple
-SUPPORTED = "GF(p) and GF(p^k)"
-
-
-def require_finite(k: Field, what: str) -> None:
-    """``ValueError`` unless ``k`` is a finite field."""
-    if k.size is None:
-        raise ValueError(
-            f"{what} over {k}: this needs a finite field ({SUPPORTED}); over Q only the points and "
-            "closed points of the system itself (zero-dimensional, no over=) are listed"
-        )
 
 
 def in_field(system: "System", over: "FieldSpec") -> "System":
@@ -55,8 +47,6 @@ def embedding(system: "System", over: "FieldSpec") -> tuple["System", Optional[i
     """``in_field(system, over)`` and the image of the generator ``a`` of the system's field in
     ``over`` (an int, ``over``'s integer representation; ``None`` for a prime field, whose
     embedding is unique, and when ``over`` is the system's field)."""
-    from .systems import System
-
     base, target = system.space.field, field(over)
     require_finite(target, "points")
     require_finite(base, "points")
@@ -69,15 +59,13 @@ def embedding(system: "System", over: "FieldSpec") -> tuple["System", Optional[i
         )
     space = Space(target, system.space.names, order=system.space.order)
     natives, image = _native.embed(system.space._native, [g._native for g in system.equations], space._native)
-    embedded = System(space, [Polynomial(space, g) for g in natives])
+    embedded = space.system([Polynomial(space, g) for g in natives])
     embedded.path = system.path
     return embedded, image
 
 
 def _optional_limit(limit: Optional[int]) -> Optional[int]:
-    from .systems import _optional_count
-
-    return _optional_count("limit", limit, 0, 2**63 - 1)
+    return optional_count("limit", limit, 0, 2**63 - 1)
 
 
 def _check_flag(name: str, value: object) -> None:
@@ -151,8 +139,6 @@ def _solve(space: Space, equations, limit: Optional[int]) -> list[list]:
 def _points_by_fibres(system: "System", limit: Optional[int]) -> Iterator[list]:
     """Points of a positive-dimensional system, fibre by fibre over a finite projection, by
     specialising one parametric basis (``fibres.ParametricFibres``)."""
-    from .fibres import ParametricFibres
-
     yield from (list(p) for p in ParametricFibres(system, system.projection().parameters).points(limit))
 
 
@@ -188,9 +174,7 @@ class ClosedPoint:
         representation, or galois arrays); the generator of the system's field is sent to
         a root of its modulus in ``residue_field``."""
         _check_flag("as_galois", as_galois)
-        from .systems import System
-
-        system = System(self.space, self.equations)
+        system = self.space.system(self.equations)
         k = self.residue_field
         convert = point_converter(k, as_galois)
         target = in_field(system, k)
@@ -259,14 +243,12 @@ class RationalClosedPoint(ClosedPoint):
     @property
     def equations(self) -> tuple[Polynomial, ...]:  # type: ignore[override]
         if self._equations is None:
-            from .systems import System
-
             gens = [self._lex.parse(self._of_form(self._minimal_coefficients))]
             gens += [
                 self._lex.parse(f"{x} - ({self._of_form(g)})")
                 for x, g in zip(self.space.names, self._coordinate_coefficients)
             ]
-            self._equations = tuple(System(self._lex, gens).basis(order="lex"))
+            self._equations = tuple(self._lex.system(gens).basis(order="lex"))
         return self._equations
 
     @property

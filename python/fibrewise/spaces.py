@@ -12,10 +12,11 @@ from __future__ import annotations
 from fractions import Fraction
 from functools import cached_property
 from numbers import Integral, Rational
-from typing import TYPE_CHECKING, Any, Iterable, Mapping, Sequence, Union
+from typing import TYPE_CHECKING, Any, ClassVar, Iterable, Mapping, Sequence, Union
 
 from . import _native
 from .fields import Field, FieldSpec, field
+from .interop import latex_polynomial, polynomial_from_sympy, polynomial_to_sympy
 from .memory import Memory, parse_memory
 from .names import Variables, expand_names
 from .orders import Order, native_order
@@ -52,6 +53,10 @@ class Space:
     the solutions of its systems are points of GF(2)^n (see ``fibrewise.boolean``).
     """
 
+    # Set by python/fibrewise/systems.py to ``System``: spaces sit below systems in the module
+    # layers (DEVELOPERS.md), so a space makes its systems through this factory.
+    _system_type: ClassVar[type["System"]]
+
     def __init__(
         self,
         field_spec: FieldSpec,
@@ -61,8 +66,6 @@ class Space:
         *,
         memory: Memory = None,
     ):
-        from .boolean import check_boolean_flag
-
         self.field: Field = field(field_spec)
         self.names: tuple[str, ...] = tuple(expand_names(variables))
         self.order: Order = order
@@ -149,15 +152,11 @@ class Space:
         """The system of equations f = 0 for each given polynomial (texts, polynomials or sympy
         expressions); a single string may list them separated by commas, with optional
         surrounding parentheses, as ``str(system)`` prints."""
-        from .systems import System
-
-        return System(self, equations)
+        return self._system_type(self, equations)
 
     def from_sympy(self, expr: Any) -> "Polynomial":
         """A polynomial from a sympy expression or ``sympy.Poly`` in this space's variable names
         (and ``a`` for GF(p^k)), with rational coefficients."""
-        from .interop import polynomial_from_sympy
-
         return polynomial_from_sympy(self, expr)
 
     def same_coordinates(self, other: "Space") -> bool:
@@ -176,6 +175,13 @@ class Space:
     def __repr__(self) -> str:
         flag = ", boolean=True" if self.boolean else ""
         return f"Space({str(self.field)!r}, {', '.join(self.names)!r}, order={self.order!r}{flag})"
+
+
+def check_boolean_flag(value: object) -> bool:
+    """``value`` if it is a bool (the ``boolean`` flag of spaces and ``field_equations``)."""
+    if not isinstance(value, bool):
+        raise TypeError(f"boolean must be True or False, not {type(value).__name__}")
+    return value
 
 
 def _plain_number(c: Any) -> Any:
@@ -291,8 +297,6 @@ class Polynomial:
         return f"<Polynomial {self} over {self.space}>"
 
     def _repr_latex_(self) -> str:
-        from .interop import latex_polynomial
-
         return "$" + latex_polynomial(str(self)) + "$"
 
     def terms(self) -> list[tuple[tuple[int, ...], Any]]:
@@ -348,6 +352,4 @@ class Polynomial:
         """The polynomial as a sympy expression in symbols of the same names: integer
         coefficients (symmetric residues) over GF(p), rationals over Q, polynomials in the
         symbol ``a`` over GF(p^k)."""
-        from .interop import polynomial_to_sympy
-
         return polynomial_to_sympy(self)

@@ -10,13 +10,12 @@ and the column.
 from __future__ import annotations
 
 import re
-from typing import Iterable, cast
+from typing import Iterable, NamedTuple, cast
 
 from ._native import ParseError, ResourceLimit
 from .fields import field
 from .names import OrderName
-from .spaces import Space
-from .systems import System
+from .spaces import Polynomial, Space
 
 HEADERS = ("field", "variables", "order", "boolean")
 BOOLEAN_VALUES = {"yes": True, "true": True, "no": False, "false": False}
@@ -31,7 +30,16 @@ class SystemFileError(ParseError):
         self.path, self.line, self.column, self.message = path, line, column, message
 
 
-def read_system_file(path: str, memory=None) -> System:
+class SystemText(NamedTuple):
+    """What a system file says: its space, its equations and the file's path
+    (``System.read`` makes the system)."""
+
+    space: Space
+    equations: list[Polynomial]
+    path: str
+
+
+def read_system_file(path: str, memory=None) -> SystemText:
     """Reads a system file; raises ``SystemFileError`` (a ``ValueError``) or ``OSError``.
     ``memory``: the budget of the system's space (see ``Space``)."""
     with open(path, "rb") as handle:
@@ -52,7 +60,7 @@ def _text_of(data: bytes, path: str) -> str:
         ) from None
 
 
-def parse_system_text(lines: Iterable[str], path: str = "<text>", memory=None) -> System:
+def parse_system_text(lines: Iterable[str], path: str = "<text>", memory=None) -> SystemText:
     headers: dict[str, tuple[str, int, int]] = {}
     polys: list[tuple[str, int, int]] = []
     for number, raw in enumerate(lines, 1):
@@ -84,9 +92,7 @@ def parse_system_text(lines: Iterable[str], path: str = "<text>", memory=None) -
             raise SystemFileError(path, number, col, str(e)) from None
         except ResourceLimit as e:
             raise ResourceLimit(f"{path}:{number}: {e}") from None
-    system = System(space, equations)
-    system.path = path
-    return system
+    return SystemText(space, equations, path)
 
 
 def _header(text: str, path: str, number: int) -> tuple[str, str, int]:

@@ -7,124 +7,29 @@ reduced Gröbner basis of the ideal the equations generate, computed once per or
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field as dataclass_field
-from numbers import Integral
-from typing import TYPE_CHECKING, Any, Iterable, Iterator, Optional, Sequence, Union, overload
+from typing import TYPE_CHECKING, Any, Iterable, Iterator, Optional, Sequence, Union
 
-from . import _native, invariants
+from . import _native, boolean, guessing, invariants, normalization, solutions
+from .bases import BasisLimits, GroebnerStats, ReducedBasis, StepStats, kept_basis
+from .curves import Curve
+from .interop import latex_equations
 from .names import ENGINE_NAMES, Engine, Strategy, check_name
 from .orders import Order
 from .spaces import Coercible, Polynomial, Space
+from .systemfile import read_system_file
 
 if TYPE_CHECKING:
     import numpy
     from .fields import FieldSpec
     from .memory import Memory
-    from .curves import Curve
     from .invariants import HilbertSeries
     from .normalization import EquationsWhen, FiniteProjection, IntegralEquation
     from .solutions import ClosedPoint
     from .boolean import MethodChoice
     from .guessing import GuessPlan
 
-
-@dataclass(frozen=True)
-class StepStats:
-    """One step of an engine: the degree handled, the pairs, the matrix and the time spent."""
-
-    degree: int
-    pairs: int
-    rows: int
-    columns: int
-    nonzeros: int
-    new_elements: int
-    seconds_symbolic: float
-    seconds_linear_algebra: float
-
-
-@dataclass(frozen=True)
-class GroebnerStats:
-    """What the engine did. ``max_degree`` is the highest degree reached (the solving degree).
-    ``choice`` says what the automatic engine (``engine="auto"``) chose and why (``"grevlex basis
-    (...), then FGLM in the quotient R/I of dimension 16"`` for a lex basis of a zero-dimensional
-    system); empty for the other engines."""
-
-    engine: str
-    seconds: float
-    zero_reductions: int
-    max_degree: int
-    steps: list[StepStats] = dataclass_field(default_factory=list)
-    choice: str = ""
-
-    @classmethod
-    def _from_native(cls, d: dict) -> "GroebnerStats":
-        steps = [StepStats(**s) for s in d["steps"]]
-        return cls(
-            d["engine"], d["seconds"], d["zero_reductions"], d["max_degree"], steps, d.get("choice", "")
-        )
-
-    def to_dict(self) -> dict:
-        return {
-            "engine": self.engine,
-            "choice": self.choice,
-            "seconds": self.seconds,
-            "zero_reductions": self.zero_reductions,
-            "max_degree": self.max_degree,
-            "steps": [s.__dict__ for s in self.steps],
-        }
-
-
-class ReducedBasis(Sequence[Polynomial]):
-    """The reduced Gröbner basis of a system's ideal: monic, sorted by decreasing leading
-    monomial. The unit ideal has basis ``[1]``, the zero ideal the empty basis."""
-
-    def __init__(self, space: Space, polys: list[Polynomial], stats: GroebnerStats):
-        self.space = space
-        self.polys = polys
-        self.stats = stats
-
-    @property
-    def order(self) -> Order:
-        return self.space.order
-
-    @overload
-    def __getitem__(self, i: int) -> Polynomial: ...
-    @overload
-    def __getitem__(self, i: slice) -> list[Polynomial]: ...
-    def __getitem__(self, i):
-        return self.polys[i]
-
-    def __len__(self) -> int:
-        return len(self.polys)
-
-    def __iter__(self) -> Iterator[Polynomial]:
-        return iter(self.polys)
-
-    def normal_form(self, f: Coercible) -> Polynomial:
-        """Normal form of ``f``: the remainder, unique since this is a Gröbner basis."""
-        if self.space.boolean:
-            from . import boolean
-
-            return boolean.normal_form(self, f)
-        p = self.space.polynomial(f)
-        native = _native.normal_form(self.space._native, [g._native for g in self.polys], p._native)
-        return Polynomial(self.space, native)
-
-    def leading_monomials(self) -> list[Polynomial]:
-        return [g.leading_monomial() for g in self.polys]
-
-    def __str__(self) -> str:
-        return "[" + ", ".join(str(g) for g in self.polys) + "]"
-
-    def __repr__(self) -> str:
-        return (
-            f"<ReducedBasis of {len(self.polys)} polynomials over {self.space}, order {self.order!r}: {self}>"
-        )
-
-    def _repr_latex_(self) -> str:
-        from .interop import latex_polynomial
-
-        return r"$\left[" + r",\ ".join(latex_polynomial(str(g)) for g in self.polys) + r"\right]$"
+# Re-exported: the basis types were defined here before python/fibrewise/bases.py.
+__all__ = ["GroebnerStats", "ReducedBasis", "StepStats", "System"]
 
 
 def _split_equations(text: str) -> list[str]:
@@ -141,17 +46,6 @@ def _balanced(text: str) -> bool:
         if depth < 0:
             return False
     return depth == 0
-
-
-def _optional_count(name: str, value: Optional[int], least: int, most: int) -> Optional[int]:
-    """A limit argument: None, or an int in [least, most] (TypeError, ValueError otherwise)."""
-    if value is None:
-        return None
-    if isinstance(value, bool) or not isinstance(value, Integral):
-        raise TypeError(f"{name} must be an int, not {type(value).__name__}")
-    if not least <= value <= most:
-        raise ValueError(f"{name} must be between {least} and {most}, got {value}")
-    return int(value)
 
 
 class System:
@@ -175,9 +69,10 @@ class System:
         """Reads a system file (``field:``, ``variables:``, optional ``order:`` headers, then one
         polynomial a line). Errors are ``fibrewise.ParseError`` naming file, line and column.
         ``memory``: the budget of its space (see ``Space``)."""
-        from .systemfile import read_system_file
-
-        return read_system_file(path, memory=memory)
+        text = read_system_file(path, memory=memory)
+        system = cls(text.space, text.equations)
+        system.path = text.path
+        return system
 
     # --- bases ------------------------------------------------------------------------------
 
@@ -212,34 +107,21 @@ class System:
         """
         check_name("engine", engine, ENGINE_NAMES)
         if self.space.boolean or field_equations:
-            from . import boolean
-
             return boolean.basis(
                 self, order, engine, field_equations, max_degree, max_matrix, threads, max_seconds
             )
-        limits = (
-            _optional_count("max_degree", max_degree, 0, 2**32 - 1),
-            _optional_count("max_matrix", max_matrix, 1, 2**64 - 1),
-        )
-        threads = _optional_count("threads", threads, 1, 4096)
+        limits = BasisLimits.checked(max_degree, max_matrix, threads, max_seconds)
         space = self.space if order is None else self.space.with_order(order)
-        key = self._basis_key(space.order, engine)
-        limited = limits != (None, None)
-        if not limited and key in self._bases:
-            return self._bases[key]
-        polys, stats = _native.reduced_basis(
-            space._native,
-            [g._native for g in self.equations],
-            engine=engine,
-            max_degree=limits[0],
-            max_matrix=limits[1],
-            threads=threads,
-            max_seconds=max_seconds,
+        gens = [g._native for g in self.equations]
+        return kept_basis(
+            self._bases,
+            self._basis_key(space.order, engine),
+            space,
+            limits,
+            lambda space, limits: _native.reduced_basis(
+                space._native, gens, engine=engine, **limits.keywords()
+            ),
         )
-        gb = ReducedBasis(space, [Polynomial(space, p) for p in polys], GroebnerStats._from_native(stats))
-        if not limited:
-            self._bases[key] = gb
-        return gb
 
     @staticmethod
     def _basis_key(order: Order, engine: str) -> str:
@@ -357,8 +239,6 @@ class System:
         (8, 48)
         """
         if self.space.boolean:
-            from . import boolean
-
             return boolean.count_points(self, over, projective, boolean.check_method(method))
         if method != "auto":
             raise ValueError(f"method={method!r} is for Boolean systems; this one is over {self.space.field}")
@@ -392,16 +272,12 @@ class System:
         [(2, 2), (5, 5)]
         """
         if self.space.boolean:
-            from . import boolean
-
             return boolean.points(self, over=over, limit=limit, method=method)
         if method != "auto":
             raise ValueError(
                 f"method={method!r} chooses how Boolean systems are solved; this space is not Boolean"
             )
-        from .solutions import points
-
-        return points(self, over=over, limit=limit, as_galois=as_galois)
+        return solutions.points(self, over=over, limit=limit, as_galois=as_galois)
 
     def closed_points(self) -> "list[ClosedPoint]":
         """The Galois orbits of the solutions of a zero-dimensional system over a finite field,
@@ -412,27 +288,19 @@ class System:
         >>> [P.degree for P in S.closed_points()]
         [2]
         """
-        from .solutions import closed_points
-
-        return closed_points(self._general())
+        return solutions.closed_points(self._general())
 
     def solve_method(self, method: str = "auto") -> "MethodChoice":
         """Boolean systems: the method ``points`` and ``count_points`` use for ``method`` and why
         (a ``MethodChoice`` with the estimated seconds of each method), without solving."""
-        from . import boolean
-
         return boolean.choose_method(self, method)
 
     def with_field_equations(self) -> "System":
         """Boolean systems: the same equations with x^2 + x for every variable, as a system of
         the space without ``boolean`` (for the general engines)."""
-        from . import boolean
-
         return boolean.with_field_equations(self)
 
     def _boolean_count(self) -> int:
-        from . import boolean
-
         return boolean.count(self)
 
     def _general(self) -> "System":
@@ -455,27 +323,19 @@ class System:
         >>> [str(p) for p in P.parameters], P.rank  # x is a root of x^2 + (y^2 - 1) over k[y]
         (['y'], 2)
         """
-        from .normalization import finite_projection
-
-        return finite_projection(self, strategy=strategy, seed=seed, equations=equations)
+        return normalization.finite_projection(self, strategy=strategy, seed=seed, equations=equations)
 
     def is_integral(self, f: Coercible, over: Sequence[Coercible]) -> bool:
         """Whether ``f`` is integral over k[over] in the quotient ring."""
-        from .normalization import is_integral
-
-        return is_integral(self, f, over)
+        return normalization.is_integral(self, f, over)
 
     def integral_equation(self, f: Coercible, over: Sequence[Coercible]) -> "IntegralEquation | None":
         """The monic relation of least degree of ``f`` over k[over] in the quotient ring, or None."""
-        from .normalization import integral_equation
-
-        return integral_equation(self, f, over)
+        return normalization.integral_equation(self, f, over)
 
     def is_finite_over(self, over: Sequence[Coercible]) -> bool:
         """Whether the quotient ring is a finitely generated k[over]-module."""
-        from .normalization import is_finite_over
-
-        return is_finite_over(self, over)
+        return normalization.is_finite_over(self, over)
 
     # --- curves (python/fibrewise/curves.py) -------------------------------------------------
 
@@ -487,15 +347,11 @@ class System:
         q^k, the expected total, and the best k (``fibrewise.guessing``). An estimate, not a bound.
         ``budget``: wall-clock seconds one sample may take (``None``: no limit); a k whose
         sample goes over is marked over budget, its times lower bounds."""
-        from .guessing import guess_plan
+        return guessing.guess_plan(self, max_guess, samples, budget=budget)
 
-        return guess_plan(self, max_guess, samples, budget=budget)
-
-    def curve(self) -> "Curve":
+    def curve(self) -> Curve:
         """The solution set as a curve over the (finite) field: smoothness, genus, counts over
         GF(q^r), zeta function (see ``fibrewise.curves``)."""
-        from .curves import Curve
-
         return Curve(self)
 
     # --- text -------------------------------------------------------------------------------
@@ -517,6 +373,9 @@ class System:
         return f"<System of {n} equation{'' if n == 1 else 's'} over {self.space}: {self}>"
 
     def _repr_latex_(self) -> str:
-        from .interop import latex_equations
-
         return "$" + latex_equations([str(g) for g in self.equations]) + "$"
+
+
+# Spaces sit below systems in the module layers (DEVELOPERS.md): a space makes its systems
+# through this factory, which the module defining ``System`` provides.
+Space._system_type = System
