@@ -153,9 +153,7 @@ def _check_plotting() -> None:
 def _hilbert(system) -> dict:
     series = system.hilbert()
     return {
-        "numerator": list(series.numerator),
-        "denominator_exponent": series.denominator_exponent,
-        "graded": series.graded,
+        **series.to_dict(),
         "polynomial": [_json_number(c) for c in series.polynomial()],
         "regularity_index": series.regularity_index(),
     }

@@ -51,6 +51,15 @@ class HilbertSeries:
             return -1
         return self.denominator_exponent - int(not self.graded)
 
+    def to_dict(self) -> dict:
+        """The series as JSON-ready data: numerator coefficients, the exponent d of (1 - t)^d
+        and whether it is the graded series."""
+        return {
+            "numerator": list(self.numerator),
+            "denominator_exponent": self.denominator_exponent,
+            "graded": self.graded,
+        }
+
     def polynomial(self) -> list[Fraction]:
         """Coefficients of the Hilbert polynomial, constant term first (empty when it is 0)."""
         pairs = _native.hilbert_polynomial(self.numerator, self.denominator_exponent)

@@ -99,12 +99,7 @@ def check_job(obj: Any) -> dict:
 
 
 def _hilbert(system) -> dict:
-    series = system.hilbert()
-    return {
-        "numerator": list(series.numerator),
-        "denominator_exponent": series.denominator_exponent,
-        "graded": series.graded,
-    }
+    return system.hilbert().to_dict()
 
 
 def _points(system) -> int:

@@ -112,18 +112,7 @@ fn engine(n: usize, budget: f64) -> Option<(f64, f64, String)> {
     );
     if std::env::var_os("BENCH_VERBOSE").is_some() {
         for st in &s.steps {
-            eprintln!(
-                "  deg {} pairs {} matrix {}x{} nnz {} new {} sym {:.3}s la {:.3}s words {:.2e}",
-                st.degree,
-                st.pairs,
-                st.rows,
-                st.columns,
-                st.nonzeros,
-                st.new_elements,
-                st.seconds_symbolic,
-                st.seconds_linear_algebra,
-                st.multiply_adds as f64
-            );
+            eprintln!("  {st}");
         }
     }
     Some((seconds, cpu, summary))

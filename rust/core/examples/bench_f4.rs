@@ -139,18 +139,7 @@ fn run_one(label: &str, threads: usize) -> Result<(), String> {
     let s = &s;
     if std::env::var_os("BENCH_VERBOSE").is_some() {
         for st in &s.steps {
-            eprintln!(
-                "  deg {} pairs {} matrix {}x{} nnz {} new {} sym {:.3}s la {:.3}s madds {:.2e}",
-                st.degree,
-                st.pairs,
-                st.rows,
-                st.columns,
-                st.nonzeros,
-                st.new_elements,
-                st.seconds_symbolic,
-                st.seconds_linear_algebra,
-                st.multiply_adds as f64
-            );
+            eprintln!("  {st}");
         }
         eprintln!("  zero reductions {}", s.zero_reductions);
     }

@@ -19,6 +19,25 @@ pub struct StepStats {
     pub signatures: bool,
 }
 
+/// One line per step, as the benchmark programs print it with `BENCH_VERBOSE`.
+impl std::fmt::Display for StepStats {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(
+            f,
+            "deg {} pairs {} matrix {}x{} nnz {} new {} sym {:.3}s la {:.3}s madds {:.2e}",
+            self.degree,
+            self.pairs,
+            self.rows,
+            self.columns,
+            self.nonzeros,
+            self.new_elements,
+            self.seconds_symbolic,
+            self.seconds_linear_algebra,
+            self.multiply_adds as f64
+        )
+    }
+}
+
 #[derive(Clone, Debug, Default, PartialEq)]
 pub struct Stats {
     pub engine: String,
