@@ -559,9 +559,8 @@ fn reductions_with_the_transforms_of_the_modulus_agree_with_schoolbook_division(
                 let shorter = random_poly(field, &mut rng, d + d / 2 + 1);
                 assert_eq!(modulo.reduce(&shorter), schoolbook_remainder(field, &shorter, &f), "{spec} d={d} shorter");
                 // Every coefficient −1: the integer products reach their bound.
-                let minus_one = field.neg(&field.one());
-                let top = vec![minus_one.clone(); 2 * d - 1];
-                let mut g = vec![minus_one; d];
+                let top = vec![field.neg(&field.one()); 2 * d - 1];
+                let mut g = vec![field.neg(&field.one()); d];
                 g.push(field.one());
                 assert_eq!(Modulo::new(field, &g).reduce(&top), schoolbook_remainder(field, &top, &g), "{spec} d={d} extreme");
             }
@@ -579,9 +578,8 @@ fn wide_products_of_extreme_coefficients_agree_with_the_schoolbook_product() {
     ] {
         let any = AnyField::parse(spec).unwrap();
         with_any_field!(&any, field => {
-            let minus_one = field.neg(&field.one());
-            let a = vec![minus_one.clone(); 700];
-            let b = vec![minus_one; 300];
+            let a = vec![field.neg(&field.one()); 700];
+            let b = vec![field.neg(&field.one()); 300];
             assert_eq!(multiply(field, &a, &b), schoolbook(field, &a, &b), "{spec}");
             assert_eq!(square(field, &a), schoolbook(field, &a, &a), "{spec} square");
         });
