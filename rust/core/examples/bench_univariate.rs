@@ -7,8 +7,12 @@
 //! the default modulus of GF(2^500) and GF(2^1000) in well under a second.
 
 use fibrewise_core::field::{AnyField, Field, Modulus, PrimeField};
+use fibrewise_core::frobenius::field_order_limbs;
 use fibrewise_core::rng::Rng;
-use fibrewise_core::univariate::{self, evaluate, from_roots, multiply, random_element};
+use fibrewise_core::univariate::{
+    self, equal_degree_factorization, evaluate, from_roots, gcd, monomial, multiply,
+    random_element, subtract, Modulo,
+};
 use fibrewise_core::{with_any_field, Control};
 use std::time::Instant;
 
@@ -34,7 +38,9 @@ fn default_moduli() {
     }
 }
 
-/// Roots of a random dense polynomial of degree `degree` with `planted` roots planted.
+/// Roots of a random dense polynomial of degree `degree` with `planted` roots planted; then the
+/// same work by phases (x^q mod f, gcd(x^q − x, f), splitting the linear part) to show where the
+/// time goes.
 fn roots_of_dense(spec: &str, label: &str, degree: usize, planted: usize, target: f64) {
     let field = AnyField::parse(spec).unwrap();
     with_any_field!(&field, field => {
@@ -43,8 +49,9 @@ fn roots_of_dense(spec: &str, label: &str, degree: usize, planted: usize, target
         let mut rest: Vec<_> = (0..degree - planted + 1).map(|_| random_element(field, &mut rng)).collect();
         *rest.last_mut().unwrap() = field.one();
         let f = multiply(field, &rest, &from_roots(field, &chosen));
+        let control = Control::new();
         let start = Instant::now();
-        let found = univariate::roots(field, &f, &Control::new()).unwrap();
+        let found = univariate::roots(field, &f, &control).unwrap();
         let seconds = start.elapsed().as_secs_f64();
         assert!(found.iter().all(|r| field.is_zero(&evaluate(field, &f, r))));
         assert!(chosen.iter().all(|r| found.contains(r)));
@@ -55,10 +62,36 @@ fn roots_of_dense(spec: &str, label: &str, degree: usize, planted: usize, target
             found.len(),
             if seconds <= target { "met" } else { "MISSED" }
         );
+        if field.order_limbs().is_some_and(|q| q.len() > 1 || q[0] > 1 << 16) {
+            phases(field, &f, &control);
+        }
     });
 }
 
+/// The phases of the roots over a large field, timed one by one.
+fn phases<F: Field>(field: &F, f: &[F::Elem], control: &Control) {
+    let q = field_order_limbs(field, "bench").unwrap();
+    let monic = univariate::monic(field, f);
+    let start = Instant::now();
+    let modulo = Modulo::new(field, &monic);
+    let h = modulo.x_power(&q, control).unwrap();
+    let powering = start.elapsed().as_secs_f64();
+    let start = Instant::now();
+    let linear = gcd(field, &subtract(field, &h, &monomial(field, 1)), &monic);
+    let gcd_seconds = start.elapsed().as_secs_f64();
+    let start = Instant::now();
+    let mut rng = Rng::new(1);
+    let split = equal_degree_factorization(field, &linear, 1, &mut rng, control).unwrap();
+    println!(
+        "    x^q mod f {powering:.2} s, gcd {gcd_seconds:.2} s, splitting {} roots {:.2} s",
+        split.len(),
+        start.elapsed().as_secs_f64()
+    );
+}
+
 fn main() {
+    // `bench_univariate roots` runs only the roots.
+    let only_roots = std::env::args().any(|a| a == "roots");
     // The roots first: the default modulus of GF(2^2000) at the end takes minutes.
     roots_of_dense("GF(2305843009213693951)", "GF(2^61-1)", 59049, 20, 10.0);
     roots_of_dense(
@@ -69,6 +102,9 @@ fn main() {
         20.0,
     );
     roots_of_dense("GF(2^16)", "GF(2^16)", 1 << 16, 20, 10.0);
+    if only_roots {
+        return;
+    }
     println!();
     default_moduli();
 }

@@ -4,17 +4,23 @@
 //! p(1/x), the quotient of a by b is rev(rev(a) · rev(b)^(−1) mod x^(deg a − deg b + 1)), and the
 //! inverse series comes from Newton's iteration g ← g·(2 − rev(b)·g), doubling the precision each
 //! step (Sieveking 1972; Kung 1974), so a division costs a few products. [`Modulo`] keeps the
-//! inverse series of its modulus, so that each reduction costs two products; its powers use
+//! inverse series of its modulus, so that each reduction costs two products, and over fields
+//! with a transform path also the transforms of the modulus and of the inverse series
+//! ([`super::transform_reduction`]), so that those two products cost half; its powers use
 //! square-and-multiply, with exponents given as little-endian 64-bit limbs (x^q for q up to
 //! 2^512 and beyond costs one squaring per bit).
 
+use super::transform_reduction::TransformReduction;
 use super::{degree, multiply, square, subtract, trimmed, Univariate};
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
+use std::sync::Arc;
 
 /// Below this quotient length (or divisor degree) the schoolbook division is used.
 const NEWTON_THRESHOLD: usize = 64;
+/// From this modulus degree on, [`Modulo`] keeps the transforms of its modulus.
+const TRANSFORM_REDUCTION_THRESHOLD: usize = 128;
 
 /// (quotient, remainder) of a by b ≠ 0.
 pub fn divide<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> (Univariate<F>, Univariate<F>) {
@@ -133,6 +139,8 @@ pub struct Modulo<F: Field> {
     modulus: Univariate<F>,
     /// rev(f)^(−1) mod x^(deg f), for quotients of products of reduced elements.
     inverse: Univariate<F>,
+    /// The transforms of f and of the inverse series, shared by the clones.
+    transforms: Option<Arc<TransformReduction<F>>>,
 }
 
 impl<F: Field> Modulo<F> {
@@ -145,10 +153,15 @@ impl<F: Field> Modulo<F> {
         } else {
             vec![]
         };
+        let transforms = (d >= TRANSFORM_REDUCTION_THRESHOLD)
+            .then(|| TransformReduction::new(field, &f, &inverse))
+            .flatten()
+            .map(Arc::new);
         Modulo {
             field: field.clone(),
             modulus: f,
             inverse,
+            transforms,
         }
     }
 
@@ -168,6 +181,12 @@ impl<F: Field> Modulo<F> {
         }
         if self.inverse.is_empty() || a.len() - d > d {
             return remainder(&self.field, a, &self.modulus);
+        }
+        if let Some(transforms) = &self.transforms {
+            // Worth it for the long quotients of products; x·a takes the plain way.
+            if 2 * (a.len() - d) > d && a.len() < 2 * d {
+                return transforms.reduce(&self.field, a);
+            }
         }
         let q = quotient_from_inverse(&self.field, a, d, &self.inverse);
         let mut qf = multiply(&self.field, &q, &self.modulus);

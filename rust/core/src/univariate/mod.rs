@@ -9,7 +9,8 @@
 //!   1971) with the Chinese remainder theorem ([`ntt`], and [`ntt_wide`] for primes beyond a
 //!   machine word);
 //! - [`division`]: division with remainder, by Newton iteration on the reversed divisor for large
-//!   degrees (Sieveking 1972, Kung 1974), and arithmetic modulo a fixed polynomial;
+//!   degrees (Sieveking 1972, Kung 1974), and arithmetic modulo a fixed polynomial, with
+//!   [`transform_reduction`] keeping the transforms of the modulus ([`cyclic`] products);
 //! - [`gcd`]: greatest common divisors and Bézout cofactors, by [`half_gcd`] steps (Thull and
 //!   Yap 1990) for large degrees;
 //! - [`squarefree`], [`distinct_degree`], [`equal_degree`], [`roots`]: factorization over finite
@@ -20,6 +21,7 @@
 //!   multiplicative group, the faster route to the roots when q is close to the degree.
 
 pub mod all_values;
+pub mod cyclic;
 pub mod distinct_degree;
 pub mod division;
 pub mod equal_degree;
@@ -30,6 +32,7 @@ pub mod ntt;
 pub mod ntt_wide;
 pub mod roots;
 pub mod squarefree;
+pub mod transform_reduction;
 
 pub use distinct_degree::distinct_degree_factorization;
 pub use division::{divide, power_mod, remainder, Modulo};

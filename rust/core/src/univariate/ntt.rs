@@ -70,17 +70,14 @@ impl TransformPrime {
         self.p
     }
 
-    /// a·b·2^(−64) mod p for a, b < p.
+    /// a·b·2^(−64) mod p for a, b < 2p (then a·b < 2^64·p, as p < 2^62, and the sum below is
+    /// under 2p before the last subtraction).
     #[inline(always)]
     pub(super) fn mont(&self, a: u64, b: u64) -> u64 {
         let t = a as u128 * b as u128;
         let m = (t as u64).wrapping_mul(self.neg_inv);
         let u = ((t + m as u128 * self.p as u128) >> 64) as u64;
-        if u >= self.p {
-            u - self.p
-        } else {
-            u
-        }
+        below(u, self.p)
     }
     #[inline(always)]
     pub(super) fn add(&self, a: u64, b: u64) -> u64 {
@@ -179,22 +176,21 @@ impl TransformPrime {
         }
     }
 
-    /// x·w mod p by the precomputed quotient w' = ⌊w·2^64/p⌋ (Harvey 2014): one high and two
-    /// low word products; valid for any x < 2^64 since p < 2^63.
+    /// x·w mod p up to one multiple of p (a value in [0, 2p)) by the precomputed quotient
+    /// w' = ⌊w·2^64/p⌋ (Harvey 2014): one high and two low word products, no branch; valid for
+    /// any x < 2^64 since p < 2^62.
     #[inline(always)]
-    fn mul_shoup(&self, x: u64, w: [u64; 2]) -> u64 {
+    fn mul_shoup_lazy(&self, x: u64, w: [u64; 2]) -> u64 {
         let q = ((u128::from(x) * u128::from(w[1])) >> 64) as u64;
-        let r = x.wrapping_mul(w[0]).wrapping_sub(q.wrapping_mul(self.p));
-        if r >= self.p {
-            r - self.p
-        } else {
-            r
-        }
+        x.wrapping_mul(w[0]).wrapping_sub(q.wrapping_mul(self.p))
     }
 
-    /// Forward transform in place (decimation in frequency; output in bit-reversed order).
+    /// Forward transform in place (decimation in frequency; output in bit-reversed order). The
+    /// values stay in [0, 2p) without being fully reduced (Harvey 2014): p < 2^62 leaves room
+    /// for sums below 4p, and the Montgomery products that follow accept inputs below 2p.
     fn forward(&self, a: &mut [u64], table: &[[u64; 2]]) {
         let n = a.len();
+        let two_p = 2 * self.p;
         let mut half = n / 2;
         while half >= 1 {
             let level = &table[half..2 * half];
@@ -202,8 +198,8 @@ impl TransformPrime {
                 let (lo, hi) = block.split_at_mut(half);
                 for ((u, v), &w) in lo.iter_mut().zip(hi.iter_mut()).zip(level) {
                     let (x, y) = (*u, *v);
-                    *u = self.add(x, y);
-                    *v = self.mul_shoup(x + self.p - y, w);
+                    *u = below(x + y, two_p);
+                    *v = self.mul_shoup_lazy(x + two_p - y, w);
                 }
             }
             half /= 2;
@@ -211,18 +207,19 @@ impl TransformPrime {
     }
 
     /// Inverse transform in place (decimation in time; input in bit-reversed order), without
-    /// the division by n.
+    /// the division by n; values in [0, 2p) in and out, as in [`TransformPrime::forward`].
     fn backward(&self, a: &mut [u64], table: &[[u64; 2]]) {
         let n = a.len();
+        let two_p = 2 * self.p;
         let mut half = 1;
         while half < n {
             let level = &table[half..2 * half];
             for block in a.chunks_mut(2 * half) {
                 let (lo, hi) = block.split_at_mut(half);
                 for ((u, v), &w) in lo.iter_mut().zip(hi.iter_mut()).zip(level) {
-                    let (x, y) = (*u, self.mul_shoup(*v, w));
-                    *u = self.add(x, y);
-                    *v = self.sub(x, y);
+                    let (x, y) = (*u, self.mul_shoup_lazy(*v, w));
+                    *u = below(x + y, two_p);
+                    *v = below(x + two_p - y, two_p);
                 }
             }
             half *= 2;
@@ -236,36 +233,68 @@ impl TransformPrime {
     }
 
     fn convolve_with(&self, a: &[u64], b: &[u64], log_n: u32, twiddles: &Twiddles) -> Vec<u64> {
-        let n = 1usize << log_n;
-        let load = |v: &[u64]| {
-            let mut out: Vec<u64> = v.iter().map(|&x| x % self.p).collect();
-            out.resize(n, 0);
-            out
-        };
-        let mut fa = load(a);
-        self.forward(&mut fa, &twiddles.forward);
-        let same = std::ptr::eq(a, b);
-        let fb = if same {
-            None
+        let mut fa = self.spectrum_with(a, log_n, twiddles);
+        if std::ptr::eq(a, b) {
+            fa.iter_mut().for_each(|x| *x = self.mont(*x, *x));
+            self.finish_convolution(&mut fa, log_n, twiddles);
+            fa
         } else {
-            let mut fb = load(b);
-            self.forward(&mut fb, &twiddles.forward);
-            Some(fb)
-        };
-        match &fb {
-            Some(fb) => fa
-                .iter_mut()
-                .zip(fb)
-                .for_each(|(x, y)| *x = self.mont(*x, *y)),
-            None => fa.iter_mut().for_each(|x| *x = self.mont(*x, *x)),
+            let fb = self.spectrum_with(b, log_n, twiddles);
+            self.convolve_spectra_with(fa, &fb, log_n, twiddles)
         }
-        self.backward(&mut fa, &twiddles.backward);
-        // The pointwise Montgomery products left a factor 2^(−64); undo it with 1/n.
-        let n_inv = self.inverse(n as u64 % self.p);
-        let scale = self.mont(self.to_montgomery(n_inv), self.r2);
-        fa.iter_mut().for_each(|x| *x = self.mont(*x, scale));
+    }
+
+    /// The forward transform of v (reduced modulo p, zero-padded to 2^log_n, v no longer): the
+    /// spectrum of a fixed factor, computed once and given to [`TransformPrime::convolve_spectra`].
+    pub(super) fn spectrum(&self, v: &[u64], log_n: u32) -> Vec<u64> {
+        self.with_twiddles(log_n, |twiddles| self.spectrum_with(v, log_n, twiddles))
+    }
+
+    fn spectrum_with(&self, v: &[u64], log_n: u32, twiddles: &Twiddles) -> Vec<u64> {
+        let n = 1usize << log_n;
+        debug_assert!(v.len() <= n);
+        let mut out: Vec<u64> = v.iter().map(|&x| x % self.p).collect();
+        out.resize(n, 0);
+        self.forward(&mut out, &twiddles.forward);
+        out
+    }
+
+    /// The cyclic convolution (length 2^log_n, exact modulo p) of the two vectors whose spectra
+    /// are given.
+    pub(super) fn convolve_spectra(&self, fa: Vec<u64>, fb: &[u64], log_n: u32) -> Vec<u64> {
+        self.with_twiddles(log_n, |twiddles| {
+            self.convolve_spectra_with(fa, fb, log_n, twiddles)
+        })
+    }
+
+    fn convolve_spectra_with(
+        &self,
+        mut fa: Vec<u64>,
+        fb: &[u64],
+        log_n: u32,
+        twiddles: &Twiddles,
+    ) -> Vec<u64> {
+        fa.iter_mut()
+            .zip(fb)
+            .for_each(|(x, y)| *x = self.mont(*x, *y));
+        self.finish_convolution(&mut fa, log_n, twiddles);
         fa
     }
+
+    /// The backward transform of a pointwise product of spectra, scaled to the convolution.
+    fn finish_convolution(&self, fa: &mut [u64], log_n: u32, twiddles: &Twiddles) {
+        self.backward(fa, &twiddles.backward);
+        // The pointwise Montgomery products left a factor 2^(−64); undo it with 1/n.
+        let n_inv = self.inverse((1u64 << log_n) % self.p);
+        let scale = self.mont(self.to_montgomery(n_inv), self.r2);
+        fa.iter_mut().for_each(|x| *x = self.mont(*x, scale));
+    }
+}
+
+/// x mod m for x < 2m, without a branch: x − m wraps around above x when x < m.
+#[inline(always)]
+fn below(x: u64, m: u64) -> u64 {
+    x.min(x.wrapping_sub(m))
 }
 
 /// How many transform primes there are: enough for products of polynomials over prime fields of
@@ -291,15 +320,20 @@ pub fn transform_primes() -> &'static [TransformPrime] {
 pub fn multiply_words(a: &[u64], b: &[u64], m: u64) -> Vec<u64> {
     let len = a.len() + b.len() - 1;
     let log_n = transform_log_length(len);
-    // The integer coefficients are below min(|a|, |b|)·(m − 1)^2.
-    let bits = 2 * (64 - (m - 1).leading_zeros()) + (64 - a.len().min(b.len()).leading_zeros());
-    let primes = &transform_primes()[..(bits as usize).div_ceil(61).clamp(1, 3)];
+    let primes = word_transform_primes(m, a.len().min(b.len()));
     let same = std::ptr::eq(a, b);
     let residues: Vec<Vec<u64>> = rayon_map(primes, |prime| {
         prime.convolve(a, if same { a } else { b }, log_n)
     });
     let crt = Garner::new(primes, m);
     (0..len).map(|i| crt.combine(&residues, i)).collect()
+}
+
+/// The transform primes for products modulo m of polynomials whose shorter factor has
+/// `shorter` coefficients: the integer coefficients are below shorter·(m − 1)^2.
+pub(super) fn word_transform_primes(m: u64, shorter: usize) -> &'static [TransformPrime] {
+    let bits = 2 * (64 - (m - 1).leading_zeros()) + (usize::BITS - shorter.leading_zeros());
+    &transform_primes()[..(bits as usize).div_ceil(61).clamp(1, 3)]
 }
 
 /// log2 of the transform length for a product of `len` coefficients.
@@ -355,7 +389,7 @@ impl Target {
 
 /// The Chinese remainder step from residues modulo the transform primes to a residue modulo m,
 /// by Garner's mixed-radix digits: x = v0 + v1·p0 + v2·p0·p1 with 0 ≤ v_i < p_i.
-struct Garner<'a> {
+pub(super) struct Garner<'a> {
     primes: &'a [TransformPrime],
     target: Target,
     /// p0^(−1) mod p1, p0 mod p2, (p0·p1)^(−1) mod p2 (in Montgomery form where multiplied).
@@ -368,7 +402,7 @@ struct Garner<'a> {
 }
 
 impl<'a> Garner<'a> {
-    fn new(primes: &'a [TransformPrime], m: u64) -> Self {
+    pub(super) fn new(primes: &'a [TransformPrime], m: u64) -> Self {
         let target = Target::new(m);
         let p0 = primes[0].p;
         let (mut inv_p0_mod_p1, mut p0_mod_p2, mut inv_p01_mod_p2) = (0, 0, 0);
@@ -394,7 +428,7 @@ impl<'a> Garner<'a> {
     }
 
     /// Coefficient i modulo m.
-    fn combine(&self, residues: &[Vec<u64>], i: usize) -> u64 {
+    pub(super) fn combine(&self, residues: &[Vec<u64>], i: usize) -> u64 {
         let t = &self.target;
         let v0 = residues[0][i];
         let mut x = t.reduce(v0);

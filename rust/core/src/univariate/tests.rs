@@ -517,3 +517,74 @@ fn roots_over_a_binary_field_beyond_two_to_the_sixty_four() {
         }
     });
 }
+
+/// a mod b by one row operation per quotient coefficient (the reference for the reductions).
+fn schoolbook_remainder<F: Field>(field: &F, a: &[F::Elem], b: &[F::Elem]) -> Univariate<F> {
+    let db = b.len() - 1;
+    let lead_inv = field.inv(&b[db]).unwrap();
+    let mut r = a.to_vec();
+    for top in (db..r.len()).rev() {
+        let c = field.mul(&r[top], &lead_inv);
+        for (x, y) in r[top - db..=top].iter_mut().zip(b) {
+            *x = field.sub(x, &field.mul(&c, y));
+        }
+    }
+    r.truncate(db);
+    trimmed(field, r)
+}
+
+#[test]
+fn reductions_with_the_transforms_of_the_modulus_agree_with_schoolbook_division() {
+    // Word primes (one to three transform primes), primes of 2, 4 and 8 limbs (2^127 − 1,
+    // 2^255 − 19, the 384-bit prime of the wide products above) and a binary field (no
+    // transform path). Degrees around the powers of two where the transform lengths change.
+    let p384 = "39402006196394479212279040100143613805079739270465446667948293404245721771496870329047266088258938001861606973112319";
+    let mut rng = Rng::new(19);
+    for spec in [
+        "GF(65521)".to_string(),
+        "GF(2305843009213693951)".to_string(),
+        "GF(9223372036854775783)".to_string(),
+        "GF(170141183460469231731687303715884105727)".to_string(),
+        "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)"
+            .to_string(),
+        format!("GF({p384})"),
+        "GF(2^16)".to_string(),
+    ] {
+        let any = AnyField::parse(&spec).unwrap();
+        with_any_field!(&any, field => {
+            for d in [128, 129, 200, 255, 256, 257] {
+                let f = random_poly(field, &mut rng, d + 1);
+                let modulo = Modulo::new(field, &f);
+                let (x, y) = (random_poly(field, &mut rng, d), random_poly(field, &mut rng, d));
+                let product = multiply(field, &x, &y);
+                assert_eq!(modulo.multiply(&x, &y), schoolbook_remainder(field, &product, &f), "{spec} d={d}");
+                assert_eq!(modulo.square(&x), schoolbook_remainder(field, &square(field, &x), &f), "{spec} d={d} square");
+                let shorter = random_poly(field, &mut rng, d + d / 2 + 1);
+                assert_eq!(modulo.reduce(&shorter), schoolbook_remainder(field, &shorter, &f), "{spec} d={d} shorter");
+                // Every coefficient −1: the integer products reach their bound.
+                let top = vec![field.neg(&field.one()); 2 * d - 1];
+                let mut g = vec![field.neg(&field.one()); d];
+                g.push(field.one());
+                assert_eq!(Modulo::new(field, &g).reduce(&top), schoolbook_remainder(field, &top, &g), "{spec} d={d} extreme");
+            }
+        });
+    }
+}
+
+#[test]
+fn wide_products_of_extreme_coefficients_agree_with_the_schoolbook_product() {
+    // Coefficients p − 1 make the integer coefficients of the product as large as they get,
+    // where the rounding of the explicit Chinese remainder step has the least room.
+    for spec in [
+        "GF(170141183460469231731687303715884105727)",
+        "GF(57896044618658097711785492504343953926634992332820282019728792003956564819949)",
+    ] {
+        let any = AnyField::parse(spec).unwrap();
+        with_any_field!(&any, field => {
+            let a = vec![field.neg(&field.one()); 700];
+            let b = vec![field.neg(&field.one()); 300];
+            assert_eq!(multiply(field, &a, &b), schoolbook(field, &a, &b), "{spec}");
+            assert_eq!(square(field, &a), schoolbook(field, &a, &a), "{spec} square");
+        });
+    }
+}

@@ -152,17 +152,13 @@ fn krylov_sequences<F: Field>(
     Ok((sequence, variable_sequences))
 }
 
-/// N(T) = polynomial part of f(T)·Σ_k s_k T^(−k−1): n_m = Σ_k f_(m+k+1) s_k.
+/// N(T) = polynomial part of f(T)·Σ_k s_k T^(−k−1): n_m = Σ_k f_(m+k+1) s_k, which is
+/// coefficient m + D of the product of f and (s_(D−1), ..., s_1, s_0): one fast product.
 fn numerator<F: Field>(field: &F, f: &[F::Elem], s: &[F::Elem]) -> Univariate<F> {
     let d = f.len() - 1;
-    let n = (0..d)
-        .map(|m| {
-            (0..d - m).fold(field.zero(), |acc, k| {
-                field.add(&acc, &field.mul(&f[m + k + 1], &s[k]))
-            })
-        })
-        .collect();
-    univariate::trimmed(field, n)
+    let reversed: Vec<F::Elem> = s[..d].iter().rev().cloned().collect();
+    let product = univariate::multiply(field, f, &univariate::trimmed(field, reversed));
+    univariate::trimmed(field, product.get(d..).unwrap_or(&[]).to_vec())
 }
 
 /// The reduced lex basis {f(x_n), x_i − g_i(x_n)} when the ideal is in shape position for the
