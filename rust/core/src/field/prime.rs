@@ -78,6 +78,20 @@ impl PrimeField {
         r as u64
     }
 
+    /// x mod p for any x < 2^64, with the high word of the reciprocal alone (⌊2^64 / p⌋ up to
+    /// rounding): the quotient estimate is short by at most two, one multiplication instead of
+    /// the four of [`PrimeField::reduce_u128`]. The word loops of the characteristic
+    /// polynomial sum products of residues below 2^32 in one word and reduce them here.
+    #[inline]
+    pub fn reduce_u64(&self, x: u64) -> u64 {
+        let q = ((u128::from(x) * u128::from(self.mu_hi)) >> 64) as u64;
+        let mut r = x - q * self.p;
+        while r >= self.p {
+            r -= self.p;
+        }
+        r
+    }
+
     #[inline]
     pub fn mul_u64(&self, a: u64, b: u64) -> u64 {
         self.reduce_u128(a as u128 * b as u128)

@@ -153,9 +153,12 @@ pub struct FiniteProjection<F: Field> {
 /// Sparse linear tries before dense ones, and dense tries when the field is large enough.
 const SPARSE_TRIES: usize = 2;
 const DENSE_TRIES: usize = 3;
-/// Extra random linear tries for homogeneous input over a field too small for the probability
-/// bound: homogeneous linear parameters are preferred when they exist over the field.
-const SMALL_FIELD_HOMOGENEOUS_TRIES: usize = 4;
+/// Random dense linear tries over a field too small for the probability bound. The bound is
+/// only an upper bound on failure: over GF(7) a sparse surface of degree 47 (Bézout's bound 64)
+/// is finite over about one random pair of linear forms in three, and a linear change keeps the
+/// rank at the degree where a nonlinear one raises it (and the equations' cost with it). Each
+/// try costs one grevlex basis, so a failed series costs far less than the equations it spares.
+const SMALL_FIELD_DENSE_TRIES: usize = 16;
 /// A trial elimination basis may reach this multiple of the input's and grevlex basis's degree.
 const TRIAL_DEGREE_FACTOR: u32 = 2;
 /// Largest exponent of the cheap nonlinear shifts tried before Nagata's search.
@@ -383,7 +386,15 @@ impl<'a, F: Field> Search<'a, F> {
             .unwrap_or_else(|| ((n - d)..n).collect());
         let ring = &self.grevlex.ring;
         if let Some(all) = enumerated_linear(ring, &params, ENUMERATED_LINEAR_TRIES) {
+            // The enumeration reaches only the sparsest forms; dense ones are drawn after them.
             linear.extend(all);
+            for _ in 0..self.dense_tries() {
+                let change = dense_linear(ring, &params, &mut self.rng);
+                // Over GF(2) or GF(3) most draws repeat a form already listed.
+                if !linear.iter().any(|c: &Change<F>| c.shifts == change.shifts) {
+                    linear.push(change);
+                }
+            }
             return vec![variables, linear];
         }
         let nonparams = complement(&params, n);
@@ -424,8 +435,9 @@ impl<'a, F: Field> Search<'a, F> {
     /// degree of the closure of V(I); by Schwartz–Zippel the chance of failure is at most D/q.
     /// D is bounded by Bézout's inequality as the product of the n - d largest generator degrees
     /// (an estimate when I is not a complete intersection: a failed try only costs a basis, the
-    /// result is certified anyway). Draw only when D/q ≤ 1/2; homogeneous input gets a few
-    /// tries even over small fields, because linear parameters are preferred there.
+    /// result is certified anyway). When D/q ≤ 1/2 a few tries suffice; over smaller fields the
+    /// bound says nothing, yet random linear forms often work, and linear parameters give the
+    /// smallest rank: more tries there before going nonlinear.
     fn dense_tries(&self) -> usize {
         let mut degrees: Vec<u32> = self.gens.iter().filter_map(|g| g.degree()).collect();
         degrees.sort_unstable_by(|a, b| b.cmp(a));
@@ -438,10 +450,8 @@ impl<'a, F: Field> Search<'a, F> {
         let q = field_size(&self.ring.field).map_or(f64::INFINITY, |q| q as f64);
         if bezout / q <= 0.5 {
             DENSE_TRIES
-        } else if self.homogeneous {
-            SMALL_FIELD_HOMOGENEOUS_TRIES
         } else {
-            0
+            SMALL_FIELD_DENSE_TRIES
         }
     }
 

@@ -1,9 +1,9 @@
 //! The arithmetic of the scalar loops of the characteristic polynomial (Krylov, Hessenberg,
 //! interpolation): either the generic [`Field`] interface, or residues modulo a prime p < 2^32
 //! held in machine words, where a product fits 64 bits and `acc ± a·b` needs one reduction
-//! instead of two (Barrett reduction: Barrett 1987; Menezes, van Oorschot and Vanstone,
-//! *Handbook of Applied Cryptography*, 1996, Algorithm 14.42). The loops are written once,
-//! generic over [`Scalars`]; values are converted once at the boundary.
+//! instead of two (delayed reduction; the reduction itself is the prime field's Barrett
+//! reduction, Barrett 1986, and inverses are the core's one word inverse). The loops are
+//! written once, generic over [`Scalars`]; values are converted once at the boundary.
 
 use crate::field::{Field, PrimeField};
 
@@ -73,8 +73,9 @@ pub fn invert_all<S: Scalars>(s: &S, values: &[S::E]) -> Option<Vec<S::E>> {
     Some(inverses)
 }
 
-/// How many problems the lane operations of [`Scalars`] carry side by side.
-pub const LANES: usize = 8;
+/// How many problems the lane operations of [`Scalars`] carry side by side: the lane count of
+/// the F4 kernels, whose vector code the same CPUs run.
+pub use crate::groebner::f4::arith::LANES;
 
 /// The field's own arithmetic: works for every field.
 pub struct Generic<'a, F: Field>(pub &'a F);
@@ -140,8 +141,6 @@ pub struct Words<'a, F: Field> {
     field: &'a F,
     prime: PrimeField,
     p: u64,
-    /// ⌊2^64 / p⌋, so that ⌊x·m / 2^64⌋ is ⌊x / p⌋ or one less for every x < 2^64.
-    m: u64,
     /// 2^64 mod p: the weight of a carry out of the low word of a sum.
     carry: u64,
 }
@@ -149,26 +148,21 @@ pub struct Words<'a, F: Field> {
 impl<'a, F: Field> Words<'a, F> {
     /// `Some` when the field is GF(p) with 2 < p < 2^32 held as words.
     pub fn new(field: &'a F) -> Option<Self> {
+        // A word modulus is a prime: no second primality test.
         let p = field.word_modulus().filter(|&p| p > 2 && p < 1 << 32)?;
+        let prime = PrimeField::known_prime(p);
         Some(Words {
             field,
-            prime: PrimeField::new(p).ok()?,
+            carry: (prime.reduce_u64(u64::MAX) + 1) % p,
+            prime,
             p,
-            m: u64::MAX / p,
-            carry: (u64::MAX % p + 1) % p,
         })
     }
 
     /// x mod p for any x < 2^64.
     #[inline]
     fn reduce(&self, x: u64) -> u64 {
-        let q = ((u128::from(x) * u128::from(self.m)) >> 64) as u64;
-        let r = x - q * self.p;
-        if r >= self.p {
-            r - self.p
-        } else {
-            r
-        }
+        self.prime.reduce_u64(x)
     }
 }
 
