@@ -571,10 +571,27 @@ fn is_atom(s: &str) -> bool {
 
 #[cfg(test)]
 mod tests {
+    use crate::control::Control;
+    use crate::error::Error;
     use crate::field::Field;
     use crate::order::MonomialOrder;
+    use crate::parse::parse_poly;
     use crate::rng::Rng;
     use crate::test_support::{random_poly, ring_32003};
+
+    /// Powers whose result cannot exist are refused before anything is allocated (an API fuzz
+    /// run found `f ** 2**32` aborting the interpreter on a failed allocation): a degree above
+    /// 2^32 - 1 is an overflow, a result beyond the memory budget a resource limit.
+    #[test]
+    fn huge_powers_are_refused_before_allocating() {
+        let ring = ring_32003(&["x", "y", "z"], MonomialOrder::Grevlex);
+        let f = parse_poly(&ring, "x + y + z + 1").unwrap();
+        assert!(matches!(ring.pow(&f, 1 << 32), Err(Error::Overflow(_))));
+        // (x + y + z + 1)^3000 has C(3003, 3), about 4.5e9, terms: far beyond 64 MiB.
+        let budget = Control::new().with_memory_budget(64 << 20);
+        let err = ring.pow_within(&f, 3000, &budget).unwrap_err();
+        assert!(matches!(err, Error::ResourceLimit(_)), "{err}");
+    }
 
     /// The merge agrees with the plain sum of f and the shifted, scaled terms of g (like terms
     /// added, zeros dropped, sorted anew by `from_terms`), for two orders, cancellations
