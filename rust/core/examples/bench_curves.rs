@@ -7,9 +7,10 @@
 //! beside it, seconds per fibre for N_3 against N_2, shows how the cost per root count grows
 //! with the field (GF(2^24) against GF(2^16)); the time per fibre at N_3 times the fibres of a
 //! count says what a larger count would cost. CPU time (both workers) is printed beside the
-//! wall-clock time. A second ratio, in the same run: the fixed-size root count of the fibres
-//! ([`RootCounter`]) against the general distinct-degree split (`linear_part_for_order`) on the
-//! same 2^16 fibres over GF(2^24), with the counts compared. An elliptic curve over the 61-bit
+//! wall-clock time, and the CPU time per fibre of N_3. A second ratio, in the same run: the root
+//! count of the fibres ([`RootCounter`], for these quartics the GF(2)-linear count of
+//! `curves::binary_roots`) against the general distinct-degree split (`linear_part_for_order`)
+//! on the same 2^16 fibres over GF(2^24), with the counts compared. An elliptic curve over the 61-bit
 //! prime 2^61 − 1 must be refused at once (not run).
 
 use fibrewise_core::curves::root_count::RootCounter;
@@ -58,12 +59,17 @@ fn quartic_over_gf256() {
     assert!(curve.is_smooth(), "the benchmark quartic must be smooth");
     assert_eq!(curve.genus().unwrap(), 3);
     let mut seconds_per_fibre = Vec::new();
+    let mut cpu_per_fibre = None;
     let mut counts = Vec::new();
     for r in 1..=3u32 {
         let t = Instant::now();
+        let cpu_before = cpu_seconds();
         counts.push(curve.count_points(r, &control).unwrap());
         let fibres = 256f64.powi(r as i32) / f64::from(r);
         seconds_per_fibre.push(t.elapsed().as_secs_f64() / fibres);
+        cpu_per_fibre = cpu_seconds()
+            .zip(cpu_before)
+            .map(|(end, start)| (end - start) / fibres);
     }
     let zeta = Zeta::from_counts(curve.q().unwrap(), 3, &counts).unwrap();
     let seconds = start.elapsed().as_secs_f64();
@@ -84,6 +90,10 @@ fn quartic_over_gf256() {
         seconds_per_fibre[1],
         seconds_per_fibre[2],
         seconds_per_fibre[2] / seconds_per_fibre[1]
+    );
+    println!(
+        "  CPU per fibre of N_3 (both workers): {}",
+        cpu_per_fibre.map_or("?".into(), |c| format!("{c:.2e} s"))
     );
     println!(
         "  N_1..N_3 and the zeta function: {seconds:.2} s wall, {} CPU ({} rayon workers)   target <= 5 s: {}",
@@ -130,7 +140,7 @@ fn root_count_against_the_general_split() {
     assert_eq!(fast, general, "the two root counts disagree");
     let n = fibres.len() as f64;
     println!(
-        "root counts of 2^16 quartic fibres over GF(2^24), one thread: fixed-size {:.2e} s per fibre, \
+        "root counts of 2^16 quartic fibres over GF(2^24), one thread: RootCounter {:.2e} s per fibre, \
          general split {:.2e} s per fibre (ratio {:.1}); counts equal",
         fast_seconds / n,
         general_seconds / n,

@@ -19,6 +19,7 @@
 //! function follows from N_1..N_g ([`zeta`], Weil 1948), and counts are compared with the
 //! Hasse–Weil and Serre bounds ([`bounds`]).
 
+pub mod binary_roots;
 pub mod bounds;
 pub mod embedding;
 pub mod fibres;

@@ -14,8 +14,12 @@
 //!   gcd by Euclid's algorithm on pseudo-remainders (scaling by nonzero constants keeps the
 //!   degree; no inversion).
 //!
+//! Over GF(2^k), 4 ≤ k ≤ 64, with the field's bit hook, degrees 3 and 4 are counted by
+//! GF(2)-linear algebra instead ([`super::binary_roots`]) and the trace is a bit mask.
+//!
 //! Larger degrees go to the distinct-degree split of [`crate::univariate::distinct_degree`].
 
+use super::binary_roots::BinaryRoots;
 use crate::control::Control;
 use crate::error::{Error, Result};
 use crate::field::{field_size, Field};
@@ -47,6 +51,8 @@ pub struct RootCounter<E: Field> {
     order: Vec<u64>,
     size: u64,
     characteristic: Characteristic,
+    /// The bit-level counts of GF(2^k), when the field has them.
+    binary: Option<BinaryRoots<E>>,
 }
 
 impl<E: Field> RootCounter<E> {
@@ -74,6 +80,7 @@ impl<E: Field> RootCounter<E> {
             order,
             size,
             characteristic,
+            binary: BinaryRoots::new(field),
         })
     }
 
@@ -87,6 +94,14 @@ impl<E: Field> RootCounter<E> {
             0 => 0,
             1 => 1,
             2 => self.quadratic(&p[2], &p[1], &p[0]),
+            3 | 4 if self.binary.is_some() => {
+                let binary = self.binary.as_ref().expect("checked just above");
+                if d == 3 {
+                    binary.cubic(&std::array::from_fn(|i| p[i].clone()))
+                } else {
+                    binary.quartic(&std::array::from_fn(|i| p[i].clone()))
+                }
+            }
             d if d < SMALL => self.by_frobenius(&p[..=d]),
             _ => (linear_part_for_order(field, &p[..=d], &self.order, control)?.len() - 1) as u128,
         })
@@ -125,6 +140,9 @@ impl<E: Field> RootCounter<E> {
     /// Tr(t) = t + t² + t⁴ + ... + t^(2^(k−1)) in GF(2^k): 0 or 1.
     fn absolute_trace(&self, t: &E::Elem, k: u32) -> E::Elem {
         let field = &self.field;
+        if let Some(binary) = &self.binary {
+            return field.from_i64(i64::from(binary.trace_is_one(t)));
+        }
         let mut power = t.clone();
         let mut sum = t.clone();
         for _ in 1..k {

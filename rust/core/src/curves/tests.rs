@@ -521,3 +521,149 @@ fn singular_closed_points_over_extensions() {
     brute.sort_by_key(|p| p.iter().map(|&c| c as u64).collect::<Vec<_>>());
     assert_eq!(listed, brute);
 }
+
+/// Polynomials of degree 2 to 4 over GF(2^k) in every shape the bit-level count separates:
+/// random; no cubic term; a root at 0; products of linear factors drawn from two roots (so
+/// repeated roots, the case f(s) = 0, and triple and fourfold roots); a linear factor times a
+/// random quadratic; and fixed affine ones with many roots.
+fn binary_test_polynomials<F: Field>(field: &F, random: usize) -> Vec<Vec<F::Elem>> {
+    use crate::univariate::{from_roots, multiply, random_element};
+    let mut rng = crate::rng::Rng::new(19);
+    let mut out = Vec::new();
+    let (zero, one) = (field.zero(), field.one());
+    for n in 0..random {
+        let degree = 2 + n % 3;
+        let mut p: Vec<F::Elem> = (0..=degree)
+            .map(|_| random_element(field, &mut rng))
+            .collect();
+        match n / 3 % 5 {
+            0 => {}
+            1 if degree > 2 => p[degree - 1] = zero.clone(),
+            2 => p[0] = zero.clone(),
+            3 => {
+                let pool = [
+                    random_element(field, &mut rng),
+                    random_element(field, &mut rng),
+                ];
+                let roots: Vec<F::Elem> = (0..degree)
+                    .map(|i| pool[(n >> (3 + i)) & 1].clone())
+                    .collect();
+                p = multiply(field, &[p[0].clone()], &from_roots(field, &roots));
+            }
+            _ => {
+                let root = random_element(field, &mut rng);
+                p = multiply(field, &from_roots(field, &[root]), &p[..degree]);
+            }
+        }
+        // A product with a zero factor comes out empty; a zero leading coefficient is dropped.
+        if p.last().is_some_and(|c| !field.is_zero(c)) {
+            out.push(p);
+        }
+    }
+    for exponents in [
+        &[1usize, 4][..],
+        &[2, 4],
+        &[0, 4],
+        &[4],
+        &[0, 3],
+        &[3],
+        &[2, 3],
+        &[0, 1, 2],
+        &[0, 1, 3],
+        &[1, 2, 3, 4],
+    ] {
+        let top = exponents[exponents.len() - 1];
+        out.push(
+            (0..=top)
+                .map(|i| {
+                    if exponents.contains(&i) {
+                        one.clone()
+                    } else {
+                        zero.clone()
+                    }
+                })
+                .collect(),
+        );
+    }
+    out
+}
+
+/// deg gcd(y^Q − y, p) by the general distinct-degree split, p ≠ 0.
+fn general_root_count<F: Field>(field: &F, p: &[F::Elem]) -> u128 {
+    let order = field.order_limbs().unwrap();
+    let linear = crate::univariate::distinct_degree::linear_part_for_order(
+        field,
+        p,
+        &order,
+        &Control::new(),
+    );
+    linear.unwrap().len() as u128 - 1
+}
+
+/// The root counts of [`RootCounter`] (the bit-level path for degrees 3 and 4, the trace mask
+/// for degree 2) equal the general distinct-degree count deg gcd(y^Q − y, f), and brute
+/// force when the field is small.
+fn binary_root_counts_agree<F: Field>(field: F, random: usize) {
+    assert!(
+        binary_roots::BinaryRoots::new(&field).is_some(),
+        "{} has the bit hook",
+        field.spec()
+    );
+    let counter = root_count::RootCounter::new(&field).unwrap();
+    let small = crate::field::field_size(&field).unwrap() <= 1 << 8;
+    for p in binary_test_polynomials(&field, random) {
+        let general = general_root_count(&field, &p);
+        let text = crate::univariate::format(&field, &p, "y");
+        assert_eq!(
+            counter.count(&p, &Control::new()).unwrap(),
+            general,
+            "{text} over {}",
+            field.spec()
+        );
+        if small {
+            assert_eq!(general, brute_force_roots(&field, &p), "{text}");
+        }
+    }
+}
+
+#[test]
+fn bit_level_root_counts_equal_the_general_count() {
+    for spec in ["GF(2^4)", "GF(2^8)", "GF(2^16)"] {
+        let AnyField::Table(k) = AnyField::parse(spec).unwrap() else {
+            panic!("{spec} has tables")
+        };
+        binary_root_counts_agree(k, 600);
+    }
+    for spec in ["GF(2^24)", "GF(2^61)"] {
+        let AnyField::Binary(k) = AnyField::parse(spec).unwrap() else {
+            panic!("{spec} is bit-packed")
+        };
+        binary_root_counts_agree(k, 300);
+    }
+}
+
+#[test]
+fn bit_level_root_counts_at_the_edges_of_the_word() {
+    // GF(2^64): every bit of the word in use (the counter itself stops below 2^64 − 1
+    // elements, so the quartics are counted by the bit-level path directly).
+    let AnyField::Binary(k) = AnyField::parse("GF(2^64)").unwrap() else {
+        panic!("GF(2^64) is bit-packed")
+    };
+    let binary = binary_roots::BinaryRoots::new(&k).unwrap();
+    for p in binary_test_polynomials(&k, 150) {
+        let general = general_root_count(&k, &p);
+        let fast = match p.len() {
+            5 => binary.quartic(&std::array::from_fn(|i| p[i])),
+            4 => binary.cubic(&std::array::from_fn(|i| p[i])),
+            _ => continue,
+        };
+        assert_eq!(fast, general, "{}", crate::univariate::format(&k, &p, "y"));
+    }
+    // The roots of y^4 + y are GF(4), a subfield of GF(2^64) as 2 divides 64 (handbook fact).
+    assert_eq!(binary.quartic(&[0, 1, 0, 0, 1]), 4);
+    // GF(8) is below the bit-level path's smallest field; the general count stays.
+    let AnyField::Table(gf8) = AnyField::parse("GF(8)").unwrap() else {
+        panic!("GF(8) has tables")
+    };
+    assert!(binary_roots::BinaryRoots::new(&gf8).is_none());
+}

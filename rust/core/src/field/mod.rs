@@ -135,6 +135,24 @@ pub trait Field: Clone + Debug + PartialEq + Send + Sync + 'static {
     fn from_word(&self, _w: u64) -> Self::Elem {
         self.zero()
     }
+    /// `Some(k)` when this is GF(2^k), k ≤ 64, with elements convertible to and from the k bits
+    /// of their coordinates on the polynomial basis 1, t, ..., t^(k−1) of the generator t
+    /// (bit i is the coefficient of t^i) by [`Field::to_binary_bits`] and
+    /// [`Field::from_binary_bits`]: the Frobenius and every GF(2)-linear map then act on bit
+    /// vectors (root counts of fibres in characteristic 2, `curves::binary_roots`).
+    fn binary_degree(&self) -> Option<u32> {
+        None
+    }
+    /// The coordinate bits of `a` (only meaningful when [`Field::binary_degree`] is `Some`).
+    fn to_binary_bits(&self, _a: &Self::Elem) -> u64 {
+        0
+    }
+    /// The element with coordinate bits `bits` < 2^k (only meaningful when
+    /// [`Field::binary_degree`] is `Some`).
+    #[allow(clippy::wrong_self_convention)] // the field (its modulus) makes the element
+    fn from_binary_bits(&self, _bits: u64) -> Self::Elem {
+        self.zero()
+    }
     /// `Some(limbs of p)` (little-endian, 2, 4 or 8 of them) when this is GF(p) for a prime
     /// beyond a machine word whose elements are Montgomery residues on that many limbs (see
     /// [`montgomery`]): F4 then sums products on wider limbs and reduces once per entry.

@@ -233,6 +233,15 @@ impl Field for BinaryField {
     fn order_limbs(&self) -> Option<Vec<u64>> {
         Some(self.modulus.order().to_u64_digits())
     }
+    fn binary_degree(&self) -> Option<u32> {
+        Some(self.k)
+    }
+    fn to_binary_bits(&self, a: &u64) -> u64 {
+        *a
+    }
+    fn from_binary_bits(&self, bits: u64) -> u64 {
+        bits
+    }
     /// The square root a^(q/2): k − 1 squarings.
     fn pth_root(&self, a: &u64) -> Option<u64> {
         Some((1..self.k).fold(*a, |x, _| self.mul(&x, &x)))

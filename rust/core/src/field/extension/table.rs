@@ -187,6 +187,16 @@ impl Field for TableField {
     fn order_limbs(&self) -> Option<Vec<u64>> {
         Some(vec![self.q as u64])
     }
+    /// In characteristic 2 the integer representation is the coordinate bits.
+    fn binary_degree(&self) -> Option<u32> {
+        (self.p == 2).then(|| self.modulus.degree())
+    }
+    fn to_binary_bits(&self, a: &u32) -> u64 {
+        u64::from(*a)
+    }
+    fn from_binary_bits(&self, bits: u64) -> u32 {
+        bits as u32
+    }
     /// The inverse of Frobenius: a^(q/p), computed on the logarithm.
     fn pth_root(&self, a: &u32) -> Option<u32> {
         Some(self.pow(a, self.q as u64 / self.p as u64))
