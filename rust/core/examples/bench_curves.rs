@@ -16,7 +16,8 @@
 use fibrewise_core::curves::root_count::RootCounter;
 use fibrewise_core::curves::zeta::Zeta;
 use fibrewise_core::curves::Curve;
-use fibrewise_core::field::{AnyField, Field, PrimeField};
+use fibrewise_core::field::{Field, PrimeField};
+use fibrewise_core::field_kind::AnyField;
 use fibrewise_core::order::MonomialOrder;
 use fibrewise_core::parse::parse_poly;
 use fibrewise_core::univariate::distinct_degree::linear_part_for_order;

@@ -7,7 +7,8 @@
 //!
 //! Systems: two sparse equations in four variables (a random batch job of our own making).
 
-use fibrewise_core::field::{Modulus, PrimeField};
+use fibrewise_core::extension::Modulus;
+use fibrewise_core::field::PrimeField;
 use fibrewise_core::normalization::{project, Options};
 use fibrewise_core::parse::parse_poly;
 use fibrewise_core::{Control, MonomialOrder, Ring};

@@ -6,8 +6,10 @@
 //! GF(2^61 − 1) ≤ 10 s; degree 6561 over GF(2^255 − 19) ≤ 20 s; degree 2^16 over GF(2^16) ≤ 10 s;
 //! the default modulus of GF(2^500) and GF(2^1000) in well under a second.
 
+use fibrewise_core::extension::Modulus;
 use fibrewise_core::field::field_order_limbs;
-use fibrewise_core::field::{AnyField, Field, Modulus, PrimeField};
+use fibrewise_core::field::{Field, PrimeField};
+use fibrewise_core::field_kind::AnyField;
 use fibrewise_core::rng::Rng;
 use fibrewise_core::univariate::{
     self, equal_degree_factorization, evaluate, from_roots, gcd, monomial, multiply,

@@ -9,11 +9,11 @@
 
 use crate::control::Control;
 use crate::error::{Error, Result};
+use crate::extension::Modulus;
+use crate::extension::{check_generator_name, DEFAULT_GENERATOR};
 use crate::field::bpsw;
-use crate::field::extension::{check_generator_name, DEFAULT_GENERATOR};
-use crate::field::{
-    extension_field, prime_field, small_prime, AnyField, Modulus, PrimeField, RationalField,
-};
+use crate::field::{PrimeField, RationalField};
+use crate::field_kind::{extension_field, prime_field, small_prime, AnyField};
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::Ring;

@@ -18,11 +18,15 @@
 //! - [`systems`]: standard benchmark systems (cyclic, katsura, eco, noon, random quadratics).
 
 pub mod boolean;
+pub mod charpoly;
 pub mod control;
 pub mod curves;
 pub mod dimension;
+pub mod echelon;
 pub mod error;
+pub mod extension;
 pub mod field;
+pub mod field_kind;
 pub mod field_spec;
 pub mod frobenius;
 pub mod groebner;

@@ -20,10 +20,12 @@
 
 use crate::control::Control;
 use crate::dimension::{krull_dimension, maximum_independent_sets};
+use crate::echelon::Echelon;
 use crate::error::{Error, Result};
 use crate::field::field_order_limbs;
 use crate::field::Field;
 use crate::frobenius::power_modulo;
+use crate::groebner::order_change::shape::shape_representation;
 use crate::groebner::ReducedBasis;
 use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
@@ -31,8 +33,6 @@ use crate::poly::{Poly, Ring};
 use crate::rng::Rng;
 use crate::univariate::distinct_degree::linear_part;
 use crate::univariate::{self, random_element};
-use crate::zerodim::linear::Echelon;
-use crate::zerodim::shape::shape_representation;
 use crate::zerodim::{maximal, quotient_dimension, Quotient};
 
 /// Number of points of V(gens) in GF(q)^n.

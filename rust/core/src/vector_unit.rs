@@ -2,6 +2,10 @@
 //! instruction set; kernels that gain from wider units are compiled again under
 //! `#[target_feature]` and the widest one the CPU has is picked at run time.
 
+/// Rows reduced together in one interleaved accumulator: eight 64-bit lanes, one 512-bit
+/// register or one cache line per column (the F4 kernels and the characteristic polynomials).
+pub const LANES: usize = 8;
+
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum VectorUnit {
     Baseline,

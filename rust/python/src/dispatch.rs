@@ -9,10 +9,10 @@ use pyo3::exceptions::PyTypeError;
 use pyo3::prelude::*;
 use std::sync::Arc;
 
-/// The field kinds, as the core's field-spec reader produces them (`fibrewise_core::field::AnyField`):
+/// The field kinds, as the core's field-spec reader produces them (`fibrewise_core::field_kind::AnyField`):
 /// Prime (p < 2^63), BigPrime2/4/8 (larger primes on 2, 4, 8 limbs), Table (GF(p^k), q <= 2^16),
 /// Binary (GF(2^k), 2^16 < q <= 2^64), Extension (other GF(p^k)), Rational (Q).
-pub use fibrewise_core::field::AnyField;
+pub use fibrewise_core::field_kind::AnyField;
 
 /// A ring shared by the space and its polynomials.
 pub type SharedRing<F> = Arc<Ring<F>>;

@@ -8,9 +8,8 @@
 
 use crate::dispatch::{AnyField, Kind};
 use crate::space::NativeField;
-use fibrewise_core::field::{
-    BigPrimeField, BinaryField, ExtensionField, Modulus, RationalField, TableField,
-};
+use fibrewise_core::extension::{BinaryField, ExtensionField, Modulus, TableField};
+use fibrewise_core::field::{BigPrimeField, RationalField};
 use fibrewise_core::Field;
 use num_bigint::{BigInt, BigUint};
 use num_rational::BigRational;

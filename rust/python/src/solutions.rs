@@ -12,9 +12,8 @@ use crate::dispatch::{with_ring, AnyRing, Kind};
 use crate::long_run;
 use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::control::{Control, Limits};
-use fibrewise_core::field::{
-    BigPrimeField, BinaryField, ExtensionField, RationalField, TableField,
-};
+use fibrewise_core::extension::{BinaryField, ExtensionField, TableField};
+use fibrewise_core::field::{BigPrimeField, RationalField};
 use fibrewise_core::groebner::{Engine, ReducedBasis};
 use fibrewise_core::points::extension::{embed_coefficients, generator_image, map_poly};
 use fibrewise_core::points::{closed, rational, solve};
@@ -305,7 +304,7 @@ impl<'a, F: PrimeCoefficients, E: Field> Embedding<'a, F, E> {
 /// Elements of GF(p) (p < 2^63) and GF(p^k) as coefficient vectors over GF(p).
 trait PrimeCoefficients: Field {
     /// The modulus m of GF(p^k) = GF(p)[a]/(m); `None` for other fields.
-    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::extension::Modulus> {
         None
     }
     /// c_0, c_1, ... with c = Σ c_i a^i (one residue for GF(p)); only called for the fields
@@ -320,7 +319,7 @@ impl PrimeCoefficients for PrimeField {
 }
 
 impl PrimeCoefficients for TableField {
-    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::extension::Modulus> {
         Some(self.modulus())
     }
     fn prime_coefficients(&self, c: &u32) -> Vec<u64> {
@@ -329,7 +328,7 @@ impl PrimeCoefficients for TableField {
 }
 
 impl PrimeCoefficients for BinaryField {
-    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::extension::Modulus> {
         Some(self.modulus())
     }
     fn prime_coefficients(&self, c: &u64) -> Vec<u64> {
@@ -338,7 +337,7 @@ impl PrimeCoefficients for BinaryField {
 }
 
 impl PrimeCoefficients for ExtensionField {
-    fn modulus_of_extension(&self) -> Option<&fibrewise_core::field::Modulus> {
+    fn modulus_of_extension(&self) -> Option<&fibrewise_core::extension::Modulus> {
         Some(self.modulus())
     }
     fn prime_coefficients(&self, c: &Box<[u64]>) -> Vec<u64> {

@@ -6,10 +6,9 @@
 
 use crate::control::Control;
 use crate::error::{Error, Result};
-use crate::field::{
-    extension_field, AnyField, BigPrimeField, BinaryField, ExtensionField, Field, Modulus,
-    PrimeField, RationalField, TableField,
-};
+use crate::extension::{BinaryField, ExtensionField, Modulus, TableField};
+use crate::field::{BigPrimeField, Field, PrimeField, RationalField};
+use crate::field_kind::{extension_field, AnyField};
 use crate::points::extension::{embed_coefficients, generator_image};
 
 /// A field whose elements can be written on the power basis of its generator over GF(p).

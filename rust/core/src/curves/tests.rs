@@ -1,7 +1,8 @@
 //! Curves against brute-force enumeration and published facts (sources named beside each).
 
 use super::*;
-use crate::field::{AnyField, PrimeField};
+use crate::field::PrimeField;
+use crate::field_kind::AnyField;
 use crate::parse::parse_poly;
 use crate::with_any_field;
 

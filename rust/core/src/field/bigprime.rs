@@ -288,7 +288,8 @@ mod engine_tests {
     //! generic systems the leading monomials of the reduced bases agree (a prime is unlucky only
     //! if it divides one of finitely many integers attached to the system).
     use crate::control::Control;
-    use crate::field::{AnyField, Field};
+    use crate::field::Field;
+    use crate::field_kind::AnyField;
     use crate::groebner::{groebner_basis, Engine};
     use crate::order::MonomialOrder;
     use crate::parse::parse_poly;

@@ -6,22 +6,16 @@
 
 mod bigprime;
 pub mod bpsw;
-pub mod extension;
-mod kinds;
 pub mod montgomery;
 pub mod primality;
 mod prime;
 pub mod random;
 mod rational;
-mod spec;
 
 pub use bigprime::BigPrimeField;
-pub use extension::{BinaryField, ExtensionField, Modulus, TableField};
 pub use prime::{inverse_mod_word, PrimeField};
 pub use random::uniform_element;
 pub use rational::{integer_scale, RationalField};
-pub(crate) use spec::small_prime;
-pub use spec::{extension_field, prime_field, AnyField};
 
 use crate::error::{Error, Result};
 use std::fmt::Debug;

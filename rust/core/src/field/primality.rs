@@ -53,6 +53,25 @@ pub fn small_factor(n: u64, bound: u64) -> Option<u64> {
     (2..=bound.min(n.saturating_sub(1))).find(|d| n.is_multiple_of(*d))
 }
 
+/// Prime divisors of n by trial division (n is a degree or a table size: small).
+pub fn prime_divisors(mut n: u64) -> Vec<u64> {
+    let mut out = Vec::new();
+    let mut d = 2;
+    while d * d <= n {
+        if n.is_multiple_of(d) {
+            out.push(d);
+            while n.is_multiple_of(d) {
+                n /= d;
+            }
+        }
+        d += 1;
+    }
+    if n > 1 {
+        out.push(n);
+    }
+    out
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -13,6 +13,7 @@ pub mod f4;
 pub mod modular;
 pub mod order_change;
 pub mod pairs;
+pub mod quotient;
 pub mod reduce;
 pub mod stats;
 

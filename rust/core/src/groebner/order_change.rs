@@ -17,9 +17,10 @@
 //! This works in every dimension. For zero-dimensional ideals whose quotient R/I is not too
 //! large, [`change_order`] goes instead through linear algebra in the quotient: FGLM
 //! (Faugère, Gianni, Lazard, Mora 1993), with its sparse Krylov route for lex targets in shape
-//! position (Faugère and Mou 2011), see [`crate::zerodim::fglm`].
+//! position (Faugère and Mou 2011), see [`crate::groebner::order_change::fglm`].
 
 use super::f4;
+use super::quotient::quotient_dimension;
 use super::{groebner_basis, Engine, ReducedBasis, Stats};
 use crate::control::Control;
 use crate::dimension::krull_dimension;
@@ -29,8 +30,7 @@ use crate::monomial::Monomial;
 use crate::monomial_ideal::monomial_ideal_series;
 use crate::order::{MonomialOrder, OrderBlock};
 use crate::poly::{Poly, Ring};
-use crate::zerodim::fglm::fglm_within;
-use crate::zerodim::quotient_dimension;
+use fglm::fglm_within;
 
 /// Routes every engine but the reference one (Buchberger's, kept as a direct computation to
 /// check the others against) under an order that does not compare degrees first through a
@@ -238,6 +238,9 @@ fn dehomogenize<F: Field>(ring: &Ring<F>, g: &Poly<F>) -> Result<Poly<F>> {
         .collect::<Result<Vec<_>>>()?;
     Ok(ring.adopt(Poly::from_sorted(terms)))
 }
+
+pub mod fglm;
+pub mod shape;
 
 #[cfg(test)]
 mod tests;

@@ -9,10 +9,10 @@
 //! *Commutative Algebra*, §4.1). It needs the one basis that proved finiteness and nothing more.
 
 use super::changes::Change;
-use super::charpoly::characteristic_polynomial;
 use super::division::normal_form;
 use super::finiteness::{generic_rank, standard_monomials, Proof, MAX_MODULE_GENERATORS};
 use super::{FiniteProjection, Strategy};
+use crate::charpoly::characteristic_polynomial;
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;

@@ -21,13 +21,10 @@
 
 pub mod certificate;
 pub mod changes;
-pub mod charpoly;
 pub mod check;
 pub mod division;
 pub mod finiteness;
 pub mod nagata;
-pub mod scalars;
-pub mod zech;
 
 #[cfg(test)]
 mod check_tests;

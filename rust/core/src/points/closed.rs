@@ -13,16 +13,16 @@
 
 use super::solve::check_point;
 use crate::control::Control;
+use crate::echelon::kernel;
 use crate::error::Result;
 use crate::field::field_order_limbs;
 use crate::field::Field;
+use crate::groebner::order_change::fglm::fglm;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
 use crate::rng::Rng;
 use crate::univariate::{self, random_element};
-use crate::zerodim::fglm::fglm;
-use crate::zerodim::linear::kernel;
 use crate::zerodim::maximal::frobenius_matrix;
 use crate::zerodim::radical::zero_dimensional_radical;
 use crate::zerodim::{require_zero_dimensional, Quotient};

@@ -8,7 +8,8 @@
 use super::solve::rational_points;
 use crate::control::Control;
 use crate::error::{Error, Result};
-use crate::field::{Field, Modulus};
+use crate::extension::Modulus;
+use crate::field::Field;
 use crate::groebner::Engine;
 use crate::poly::{Poly, Ring};
 
@@ -78,7 +79,8 @@ pub fn points_over<F: Field, E: Field>(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::field::{ExtensionField, PrimeField, TableField};
+    use crate::extension::{ExtensionField, TableField};
+    use crate::field::PrimeField;
     use crate::order::MonomialOrder;
     use crate::parse::parse_poly;
     use crate::points::closed::closed_points;

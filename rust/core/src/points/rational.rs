@@ -20,6 +20,7 @@ use crate::control::Control;
 use crate::dimension::krull_dimension;
 use crate::error::{Error, Result};
 use crate::field::RationalField;
+use crate::groebner::order_change::shape::{shape_representation, ShapeRepresentation};
 use crate::groebner::{groebner_basis, Engine};
 use crate::order::MonomialOrder;
 use crate::points::rational_roots::rational_roots;
@@ -29,7 +30,6 @@ use crate::univariate::{self, degree, Univariate};
 use crate::zerodim::irreducible::irreducible_factors;
 use crate::zerodim::maximal_rational::separating_candidate;
 use crate::zerodim::radical::zero_dimensional_radical;
-use crate::zerodim::shape::{shape_representation, ShapeRepresentation};
 use crate::zerodim::Quotient;
 use num_rational::BigRational;
 

@@ -2,7 +2,7 @@
 //!
 //! Zero-dimensional systems: from the grevlex basis, the quotient A = R/I and a linear form ℓ
 //! (the last variable first, then random forms) give a shape representation x_i ≡ g_i(ℓ) by
-//! Krylov sequences ([`crate::zerodim::shape`], Faugère and Mou 2011) whenever the minimal
+//! Krylov sequences ([`crate::groebner::order_change::shape`], Faugère and Mou 2011) whenever the minimal
 //! polynomial f of ℓ has degree dim A; the rational points are then (g_i(t))_i for the roots t
 //! of f in GF(q) (roots by [`crate::univariate::roots`]: gcd with x^q − x by repeated squaring,
 //! then Cantor–Zassenhaus). A random ℓ over GF(q) separates the D points of a radical ideal with
@@ -24,13 +24,13 @@ use crate::dimension::{krull_dimension, maximum_independent_sets};
 use crate::error::{Error, Result};
 use crate::field::field_order_limbs;
 use crate::field::Field;
+use crate::groebner::order_change::shape::shape_representation;
 use crate::groebner::{groebner_basis, Engine, ReducedBasis};
 use crate::order::MonomialOrder;
 use crate::poly::{Poly, Ring};
 use crate::rng::Rng;
 use crate::univariate::{self, random_element};
 use crate::zerodim::maximal::frobenius_coordinates;
-use crate::zerodim::shape::shape_representation;
 use crate::zerodim::Quotient;
 
 use super::fibres::ParametricBasis;

@@ -120,7 +120,7 @@ impl TransformPrime {
     /// Whether g generates the multiplicative group; p − 1 = odd · 2^32.
     fn is_generator(&self, g: u64, odd: u64) -> bool {
         let mut factors = vec![2];
-        factors.extend(crate::field::extension::prime_divisors(odd));
+        factors.extend(crate::field::primality::prime_divisors(odd));
         factors
             .iter()
             .all(|&r| self.power(g, (self.p - 1) / r) != 1)

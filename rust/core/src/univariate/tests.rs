@@ -6,7 +6,8 @@
 use super::distinct_degree::linear_part;
 use super::*;
 use crate::control::Control;
-use crate::field::{AnyField, Field, PrimeField};
+use crate::field::{Field, PrimeField};
+use crate::field_kind::AnyField;
 use crate::rng::Rng;
 use crate::with_any_field;
 
@@ -471,7 +472,8 @@ fn roots_by_evaluation_agree_with_brute_force() {
 /// p = 1/2: outside 60..140 has probability below 1e-8.
 #[test]
 fn random_draws_cover_fields_beyond_two_to_the_sixty_four() {
-    use crate::field::{BigPrimeField, ExtensionField};
+    use crate::extension::ExtensionField;
+    use crate::field::BigPrimeField;
     let mut rng = Rng::new(12);
     let binary = ExtensionField::with_default_modulus(2, 127).unwrap();
     let p = (num_bigint::BigUint::from(1u32) << 255u32) - 19u32;

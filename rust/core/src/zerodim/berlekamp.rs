@@ -5,8 +5,8 @@
 //! v^q − v = ∏_{s ∈ GF(q)} (v − s), the gcds of a factor with v − s split it. Deterministic: it
 //! tries every s, so it is meant for small q (the primes the rational factorization uses).
 
-use super::linear::kernel;
 use crate::control::Control;
+use crate::echelon::kernel;
 use crate::error::{Error, Result};
 use crate::field::Field;
 use crate::univariate::{degree, divide, gcd, monic, subtract, Modulo, Univariate};

@@ -8,11 +8,11 @@
 //! rank dim R/I − 1. Frobenius is a ring map, so its value on a standard monomial is the product
 //! of the images x_i^q, computed once by repeated squaring in R/I.
 
-use super::linear::rank;
 use super::radical::variable_minimal_polynomials;
 use super::Quotient;
 use crate::control::Control;
 use crate::dimension::krull_dimension;
+use crate::echelon::rank;
 use crate::error::{Error, Result};
 use crate::field::field_order_limbs;
 use crate::field::Field;

@@ -4,8 +4,11 @@
 use super::maximal::{is_maximal, residue_field_degree};
 use super::radical::count_solutions;
 use super::*;
-use crate::field::PrimeField;
+use crate::control::Control;
+use crate::field::{Field, PrimeField};
+use crate::groebner::ReducedBasis;
 use crate::groebner::{groebner_basis, Engine};
+use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::Ring;
@@ -60,7 +63,7 @@ fn multiplication_matrices_obey_stickelberger() {
     let mx = q.multiplication_matrix(&ring.var(0), &c).unwrap();
     let my = q.multiplication_matrix(&ring.var(1), &c).unwrap();
     assert_eq!((trace(&mx), trace(&my)), (3, 5));
-    assert_eq!(linear::rank(&ring.field, mx.clone()), 2);
+    assert_eq!(crate::echelon::rank(&ring.field, mx.clone()), 2);
     // Multiplication matrices of R/I commute.
     let product = |a: &Vec<Vec<u64>>, b: &Vec<Vec<u64>>| -> Vec<Vec<u64>> {
         (0..3)
@@ -272,7 +275,7 @@ fn change_of_order_agrees_with_the_reference_engine() {
     for (vars, gens) in &systems {
         for order in [MonomialOrder::Lex, MonomialOrder::Grlex] {
             for spec in ["GF(32003)", "GF(7)", "GF(4)", "GF(9)", "Q"] {
-                let any = crate::field::AnyField::parse(spec).unwrap();
+                let any = crate::field_kind::AnyField::parse(spec).unwrap();
                 crate::with_any_field!(any, field => {
                     let expected = direct_basis_text(field.clone(), vars, gens, order.clone());
                     let got = changed_basis_text(field, vars, gens, order.clone());

@@ -66,7 +66,7 @@ pub trait Arith<F: Field>: Send + Sync {
 }
 
 /// Rows reduced together in one interleaved accumulator (see `Arith::axpy_lanes`).
-pub const LANES: usize = 8;
+pub use crate::vector_unit::LANES;
 
 /// Checks what the unchecked kernels rely on: increasing columns, the last inside `acc`.
 #[inline]

@@ -4,7 +4,7 @@
 //! fibres where a leading coefficient vanishes are checked to take the fallback.
 
 use super::*;
-use crate::field::AnyField;
+use crate::field_kind::AnyField;
 use crate::parse::parse_poly;
 use crate::points::count_affine_points;
 use crate::points::solve::tests::{brute_force, ring_over, text};

@@ -4,7 +4,7 @@
 //! memory), and planted keys in power-map ciphers of our own.
 
 use super::*;
-use crate::field::AnyField;
+use crate::field_kind::AnyField;
 use crate::parse::parse_poly;
 use crate::points::closed::closed_points;
 use crate::points::count_affine_points;

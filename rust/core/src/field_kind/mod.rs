@@ -6,8 +6,10 @@
 //! [`BigPrimeField`] on 2, 4 or 8 limbs (up to 2^512); p^k with k ≥ 2 → [`TableField`] when
 //! q ≤ 2^16, [`BinaryField`] for GF(2^k) up to k = 64, else [`ExtensionField`]; `Q` → [`RationalField`].
 
-use super::{BigPrimeField, BinaryField, ExtensionField, Field, Modulus, PrimeField, TableField};
+mod kinds;
 use crate::error::{Error, Result};
+use crate::extension::{BinaryField, ExtensionField, Modulus, TableField, MAX_TABLE_ORDER};
+use crate::field::{BigPrimeField, Field, PrimeField};
 use num_bigint::BigUint;
 use num_traits::ToPrimitive;
 
@@ -21,7 +23,7 @@ crate::field_kind_enum! {
 #[macro_export]
 macro_rules! with_any_field {
     ($field:expr, $f:ident => $body:expr) => {{
-        use $crate::field::AnyField as AnyFieldOfKind;
+        use $crate::field_kind::AnyField as AnyFieldOfKind;
         $crate::match_field_kind!(AnyFieldOfKind, $field, $f => $body)
     }};
 }
@@ -87,7 +89,7 @@ pub fn prime_field(p: &BigUint) -> Result<AnyField> {
 
 /// GF(p^k) on `modulus`: tables when q ≤ 2^16, bit-packed for GF(2^k) with k ≤ 64.
 pub fn extension_field(modulus: Modulus) -> Result<AnyField> {
-    if modulus.order() <= BigUint::from(super::extension::MAX_TABLE_ORDER) {
+    if modulus.order() <= BigUint::from(MAX_TABLE_ORDER) {
         Ok(AnyField::Table(TableField::new(modulus)?))
     } else if modulus.characteristic() == 2 && modulus.degree() <= 64 {
         Ok(AnyField::Binary(BinaryField::new(modulus)?))

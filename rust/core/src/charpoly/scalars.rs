@@ -75,7 +75,7 @@ pub fn invert_all<S: Scalars>(s: &S, values: &[S::E]) -> Option<Vec<S::E>> {
 
 /// How many problems the lane operations of [`Scalars`] carry side by side: the lane count of
 /// the F4 kernels, whose vector code the same CPUs run.
-pub use crate::groebner::f4::arith::LANES;
+pub use crate::vector_unit::LANES;
 
 /// The field's own arithmetic: works for every field.
 pub struct Generic<'a, F: Field>(pub &'a F);
@@ -264,7 +264,7 @@ mod tests {
     /// largest prime below 2^32, 4294967291 (a handbook fact: 2^32 - 5 is prime), and of 7.
     #[test]
     fn words_agree_with_the_field() {
-        let mut rng = crate::normalization::changes::Rng::new(11);
+        let mut rng = crate::rng::Rng::new(11);
         for p in [7u64, 4_294_967_291] {
             let field = PrimeField::new(p).unwrap();
             let words = Words::new(&field).unwrap();
@@ -292,7 +292,7 @@ mod tests {
     /// `None` when a value is zero; over GF(4294967291) in words and GF(7) in the field.
     #[test]
     fn batch_inverses_are_inverses() {
-        let mut rng = crate::normalization::changes::Rng::new(5);
+        let mut rng = crate::rng::Rng::new(5);
         for p in [7u64, 4_294_967_291] {
             let field = PrimeField::new(p).unwrap();
             let (words, generic) = (Words::new(&field).unwrap(), Generic(&field));
@@ -313,14 +313,14 @@ mod tests {
     /// GF(4294967291) and GF(7).
     #[test]
     fn lane_sums_agree_with_the_field() {
-        let mut rng = crate::normalization::changes::Rng::new(23);
+        let mut rng = crate::rng::Rng::new(23);
         for p in [7u64, 4_294_967_291] {
             let field = PrimeField::new(p).unwrap();
             let (words, generic) = (Words::new(&field).unwrap(), Generic(&field));
             for length in [0, 1, 5, 3000] {
                 let (mut fast, mut slow) = (words.lanes_zero(), generic.lanes_zero());
                 for step in 0..length {
-                    let draw = |rng: &mut crate::normalization::changes::Rng| -> [u64; LANES] {
+                    let draw = |rng: &mut crate::rng::Rng| -> [u64; LANES] {
                         std::array::from_fn(|_| {
                             if step % 2 == 0 {
                                 p - 1

@@ -6,10 +6,10 @@ use super::characteristic_polynomial;
 use super::hessenberg::hessenberg_charpoly;
 use super::interpolation::interpolate_in;
 use super::krylov::{berlekamp_massey, projection_vector, scalar_charpoly, Columns};
+use crate::charpoly::scalars::{Generic, Scalars, Words};
 use crate::control::Control;
 use crate::field::Field;
 use crate::field::PrimeField;
-use crate::normalization::scalars::{Generic, Scalars, Words};
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
 use crate::poly::{Poly, Ring};
@@ -18,7 +18,7 @@ use crate::poly::{Poly, Ring};
 /// field's arithmetic), Berkowitz forced.
 #[test]
 fn interpolation_agrees_with_berkowitz() {
-    let mut rng = crate::normalization::changes::Rng::new(9);
+    let mut rng = crate::rng::Rng::new(9);
     for (nvars, size) in (1..=3).flat_map(|d| (0..6).map(move |s| (d, s))) {
         let names = ["s", "t", "u"][..nvars]
             .iter()
@@ -58,7 +58,7 @@ fn interpolation_agrees_with_berkowitz() {
 /// below `most` in each variable.
 fn random_polynomial_matrix<F: Field>(
     ring: &Ring<F>,
-    rng: &mut crate::normalization::changes::Rng,
+    rng: &mut crate::rng::Rng,
     size: usize,
     most: u64,
 ) -> Vec<Vec<Poly<F>>> {
@@ -87,7 +87,7 @@ fn random_polynomial_matrix<F: Field>(
 #[test]
 fn interpolation_in_an_extension_agrees_with_berkowitz() {
     fn agree<F: Field>(field: F, seed: u64) {
-        let mut rng = crate::normalization::changes::Rng::new(seed);
+        let mut rng = crate::rng::Rng::new(seed);
         let q = crate::field::field_size(&field).unwrap();
         let mut extended = 0;
         for (nvars, size) in [(1, 3), (1, 6), (2, 4), (2, 6), (3, 3)] {
@@ -118,7 +118,9 @@ fn interpolation_in_an_extension_agrees_with_berkowitz() {
     }
     agree(PrimeField::new(2).unwrap(), 1);
     agree(PrimeField::new(7).unwrap(), 2);
-    let crate::field::AnyField::Table(gf4) = crate::field::AnyField::parse("GF(4)").unwrap() else {
+    let crate::field_kind::AnyField::Table(gf4) =
+        crate::field_kind::AnyField::parse("GF(4)").unwrap()
+    else {
         panic!("GF(4) is a table field")
     };
     agree(gf4, 3);
@@ -150,7 +152,7 @@ fn sequence_agrees_with_hessenberg() {
     let field = PrimeField::new(101).unwrap();
     let generic = Generic(&field);
     let words = Words::new(&field).unwrap();
-    let mut rng = crate::normalization::changes::Rng::new(4);
+    let mut rng = crate::rng::Rng::new(4);
     let mut used = 0;
     for size in 1..9 {
         let u = projection_vector(&generic, &field, size);
@@ -196,12 +198,7 @@ fn berlekamp_massey_on_textbook_sequences() {
     assert_eq!(berlekamp_massey(&words, &[0, 0, 0]), vec![1]);
 }
 
-fn random_matrix(
-    rng: &mut crate::normalization::changes::Rng,
-    size: usize,
-    p: u64,
-    sparse: bool,
-) -> Vec<Vec<u64>> {
+fn random_matrix(rng: &mut crate::rng::Rng, size: usize, p: u64, sparse: bool) -> Vec<Vec<u64>> {
     (0..size)
         .map(|_| {
             (0..size)
@@ -225,7 +222,7 @@ fn words_agree_with_the_field_near_two_to_the_32() {
     let p = 4_294_967_291;
     let field = PrimeField::new(p).unwrap();
     let words = Words::new(&field).unwrap();
-    let mut rng = crate::normalization::changes::Rng::new(17);
+    let mut rng = crate::rng::Rng::new(17);
     for sparse in [false, true] {
         let a = random_matrix(&mut rng, 30, p, sparse);
         let expected = hessenberg_charpoly(&Generic(&field), a.clone());

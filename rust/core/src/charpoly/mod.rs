@@ -15,13 +15,13 @@ mod bounds;
 mod hessenberg;
 mod interpolation;
 mod krylov;
+pub mod scalars;
 #[cfg(test)]
 mod tests;
+pub mod zech;
 
 pub(crate) use krylov::berlekamp_massey;
 
-use super::scalars::{Generic, Words};
-use super::zech::ZechExtension;
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
@@ -29,6 +29,8 @@ use crate::poly::{Poly, Ring};
 use berkowitz::berkowitz;
 use bounds::{interpolation_grid, Grid};
 use interpolation::interpolate_in;
+use scalars::{Generic, Words};
+use zech::ZechExtension;
 
 /// Coefficients [1, c_{r-1}, ..., c_0] of det(x·Id - A) = x^r + c_{r-1} x^{r-1} + ... + c_0,
 /// for an r × r matrix `a` (rows of equal length r) over `ring`.

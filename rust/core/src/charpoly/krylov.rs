@@ -4,14 +4,14 @@
 //! Hessenberg reduction ([`super::hessenberg`]) when the sequence falls short.
 
 use super::hessenberg::hessenberg_charpoly;
-use crate::normalization::scalars::{Scalars, LANES};
+use crate::charpoly::scalars::{Scalars, LANES};
 #[cfg(target_arch = "x86_64")]
 use crate::vector_unit::VectorUnit;
 
 /// A fixed pseudo-random vector of nonzero scalars, the same for every matrix: the projection
 /// of the Krylov sequences. The result never depends on it, only how often the fallback runs.
 pub(super) fn projection_vector<S: Scalars>(s: &S, field: &S::Base, r: usize) -> Vec<S::E> {
-    let mut rng = crate::normalization::changes::Rng::new(PROJECTION_SEED);
+    let mut rng = crate::rng::Rng::new(PROJECTION_SEED);
     (0..r).map(|_| s.import(&rng.nonzero(field))).collect()
 }
 

@@ -6,9 +6,9 @@
 
 use super::bounds::{cycle_bound, Grid};
 use super::krylov::{projection_vector, scalar_charpoly, Columns};
+use crate::charpoly::scalars::{invert_all, Scalars, LANES};
 use crate::control::Control;
 use crate::error::{Error, Result};
-use crate::normalization::scalars::{invert_all, Scalars, LANES};
 use crate::poly::{Poly, Ring};
 use std::collections::HashMap;
 

@@ -19,6 +19,7 @@
 use super::squaring::BinarySquaring;
 use crate::control::Control;
 use crate::error::{Error, Result};
+use crate::field::primality::prime_divisors;
 use crate::field::{Field, PrimeField};
 use crate::univariate::{self, gcd::inverse_mod, Modulo, Univariate};
 
@@ -46,25 +47,6 @@ impl PartialEq for Modulus {
     fn eq(&self, other: &Self) -> bool {
         self.base == other.base && self.coeffs == other.coeffs && self.generator == other.generator
     }
-}
-
-/// Prime divisors of n by trial division (n is a degree or a table size: small).
-pub(crate) fn prime_divisors(mut n: u64) -> Vec<u64> {
-    let mut out = Vec::new();
-    let mut d = 2;
-    while d * d <= n {
-        if n.is_multiple_of(d) {
-            out.push(d);
-            while n.is_multiple_of(d) {
-                n /= d;
-            }
-        }
-        d += 1;
-    }
-    if n > 1 {
-        out.push(n);
-    }
-    out
 }
 
 impl Modulus {

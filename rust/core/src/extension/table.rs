@@ -3,8 +3,9 @@
 //! tables of discrete logarithms to a primitive element (the classical table method; Lidl and
 //! Niederreiter, Finite Fields, 1983, ch. 9), sums are digit-wise (XOR in characteristic 2).
 
-use super::modulus::{prime_divisors, Dense, Modulus};
+use super::modulus::{Dense, Modulus};
 use crate::error::{Error, Result};
+use crate::field::primality::prime_divisors;
 use crate::field::Field;
 
 #[derive(Clone, Debug)]

@@ -13,12 +13,11 @@ mod table;
 
 pub use binary::BinaryField;
 pub(crate) use modulus::check_generator_name;
-pub(crate) use modulus::prime_divisors;
 pub use modulus::{Modulus, DEFAULT_GENERATOR};
 pub use table::{TableField, MAX_TABLE_ORDER};
 
-use super::{Field, PrimeField};
 use crate::error::Result;
+use crate::field::{Field, PrimeField};
 use modulus::format_dense;
 
 #[derive(Clone, Debug)]

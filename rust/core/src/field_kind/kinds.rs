@@ -2,7 +2,7 @@
 //!
 //! The core's [`AnyField`](super::AnyField) and the binding's per-kind enums (rings,
 //! polynomials, projections, curves) and their dispatch are generated from the list in
-//! [`for_each_field_kind!`], so that adding a field kind is: implement [`Field`](super::Field),
+//! [`for_each_field_kind!`], so that adding a field kind is: implement [`Field`](crate::field::Field),
 //! add one line there, and run the field-axiom battery (`field/tests.rs`) on the new type.
 
 /// Calls the macro `$callback` (a name in scope, or `$crate::name`) with the extra arguments
@@ -16,9 +16,9 @@ macro_rules! for_each_field_kind {
             BigPrime2: $crate::field::BigPrimeField<2>,
             BigPrime4: $crate::field::BigPrimeField<4>,
             BigPrime8: $crate::field::BigPrimeField<8>,
-            Table: $crate::field::TableField,
-            Binary: $crate::field::BinaryField,
-            Extension: $crate::field::ExtensionField,
+            Table: $crate::extension::TableField,
+            Binary: $crate::extension::BinaryField,
+            Extension: $crate::extension::ExtensionField,
             Rational: $crate::field::RationalField,
         ] }
     };

@@ -17,13 +17,13 @@
 //! 1 − D/q (Wiedemann 1986); both bounds are weak for small q, where failures are retried and
 //! the caller falls back to a method without randomness.
 
-use super::Quotient;
+use crate::charpoly::berlekamp_massey;
+use crate::charpoly::scalars::Generic;
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::Field;
+use crate::groebner::quotient::Quotient;
 use crate::monomial::Monomial;
-use crate::normalization::charpoly::berlekamp_massey;
-use crate::normalization::scalars::Generic;
 use crate::poly::{Poly, Ring};
 use crate::rng::Rng;
 use crate::univariate::{self, gcd::inverse_mod, random_element, Univariate};

@@ -2,7 +2,7 @@
 //! recurrence on its leading minors (Cohen, *A Course in Computational Algebraic Number
 //! Theory*, 1993, Algorithm 2.2.9): O(r^3) operations for every matrix, cyclic or not.
 
-use crate::normalization::scalars::Scalars;
+use crate::charpoly::scalars::Scalars;
 
 /// det(x·Id - H) of a scalar matrix, coefficients low to high, by reduction to Hessenberg form
 /// and the recurrence on its leading minors (Cohen 1993, Algorithm 2.2.9).

@@ -17,9 +17,10 @@
 use super::scalars::{Scalars, LANES};
 use crate::control::Control;
 use crate::error::Result;
-use crate::field::extension::prime_divisors;
-use crate::field::extension::MAX_TABLE_ORDER;
-use crate::field::{Field, Modulus, PrimeField, TableField};
+use crate::extension::MAX_TABLE_ORDER;
+use crate::extension::{Modulus, TableField};
+use crate::field::primality::prime_divisors;
+use crate::field::{Field, PrimeField};
 use crate::univariate;
 use std::collections::HashMap;
 
@@ -357,8 +358,8 @@ impl<F: Field> Scalars for ZechExtension<F> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::field::AnyField;
-    use crate::normalization::scalars::Generic;
+    use crate::charpoly::scalars::Generic;
+    use crate::field_kind::AnyField;
 
     /// Over GF(7) (in GF(7^2)) and GF(4) (in GF(2^4)): the embedding is a ring homomorphism
     /// (checked on every pair of elements of k against k's own arithmetic), and the arithmetic of

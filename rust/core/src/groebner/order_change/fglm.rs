@@ -9,12 +9,12 @@
 //! For a lex target in shape position the Krylov route of [`super::shape`] (Faugère and Mou
 //! 2011) is tried first: O(D) sparse matrix products and univariate arithmetic.
 
-use super::linear::Echelon;
 use super::shape::shape_lex_basis;
-use super::Quotient;
 use crate::control::Control;
+use crate::echelon::Echelon;
 use crate::error::{Error, Result};
 use crate::field::Field;
+use crate::groebner::quotient::Quotient;
 use crate::groebner::{ReducedBasis, Stats};
 use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
