@@ -18,6 +18,8 @@ use fibrewise_core::systems;
 use fibrewise_core::Control;
 use std::time::Instant;
 
+mod common;
+
 fn system(n: usize, m: usize) -> (BooleanRing, Vec<BoolPoly>) {
     let sys = systems::random_quadratic(n, m, 1);
     let ring = BooleanRing::new(sys.vars.clone(), BoolOrder::Grevlex).expect("ring");
@@ -29,21 +31,9 @@ fn system(n: usize, m: usize) -> (BooleanRing, Vec<BoolPoly>) {
     (ring, gens)
 }
 
-/// CPU seconds this process has used (user + system, all threads; Linux, 0 if unknown): on a
-/// machine shared with other work, rates per CPU-second are the per-core rates.
+/// CPU seconds this process has used (0 if unknown).
 fn cpu_seconds() -> f64 {
-    let stat = std::fs::read_to_string("/proc/self/stat").unwrap_or_default();
-    // Fields after the command name (which ends with ')'): utime and stime are the 12th and
-    // 13th, in clock ticks of 1/100 s.
-    let rest = stat.rsplit_once(')').map_or("", |r| r.1);
-    let fields: Vec<f64> = rest
-        .split_whitespace()
-        .map(|f| f.parse().unwrap_or(0.0))
-        .collect();
-    fields
-        .get(11)
-        .zip(fields.get(12))
-        .map_or(0.0, |(u, s)| (u + s) / 100.0)
+    common::cpu_seconds().unwrap_or(0.0)
 }
 
 /// The one-minute load average (Linux; empty if unknown): how shared the machine was.
@@ -92,13 +82,8 @@ fn engine(n: usize, budget: f64) -> Option<(f64, f64, String)> {
     let seconds = clock.elapsed().as_secs_f64();
     let cpu = cpu_seconds() - cpu_start;
     let s = &b.stats;
-    let largest = s
-        .steps
-        .iter()
-        .max_by_key(|st| st.rows * st.columns)
-        .cloned()
-        .unwrap_or_default();
-    let la: f64 = s.steps.iter().map(|st| st.seconds_linear_algebra).sum();
+    let largest = s.largest_step();
+    let la = s.seconds_linear_algebra();
     let summary = format!(
         "steps {} max_deg {} largest {}x{} lin_alg {:.0}% zero_red {} basis {} solutions {}",
         s.steps.len(),

@@ -24,20 +24,13 @@ use fibrewise_core::univariate::distinct_degree::linear_part_for_order;
 use fibrewise_core::{Control, Error, Poly, Ring};
 use std::time::Instant;
 
+mod common;
+use common::cpu_seconds;
+
 fn main() {
     quartic_over_gf256();
     root_count_against_the_general_split();
     refusal_over_a_61_bit_prime();
-}
-
-/// Seconds of CPU used by this process so far (user + system, all threads), from
-/// /proc/self/stat (Linux; clock ticks of 1/100 s); `None` elsewhere.
-fn cpu_seconds() -> Option<f64> {
-    let stat = std::fs::read_to_string("/proc/self/stat").ok()?;
-    let after_name = &stat[stat.rfind(')')? + 2..];
-    let fields: Vec<&str> = after_name.split_whitespace().collect();
-    let ticks: f64 = fields.get(11)?.parse::<f64>().ok()? + fields.get(12)?.parse::<f64>().ok()?;
-    Some(ticks / 100.0)
 }
 
 fn quartic_over_gf256() {

@@ -232,6 +232,20 @@ impl Control {
         self
     }
 
+    /// Runs `work` in a pool of `limits.threads` threads, so that its parallel loops use that
+    /// many; in the caller's pool when the limit is unset.
+    pub fn on_threads<T: Send>(&self, work: impl FnOnce() -> Result<T> + Send) -> Result<T> {
+        match self.limits.threads {
+            None => work(),
+            Some(0) => Err(Error::invalid("thread count must be at least 1")),
+            Some(n) => rayon::ThreadPoolBuilder::new()
+                .num_threads(n)
+                .build()
+                .map_err(|e| Error::invalid(format!("cannot start {n} worker threads: {e}")))?
+                .install(work),
+        }
+    }
+
     /// Returns `Err(Interrupted)` once the interrupt callback has said stop, and
     /// `Err(ResourceLimit)` once the time limit has run out.
     #[inline]

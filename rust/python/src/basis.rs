@@ -2,9 +2,8 @@
 
 use crate::convert::{limits, with_time_limit};
 use crate::dispatch::{with_ring, Kind};
-use crate::long_run;
+use crate::long_run::Budgeted;
 use crate::space::{NativePoly, NativeSpace};
-use fibrewise_core::control::Limits;
 use fibrewise_core::groebner::{groebner_basis as core_basis, Engine, Stats};
 use fibrewise_core::normalization::division;
 use fibrewise_core::{Poly, Ring};
@@ -73,7 +72,7 @@ fn reduced_basis<'py>(
     let limits = with_time_limit(limits(max_degree, max_matrix, threads)?, max_seconds)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let gb = long_run::run(py, limits, space.memory, |control| core_basis(r, &gens, engine, control))?;
+        let gb = space.run_limited(py, limits, |control| core_basis(r, &gens, engine, control))?;
         let polys = gb.polys.into_iter().map(|p| space.poly(p)).collect();
         Ok((polys, stats_to_py(py, &gb.stats)?))
     })
@@ -92,7 +91,7 @@ fn normal_form(
     with_ring!(&space.ring, r => {
         let basis = polys_in(space, r, &basis)?;
         let f = f.other_in(r, &f)?;
-        let nf = long_run::run(py, Limits::default(), space.memory, |control| division::normal_form(r, &f, &basis, control))?;
+        let nf = space.run(py, |control| division::normal_form(r, &f, &basis, control))?;
         Ok(space.poly(nf))
     })
 }

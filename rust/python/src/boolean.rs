@@ -9,14 +9,14 @@ use crate::basis::stats_to_py;
 use crate::convert::{limits, with_time_limit};
 use crate::dispatch::{same_variables_and_field, AnyPoly, AnyRing};
 use crate::errors::IntoPy;
-use crate::long_run;
+use crate::long_run::Budgeted;
 use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::boolean::{
     self, BoolOrder, BoolPoly, BooleanBasis, BooleanRing, Choice, Method,
 };
-use fibrewise_core::control::Limits;
+use fibrewise_core::control::Control;
 use fibrewise_core::groebner::Stats;
-use fibrewise_core::{MonomialOrder, Poly, PrimeField, Ring};
+use fibrewise_core::{MonomialOrder, Poly, PrimeField, Result, Ring};
 use num_bigint::BigUint;
 use pyo3::exceptions::PyValueError;
 use pyo3::prelude::*;
@@ -46,6 +46,12 @@ fn bool_order(order: &MonomialOrder) -> PyResult<BoolOrder> {
             "a Boolean space has the order lex, grlex or grevlex (block and weight orders are \
              not available on Boolean spaces)",
         )),
+    }
+}
+
+impl Budgeted for NativeBooleanSpace {
+    fn memory_budget(&self) -> Option<u64> {
+        self.memory
     }
 }
 
@@ -80,18 +86,20 @@ impl NativeBooleanSpace {
         fs.iter().map(|f| self.to_boolean(f)).collect()
     }
 
-    /// The arguments of a solving call in core terms: equations, method, thread limit.
-    fn request(
+    /// A solving call: the equations and method read in core terms, then `work` on them as a
+    /// long run on at most `threads` threads.
+    fn run_request<T: Send>(
         &self,
+        py: Python<'_>,
         gens: &[PyRef<'_, NativePoly>],
         method: &str,
         threads: Option<usize>,
-    ) -> PyResult<(Vec<BoolPoly>, Method, Limits)> {
-        Ok((
-            self.to_booleans(gens)?,
-            Method::by_name(method).py_err()?,
-            limits(None, None, threads)?,
-        ))
+        work: impl FnOnce(&[BoolPoly], Method, &Control) -> Result<T> + Send,
+    ) -> PyResult<T> {
+        let gens = self.to_booleans(gens)?;
+        let method = Method::by_name(method).py_err()?;
+        let limits = limits(None, None, threads)?;
+        self.run_limited(py, limits, |control| work(&gens, method, control))
     }
 
     fn basis_of(&self, polys: &[PyRef<'_, NativePoly>]) -> PyResult<BooleanBasis> {
@@ -178,7 +186,7 @@ impl NativeBooleanSpace {
     ) -> PyResult<(Vec<NativePoly>, Bound<'py, PyDict>)> {
         let gens = self.to_booleans(&gens)?;
         let limits = with_time_limit(limits(max_degree, max_matrix, threads)?, max_seconds)?;
-        let b = long_run::run(py, limits, self.memory, |control| {
+        let b = self.run_limited(py, limits, |control| {
             boolean::basis(&self.ring, &gens, control)
         })?;
         let polys = b
@@ -205,9 +213,7 @@ impl NativeBooleanSpace {
     ) -> PyResult<NativePoly> {
         let b = self.basis_of(&basis)?;
         let f = self.to_boolean(&f)?;
-        let nf = long_run::run(py, Limits::default(), self.memory, |control| {
-            b.normal_form(&f, control)
-        })?;
+        let nf = self.run(py, |control| b.normal_form(&f, control))?;
         self.to_general(&nf)
     }
 
@@ -218,9 +224,7 @@ impl NativeBooleanSpace {
         basis: Vec<PyRef<'_, NativePoly>>,
     ) -> PyResult<BigUint> {
         let b = self.basis_of(&basis)?;
-        long_run::run(py, Limits::default(), self.memory, |control| {
-            b.count_solutions(control)
-        })
+        self.run(py, |control| b.count_solutions(control))
     }
 
     /// The method the cost estimate picks for `gens` on `threads` threads (all: None).
@@ -232,9 +236,8 @@ impl NativeBooleanSpace {
         method: &str,
         threads: Option<usize>,
     ) -> PyResult<Bound<'py, PyDict>> {
-        let (gens, method, limits) = self.request(&gens, method, threads)?;
-        let choice = long_run::run(py, limits, self.memory, |control| {
-            Ok(boolean::resolve_method(&self.ring, &gens, method, control))
+        let choice = self.run_request(py, &gens, method, threads, |gens, method, control| {
+            Ok(boolean::resolve_method(&self.ring, gens, method, control))
         })?;
         choice_to_py(py, &choice)
     }
@@ -257,9 +260,8 @@ impl NativeBooleanSpace {
         Bound<'py, PyDict>,
         Option<Bound<'py, PyDict>>,
     )> {
-        let (gens, method, limits) = self.request(&gens, method, threads)?;
-        let found = long_run::run(py, limits, self.memory, |control| {
-            boolean::solve(&self.ring, &gens, method, limit, control)
+        let found = self.run_request(py, &gens, method, threads, |gens, method, control| {
+            boolean::solve(&self.ring, gens, method, limit, control)
         })?;
         let stats = found
             .stats
@@ -283,9 +285,8 @@ impl NativeBooleanSpace {
         method: &str,
         threads: Option<usize>,
     ) -> PyResult<(BigUint, Bound<'py, PyDict>)> {
-        let (gens, method, limits) = self.request(&gens, method, threads)?;
-        let found = long_run::run(py, limits, self.memory, |control| {
-            boolean::count(&self.ring, &gens, method, control)
+        let found = self.run_request(py, &gens, method, threads, |gens, method, control| {
+            boolean::count(&self.ring, gens, method, control)
         })?;
         let count = found
             .count

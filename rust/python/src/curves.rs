@@ -6,10 +6,9 @@
 use crate::basis::polys_in;
 use crate::dispatch::{with_ring, Kind};
 use crate::errors::to_py;
-use crate::long_run;
-use crate::solutions::native_polys;
+use crate::long_run::Budgeted;
+use crate::solutions::closed_points_to_py;
 use crate::space::{NativePoly, NativeSpace};
-use fibrewise_core::control::Limits;
 use fibrewise_core::curves::bounds::BoundCheck;
 use fibrewise_core::curves::embedding::PowerBasis;
 use fibrewise_core::curves::zeta::Zeta;
@@ -64,6 +63,12 @@ pub struct NativeCurve {
     memory: Option<u64>,
 }
 
+impl Budgeted for NativeCurve {
+    fn memory_budget(&self) -> Option<u64> {
+        self.memory
+    }
+}
+
 /// The curve of the equations `gens` in `space`.
 #[pyfunction]
 fn curve_of(
@@ -73,7 +78,7 @@ fn curve_of(
 ) -> PyResult<NativeCurve> {
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let curve = long_run::run(py, Limits::default(), space.memory, |control| Curve::new(r, &gens, control))?;
+        let curve = space.run(py, |control| Curve::new(r, &gens, control))?;
         Ok(NativeCurve {
             curve: CurveKind::wrap(curve),
             memory: space.memory,
@@ -133,13 +138,13 @@ impl NativeCurve {
 
     /// #C(GF(q^r)) on the smooth projective model.
     fn count_points(&self, py: Python<'_>, r: u32) -> PyResult<u128> {
-        with_curve!(&self.curve, c => long_run::run(py, Limits::default(), self.memory, |control| c.count_points(r, control)))
+        with_curve!(&self.curve, c => self.run(py, |control| c.count_points(r, control)))
     }
 
     /// (q, genus, L-polynomial coefficients a_0..a_2g).
     fn zeta(&self, py: Python<'_>) -> PyResult<(u64, usize, Vec<BigInt>)> {
         with_curve!(&self.curve, c => {
-            let zeta = long_run::run(py, Limits::default(), self.memory, |control| c.zeta(control))?;
+            let zeta = self.run(py, |control| c.zeta(control))?;
             Ok((zeta.q, zeta.genus, zeta.l_polynomial))
         })
     }
@@ -147,11 +152,8 @@ impl NativeCurve {
     /// Singular points with coordinates in GF(q), each a list of coefficients.
     fn singular_points(&self, py: Python<'_>) -> PyResult<Vec<Vec<PyObject>>> {
         with_curve!(&self.curve, c => {
-            let points = long_run::run(py, Limits::default(), self.memory, |control| c.singular_points(control))?;
-            points
-                .iter()
-                .map(|p| p.iter().map(|x| c.field.coefficient_to_py(py, x)).collect())
-                .collect()
+            let points = self.run(py, |control| c.singular_points(control))?;
+            c.field.rows_to_py(py, &points)
         })
     }
 
@@ -159,11 +161,8 @@ impl NativeCurve {
     /// by increasing degree, in the coordinates of `coordinate_names` with the lex order.
     fn singular_closed_points(&self, py: Python<'_>) -> PyResult<Vec<(usize, Vec<NativePoly>)>> {
         with_curve!(&self.curve, c => {
-            let points = long_run::run(py, Limits::default(), self.memory, |control| c.singular_closed_points(control))?;
-            Ok(points
-                .into_iter()
-                .map(|p| (p.degree, native_polys(p.equations.ring, p.equations.polys, self.memory)))
-                .collect())
+            let points = self.run(py, |control| c.singular_closed_points(control))?;
+            Ok(closed_points_to_py(points, self.memory))
         })
     }
 

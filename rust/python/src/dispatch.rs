@@ -81,6 +81,12 @@ pub trait Kind: Wrap {
     fn coefficient_to_py(&self, py: Python<'_>, c: &Self::Elem) -> PyResult<PyObject>;
     /// A Python number as a field element.
     fn coefficient_from_py(&self, v: &Bound<'_, PyAny>) -> PyResult<Self::Elem>;
+    /// Rows of coefficients (points, matrix rows) as lists of Python objects.
+    fn rows_to_py(&self, py: Python<'_>, rows: &[Vec<Self::Elem>]) -> PyResult<Vec<Vec<PyObject>>> {
+        rows.iter()
+            .map(|row| row.iter().map(|c| self.coefficient_to_py(py, c)).collect())
+            .collect()
+    }
 }
 
 impl Kind for PrimeField {

@@ -6,10 +6,9 @@
 use crate::basis::{engine_by_name, polys_in};
 use crate::dispatch::{with_ring, Kind};
 use crate::errors::to_py;
-use crate::long_run;
+use crate::long_run::Budgeted;
 use crate::solutions::native_polys;
 use crate::space::{NativePoly, NativeSpace};
-use fibrewise_core::control::Limits;
 use fibrewise_core::points::fibres::{joint_ring, ParametricBasis};
 use fibrewise_core::{MonomialOrder, Poly, Ring};
 use pyo3::exceptions::PyValueError;
@@ -36,7 +35,7 @@ fn parametric_basis(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let (gens, parameters) = (polys_in(space, r, &gens)?, polys_in(space, r, &parameters)?);
-        let parametric = long_run::run(py, Limits::default(), space.memory, |control| {
+        let parametric = space.run(py, |control| {
             ParametricBasis::new(r, &gens, &parameters, engine, control)
         })?;
         Ok(native_polys(parametric.joint, parametric.basis, space.memory))
@@ -63,10 +62,10 @@ fn fibre_points(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let parametric = rebuilt(space, r, &gens, &parameters, &basis)?;
-        let run = long_run::run(py, Limits::default(), space.memory, |control| {
+        let run = space.run(py, |control| {
             parametric.fibres(first, count, limit, engine, control)
         })?;
-        Ok((points_to_py(py, r, &run.points)?, run.next, run.non_generic))
+        Ok((r.field.rows_to_py(py, &run.points)?, run.next, run.non_generic))
     })
 }
 
@@ -89,10 +88,10 @@ fn fibre_at(
             .iter()
             .map(|v| r.field.coefficient_from_py(v))
             .collect::<PyResult<Vec<_>>>()?;
-        let fibre = long_run::run(py, Limits::default(), space.memory, |control| {
+        let fibre = space.run(py, |control| {
             parametric.fibre(&values, engine, control)
         })?;
-        Ok((points_to_py(py, r, &fibre.points)?, fibre.generic))
+        Ok((r.field.rows_to_py(py, &fibre.points)?, fibre.generic))
     })
 }
 
@@ -123,15 +122,4 @@ fn rebuilt<F: Kind>(
         })
         .collect::<PyResult<Vec<Poly<F>>>>()?;
     ParametricBasis::from_basis(r, basis, &gens, &parameters).map_err(to_py)
-}
-
-fn points_to_py<F: Kind>(
-    py: Python<'_>,
-    r: &Ring<F>,
-    points: &[Vec<F::Elem>],
-) -> PyResult<Vec<Vec<PyObject>>> {
-    points
-        .iter()
-        .map(|p| p.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
-        .collect()
 }

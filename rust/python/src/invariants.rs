@@ -7,9 +7,8 @@
 use crate::basis::{engine_by_name, polys_in};
 use crate::dispatch::{with_ring, Kind};
 use crate::errors::IntoPy;
-use crate::long_run;
+use crate::long_run::Budgeted;
 use crate::space::{NativePoly, NativeSpace};
-use fibrewise_core::control::Limits;
 use fibrewise_core::groebner::{ReducedBasis, Stats};
 use fibrewise_core::hilbert::{series_of_basis, HilbertSeries};
 use fibrewise_core::zerodim::{
@@ -53,7 +52,7 @@ macro_rules! on_basis {
     ($py:expr, $space:expr, $basis:expr, |$gb:ident, $control:ident| $call:expr) => {
         with_ring!(&$space.ring, r => {
             let $gb = basis_of($space, r, &$basis)?;
-            long_run::run($py, Limits::default(), $space.memory, |$control| $call)
+            $space.run($py, |$control| $call)
         })
     };
 }
@@ -167,13 +166,10 @@ fn multiplication_matrix(
     with_ring!(&space.ring, r => {
         let gb = basis_of(space, r, &basis)?;
         let f = f.other_in(r, &f)?;
-        let matrix = long_run::run(py, Limits::default(), space.memory, |control| {
+        let matrix = space.run(py, |control| {
             Quotient::new(gb, control)?.multiplication_matrix(&f, control)
         })?;
-        matrix
-            .iter()
-            .map(|row| row.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
-            .collect()
+        r.field.rows_to_py(py, &matrix)
     })
 }
 
@@ -227,7 +223,7 @@ fn count_points(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        long_run::run(py, Limits::default(), space.memory, |control| {
+        space.run(py, |control| {
             if projective {
                 points::count_projective_points(r, &gens, engine, control)
             } else {

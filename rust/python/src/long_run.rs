@@ -41,6 +41,32 @@ fn control_for(limits: Limits, memory: Option<u64>) -> Control {
     }
 }
 
+/// A handle whose computations run within one memory budget: a space, and what is made from
+/// it (curves, projections, Boolean spaces).
+pub trait Budgeted {
+    /// The memory budget in bytes (None: the core's default).
+    fn memory_budget(&self) -> Option<u64>;
+
+    /// `work` as a long run ([`run`]) with the default limits, within the handle's budget.
+    fn run<T: Send>(
+        &self,
+        py: Python<'_>,
+        work: impl FnOnce(&Control) -> Result<T> + Send,
+    ) -> PyResult<T> {
+        self.run_limited(py, Limits::default(), work)
+    }
+
+    /// `work` as a long run ([`run`]) with the caller's `limits`, within the handle's budget.
+    fn run_limited<T: Send>(
+        &self,
+        py: Python<'_>,
+        limits: Limits,
+        work: impl FnOnce(&Control) -> Result<T> + Send,
+    ) -> PyResult<T> {
+        run(py, limits, self.memory_budget(), work)
+    }
+}
+
 /// [`run`], or the work at once on the calling thread when `cost` (an estimate of its term
 /// operations) says it is small.
 pub fn run_sized<T: Send>(

@@ -2,9 +2,8 @@
 //! `fibrewise_core::normalization` and `fibrewise_core::integrality`.
 
 use crate::basis::polys_in;
-use crate::convert::limits;
 use crate::dispatch::with_ring;
-use crate::long_run;
+use crate::long_run::Budgeted;
 use crate::space::{NativePoly, NativeSpace};
 use fibrewise_core::integrality;
 use fibrewise_core::normalization::{self, CertificateText};
@@ -80,7 +79,7 @@ fn check_certificate<'py>(
     let text = text_from_py(certificate)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        long_run::run(py, limits(None, None, None)?, space.memory, |control| normalization::check_certificate(r, &gens, &text, control))
+        space.run(py, |control| normalization::check_certificate(r, &gens, &text, control))
     })
 }
 
@@ -98,7 +97,7 @@ fn integral_equation<'py>(
         let gens = polys_in(space, r, &gens)?;
         let over = polys_in(space, r, &over)?;
         let f = f.other_in(r, &f)?;
-        let eq = long_run::run(py, limits(None, None, None)?, space.memory, |control| {
+        let eq = space.run(py, |control| {
             integrality::integral_equation(r, &gens, &f, &over, control)
         })?;
         Ok(eq.map(|e| {
@@ -119,6 +118,6 @@ fn is_finite_over<'py>(
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
         let over = polys_in(space, r, &over)?;
-        long_run::run(py, limits(None, None, None)?, space.memory, |control| integrality::is_finite_over(r, &gens, &over, control))
+        space.run(py, |control| integrality::is_finite_over(r, &gens, &over, control))
     })
 }

@@ -5,10 +5,9 @@
 
 use crate::basis::polys_in;
 use crate::dispatch::{with_ring, Kind};
-use crate::long_run;
+use crate::long_run::Budgeted;
 use crate::normalization::text_to_py;
 use crate::space::{NativePoly, NativeSpace};
-use fibrewise_core::control::Limits;
 use fibrewise_core::normalization::{self, Options, Projection, Request};
 use pyo3::prelude::*;
 use pyo3::types::PyDict;
@@ -68,21 +67,16 @@ impl NativeProjection {
     /// For every variable, the coefficient texts [1, c_{m-1}, ..., c_0] of its monic equation;
     /// without the GIL, interruptible.
     fn equations(&self, py: Python<'_>) -> PyResult<Vec<Vec<String>>> {
-        let memory = self.memory;
         fibrewise_core::match_field_kind!(AnyProjection, &self.projection, p => {
-            equations_of(py, p, memory)
+            self.run(py, |control| equation_texts(p, control))
         })
     }
 }
 
-fn equations_of<F: Kind>(
-    py: Python<'_>,
-    projection: &Projection<F>,
-    memory: Option<u64>,
-) -> PyResult<Vec<Vec<String>>> {
-    long_run::run(py, Limits::default(), memory, |control| {
-        equation_texts(projection, control)
-    })
+impl Budgeted for NativeProjection {
+    fn memory_budget(&self) -> Option<u64> {
+        self.memory
+    }
 }
 
 /// The summary of a finite projection of the ideal of `gens` (the keys of
@@ -103,7 +97,7 @@ fn finite_projection_lazy<'py>(
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
         let basis = grevlex_basis.map(|b| polys_in(space, r, &b)).transpose()?;
-        let projection = long_run::run(py, Limits::default(), space.memory, |control| {
+        let projection = space.run(py, |control| {
             normalization::project(r, &gens, basis, &options, control)
         })?;
         let summary = text_to_py(py, &projection.summary().to_text())?;

@@ -9,14 +9,15 @@
 
 use crate::basis::{engine_by_name, polys_in};
 use crate::dispatch::{with_ring, AnyRing, Kind};
-use crate::long_run;
+use crate::long_run::Budgeted;
 use crate::space::{NativePoly, NativeSpace};
-use fibrewise_core::control::{Control, Limits};
+use fibrewise_core::control::Control;
 use fibrewise_core::extension::{BinaryField, ExtensionField, TableField};
 use fibrewise_core::field::{BigPrimeField, RationalField};
 use fibrewise_core::groebner::{Engine, ReducedBasis};
+use fibrewise_core::points::closed::{self, ClosedPoint};
 use fibrewise_core::points::extension::{embed_coefficients, generator_image, map_poly};
-use fibrewise_core::points::{closed, rational, solve};
+use fibrewise_core::points::{rational, solve};
 use fibrewise_core::{Error, Field, Poly, PrimeField, Result, Ring};
 use num_rational::BigRational;
 use pyo3::exceptions::PyValueError;
@@ -50,13 +51,10 @@ fn rational_points(
     }
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let points = long_run::run(py, Limits::default(), space.memory, |control| {
+        let points = space.run(py, |control| {
             solve::rational_points(r, &gens, limit, engine, control)
         })?;
-        points
-            .iter()
-            .map(|p| p.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
-            .collect()
+        r.field.rows_to_py(py, &points)
     })
 }
 
@@ -78,16 +76,13 @@ fn rational_points_of_basis(
         let polys = polys_in(space, r, &basis)?;
         let equations = polys_in(space, r, &equations)?;
         let gb = ReducedBasis { ring: (**r).clone(), polys, stats: Default::default() };
-        let mut points = long_run::run(py, Limits::default(), space.memory, |control| {
+        let mut points = space.run(py, |control| {
             let points = solve::zero_dimensional_points(&gb, engine, control)?;
             points.iter().try_for_each(|p| solve::check_point(r, &equations, p))?;
             Ok(points)
         })?;
         points.truncate(limit.unwrap_or(usize::MAX));
-        points
-            .iter()
-            .map(|p| p.iter().map(|c| r.field.coefficient_to_py(py, c)).collect())
-            .collect()
+        r.field.rows_to_py(py, &points)
     })
 }
 
@@ -102,18 +97,11 @@ fn rational_points_over_q(
     engine: Engine,
 ) -> PyResult<Vec<Vec<PyObject>>> {
     let gens = polys_in(space, r, gens)?;
-    let mut points = long_run::run(py, Limits::default(), space.memory, |control| {
+    let mut points = space.run(py, |control| {
         rational::rational_points_over_q(r, &gens, engine, control)
     })?;
     points.truncate(limit.unwrap_or(usize::MAX));
-    points
-        .iter()
-        .map(|p| {
-            p.iter()
-                .map(|c| RationalField.coefficient_to_py(py, c))
-                .collect()
-        })
-        .collect()
+    RationalField.rows_to_py(py, &points)
 }
 
 /// A closed point over Q as plain lists of Fractions: (degree, separating linear form as
@@ -144,7 +132,7 @@ fn closed_points_over_q(
         ));
     };
     let gens = polys_in(space, r, &gens)?;
-    let found = long_run::run(py, Limits::default(), space.memory, |control| {
+    let found = space.run(py, |control| {
         rational::closed_points_over_q(r, &gens, engine, control)
     })?;
     let q = |c: &BigRational| RationalField.coefficient_to_py(py, c);
@@ -186,14 +174,25 @@ fn closed_points(
     let engine = engine_by_name(engine)?;
     with_ring!(&space.ring, r => {
         let gens = polys_in(space, r, &gens)?;
-        let found = long_run::run(py, Limits::default(), space.memory, |control| {
+        let found = space.run(py, |control| {
             closed::closed_points(r, &gens, engine, control)
         })?;
-        Ok(found
-            .into_iter()
-            .map(|point| (point.degree, native_polys(point.equations.ring, point.equations.polys, space.memory)))
-            .collect())
+        Ok(closed_points_to_py(found, space.memory))
     })
+}
+
+/// Closed points as (degree, native polynomials of the reduced lex basis of the maximal ideal).
+pub(crate) fn closed_points_to_py<F: Kind>(
+    points: Vec<ClosedPoint<F>>,
+    memory: Option<u64>,
+) -> Vec<(usize, Vec<NativePoly>)> {
+    points
+        .into_iter()
+        .map(|p| {
+            let basis = p.equations;
+            (p.degree, native_polys(basis.ring, basis.polys, memory))
+        })
+        .collect()
 }
 
 /// Polynomials of a ring the core made (the lex ring of a closed point) as native handles.
@@ -234,7 +233,7 @@ fn embed(
                     t.names().join(", ")
                 )));
             }
-            let (mapped, generator) = long_run::run(py, Limits::default(), space.memory, |control| {
+            let (mapped, generator) = space.run(py, |control| {
                 let embedding = Embedding::new(&r.field, &t.field, control)?;
                 let mapped: Vec<_> = gens
                     .iter()

@@ -7,7 +7,7 @@ use crate::dispatch::{
     same_variables_and_field, with_field, with_ring, AnyField, AnyPoly, AnyRing, Kind, Wrap,
 };
 use crate::errors::{internal, IntoPy};
-use crate::long_run;
+use crate::long_run::{self, Budgeted};
 use fibrewise_core::control::Limits;
 use fibrewise_core::parse::parse_poly_within;
 use fibrewise_core::poly::{power_size, substitution_size};
@@ -73,6 +73,12 @@ fn new_ring<F: Kind>(field: &F, names: Vec<String>, order: &Bound<'_, PyAny>) ->
     Ok(F::wrap_ring(Arc::new(
         Ring::new(field.clone(), names, order).py_err()?,
     )))
+}
+
+impl Budgeted for NativeSpace {
+    fn memory_budget(&self) -> Option<u64> {
+        self.memory
+    }
 }
 
 impl NativeSpace {

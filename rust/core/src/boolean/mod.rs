@@ -55,19 +55,6 @@ macro_rules! by_width {
     };
 }
 
-/// Runs `work` on `control.limits.threads` threads (all cores when unset).
-fn on_threads<T: Send>(control: &Control, work: impl FnOnce() -> Result<T> + Send) -> Result<T> {
-    match control.limits.threads {
-        None => work(),
-        Some(0) => Err(Error::invalid("thread count must be at least 1")),
-        Some(n) => rayon::ThreadPoolBuilder::new()
-            .num_threads(n)
-            .build()
-            .map_err(|e| Error::invalid(format!("cannot start {n} worker threads: {e}")))?
-            .install(work),
-    }
-}
-
 fn threads(control: &Control) -> usize {
     control
         .limits
@@ -118,9 +105,8 @@ pub fn basis(ring: &BooleanRing, gens: &[BoolPoly], control: &Control) -> Result
         control: &Control,
     ) -> Result<BooleanBasis> {
         let gens = to_bits::<W>(ring, gens)?;
-        let (polys, stats) = on_threads(control, || {
-            f4::compute(ring.order, ring.nvars(), &gens, control)
-        })?;
+        let (polys, stats) =
+            control.on_threads(|| f4::compute(ring.order, ring.nvars(), &gens, control))?;
         Ok(BooleanBasis {
             ring: ring.clone(),
             polys: from_bits(ring, &polys),
@@ -312,7 +298,7 @@ fn run_limited(
     control: &Control,
 ) -> Result<Solutions> {
     let choice = resolve_method(ring, gens, method, control);
-    on_threads(control, || match choice.method {
+    control.on_threads(|| match choice.method {
         Method::Exhaustive => {
             let found = exhaustive::search(ring, gens, limit, count_only, control)?;
             let points = found

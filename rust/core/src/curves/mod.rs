@@ -242,6 +242,15 @@ impl<F: PowerBasis> Curve<F> {
         }
     }
 
+    /// The equations of the model in [`Curve::ring`]: the projective equations, or the one
+    /// hyperelliptic equation.
+    fn equations(&self) -> &[Poly<F>] {
+        match &self.model {
+            Model::Projective { gens, .. } => gens,
+            Model::Hyperelliptic { equation, .. } => std::slice::from_ref(equation),
+        }
+    }
+
     /// Whether the model's points are projective (else affine points of the plane).
     pub fn is_projective(&self) -> bool {
         matches!(self.model, Model::Projective { .. })
@@ -251,17 +260,8 @@ impl<F: PowerBasis> Curve<F> {
     /// coordinate 1) of a projective model, affine points of a hyperelliptic equation (whose
     /// smooth model may also be singular at infinity: see [`Curve::is_smooth`]).
     pub fn singular_points(&self, control: &Control) -> Result<Vec<Vec<F::Elem>>> {
-        match &self.model {
-            Model::Projective { ring, gens, .. } => {
-                jacobian::rational_singular_points(ring, gens, true, control)
-            }
-            Model::Hyperelliptic { ring, equation, .. } => jacobian::rational_singular_points(
-                ring,
-                std::slice::from_ref(equation),
-                false,
-                control,
-            ),
-        }
+        let projective = self.is_projective();
+        jacobian::rational_singular_points(self.ring(), self.equations(), projective, control)
     }
 
     /// The singular closed points: each Galois orbit of singular points over the algebraic
@@ -270,17 +270,8 @@ impl<F: PowerBasis> Curve<F> {
     /// first nonzero coordinate (set to 1), affine points for a hyperelliptic equation (as in
     /// [`Curve::singular_points`]).
     pub fn singular_closed_points(&self, control: &Control) -> Result<Vec<ClosedPoint<F>>> {
-        match &self.model {
-            Model::Projective { ring, gens, .. } => {
-                jacobian::singular_closed_points(ring, gens, true, control)
-            }
-            Model::Hyperelliptic { ring, equation, .. } => jacobian::singular_closed_points(
-                ring,
-                std::slice::from_ref(equation),
-                false,
-                control,
-            ),
-        }
+        let projective = self.is_projective();
+        jacobian::singular_closed_points(self.ring(), self.equations(), projective, control)
     }
 
     /// #C(GF(q^r)) on the smooth projective model, r ≥ 1.

@@ -60,6 +60,21 @@ impl Stats {
         self.highest_degree
     }
 
+    /// The step with the largest matrix (rows × columns); a default step for a run without
+    /// steps.
+    pub fn largest_step(&self) -> StepStats {
+        self.steps
+            .iter()
+            .max_by_key(|st| st.rows * st.columns)
+            .cloned()
+            .unwrap_or_default()
+    }
+
+    /// Seconds spent in linear algebra, over all steps.
+    pub fn seconds_linear_algebra(&self) -> f64 {
+        self.steps.iter().map(|st| st.seconds_linear_algebra).sum()
+    }
+
     /// Counts polynomials of degree `degree` as built by the run.
     pub fn reached(&mut self, degree: u32) {
         self.highest_degree = self.highest_degree.max(degree);

@@ -384,11 +384,7 @@ impl<F: Field> Arith<F> for LargePrime {
     }
     #[inline]
     fn neg(&self, a: &u64) -> u64 {
-        if *a == 0 {
-            0
-        } else {
-            self.p - a
-        }
+        self.word.neg(a)
     }
     #[inline]
     fn axpy(&self, acc: &mut [u128], cols: &[u32], coeffs: &[u64], m: &u64) {

@@ -98,13 +98,8 @@ pub fn compute_with<F: Field>(
     let run = || dispatch(ring, gens, control, options);
     match control.limits.threads {
         // One thread: no pool at all (the linear algebra then stays on this thread).
-        None | Some(1) => run(),
-        Some(0) => Err(Error::invalid("thread count must be at least 1")),
-        Some(n) => rayon::ThreadPoolBuilder::new()
-            .num_threads(n)
-            .build()
-            .map_err(|e| Error::invalid(format!("cannot start {n} worker threads: {e}")))?
-            .install(run),
+        Some(1) => run(),
+        _ => control.on_threads(run),
     }
 }
 
