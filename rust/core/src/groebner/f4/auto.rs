@@ -36,9 +36,13 @@ use crate::poly::Poly;
 use std::cell::Cell;
 
 /// The degree up to which a fall counts as one at the start: one above the highest degree of
-/// the generators.
+/// the generators (saturating: degrees near 2^32 are legal input).
 fn start_degree<F: Field>(gens: &[Poly<F>]) -> u32 {
-    gens.iter().filter_map(Poly::degree).max().unwrap_or(0) + 1
+    gens.iter()
+        .filter_map(Poly::degree)
+        .max()
+        .unwrap_or(0)
+        .saturating_add(1)
 }
 
 /// Whether a fall comes late: its step has fewer than half the J-pairs of the largest step so
