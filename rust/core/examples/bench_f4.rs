@@ -267,9 +267,12 @@ fn lex_suite() -> Result<(), String> {
     Ok(())
 }
 
+/// Wall seconds of a finished run and, on one thread, its CPU seconds.
+type Measured = (f64, Option<f64>);
+
 /// Runs `label` in a child process; its wall and CPU seconds (the latter on one thread only),
 /// or `None` when it failed or ran out of time.
-fn run_child(label: &str, threads: usize, timeout: f64) -> Option<(f64, Option<f64>)> {
+fn run_child(label: &str, threads: usize, timeout: f64) -> Option<Measured> {
     let exe = std::env::current_exe().expect("own path");
     let mut child = Command::new(&exe)
         .args(["--one", label, &threads.to_string()])
@@ -337,7 +340,7 @@ fn main() {
         peak_rate()
     );
     println!("system\tthreads\tseconds\tpeak_MB\tsteps\tmax_deg\tlargest_matrix\tnonzeros\tlin_alg\tmadds/s\tbasis\tcpu");
-    let mut seconds: Vec<(String, Option<(f64, Option<f64>)>)> = Vec::new();
+    let mut seconds: Vec<(String, Option<Measured>)> = Vec::new();
     for name in names {
         // `name@k` runs with k threads.
         let (label, t) = match name.split_once('@') {
@@ -354,7 +357,7 @@ fn main() {
 
 /// One line per system: the seconds of each engine on one thread, and auto's time over the
 /// fastest engine's (target: at most 1.2), in wall seconds and in CPU seconds.
-fn print_engine_table(seconds: &[(String, Option<(f64, Option<f64>)>)], timeout: f64) {
+fn print_engine_table(seconds: &[(String, Option<Measured>)], timeout: f64) {
     let systems: Vec<&str> = SYSTEMS
         .iter()
         .copied()
@@ -377,7 +380,7 @@ fn print_engine_table(seconds: &[(String, Option<(f64, Option<f64>)>)], timeout:
                 None => "-".into(),
             })
             .collect();
-        let ratio = |measure: &dyn Fn((f64, Option<f64>)) -> Option<f64>| {
+        let ratio = |measure: &dyn Fn(Measured) -> Option<f64>| {
             let fastest = ENGINES
                 .iter()
                 .filter_map(|e| time(e).flatten().and_then(measure))
