@@ -8,8 +8,10 @@
 //! engine, `@k` on k threads, `/p255` over GF(2^255 - 19) and `/q` over the rationals instead
 //! of GF(65521); `lex-suite` times the 200 small lex and elimination systems.
 //! Each system runs in a fresh child process so that its peak memory is its own; a run over
-//! the timeout (default 120 s) is stopped. The full run ends with a table of every engine's
-//! seconds per system and auto's ratio to the fastest.
+//! the timeout (default 120 s) is stopped. One-thread runs also report the CPU seconds of the
+//! computing thread (`cpu`), which other processes on a shared machine disturb far less than
+//! the wall clock. The full run ends with a table of every engine's seconds per system and
+//! auto's ratio to the fastest, in wall and in CPU seconds.
 
 use fibrewise_core::field::{BigPrimeField, RationalField};
 use fibrewise_core::groebner::{groebner_basis, Engine, Stats};
@@ -121,7 +123,7 @@ fn run_one(label: &str, threads: usize) -> Result<(), String> {
     let (label_engine, field) = label.split_once('/').unwrap_or((label, ""));
     let (name, engine) = engine_of(label_engine);
     let sys = system(name).ok_or_else(|| format!("unknown system {name}"))?;
-    let (seconds, s, basis) = match field {
+    let (timing, s, basis) = match field {
         "" => solve(
             PrimeField::new(PRIME).map_err(|e| e.to_string())?,
             &sys,
@@ -154,8 +156,13 @@ fn run_one(label: &str, threads: usize) -> Result<(), String> {
         .unwrap_or_default();
     let la: f64 = s.steps.iter().map(|st| st.seconds_linear_algebra).sum();
     let madds: u64 = s.steps.iter().map(|st| st.multiply_adds).sum();
+    let seconds = timing.seconds;
+    let cpu = match threads {
+        1 => format!("{:.3}", timing.cpu),
+        _ => "-".into(),
+    };
     println!(
-        "{label}\t{threads}\t{seconds:.3}\t{:.0}\t{}\t{}\t{}x{}\t{}\t{:.0}%\t{:.2e}\t{}",
+        "{label}\t{threads}\t{seconds:.3}\t{:.0}\t{}\t{}\t{}x{}\t{}\t{:.0}%\t{:.2e}\t{}\t{cpu}",
         peak_memory_mb(),
         s.steps.len(),
         s.max_degree(),
@@ -175,15 +182,35 @@ fn solve<F: Field>(
     sys: &System,
     engine: Engine,
     threads: usize,
-) -> Result<(f64, Stats, usize), String> {
+) -> Result<(Timing, Stats, usize), String> {
     let ring =
         Ring::new(field, sys.vars.clone(), MonomialOrder::Grevlex).map_err(|e| e.to_string())?;
     let gens = sys.polys(&ring).map_err(|e| e.to_string())?;
     let mut control = Control::new();
     control.limits.threads = Some(threads);
-    let clock = Instant::now();
+    let (clock, cpu) = (Instant::now(), thread_cpu_seconds());
     let gb = groebner_basis(&ring, &gens, engine, &control).map_err(|e| e.to_string())?;
-    Ok((clock.elapsed().as_secs_f64(), gb.stats, gb.polys.len()))
+    let (seconds, cpu) = (clock.elapsed().as_secs_f64(), thread_cpu_seconds() - cpu);
+    Ok((Timing { seconds, cpu }, gb.stats, gb.polys.len()))
+}
+
+/// Wall seconds of a run, and CPU seconds of the calling thread (all of the work on one
+/// thread: no pool is started then).
+struct Timing {
+    seconds: f64,
+    cpu: f64,
+}
+
+/// CPU seconds this thread has run so far (Linux; 0 if unknown): the first field of
+/// `/proc/thread-self/schedstat`, in nanoseconds.
+fn thread_cpu_seconds() -> f64 {
+    let stat = std::fs::read_to_string("/proc/thread-self/schedstat").unwrap_or_default();
+    let nanos: f64 = stat
+        .split_whitespace()
+        .next()
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(0.0);
+    nanos / 1e9
 }
 
 /// Multiply-adds per second of the plain loop `acc[i] += m · x[i]` on u64 accumulators with
@@ -240,8 +267,12 @@ fn lex_suite() -> Result<(), String> {
     Ok(())
 }
 
-/// Runs `label` in a child process; its seconds, or `None` when it failed or ran out of time.
-fn run_child(label: &str, threads: usize, timeout: f64) -> Option<f64> {
+/// Wall seconds of a finished run and, on one thread, its CPU seconds.
+type Measured = (f64, Option<f64>);
+
+/// Runs `label` in a child process; its wall and CPU seconds (the latter on one thread only),
+/// or `None` when it failed or ran out of time.
+fn run_child(label: &str, threads: usize, timeout: f64) -> Option<Measured> {
     let exe = std::env::current_exe().expect("own path");
     let mut child = Command::new(&exe)
         .args(["--one", label, &threads.to_string()])
@@ -269,7 +300,9 @@ fn run_child(label: &str, threads: usize, timeout: f64) -> Option<f64> {
         return None;
     }
     println!("{line}");
-    line.split('\t').nth(2)?.parse().ok()
+    let fields: Vec<&str> = line.split('\t').collect();
+    let seconds = fields.get(2)?.parse().ok()?;
+    Some((seconds, fields.get(11).and_then(|c| c.parse().ok())))
 }
 
 fn main() {
@@ -306,8 +339,8 @@ fn main() {
         "F4 over GF({PRIME}), grevlex; peak multiply-add rate of this machine: {:.2e}/s",
         peak_rate()
     );
-    println!("system\tthreads\tseconds\tpeak_MB\tsteps\tmax_deg\tlargest_matrix\tnonzeros\tlin_alg\tmadds/s\tbasis");
-    let mut seconds: Vec<(String, Option<f64>)> = Vec::new();
+    println!("system\tthreads\tseconds\tpeak_MB\tsteps\tmax_deg\tlargest_matrix\tnonzeros\tlin_alg\tmadds/s\tbasis\tcpu");
+    let mut seconds: Vec<(String, Option<Measured>)> = Vec::new();
     for name in names {
         // `name@k` runs with k threads.
         let (label, t) = match name.split_once('@') {
@@ -323,8 +356,8 @@ fn main() {
 }
 
 /// One line per system: the seconds of each engine on one thread, and auto's time over the
-/// fastest engine's (target: at most 1.2).
-fn print_engine_table(seconds: &[(String, Option<f64>)], timeout: f64) {
+/// fastest engine's (target: at most 1.2), in wall seconds and in CPU seconds.
+fn print_engine_table(seconds: &[(String, Option<Measured>)], timeout: f64) {
     let systems: Vec<&str> = SYSTEMS
         .iter()
         .copied()
@@ -333,7 +366,7 @@ fn print_engine_table(seconds: &[(String, Option<f64>)], timeout: f64) {
     if systems.is_empty() {
         return;
     }
-    println!("\nsystem\tf4\tf4-sampled\tf4-signature\tauto\tauto/fastest");
+    println!("\nsystem\tf4\tf4-sampled\tf4-signature\tauto\tauto/fastest\tin cpu");
     for sys in systems {
         let time = |suffix: &str| {
             let label = format!("{sys}{suffix}");
@@ -342,19 +375,22 @@ fn print_engine_table(seconds: &[(String, Option<f64>)], timeout: f64) {
         let cells: Vec<String> = ENGINES
             .iter()
             .map(|e| match time(e) {
-                Some(Some(s)) => format!("{s:.3}"),
+                Some(Some((s, _))) => format!("{s:.3}"),
                 Some(None) => format!("> {timeout:.0}"),
                 None => "-".into(),
             })
             .collect();
-        let fastest = ENGINES
-            .iter()
-            .filter_map(|e| time(e).flatten())
-            .fold(f64::INFINITY, f64::min);
-        let ratio = match time("~a").flatten() {
-            Some(auto) if fastest.is_finite() => format!("{:.2}", auto / fastest),
-            _ => "-".into(),
+        let ratio = |measure: &dyn Fn(Measured) -> Option<f64>| {
+            let fastest = ENGINES
+                .iter()
+                .filter_map(|e| time(e).flatten().and_then(measure))
+                .fold(f64::INFINITY, f64::min);
+            match time("~a").flatten().and_then(measure) {
+                Some(auto) if fastest.is_finite() => format!("{:.2}", auto / fastest),
+                _ => "-".into(),
+            }
         };
-        println!("{sys}\t{}\t{ratio}", cells.join("\t"));
+        let (wall, cpu) = (ratio(&|(s, _)| Some(s)), ratio(&|(_, c)| c));
+        println!("{sys}\t{}\t{wall}\t{cpu}", cells.join("\t"));
     }
 }

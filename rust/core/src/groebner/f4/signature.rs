@@ -102,7 +102,7 @@ pub(super) fn compute<F: Field, A: Arith<F>>(
     gens: &[Poly<F>],
     control: &Control,
 ) -> Result<(Vec<Poly<F>>, Stats)> {
-    match run(ring, arith, gens, control, false)? {
+    match run(ring, arith, gens, control, None)? {
         SignatureEnd::Finished(polys, stats) => Ok((polys, stats)),
         SignatureEnd::Fell(..) => unreachable!("the run goes on after a degree fall"),
     }
@@ -112,13 +112,14 @@ pub(super) fn compute<F: Field, A: Arith<F>>(
 pub(super) enum SignatureEnd<F: Field, A: Arith<F>> {
     /// The reduced basis.
     Finished(Vec<Poly<F>>, Stats),
-    /// Stopped after the first step that found an element whose leading monomial has a lower
-    /// degree than the element (a degree fall), with the arithmetic and what was found.
+    /// Stopped after a step that found an element whose leading monomial has a lower degree
+    /// than the element (a degree fall), as the caller's rule said, with the arithmetic and
+    /// what was found.
     Fell(A, Box<Fall<A::C>>),
 }
 
-/// The state of the signature engine at its first degree fall: a Gröbner basis of the
-/// homogenized ideal up to the degree of that step, dehomogenized.
+/// The state of the signature engine at the degree fall where it stopped: a Gröbner basis of
+/// the homogenized ideal up to the degree of that step, dehomogenized.
 pub(super) struct Fall<C> {
     pub table: MonomialTable,
     /// The elements with their homogeneous degrees (their sugar): the active elements, and the
@@ -133,14 +134,27 @@ pub(super) struct Fall<C> {
     pub stats: Stats,
 }
 
-/// Runs the signature engine; with `stop_at_fall`, stops after the first step with a degree
-/// fall and hands over its state.
+/// What a step with a degree fall found, for the caller's rule on stopping there.
+#[derive(Clone, Copy, Debug)]
+pub(super) struct FallStep {
+    /// The step's degree.
+    pub degree: u32,
+    /// Its J-pairs (after the criteria), and the most of any step so far, this one included.
+    pub pairs: usize,
+    pub peak_pairs: usize,
+    /// Elements of lower degree than their homogeneous degree, and all elements, it found.
+    pub fallen: usize,
+    pub found: usize,
+}
+
+/// Runs the signature engine; with a rule `stop_at`, stops after the first step with a degree
+/// fall for which the rule says so, and hands over its state.
 pub(super) fn run<F: Field, A: Arith<F>>(
     ring: &Ring<F>,
     arith: A,
     gens: &[Poly<F>],
     control: &Control,
-    stop_at_fall: bool,
+    stop_at: Option<&dyn Fn(&FallStep) -> bool>,
 ) -> Result<SignatureEnd<F, A>> {
     if !ring.order.is_degree_compatible() {
         return Err(Error::invalid(
@@ -158,7 +172,8 @@ pub(super) fn run<F: Field, A: Arith<F>>(
         syzygies: Vec::new(),
         pending: BTreeMap::new(),
         stats: Stats::default(),
-        stop_at_fall,
+        stop_at,
+        peak_pairs: 0,
         fallen: (0, 0),
     };
     match engine.main_loop(gens, control)? {
@@ -205,8 +220,10 @@ struct SignatureEngine<'a, F: Field, A: Arith<F>> {
     /// J-pairs by degree, one per signature (position, t).
     pending: BTreeMap<u32, PairQueue>,
     stats: Stats,
-    /// Whether the run stops after the first step with a degree fall.
-    stop_at_fall: bool,
+    /// The rule on stopping after a step with a degree fall (`None`: never stop).
+    stop_at: Option<&'a dyn Fn(&FallStep) -> bool>,
+    /// The most J-pairs of any step so far.
+    peak_pairs: usize,
     /// Elements of lower degree than their homogeneous degree, and all elements, found by the
     /// step where the run stopped.
     fallen: (usize, usize),
@@ -222,7 +239,7 @@ struct Slot {
 }
 
 impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
-    /// Runs until no J-pair is left, or to the first degree fall when the run stops there.
+    /// Runs until no J-pair is left, or to the first degree fall where the caller's rule stops.
     fn main_loop(&mut self, gens: &[Poly<F>], control: &Control) -> Result<Progress> {
         let one = self.table.insert(&Monomial::one(self.ring.nvars()));
         for f in gens.iter().filter(|f| !f.is_zero()) {
@@ -436,7 +453,15 @@ impl<F: Field, A: Arith<F>> SignatureEngine<'_, F, A> {
         }
         stats.new_elements = added;
         self.stats.steps.push(stats);
-        if fallen > 0 && self.stop_at_fall {
+        self.peak_pairs = self.peak_pairs.max(selected.len());
+        let fall = FallStep {
+            degree,
+            pairs: selected.len(),
+            peak_pairs: self.peak_pairs,
+            fallen,
+            found: added,
+        };
+        if fallen > 0 && self.stop_at.is_some_and(|stop| stop(&fall)) {
             self.fallen = (fallen, added);
             return Ok(Progress::Fell(degree));
         }
