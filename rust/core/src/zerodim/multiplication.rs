@@ -22,6 +22,13 @@ use rayon::prelude::*;
 /// A sparse column: (row, nonzero entry).
 type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
 
+/// (M^T·u, M·v).
+type Products<E> = (Vec<E>, Vec<E>);
+
+/// What a group of columns yields: their dot products with u (column index, value) and their
+/// share of M·v.
+type GroupProducts<E> = (Vec<(usize, E)>, Vec<E>);
+
 /// The non-unit columns are split into about this many parallel tasks per thread (each with
 /// its own accumulator for M·v), none smaller than [`GROUP_MIN_ENTRIES`] stored entries.
 const GROUPS_PER_THREAD: usize = 2;
@@ -127,7 +134,7 @@ impl<F: Field> MultiplicationMatrix<F> {
         u: &[F::Elem],
         v: &[F::Elem],
         control: &Control,
-    ) -> Result<(Vec<F::Elem>, Vec<F::Elem>)> {
+    ) -> Result<Products<F::Elem>> {
         control.check()?;
         let field = &self.field;
         let d = self.dimension;
@@ -145,7 +152,7 @@ impl<F: Field> MultiplicationMatrix<F> {
                 sum.into_iter().map(|x| field.from_word(x)).collect()
             }
             Entries::Generic(columns, groups) => {
-                let parts: Vec<(Vec<(usize, F::Elem)>, Vec<F::Elem>)> = groups
+                let parts: Vec<GroupProducts<F::Elem>> = groups
                     .par_windows(2)
                     .map(|g| generic_group(field, d, &columns[g[0]..g[1]], u, v))
                     .collect();
@@ -243,9 +250,9 @@ impl WordColumns {
 
     /// The dot products of the columns with u (column index, residue) and M·v without its unit
     /// columns (residues), by parallel groups of columns.
-    fn both_products(&self, d: usize, u: &[u32], v: &[u32]) -> (Vec<(usize, u64)>, Vec<u64>) {
+    fn both_products(&self, d: usize, u: &[u32], v: &[u32]) -> GroupProducts<u64> {
         assert!(u.len() == d && v.len() == d, "vectors of the matrix's size");
-        let parts: Vec<(Vec<(usize, u64)>, Vec<u64>)> = self
+        let parts: Vec<GroupProducts<u64>> = self
             .groups
             .par_windows(2)
             .map(|g| self.group(d, &self.columns[g[0]..g[1]], u, v))
@@ -262,13 +269,7 @@ impl WordColumns {
     }
 
     /// [`WordColumns::group_in_lanes`] with the widest vector instructions the CPU has.
-    fn group(
-        &self,
-        d: usize,
-        columns: &[WordColumn],
-        u: &[u32],
-        v: &[u32],
-    ) -> (Vec<(usize, u64)>, Vec<u64>) {
+    fn group(&self, d: usize, columns: &[WordColumn], u: &[u32], v: &[u32]) -> GroupProducts<u64> {
         #[cfg(target_arch = "x86_64")]
         if VectorUnit::detect() != VectorUnit::Baseline {
             // SAFETY: the CPU has AVX2 (AVX-512 implies it).
@@ -289,7 +290,7 @@ impl WordColumns {
         columns: &[WordColumn],
         u: &[u32],
         v: &[u32],
-    ) -> (Vec<(usize, u64)>, Vec<u64>) {
+    ) -> GroupProducts<u64> {
         self.group_in_lanes(d, columns, u, v)
     }
 
@@ -301,7 +302,7 @@ impl WordColumns {
         columns: &[WordColumn],
         u: &[u32],
         v: &[u32],
-    ) -> (Vec<(usize, u64)>, Vec<u64>) {
+    ) -> GroupProducts<u64> {
         let prime = &self.prime;
         let mut dots = Vec::with_capacity(columns.len());
         let mut acc = vec![0u64; d];
@@ -391,7 +392,7 @@ fn generic_group<F: Field>(
     columns: &[(usize, SparseColumn<F>)],
     u: &[F::Elem],
     v: &[F::Elem],
-) -> (Vec<(usize, F::Elem)>, Vec<F::Elem>) {
+) -> GroupProducts<F::Elem> {
     let mut dots = Vec::with_capacity(columns.len());
     let mut acc = vec![field.zero(); d];
     for (j, column) in columns {
@@ -439,7 +440,7 @@ mod tests {
                     let height = 1 + (rng.next_u64() % d as u64) as usize;
                     let mut column = Vec::new();
                     for k in 0..height {
-                        if rng.next_u64() % 8 != 0 {
+                        if !rng.next_u64().is_multiple_of(8) {
                             column.push((k, nonzero(rng)));
                         }
                     }
