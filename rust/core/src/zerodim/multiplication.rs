@@ -89,26 +89,33 @@ impl<F: Field> MultiplicationMatrix<F> {
         let others_and_units = match form {
             [(i, c)] if field.is_one(c) => split_units(field, columns(*i)?.iter().cloned()),
             _ => {
-                let mut combined = vec![vec![field.zero(); dimension]; dimension];
-                for (i, c) in form {
-                    for (j, column) in columns(*i)?.iter().enumerate() {
-                        control.check()?;
-                        for (k, m) in column {
-                            let target = &mut combined[j][*k];
-                            *target = field.add(target, &field.mul(c, m));
+                let matrices: Vec<(&F::Elem, &[SparseColumn<F>])> = form
+                    .iter()
+                    .map(|(i, c)| Ok((c, columns(*i)?)))
+                    .collect::<Result<_>>()?;
+                // Column by column through one dense scratch column, reading back only the
+                // rows the column touches: time and memory stay those of the sparse columns.
+                let mut scratch = vec![field.zero(); dimension];
+                let mut combined = Vec::with_capacity(dimension);
+                for j in 0..dimension {
+                    control.check()?;
+                    let mut rows = Vec::new();
+                    for (c, matrix) in &matrices {
+                        for (k, m) in &matrix[j] {
+                            scratch[*k] = field.add(&scratch[*k], &field.mul(c, m));
+                            rows.push(*k);
                         }
                     }
+                    rows.sort_unstable();
+                    rows.dedup();
+                    let column: SparseColumn<F> = rows
+                        .into_iter()
+                        .map(|k| (k, std::mem::replace(&mut scratch[k], field.zero())))
+                        .filter(|(_, c)| !field.is_zero(c))
+                        .collect();
+                    combined.push(column);
                 }
-                split_units(
-                    field,
-                    combined.into_iter().map(|dense| {
-                        dense
-                            .into_iter()
-                            .enumerate()
-                            .filter(|(_, c)| !field.is_zero(c))
-                            .collect()
-                    }),
-                )
+                split_units(field, combined.into_iter())
             }
         };
         let (units, others) = others_and_units;
