@@ -240,6 +240,7 @@ fn dehomogenize<F: Field>(ring: &Ring<F>, g: &Poly<F>) -> Result<Poly<F>> {
 }
 
 pub mod fglm;
+pub mod multiplication;
 pub mod shape;
 
 #[cfg(test)]

@@ -43,27 +43,6 @@ pub fn quotient_dimension<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> 
 /// A sparse vector: (coordinate index, nonzero value).
 type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
 
-/// Σ m·w_k over a sparse column, for a word prime field: the products are summed in 128 bits
-/// and reduced only when the sum could leave the range of one Barrett reduction.
-fn lazy_dot<F: Field>(
-    prime: &crate::field::PrimeField,
-    field: &F,
-    column: &[(usize, F::Elem)],
-    w: &[F::Elem],
-) -> u64 {
-    let p = u128::from(prime.modulus());
-    // reduce_u128 needs x < p·2^64; each product is below p^2.
-    let limit = (p << 64) - p * p;
-    let mut acc: u128 = 0;
-    for (k, m) in column {
-        acc += u128::from(field.to_word(m)) * u128::from(field.to_word(&w[*k]));
-        if acc >= limit {
-            acc = u128::from(prime.reduce_u128(acc));
-        }
-    }
-    prime.reduce_u128(acc)
-}
-
 /// R/I for zero-dimensional I with its monomial basis. Elements are coordinate vectors;
 /// products are computed from the (sparse) matrices of multiplication by the variables, built
 /// on first use from the normal forms of the border monomials x_i·b.
@@ -235,7 +214,7 @@ impl<F: Field> Quotient<F> {
 
     /// The columns of multiplication by x_i: read off the basis when possible, else from the
     /// border normal forms of all variables.
-    fn columns_of(&self, i: usize, control: &Control) -> Result<&Vec<SparseColumn<F>>> {
+    pub(crate) fn columns_of(&self, i: usize, control: &Control) -> Result<&Vec<SparseColumn<F>>> {
         match self.read_columns(i, control)? {
             Some(columns) => Ok(columns),
             None => Ok(&self.variable_columns(control)?[i]),
@@ -327,38 +306,6 @@ impl<F: Field> Quotient<F> {
         control: &Control,
     ) -> Result<Vec<F::Elem>> {
         Ok(self.times_variable(&self.variable_columns(control)?[i], v))
-    }
-
-    /// Σ_i c_i · M_i^T · w, M_i the matrix of multiplication by x_i and `form` the pairs
-    /// (i, c_i) of a linear form Σ c_i x_i: one step of a transposed Krylov sequence. Entry j
-    /// is the dot product of w with column j of M_ℓ.
-    pub fn transposed_times(
-        &self,
-        form: &[(usize, F::Elem)],
-        w: &[F::Elem],
-        control: &Control,
-    ) -> Result<Vec<F::Elem>> {
-        use rayon::prelude::*;
-        let field = &self.basis.ring.field;
-        let word = field
-            .word_modulus()
-            .and_then(|p| crate::field::PrimeField::new(p).ok());
-        let mut out = vec![field.zero(); self.dimension()];
-        for (i, c) in form {
-            control.check()?;
-            out.par_iter_mut()
-                .zip(self.columns_of(*i, control)?.par_iter())
-                .for_each(|(o, column)| {
-                    let dot = match &word {
-                        Some(prime) => field.from_word(lazy_dot(prime, field, column, w)),
-                        None => column.iter().fold(field.zero(), |acc, (k, m)| {
-                            field.add(&acc, &field.mul(m, &w[*k]))
-                        }),
-                    };
-                    *o = field.add(o, &field.mul(c, &dot));
-                });
-        }
-        Ok(out)
     }
 
     /// The products b_j · v for every standard monomial b_j (the columns of multiplication by
