@@ -30,3 +30,26 @@ impl VectorUnit {
         VectorUnit::Baseline
     }
 }
+
+/// Defines unsafe methods that run the `#[inline(always)]` method `$inner` compiled again with
+/// a wider vector unit's target feature (`"avx2" => name`, `"avx512f" => name`), taking
+/// `$inner`'s arguments: the same code, which the compiler vectorizes with the wider
+/// instructions. The caller picks one with [`VectorUnit::detect`]; each copy's `# Safety` is
+/// that the CPU has its feature. Generics go in brackets: `fn inner[S: Scalars](s: &S) -> T`.
+#[macro_export]
+macro_rules! compiled_for_wider_units {
+    (fn $inner:ident $generics:tt $params:tt -> $ret:ty; $($feature:literal => $name:ident),+ $(,)?) => {
+        $($crate::compiled_for_wider_units!(@copy $feature $name $inner $generics $params $ret);)+
+    };
+    (@copy $feature:literal $name:ident $inner:ident [$($g:tt)*] ($($arg:ident: $ty:ty),*) $ret:ty) => {
+        #[doc = concat!("`", stringify!($inner), "` compiled with the target feature ", $feature, ".")]
+        ///
+        /// # Safety
+        /// The CPU has that feature.
+        #[cfg(target_arch = "x86_64")]
+        #[target_feature(enable = $feature)]
+        unsafe fn $name<$($g)*>(&self, $($arg: $ty),*) -> $ret {
+            self.$inner($($arg),*)
+        }
+    };
+}

@@ -79,34 +79,11 @@ impl Columns {
         self.sequences_in_lanes(s, matrices, u)
     }
 
-    /// `sequences_in_lanes` compiled for AVX2.
-    ///
-    /// # Safety
-    /// The CPU supports AVX2.
-    #[cfg(target_arch = "x86_64")]
-    #[target_feature(enable = "avx2")]
-    unsafe fn sequences_avx2<S: Scalars>(
-        &self,
-        s: &S,
-        matrices: &[Vec<Vec<S::E>>],
-        u: &[S::E],
-    ) -> Vec<Vec<S::E>> {
-        self.sequences_in_lanes(s, matrices, u)
-    }
-
-    /// `sequences_in_lanes` compiled for AVX-512.
-    ///
-    /// # Safety
-    /// The CPU supports AVX-512F.
-    #[cfg(target_arch = "x86_64")]
-    #[target_feature(enable = "avx512f")]
-    unsafe fn sequences_avx512<S: Scalars>(
-        &self,
-        s: &S,
-        matrices: &[Vec<Vec<S::E>>],
-        u: &[S::E],
-    ) -> Vec<Vec<S::E>> {
-        self.sequences_in_lanes(s, matrices, u)
+    crate::compiled_for_wider_units! {
+        fn sequences_in_lanes[S: Scalars](s: &S, matrices: &[Vec<Vec<S::E>>], u: &[S::E])
+            -> Vec<Vec<S::E>>;
+        "avx2" => sequences_avx2,
+        "avx512f" => sequences_avx512,
     }
 
     #[inline(always)]

@@ -285,20 +285,10 @@ impl WordColumns {
         self.group_in_lanes(d, columns, u, v)
     }
 
-    /// `group_in_lanes` compiled for AVX2.
-    ///
-    /// # Safety
-    /// The CPU supports AVX2.
-    #[cfg(target_arch = "x86_64")]
-    #[target_feature(enable = "avx2")]
-    unsafe fn group_avx2(
-        &self,
-        d: usize,
-        columns: &[WordColumn],
-        u: &[u32],
-        v: &[u32],
-    ) -> GroupProducts<u64> {
-        self.group_in_lanes(d, columns, u, v)
+    crate::compiled_for_wider_units! {
+        fn group_in_lanes[](d: usize, columns: &[WordColumn], u: &[u32], v: &[u32])
+            -> GroupProducts<u64>;
+        "avx2" => group_avx2,
     }
 
     /// One group of columns: their dot products with u and their share of M·v, reduced.
