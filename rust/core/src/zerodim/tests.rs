@@ -11,7 +11,7 @@ use crate::groebner::{groebner_basis, Engine};
 use crate::monomial::Monomial;
 use crate::order::MonomialOrder;
 use crate::parse::parse_poly;
-use crate::poly::Ring;
+use crate::poly::{Poly, Ring};
 use crate::systems::{cyclic, katsura, System};
 
 fn basis(p: u64, vars: &[&str], gens: &[&str]) -> ReducedBasis<PrimeField> {
@@ -227,6 +227,19 @@ fn maximal_ideals_over_the_rationals() {
     assert!(err.to_string().contains("not maximal"), "{err}");
 }
 
+/// The ring of `vars` in `order` and the polynomials `gens` read in it.
+fn parsed<F: Field>(
+    field: F,
+    vars: &[&str],
+    gens: &[&str],
+    order: MonomialOrder,
+) -> (Ring<F>, Vec<Poly<F>>) {
+    let names: Vec<String> = vars.iter().map(|s| s.to_string()).collect();
+    let ring = Ring::new(field, names, order).unwrap();
+    let gens = gens.iter().map(|g| parse_poly(&ring, g).unwrap()).collect();
+    (ring, gens)
+}
+
 /// The reduced basis computed in `order` by the default engine (for lex: a grevlex basis and the
 /// Hilbert-driven change of order, a route independent of FGLM and of Krylov sequences), as text.
 fn direct_basis_text<F: Field>(
@@ -235,9 +248,7 @@ fn direct_basis_text<F: Field>(
     gens: &[&str],
     order: MonomialOrder,
 ) -> Vec<String> {
-    let names: Vec<String> = vars.iter().map(|s| s.to_string()).collect();
-    let ring = Ring::new(field, names, order).unwrap();
-    let gens: Vec<_> = gens.iter().map(|g| parse_poly(&ring, g).unwrap()).collect();
+    let (ring, gens) = parsed(field, vars, gens, order);
     let gb = groebner_basis(&ring, &gens, Engine::Auto, &Control::new()).unwrap();
     gb.polys.iter().map(|p| ring.format(p)).collect()
 }
@@ -249,10 +260,8 @@ fn changed_basis_text<F: Field>(
     gens: &[&str],
     order: MonomialOrder,
 ) -> Vec<String> {
-    let names: Vec<String> = vars.iter().map(|s| s.to_string()).collect();
-    let from = Ring::new(field, names, MonomialOrder::Grevlex).unwrap();
+    let (from, gens) = parsed(field, vars, gens, MonomialOrder::Grevlex);
     let to = from.with_order(order).unwrap();
-    let gens: Vec<_> = gens.iter().map(|g| parse_poly(&from, g).unwrap()).collect();
     let gb = groebner_basis(&from, &gens, Engine::Buchberger, &Control::new()).unwrap();
     let polys = fglm::change_order(&from, &gb.polys, &to, &Control::new()).unwrap();
     polys.iter().map(|p| to.format(p)).collect()
