@@ -41,7 +41,7 @@ pub fn quotient_dimension<F: Field>(gb: &ReducedBasis<F>, control: &Control) -> 
 }
 
 /// A sparse vector: (coordinate index, nonzero value).
-type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
+pub(crate) type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
 
 /// R/I for zero-dimensional I with its monomial basis. Elements are coordinate vectors;
 /// products are computed from the (sparse) matrices of multiplication by the variables, built

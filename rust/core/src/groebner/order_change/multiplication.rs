@@ -15,12 +15,10 @@
 use crate::control::Control;
 use crate::error::Result;
 use crate::field::{Field, PrimeField};
+use crate::groebner::quotient::SparseColumn;
 #[cfg(target_arch = "x86_64")]
 use crate::vector_unit::VectorUnit;
 use rayon::prelude::*;
-
-/// A sparse column: (row, nonzero entry).
-type SparseColumn<F> = Vec<(usize, <F as Field>::Elem)>;
 
 /// (M^T·u, M·v).
 type Products<E> = (Vec<E>, Vec<E>);
